@@ -1,0 +1,95 @@
+/** CLI plumbing: loading inputs, printing diagnostics, atomic writes, progress bars, exit codes. */
+import { randomBytes } from "node:crypto";
+import { readFile, rename, rm, writeFile } from "node:fs/promises";
+import { basename, dirname, join } from "node:path";
+import { Bar, Presets } from "cli-progress";
+import { formatDiagnostic, readDimacs, type Cnf, type Diagnostic } from "../index.js";
+
+/** Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan). */
+export const EXIT_BAD_INPUT = 2;
+
+/** An error meant for the user: printed as one line, no stack trace. */
+export class UserError extends Error {
+  constructor(message: string, readonly exitCode = EXIT_BAD_INPUT) {
+    super(message);
+  }
+}
+
+/** How an input is named in messages. */
+export function displayName(path: string): string {
+  return path === "-" ? "<stdin>" : path;
+}
+
+async function readAll(path: string): Promise<Buffer> {
+  if (path !== "-") return readFile(path);
+  const chunks: Buffer[] = [];
+  for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks);
+}
+
+/** Loads and reads a DIMACS file; prints warnings; throws UserError on the first error. */
+export async function loadCnf(path: string): Promise<Cnf> {
+  let bytes: Buffer;
+  try {
+    bytes = await readAll(path);
+  } catch (e) {
+    throw new UserError(`${displayName(path)}: error: cannot read the input (${ioReason(e)}); check the path and permissions`);
+  }
+  const { cnf, diagnostics } = readDimacs(bytes);
+  printDiagnostics(diagnostics, displayName(path));
+  if (cnf === undefined) throw new UserError("", EXIT_BAD_INPUT);
+  return cnf;
+}
+
+export function printDiagnostics(ds: readonly Diagnostic[], file: string): void {
+  for (const d of ds) process.stderr.write(`${formatDiagnostic(d, file)}\n`);
+}
+
+function ioReason(e: unknown): string {
+  const code = (e as { code?: string }).code;
+  if (code === "ENOENT") return "no such file";
+  if (code === "EISDIR") return "it is a directory";
+  if (code === "EACCES") return "permission denied";
+  return code ?? String(e);
+}
+
+/**
+ * Writes a file atomically: to a temporary file beside it, then renamed over it, so a failure
+ * never leaves a partial output.
+ */
+export async function writeAtomic(path: string, produce: (write: (chunk: string) => void) => void | Promise<void>): Promise<void> {
+  const tmp = join(dirname(path), `.${basename(path)}.${randomBytes(4).toString("hex")}.tmp`);
+  const parts: string[] = [];
+  try {
+    await produce((chunk) => parts.push(chunk));
+    await writeFile(tmp, parts.join(""));
+    await rename(tmp, path);
+  } catch (e) {
+    await rm(tmp, { force: true });
+    if (e instanceof UserError) throw e;
+    throw new UserError(`${path}: error: cannot write the output (${ioReason(e)}); check that the folder exists and is writable`);
+  }
+}
+
+/**
+ * A progress reporter that shows a bar on a TTY only, and only once the work has run for a
+ * second (short runs stay quiet).
+ */
+export function progress(label: string): { update: (fraction: number) => void; stop: () => void } {
+  if (!process.stderr.isTTY) return { update: () => {}, stop: () => {} };
+  const started = Date.now();
+  let bar: Bar | undefined;
+  return {
+    update(fraction) {
+      if (bar === undefined && Date.now() - started < 1000) return;
+      if (bar === undefined) {
+        bar = new Bar({ format: `${label} [{bar}] {percentage}% | {eta_formatted} left`, stream: process.stderr }, Presets.shades_classic);
+        bar.start(1000, 0);
+      }
+      bar.update(Math.round(fraction * 1000));
+    },
+    stop() {
+      bar?.stop();
+    },
+  };
+}

@@ -1,0 +1,107 @@
+/**
+ * Exact model counting: exhaustive bit-parallel enumeration (see countKernel.ts), split over all
+ * cores with worker_threads when the work is large enough to pay for starting them.
+ */
+import { availableParallelism } from "node:os";
+import { Worker } from "node:worker_threads";
+import type { Cnf } from "./cnf.js";
+import { blockCount, countBlocks, planCount, type CountPlan } from "./countKernel.js";
+
+/** Options of {@link countModels}. */
+export interface CountOptions {
+  /**
+   * Refuse formulas with more variables than this occurring in clauses (declared variables that
+   * occur in no clause only double the count and cost nothing). Default 34; at most 50.
+   */
+  readonly maxVariables?: number;
+  /** Worker threads to use; default: the number of cores. 1 counts on the calling thread. */
+  readonly threads?: number;
+  /** Called with the fraction of the enumeration done, from 0 to 1. */
+  readonly onProgress?: (fraction: number) => void;
+}
+
+/** The result of {@link countModels}. */
+export type CountResult =
+  | { readonly ok: true; readonly models: bigint; readonly enumerated: number }
+  | { readonly ok: false; readonly reason: string; readonly enumerated: number };
+
+/** Default limit on enumerated variables: 2^34 assignments take about a minute on two cores. */
+export const DEFAULT_COUNT_LIMIT = 34;
+/** Hard ceiling for the limit: keeps block indices exact in 32-bit arithmetic. */
+export const MAX_COUNT_LIMIT = 50;
+/** Below this many enumerated variables, counting on the calling thread is faster than workers. */
+const PARALLEL_FROM = 27;
+
+/**
+ * Counts the satisfying assignments of `cnf` over all its declared variables, exactly.
+ *
+ * @example
+ * ```ts
+ * const r = await countModels(cnfFromClauses(3, [[1, 2]]));
+ * if (r.ok) console.log(r.models); // 6n
+ * ```
+ */
+export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise<CountResult> {
+  const limit = options.maxVariables ?? DEFAULT_COUNT_LIMIT;
+  const plan = planCount(cnf.variables, cnf.lits, cnf.clauseStart);
+  if (!Number.isInteger(limit) || limit < 0 || limit > MAX_COUNT_LIMIT) {
+    return { ok: false, reason: `the variable limit must be a whole number in 0..${MAX_COUNT_LIMIT}, got ${limit}`, enumerated: plan.used };
+  }
+  if (plan.unsat) return { ok: true, models: 0n, enumerated: 0 };
+  if (plan.used > limit) {
+    const seconds = 2 ** plan.used / 2e9;
+    return {
+      ok: false,
+      enumerated: plan.used,
+      reason: `refusing to enumerate 2^${plan.used} assignments (${plan.used} variables occur in clauses; the limit is ${limit}): ` +
+        `that would take about ${humanTime(seconds)} on two cores; raise the limit to try anyway`,
+    };
+  }
+  const blocks = blockCount(plan);
+  const threads = Math.max(1, Math.min(options.threads ?? availableParallelism(), blocks));
+  let found: number;
+  if (threads === 1 || plan.used < PARALLEL_FROM) {
+    found = 0;
+    const step = Math.max(1, Math.floor(blocks / 64));
+    for (let b = 0; b < blocks; b += step) {
+      found += countBlocks(plan, b, Math.min(blocks, b + step));
+      options.onProgress?.(Math.min(blocks, b + step) / blocks);
+    }
+  } else {
+    found = await countInWorkers(plan, blocks, threads, options.onProgress);
+  }
+  return { ok: true, models: BigInt(found) << BigInt(plan.free), enumerated: plan.used };
+}
+
+function countInWorkers(plan: CountPlan, blocks: number, threads: number, onProgress?: (f: number) => void): Promise<number> {
+  const url = new URL("./countWorker.js", import.meta.url);
+  let done = 0;
+  // Interleaved chunks balance the load: pruned blocks cluster, so contiguous halves would not.
+  const chunk = Math.max(1, Math.floor(blocks / (64 * threads)));
+  const jobs = Array.from({ length: threads }, (_, k) => {
+    const job = { plan, first: k * chunk, chunk, stride: threads * chunk, blocks };
+    return new Promise<number>((resolve, reject) => {
+      const w = new Worker(url, { workerData: job });
+      w.on("message", (msg: { done?: number; total?: number }) => {
+        if (msg.done !== undefined) {
+          done += msg.done;
+          onProgress?.(done / blocks);
+        }
+        if (msg.total !== undefined) resolve(msg.total);
+      });
+      w.on("error", reject);
+      w.on("exit", (code) => {
+        if (code !== 0) reject(new Error(`counting worker exited with code ${code}`));
+      });
+    });
+  });
+  return Promise.all(jobs).then((parts) => parts.reduce((a, b) => a + b, 0));
+}
+
+function humanTime(seconds: number): string {
+  if (seconds < 120) return `${Math.ceil(seconds)} seconds`;
+  if (seconds < 7200) return `${Math.round(seconds / 60)} minutes`;
+  if (seconds < 172800) return `${Math.round(seconds / 3600)} hours`;
+  if (seconds < 63072000) return `${Math.round(seconds / 86400)} days`;
+  return `${Math.round(seconds / 31557600)} years`;
+}

@@ -1,0 +1,39 @@
+/** Reading input bytes from a file path, a string, a Buffer or standard input ("-"). */
+import { readFile } from "node:fs/promises";
+import type { ReadResult } from "./scanner.js";
+import { scanDimacs } from "./scanner.js";
+
+/** Any input a reader accepts: bytes, or text (encoded as UTF-8). */
+export type DimacsInput = Uint8Array | string;
+
+/** The bytes of an input. */
+export function bytesOf(input: DimacsInput): Uint8Array {
+  return typeof input === "string" ? Buffer.from(input, "utf8") : input;
+}
+
+/**
+ * Reads DIMACS CNF text with the fast scanner.
+ *
+ * @example
+ * ```ts
+ * const { cnf, diagnostics } = readDimacs("p cnf 2 1\n1 -2 0\n");
+ * ```
+ */
+export function readDimacs(input: DimacsInput): ReadResult {
+  return scanDimacs(bytesOf(input));
+}
+
+/** Reads all of standard input. */
+export async function readStdin(): Promise<Buffer> {
+  const chunks: Buffer[] = [];
+  for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks);
+}
+
+/**
+ * Loads the bytes of a file, or of standard input when `path` is "-". Rejects with the I/O error
+ * (the caller words it for its user).
+ */
+export async function loadBytes(path: string): Promise<Buffer> {
+  return path === "-" ? readStdin() : readFile(path);
+}
