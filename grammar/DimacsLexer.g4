@@ -9,8 +9,9 @@
 // and every error lands on the first character of what the user wrote.
 lexer grammar DimacsLexer;
 
-// 'c' starts a comment running to the end of its line, wherever a token may start.
-COMMENT : 'c' ~[\r\n]* -> skip ;
+// 'c' starts a comment running to the end of its line (LF; a CR inside is part of it), wherever
+// a token may start.
+COMMENT : 'c' ~[\n]* -> skip ;
 // 'p' alone opens the problem line; the header has its own mode because there 'cnf' is a
 // keyword and the line end is significant.
 P       : 'p' -> pushMode(HEADER) ;

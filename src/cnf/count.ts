@@ -6,12 +6,15 @@ import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import type { Cnf } from "./cnf.js";
 import { blockCount, countBlocks, planCount, type CountPlan } from "./countKernel.js";
+import { countBySplitting } from "./countSplit.js";
 
 /** Options of {@link countModels}. */
 export interface CountOptions {
   /**
    * Refuse formulas with more variables than this occurring in clauses (declared variables that
-   * occur in no clause only double the count and cost nothing). Default 34; at most 50.
+   * occur in no clause only double the count and cost nothing). Default 34; at most 1000. Above
+   * 30 variables the counter splits on variables with unit propagation before enumerating, which
+   * is fast on structured formulas and may still take exponential time on random ones.
    */
   readonly maxVariables?: number;
   /** Worker threads to use; default: the number of cores. 1 counts on the calling thread. */
@@ -27,8 +30,10 @@ export type CountResult =
 
 /** Default limit on enumerated variables: 2^34 assignments take about a minute on two cores. */
 export const DEFAULT_COUNT_LIMIT = 34;
-/** Hard ceiling for the limit: keeps block indices exact in 32-bit arithmetic. */
-export const MAX_COUNT_LIMIT = 50;
+/** Hard ceiling for the limit. */
+export const MAX_COUNT_LIMIT = 1000;
+/** Above this many variables, split with propagation instead of enumerating everything. */
+const SPLIT_ABOVE = 30;
 /** Below this many enumerated variables, counting on the calling thread is faster than workers. */
 const PARALLEL_FROM = 27;
 
@@ -56,6 +61,10 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
       reason: `refusing to enumerate 2^${plan.used} assignments (${plan.used} variables occur in clauses; the limit is ${limit}): ` +
         `that would take about ${humanTime(seconds)} on two cores; raise the limit to try anyway`,
     };
+  }
+  if (plan.used > SPLIT_ABOVE) {
+    const models = countBySplitting(plan, options.onProgress);
+    return { ok: true, models: models << BigInt(plan.free), enumerated: plan.used };
   }
   const blocks = blockCount(plan);
   const threads = Math.max(1, Math.min(options.threads ?? availableParallelism(), blocks));

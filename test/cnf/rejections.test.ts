@@ -1,0 +1,82 @@
+// Every rejected input: exact line and column, the diagnostic code, exit code 2 from the CLI,
+// one line on stderr with a hint, no stack trace, nothing on stdout.
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+import { readWithGrammarSync, scanDimacs } from "../helpers/lib.js";
+
+// [what, input, line, column, code]
+const cases: [string, string, number, number, string][] = [
+  ["empty input", "", 1, 1, "empty-input"],
+  ["only comments (no header)", "c nothing here\n", 2, 1, "missing-header"],
+  ["no header", "1 -2 0\n", 1, 1, "missing-header"],
+  ["header after a clause", "c x\n1 2 0\np cnf 2 1\n", 2, 1, "missing-header"],
+  ["a second header", "p cnf 2 1\n1 0\np cnf 2 1\n", 3, 1, "second-header"],
+  ["a format other than cnf", "p wcnf 2 1\n1 0\n", 1, 3, "unsupported-format"],
+  ["no format", "p\n", 1, 2, "missing-format"],
+  ["negative variable count", "p cnf -2 1\n1 0\n", 1, 7, "negative-count"],
+  ["negative clause count", "p cnf 2 -1\n", 1, 9, "negative-count"],
+  ["missing clause count", "p cnf 2\n1 0\n", 1, 8, "missing-count"],
+  ["missing both counts at end of file", "p cnf", 1, 6, "missing-count"],
+  ["non-numeric count", "p cnf two 1\n", 1, 7, "bad-count"],
+  ["count beyond 2^31-1", "p cnf 2147483648 1\n", 1, 7, "count-out-of-range"],
+  ["text after the counts", "p cnf 2 1 1 0\n", 1, 11, "header-trailing"],
+  ["variable beyond the declared count", "p cnf 3 2\n1 2 0\n-1\t4 0\n", 3, 4, "variable-out-of-range"],
+  ["more clauses than declared", "p cnf 2 1\n1 0\n2 0\n", 3, 1, "too-many-clauses"],
+  ["an extra empty clause", "p cnf 2 1\n1 0 0\n", 2, 5, "too-many-clauses"],
+  ["fewer clauses than declared", "p cnf 2 3\n1 0\n2 0\n", 4, 1, "too-few-clauses"],
+  ["fewer clauses than declared before '%'", "p cnf 2 3\n1 0\n%\n0\n", 3, 1, "too-few-clauses"],
+  ["non-integer token 3x", "p cnf 3 1\n1 3x 0\n", 2, 3, "bad-literal"],
+  ["non-integer token 1.5", "p cnf 3 1\n1.5 0\n", 2, 1, "bad-literal"],
+  ["non-integer token --2", "p cnf 3 1\n1 --2 0\n", 2, 3, "bad-literal"],
+  ["negative zero", "p cnf 3 1\n1 -0\n", 2, 3, "negative-zero"],
+  ["literal beyond 2^31-1", "p cnf 3 1\n-2147483648 0\n", 2, 1, "literal-out-of-range"],
+  ["a NUL byte", "p cnf 1 1\n1 \0 0\n", 2, 3, "nul-byte"],
+  ["binary (gzip) input", "\x1f\x8b\x08\x00\x00", 1, 4, "nul-byte"],
+  ["non-ASCII bytes outside comments", "p cnf 1 1\n\xc3\xa9 0\n", 2, 1, "non-ascii-input"],
+  ["UTF-16 with a byte-order mark", "\xff\xfep\0 \0c\0n\0f\0", 1, 1, "utf16-input"],
+  ["UTF-16 without a byte-order mark", "p\0 \0c\0n\0f\0", 1, 1, "utf16-input"],
+];
+
+describe("rejected inputs", () => {
+  const dir = mkdtempSync(join(tmpdir(), "clausegate-rej-"));
+  it.each(cases)("%s", (_what, src, line, column, code) => {
+    const bytes = Buffer.from(src, "latin1");
+    for (const read of [scanDimacs, readWithGrammarSync]) {
+      const r = read(bytes);
+      expect(r.cnf).toBeUndefined();
+      const err = r.diagnostics.find((d) => d.severity === "error")!;
+      expect({ line: err.line, column: err.column, code: err.code }).toEqual({ line, column, code });
+      expect(err.hint?.length).toBeGreaterThan(10);
+    }
+    const file = join(dir, `${code}.cnf`);
+    writeFileSync(file, bytes);
+    const run = cli(["count", file]);
+    expect(run.code).toBe(2);
+    expect(run.stdout).toBe("");
+    const lines = run.stderr.trimEnd().split("\n");
+    expect(lines).toHaveLength(1);
+    expect(lines[0]).toMatch(new RegExp(`^${file.replace(/[.]/g, "\\.")}:${line}:${column}: error: .+; hint: .+$`));
+    expect(run.stderr).not.toMatch(/\n\s+at /);
+  });
+
+  it("names standard input as <stdin>", () => {
+    const run = cli(["count", "-"], "p cnf 1 1\n2 0\n");
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(/^<stdin>:2:1: error: expected a variable in 1\.\.1 .*hint: declare at least 2 variables/);
+  });
+
+  it("says both clause numbers when the count is wrong", () => {
+    const r = scanDimacs(Buffer.from("p cnf 2 3\n1 0\n"));
+    expect(r.diagnostics[0]!.message).toContain("expected 3 clauses");
+    expect(r.diagnostics[0]!.message).toContain("found 1");
+  });
+
+  it("reports a missing file as bad input, without a stack trace", () => {
+    const run = cli(["count", join(dir, "nope.cnf")]);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(/nope\.cnf: error: cannot read the input \(no such file\)/);
+  });
+});
