@@ -23,10 +23,24 @@ export interface CountOptions {
   readonly onProgress?: (fraction: number) => void;
 }
 
-/** The result of {@link countModels}. */
+/** The result of {@link countModels}: the count, or why counting was refused. */
 export type CountResult =
-  | { readonly ok: true; readonly models: bigint; readonly enumerated: number }
-  | { readonly ok: false; readonly reason: string; readonly enumerated: number };
+  | {
+      /** The count is exact. */
+      readonly ok: true;
+      /** Satisfying assignments over all declared variables. */
+      readonly models: bigint;
+      /** Variables occurring in clauses (the ones that had to be enumerated). */
+      readonly enumerated: number;
+    }
+  | {
+      /** Counting was refused. */
+      readonly ok: false;
+      /** Why, worded for a user, with what to do. */
+      readonly reason: string;
+      /** Variables occurring in clauses. */
+      readonly enumerated: number;
+    };
 
 /** Default limit on enumerated variables: 2^34 assignments take about a minute on two cores. */
 export const DEFAULT_COUNT_LIMIT = 34;

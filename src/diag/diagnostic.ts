@@ -10,6 +10,7 @@ export type Severity = "error" | "warning";
 export interface Diagnostic {
   /** Stable kebab-case identifier, e.g. `variable-out-of-range`. */
   readonly code: string;
+  /** An error rejects the input; a warning does not. */
   readonly severity: Severity;
   /** What was expected and what was found. */
   readonly message: string;

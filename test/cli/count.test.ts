@@ -1,0 +1,52 @@
+// The count command and the CLI's common behaviour, run as a child process.
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+describe("clausegate count", () => {
+  it("prints variables, clauses and models", () => {
+    const r = cli(["count", "examples/allotment-row.cnf"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe("variables 12\nclauses   32\nmodels    4\n");
+  });
+  it("prints JSON with --json, reading standard input from -", () => {
+    const r = cli(["count", "-", "--json"], "p cnf 3 1\n1 2 0\n");
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.stdout)).toEqual({ variables: 3, clauses: 1, models: 6 });
+  });
+  it("prints counts beyond 2^53 exactly in JSON", () => {
+    const r = cli(["count", "-", "--json"], "p cnf 70 0\n");
+    expect(r.stdout).toBe(`{"variables":70,"clauses":0,"models":${2n ** 70n}}\n`);
+  });
+  it("warns about a missing final 0 on stderr and still counts", () => {
+    const r = cli(["count", "-"], "p cnf 2 1\n1");
+    expect(r.code).toBe(0);
+    expect(r.stderr).toMatch(/^<stdin>:2:2: warning: the last clause is not terminated by 0/);
+    expect(r.stdout).toContain("models    2");
+  });
+  it("refuses too many variables with exit code 2 and says how to raise the limit", () => {
+    const clauses = Array.from({ length: 40 }, (_, i) => `${i + 1} -${((i + 1) % 40) + 1} 0`).join("\n");
+    const r = cli(["count", "-", "--max-variables", "30"], `p cnf 40 40\n${clauses}\n`);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/refusing to enumerate 2\^40 assignments.*the limit is 30.*--max-variables/);
+  });
+  it("rejects bad option values and unknown options with exit code 2", () => {
+    expect(cli(["count", "-", "--max-variables", "x"]).stderr).toMatch(/--max-variables expects a whole number/);
+    const r = cli(["count", "x.cnf", "--frobnicate"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^clausegate count: error: Unknown option '--frobnicate'/);
+    expect(cli(["count"]).code).toBe(2);
+  });
+});
+
+describe("the command line", () => {
+  it("has --help, --version and per-command help", () => {
+    expect(cli(["--help"]).stdout).toMatch(/Usage: clausegate COMMAND/);
+    expect(cli(["--version"]).stdout).toMatch(/^\d+\.\d+\.\d+\n$/);
+    expect(cli(["count", "--help"]).stdout).toMatch(/Usage: clausegate count FILE\|-/);
+  });
+  it("rejects an unknown command with exit code 2", () => {
+    const r = cli(["frob"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/unknown command 'frob'/);
+  });
+});

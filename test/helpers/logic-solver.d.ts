@@ -1,0 +1,20 @@
+// Minimal declarations for the npm package logic-solver (MiniSat compiled to JavaScript), which
+// ships none. Only what the tests use.
+declare module "logic-solver" {
+  interface Formula {}
+  interface Solution {
+    getFormula(): Formula;
+    getTrueVars(): string[];
+  }
+  class Solver {
+    require(...f: (Formula | string)[]): void;
+    forbid(...f: (Formula | string)[]): void;
+    solve(): Solution | null;
+  }
+  const Logic: {
+    Solver: typeof Solver;
+    or(...f: (Formula | string)[]): Formula;
+    not(f: Formula | string): Formula;
+  };
+  export default Logic;
+}

@@ -1,0 +1,20 @@
+/** Outside references: model counts by the npm package logic-solver (MiniSat in JavaScript). */
+import Logic from "logic-solver";
+import { clausesOf, type Cnf } from "./lib.js";
+
+/**
+ * Counts models by solving and forbidding each model found. Every declared variable is made
+ * known to the solver (x or not x), so unused variables double the count as they should.
+ */
+export function logicSolverCount(cnf: Cnf, cap = 1 << 16): number {
+  const s = new Logic.Solver();
+  const name = (l: number): string => (l > 0 ? `v${l}` : `-v${-l}`);
+  for (let v = 1; v <= cnf.variables; v++) s.require(Logic.or(`v${v}`, Logic.not(`v${v}`)));
+  for (const c of clausesOf(cnf)) s.require(Logic.or(...c.map(name)));
+  let n = 0;
+  for (let sol = s.solve(); sol !== null; sol = s.solve()) {
+    if (++n > cap) throw new Error(`more than ${cap} models: too many to enumerate`);
+    s.forbid(sol.getFormula());
+  }
+  return n;
+}
