@@ -167,12 +167,20 @@ export function emptyInput(): Finding {
     "give a file that starts with a header line such as 'p cnf 3 2'");
 }
 
+/** A NUL byte at `offset`: the input is binary. */
+export function nulByte(offset: number): Finding {
+  return err("nul-byte", offset, "expected DIMACS text but found a NUL byte",
+    "the input looks binary; give a plain-text DIMACS CNF file");
+}
+
 /**
- * Checks the encoding before any token is read: a UTF-16 file or a NUL byte anywhere is rejected
- * at once, so both readers agree whatever follows. Returns where the text starts (after a UTF-8
- * byte-order mark) or the finding that rejects it.
+ * Checks the encoding before any token is read. A UTF-16 file is rejected at once, and so is a
+ * NUL byte anywhere (the first one is reported, whatever else is wrong), so that both readers
+ * agree. Returns where the text starts (after a UTF-8 byte-order mark) or the finding that
+ * rejects it. With `findNul` false the caller promises to look for NUL bytes itself (the byte
+ * scanner does, in the same pass as the rest).
  */
-export function checkEncoding(bytes: Uint8Array): { start: number } | { error: Finding } {
+export function checkEncoding(bytes: Uint8Array, findNul = true): { start: number } | { error: Finding } {
   if (bytes.length === 0) return { error: emptyInput() };
   const b0 = bytes[0]!;
   const b1 = bytes.length > 1 ? bytes[1]! : -1;
@@ -180,14 +188,11 @@ export function checkEncoding(bytes: Uint8Array): { start: number } | { error: F
     err("utf16-input", 0, "expected ASCII DIMACS text but the input is UTF-16 encoded",
       "convert the file to ASCII or UTF-8, e.g. iconv -f UTF-16 -t ASCII in.cnf > out.cnf");
   if ((b0 === 0xff && b1 === 0xfe) || (b0 === 0xfe && b1 === 0xff)) return { error: utf16() };
-  const nul = bytes.indexOf(0);
-  if (nul >= 0) {
-    // UTF-16 without a byte-order mark: ASCII text with every other byte zero.
-    if ((b0 === 0 && b1 > 0 && b1 < 0x80) || (b1 === 0 && b0 > 0 && b0 < 0x80)) return { error: utf16() };
-    return {
-      error: err("nul-byte", nul, "expected DIMACS text but found a NUL byte",
-        "the input looks binary; give a plain-text DIMACS CNF file"),
-    };
+  // UTF-16 without a byte-order mark: ASCII text with every other byte zero.
+  if ((b0 === 0 && b1 > 0 && b1 < 0x80) || (b1 === 0 && b0 > 0 && b0 < 0x80)) return { error: utf16() };
+  if (findNul) {
+    const nul = bytes.indexOf(0);
+    if (nul >= 0) return { error: nulByte(nul) };
   }
   const bom = b0 === 0xef && b1 === 0xbb && bytes[2] === 0xbf;
   return { start: bom ? 3 : 0 };

@@ -7,7 +7,7 @@
 import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
 import type { Cnf } from "./cnf.js";
 import {
-  MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero,
+  MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero, nulByte,
   tooFewClauses, tooManyClauses, unexpected, variableOutOfRange, type Found,
 } from "./messages.js";
 
@@ -78,17 +78,118 @@ function header(b: Uint8Array, i: number): [number, number, number] {
   throw new Stop(unexpected(Phase.HeaderEnd, s, found(b, s)));
 }
 
+/** Skips a comment from `i` to its line feed; a NUL inside rejects the input. */
+function skipComment(b: Uint8Array, i: number): number {
+  let e = b.indexOf(10, i);
+  if (e < 0) e = b.length;
+  if (b.subarray(i, e).indexOf(0) >= 0) throw new Stop(nulByte(i));
+  return e;
+}
+
 /** Skips whitespace and comment lines before the header; returns the index of the first other byte. */
 function skipToHeader(b: Uint8Array, i: number): number {
   const n = b.length;
   while (i < n) {
     const c = b[i]!;
     if (isSpace(c)) i++;
-    else if (c === 99 /* c */) {
-      const nl = b.indexOf(10, i);
-      i = nl < 0 ? n : nl;
-    } else return i;
+    else if (c === 99 /* c */) i = skipComment(b, i);
+    else return i;
   }
+  return i;
+}
+
+/** Counters shared by the fast and careful paths of the body scan. */
+interface BodyState {
+  nl: number; // literals written
+  nc: number; // clauses complete
+  end: number; // where the input ends for the count check: '%' or end of file
+}
+
+/**
+ * The hot loop: literals and terminators separated by whitespace, nothing else. Returns the index
+ * of the first token it does not take (a comment, '%', anything odd or wrong), or `limit`.
+ * Requires b[limit - 1] to be whitespace, so digit runs end without a bounds check.
+ */
+function fastBody(
+  b: Uint8Array, i: number, limit: number, lits: Int32Array, starts: Uint32Array, vars: number, declared: number, st: BodyState,
+): number {
+  let nl = st.nl;
+  let nc = st.nc;
+  while (i < limit) {
+    let c = b[i]!;
+    if (c <= 32) {
+      if (c === 32 || c === 10 || c === 13 || c === 9) {
+        i++;
+        continue;
+      }
+      break;
+    }
+    const s = i;
+    const neg = c === 45; /* - */
+    if (neg) c = b[++i]!;
+    // Unsigned compare: one branch for "not a digit" (bytes below '0' wrap to large values).
+    c = (c - 48) >>> 0;
+    if (c > 9) {
+      i = s;
+      break;
+    }
+    let v = c;
+    while ((c = (b[++i]! - 48) >>> 0) <= 9) v = v * 10 + c;
+    c = b[i]!;
+    if ((c !== 32 && c !== 10 && c !== 13 && c !== 9) || (neg && v === 0) || v > vars || nc === declared) {
+      i = s; // the careful path decides (and may still accept)
+      break;
+    }
+    if (v === 0) starts[++nc] = nl;
+    else lits[nl++] = neg ? -v : v;
+  }
+  st.nl = nl;
+  st.nc = nc;
+  return i;
+}
+
+/**
+ * The careful path: whitespace, then one token at `i`, with every check and diagnostic. Returns
+ * the index after it, or the input length at the end marker.
+ */
+function oneToken(
+  b: Uint8Array, i: number, lits: Int32Array, starts: Uint32Array, vars: number, declared: number, st: BodyState,
+): number {
+  const n = b.length;
+  while (i < n && isSpace(b[i]!)) i++;
+  if (i >= n) return n;
+  const s = i;
+  let c = b[i]!;
+  const neg = c === 45; /* - */
+  if (neg) i++;
+  let v = 0;
+  const ds = i;
+  while (i < n && (c = (b[i]! - 48) >>> 0) <= 9) {
+    v = v * 10 + c;
+    i++;
+  }
+  if (i === ds || (i < n && !isSpace(b[i]!))) {
+    // Not a number: a comment, the end marker, or an error.
+    c = b[s]!;
+    if (c === 99 /* c */) return skipComment(b, s);
+    if (c === 37 /* % */ && (s + 1 >= n || isSpace(b[s + 1]!))) {
+      st.end = s;
+      return n;
+    }
+    throw new Stop(unexpected(Phase.Body, s, found(b, s)));
+  }
+  if (v === 0) {
+    if (neg) throw new Stop(negativeZero(s));
+    if (st.nc === declared) throw new Stop(tooManyClauses(s, declared));
+    starts[++st.nc] = st.nl;
+    return i;
+  }
+  if (v > vars) {
+    if (v > MAX_INDEX) throw new Stop(literalTooLarge(s, b.subarray(s, i)));
+    throw new Stop(variableOutOfRange(s, v, vars));
+  }
+  if (st.nc === declared && st.nl === starts[st.nc]) throw new Stop(tooManyClauses(s, declared));
+  lits[st.nl++] = neg ? -v : v;
   return i;
 }
 
@@ -102,7 +203,7 @@ function skipToHeader(b: Uint8Array, i: number): number {
  * ```
  */
 export function scanDimacs(b: Uint8Array): ReadResult {
-  const enc = checkEncoding(b);
+  const enc = checkEncoding(b, false);
   if ("error" in enc) return { cnf: undefined, diagnostics: [place(b, enc.error)] };
   const origin = enc.start;
   const warnings: Diagnostic[] = [];
@@ -111,6 +212,10 @@ export function scanDimacs(b: Uint8Array): ReadResult {
     return { cnf, diagnostics: warnings };
   } catch (e) {
     if (!(e instanceof Stop)) throw e;
+    // A NUL byte anywhere outranks every other error (see checkEncoding); the scan met none in
+    // what it read, so look for one only now that the input is rejected anyway.
+    const nul = b.indexOf(0);
+    if (nul >= 0) return { cnf: undefined, diagnostics: [place(b, nulByte(nul))] };
     return { cnf: undefined, diagnostics: [...warnings, place(b, e.finding, origin)] };
   }
 }
@@ -130,58 +235,25 @@ function scanFrom(b: Uint8Array, origin: number, warnings: Diagnostic[]): Cnf {
   const clauseCap = Math.min(declared, ((n - i) >> 1) + 1);
   const lits = new Int32Array(litCap);
   const starts = new Uint32Array(clauseCap + 1);
-  let nl = 0; // literals written
-  let nc = 0; // clauses complete
-  let end = n; // where the input ends for the count check: '%' or end of file
-
-  scan: while (i < n) {
-    let c = b[i]!;
-    if (isSpace(c)) {
-      i++;
-      continue;
-    }
-    const s = i;
-    const neg = c === 45; /* - */
-    if (neg) i++;
-    let v = 0;
-    const ds = i;
-    while (i < n) {
-      c = b[i]! - 48;
-      if (c < 0 || c > 9) break;
-      v = v * 10 + c;
-      i++;
-    }
-    if (i === ds || (i < n && !isSpace(b[i]!))) {
-      // Not a number: a comment, the end marker, or an error.
-      i = s;
-      c = b[s]!;
-      if (c === 99 /* c */) {
-        const nlAt = b.indexOf(10, s);
-        i = nlAt < 0 ? n : nlAt;
-        continue;
-      }
-      const single = s + 1 >= n || isSpace(b[s + 1]!);
-      if (c === 37 /* % */ && single) {
-        end = s;
-        break scan;
-      }
-      throw new Stop(unexpected(Phase.Body, s, found(b, s)));
-    }
-    if (v === 0) {
-      if (neg) throw new Stop(negativeZero(s));
-      if (nc === declared) throw new Stop(tooManyClauses(s, declared));
-      starts[++nc] = nl;
-      continue;
-    }
-    if (v > MAX_INDEX) throw new Stop(literalTooLarge(s, b.subarray(s, i)));
-    if (v > vars) throw new Stop(variableOutOfRange(s, v, vars));
-    if (nl === starts[nc] && nc === declared) throw new Stop(tooManyClauses(s, declared));
-    lits[nl++] = neg ? -v : v;
+  const st: BodyState = { nl: 0, nc: 0, end: n };
+  // The fast loop needs a whitespace byte before its limit (a sentinel that ends every number);
+  // the last token, when the file does not end in whitespace, goes to the careful path.
+  let limit = n;
+  while (limit > i && !isSpace(b[limit - 1]!)) limit--;
+  while (i < n) {
+    i = fastBody(b, i, limit, lits, starts, vars, declared, st);
+    if (i < n) i = oneToken(b, i, lits, starts, vars, declared, st);
   }
+  const { nl, end } = st;
+  let { nc } = st;
+  // What follows the end marker is never read, but a NUL byte there still makes the input binary.
+  if (end < n && b.indexOf(0, end) >= 0) throw new Stop(nulByte(end));
   if (nl > starts[nc]!) {
     warnings.push(place(b, missingTerminator(end), origin));
     starts[++nc] = nl;
   }
   if (nc < declared) throw new Stop(tooFewClauses(end, declared, nc));
-  return { variables: vars, lits: lits.slice(0, nl), clauseStart: starts.slice(0, nc + 1) };
+  // Views, not copies: pages past `nl` were never touched, so they cost no memory, and a copy
+  // of a large array costs more than the scan itself.
+  return { variables: vars, lits: lits.subarray(0, nl), clauseStart: starts.subarray(0, nc + 1) };
 }

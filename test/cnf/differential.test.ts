@@ -35,7 +35,7 @@ const dimacsText = fc
   });
 
 /** Corruptions: replace, insert or delete bytes with characters that matter to the grammar. */
-const alphabet = fc.constantFrom(..." \t\r\n0123456789-cp%x.\x80\xff".split(""), "cnf", "p cnf 3 2", "-0", "99999999999");
+const alphabet = fc.constantFrom(..." \t\r\n0123456789-cp%x.\x80\xff\0".split(""), "cnf", "p cnf 3 2", "-0", "99999999999");
 const corrupted = fc
   .tuple(dimacsText, fc.array(fc.tuple(fc.nat(), fc.integer({ min: 0, max: 2 }), alphabet), { minLength: 1, maxLength: 3 }))
   .map(([s, edits]) => {

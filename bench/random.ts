@@ -1,0 +1,44 @@
+/** Seeded random k-SAT text, written in chunks so that a million clauses never sit in one string. */
+import { openSync, writeSync, closeSync } from "node:fs";
+
+export function rng(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** Clauses of random k-SAT with distinct variables per clause. */
+export function* randomClauses(n: number, m: number, k: number, seed: number): Generator<number[]> {
+  const r = rng(seed);
+  for (let i = 0; i < m; i++) {
+    const c: number[] = [];
+    while (c.length < k) {
+      const v = 1 + Math.floor(r() * n);
+      if (c.some((l) => Math.abs(l) === v)) continue;
+      c.push(r() < 0.5 ? v : -v);
+    }
+    yield c;
+  }
+}
+
+/** Writes a random k-SAT DIMACS file; returns its size in bytes. */
+export function writeRandomCnf(path: string, n: number, m: number, k: number, seed: number): number {
+  const fd = openSync(path, "w");
+  let size = 0;
+  let buf = `c seeded random ${k}-SAT, seed ${seed}\np cnf ${n} ${m}\n`;
+  for (const c of randomClauses(n, m, k, seed)) {
+    buf += `${c.join(" ")} 0\n`;
+    if (buf.length > 1 << 20) {
+      size += writeSync(fd, buf);
+      buf = "";
+    }
+  }
+  size += writeSync(fd, buf);
+  closeSync(fd);
+  return size;
+}

@@ -1,0 +1,82 @@
+/**
+ * clausegate benchmarks: prints figures and ratios, asserts nothing (targets are in DEVELOPERS.md).
+ *   npm run bench            all
+ *   npm run bench -- read    the DIMACS readers only
+ *   npm run bench -- count   exact counting only
+ */
+import { execFileSync } from "node:child_process";
+import { existsSync, mkdirSync, statSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { cnfFromClauses } from "../src/cnf/cnf.js";
+import { countModels } from "../src/cnf/count.js";
+import { randomClauses, writeRandomCnf } from "./random.js";
+
+const here = dirname(fileURLToPath(import.meta.url));
+const root = join(here, "..", "..");
+const out = join(root, "bench", "out");
+const only = process.argv[2];
+
+interface Measure {
+  /** Wall time of the whole process, Node's start included. */
+  wallMs: number;
+  ms: number;
+  clauses: number;
+  maxRssMB: number;
+  bytes: number;
+}
+
+function measure(mode: string, file: string, runs: number): Measure {
+  let best: Measure | undefined;
+  for (let i = 0; i < runs; i++) {
+    const t0 = performance.now();
+    const line = execFileSync(process.execPath, [join(here, "readOne.js"), mode, file], { encoding: "utf8" });
+    const m = { ...(JSON.parse(line) as Measure), wallMs: performance.now() - t0 };
+    if (best === undefined || m.ms < best.ms) best = { ...m, maxRssMB: Math.max(m.maxRssMB, best?.maxRssMB ?? 0) };
+  }
+  return best!;
+}
+
+function benchRead(): void {
+  mkdirSync(out, { recursive: true });
+  const file = join(out, "random3sat-1m.cnf");
+  const n = 234742; // ratio 4.26
+  if (!existsSync(file)) writeRandomCnf(file, n, 1_000_000, 3, 20261201);
+  const size = statSync(file).size;
+  console.log(`DIMACS reading: ${file} (${(size / 1e6).toFixed(1)} MB, 1,000,000 clauses, seed 20261201)`);
+  const floor = measure("floor", file, 5);
+  const scanner = measure("scanner", file, 5);
+  const grammar = measure("grammar", file, 2);
+  const row = (name: string, m: Measure): string => {
+    const mbs = size / 1e6 / (m.ms / 1000);
+    const cps = m.clauses / (m.ms / 1000);
+    return `  ${name.padEnd(18)} ${m.ms.toFixed(0).padStart(6)} ms ${mbs.toFixed(1).padStart(7)} MB/s ${m.clauses ? (cps / 1e6).toFixed(2).padStart(6) + " M clauses/s" : "".padStart(19)} ${(m.ms / floor.ms).toFixed(2).padStart(6)} x floor | process ${m.wallMs.toFixed(0).padStart(5)} ms ${(m.wallMs / floor.wallMs).toFixed(2).padStart(6)} x | peak ${m.maxRssMB.toFixed(0)} MB`;
+  };
+  console.log("  (in-process time of read + parse, best of runs; then the whole process's wall time, Node's start included)");
+  console.log(row("I/O floor (read)", floor));
+  console.log(row("byte scanner", scanner));
+  console.log(row("ANTLR reader", grammar));
+  console.log(`  targets: scanner within 3x of the floor (now ${(scanner.ms / floor.ms).toFixed(2)}x), peak under 300 MB (now ${scanner.maxRssMB.toFixed(0)} MB)`);
+}
+
+async function benchCount(): Promise<void> {
+  const n = 26;
+  const m = 110;
+  const cnf = cnfFromClauses(n, [...randomClauses(n, m, 3, 2026)]);
+  await countModels(cnfFromClauses(20, [...randomClauses(20, 85, 3, 1)])); // warm up
+  const t0 = performance.now();
+  const r = await countModels(cnf);
+  const ms = performance.now() - t0;
+  if (!r.ok) throw new Error(r.reason);
+  console.log(`Exact count: random 3-SAT, ${n} variables, ${m} clauses, seed 2026: ${r.models} models in ${ms.toFixed(0)} ms (target under 1000 ms)`);
+  const t1 = performance.now();
+  const r1 = await countModels(cnf, { threads: 1 });
+  console.log(`  same on one thread: ${r1.ok ? r1.models : "-"} models in ${(performance.now() - t1).toFixed(0)} ms`);
+  const big = cnfFromClauses(30, [...randomClauses(30, 128, 3, 2027)]);
+  const t2 = performance.now();
+  const r2 = await countModels(big);
+  console.log(`  30 variables, 128 clauses (workers): ${r2.ok ? r2.models : "-"} models in ${(performance.now() - t2).toFixed(0)} ms`);
+}
+
+if (only === undefined || only === "read") benchRead();
+if (only === undefined || only === "count") await benchCount();
