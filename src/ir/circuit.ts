@@ -1,0 +1,176 @@
+/**
+ * The circuit IR: plain struct-of-arrays data. Gate g has kind `kind[g]`, operands
+ * `ops[opStart[g] .. opStart[g+1])` (encoding in kinds.ts) and condition `cond[g]` (a classical
+ * bit that must be 1 for the gate to act, or -1).
+ */
+import { GATE_KINDS, K, type GateKind } from "./kinds.js";
+
+/** What a register is for. */
+export type RegisterRole = "search" | "work" | "target";
+
+/** A named, contiguous range of qubits. */
+export interface Register {
+  /** Name in emitted programs: `x`, `work` or `target`. */
+  readonly name: string;
+  readonly role: RegisterRole;
+  /** First qubit index. */
+  readonly start: number;
+  readonly size: number;
+}
+
+/** A quantum circuit over numbered qubits and classical bits. */
+export interface Circuit {
+  readonly qubits: number;
+  readonly clbits: number;
+  readonly registers: readonly Register[];
+  readonly gates: number;
+  readonly kind: Uint8Array;
+  readonly opStart: Uint32Array;
+  readonly ops: Int32Array;
+  readonly cond: Int32Array;
+}
+
+export const qubitOf = (op: number): number => op >>> 1;
+export const negated = (op: number): boolean => (op & 1) === 1;
+export const pos = (q: number): number => q << 1;
+export const neg = (q: number): number => (q << 1) | 1;
+/** An encoded control that fires when qubit q equals `value`. */
+export const onValue = (q: number, value: 0 | 1): number => (q << 1) | (value ^ 1);
+
+export function kindName(c: Circuit, g: number): GateKind {
+  return GATE_KINDS[c.kind[g]!]!;
+}
+
+/** The operands of gate g (a view, not a copy). */
+export function operands(c: Circuit, g: number): Int32Array {
+  return c.ops.subarray(c.opStart[g]!, c.opStart[g + 1]!);
+}
+
+/** Appends gates to growable typed arrays; `finish` returns the circuit. */
+export class CircuitBuilder {
+  private kinds: Uint8Array;
+  private starts: Uint32Array;
+  private opsBuf: Int32Array;
+  private conds: Int32Array;
+  private n = 0;
+  private nOps = 0;
+  /** Qubits so far: search, then target, then work (the work register grows at the end). */
+  qubits: number;
+  clbits: number;
+  readonly search: number;
+  readonly target: number;
+
+  constructor(layout: Layout, expectedGates = 64) {
+    this.search = layout.search;
+    this.target = layout.target;
+    this.qubits = layout.search + layout.target + (layout.work ?? 0);
+    this.clbits = layout.clbits ?? 0;
+    const cap = Math.max(16, expectedGates);
+    this.kinds = new Uint8Array(cap);
+    this.starts = new Uint32Array(cap + 1);
+    this.conds = new Int32Array(cap);
+    this.opsBuf = new Int32Array(cap * 3);
+  }
+
+  get length(): number {
+    return this.n;
+  }
+
+  private room(ops: number): void {
+    if (this.n + 1 >= this.kinds.length) {
+      const cap = this.kinds.length * 2;
+      this.kinds = grow(this.kinds, cap) as Uint8Array;
+      this.conds = grow(this.conds, cap) as Int32Array;
+      this.starts = grow(this.starts, cap + 1) as Uint32Array;
+    }
+    if (this.nOps + ops > this.opsBuf.length) this.opsBuf = grow(this.opsBuf, Math.max(this.opsBuf.length * 2, this.nOps + ops)) as Int32Array;
+  }
+
+  /** Appends a gate with up to three encoded operands. */
+  add(kind: number, a = NaN, b = NaN, c = NaN, cond = -1): this {
+    const k = (a === a ? 1 : 0) + (b === b ? 1 : 0) + (c === c ? 1 : 0);
+    this.room(k);
+    let p = this.nOps;
+    if (a === a) this.opsBuf[p++] = a;
+    if (b === b) this.opsBuf[p++] = b;
+    if (c === c) this.opsBuf[p++] = c;
+    return this.close(kind, p, cond);
+  }
+
+  /** Appends a gate with any number of encoded operands. */
+  addN(kind: number, ops: ArrayLike<number>, cond = -1): this {
+    this.room(ops.length);
+    let p = this.nOps;
+    for (let i = 0; i < ops.length; i++) this.opsBuf[p++] = ops[i]!;
+    return this.close(kind, p, cond);
+  }
+
+  /** Copies gate g of circuit c. */
+  copy(c: Circuit, g: number): this {
+    return this.addN(c.kind[g]!, operands(c, g), c.cond[g]!);
+  }
+
+  private close(kind: number, p: number, cond: number): this {
+    this.kinds[this.n] = kind;
+    this.conds[this.n] = cond;
+    this.nOps = p;
+    this.starts[++this.n] = p;
+    return this;
+  }
+
+  /** A fresh classical bit. */
+  newClbit(): number {
+    return this.clbits++;
+  }
+
+  /** A fresh work qubit (in |0>). */
+  newWork(): number {
+    return this.qubits++;
+  }
+
+  finish(): Circuit {
+    return {
+      qubits: this.qubits,
+      clbits: this.clbits,
+      registers: registersOf(this.search, this.target, this.qubits),
+      gates: this.n,
+      kind: this.kinds.subarray(0, this.n),
+      opStart: this.starts.subarray(0, this.n + 1),
+      ops: this.opsBuf.subarray(0, this.nOps),
+      cond: this.conds.subarray(0, this.n),
+    };
+  }
+}
+
+function grow<T extends Uint8Array | Uint32Array | Int32Array>(a: T, cap: number): T {
+  const b = new (a.constructor as new (n: number) => T)(cap);
+  b.set(a);
+  return b;
+}
+
+/** Register sizes: search qubits first, then the target (0 or 1), then work qubits. */
+export interface Layout {
+  readonly search: number;
+  readonly target: number;
+  readonly work?: number;
+  readonly clbits?: number;
+}
+
+export function registersOf(search: number, target: number, qubits: number): Register[] {
+  const regs: Register[] = [{ name: "x", role: "search", start: 0, size: search }];
+  if (target > 0) regs.push({ name: "target", role: "target", start: search, size: target });
+  regs.push({ name: "work", role: "work", start: search + target, size: qubits - search - target });
+  return regs;
+}
+
+export function layoutOf(c: Circuit): Layout {
+  const size = (role: RegisterRole): number => c.registers.find((r) => r.role === role)?.size ?? 0;
+  return { search: size("search"), target: size("target"), work: size("work"), clbits: c.clbits };
+}
+
+/** A builder with the same registers and classical bits as `c`, and no gates. */
+export function emptyLike(c: Circuit, expectedGates = c.gates): CircuitBuilder {
+  return new CircuitBuilder(layoutOf(c), expectedGates);
+}
+
+export { K };

@@ -1,0 +1,85 @@
+/**
+ * Checking an oracle against the formula: for each assignment x, run the circuit from
+ * |x>|0...0>(|b>) and require exactly (-1)^f(x) |x>|0...0> (phase) or |x>|0...0>|b xor f(x)>
+ * (flag), amplitudes to 1e-9, with no global phase.
+ */
+import type { Cnf } from "../cnf/cnf.js";
+import { evaluate } from "../cnf/evaluate.js";
+import type { Circuit } from "../ir/circuit.js";
+import { basisTerm, CircuitFault, runSparse, seededRandom, type Term } from "./sparse.js";
+
+/** A failed check: the assignment and what went wrong. */
+export interface Mismatch {
+  /** Values of x[0..n-1]. */
+  readonly assignment: boolean[];
+  readonly message: string;
+}
+
+export interface OracleCheck {
+  readonly kind: "phase" | "flag";
+  /** Assignments to check, each as a bit mask over variables (bit v-1 = variable v). */
+  readonly assignments: Iterable<number>;
+  /** Seed for measurement outcomes. */
+  readonly seed?: number;
+}
+
+const TOL = 1e-9;
+
+/** Checks the oracle on each assignment; returns the first mismatch or null. */
+export function checkOracleSparse(c: Circuit, cnf: Cnf, opts: OracleCheck): Mismatch | null {
+  const n = cnf.variables;
+  const search = c.registers.find((r) => r.role === "search")!;
+  if (search.size !== n) return { assignment: [], message: `search register has ${search.size} qubits, the formula ${n} variables` };
+  const targetReg = c.registers.find((r) => r.role === "target");
+  const random = seededRandom(opts.seed ?? 1);
+  for (const x of opts.assignments) {
+    const assignment = Array.from({ length: n }, (_, v) => Math.floor(x / 2 ** v) % 2 === 1);
+    const f = evaluate(cnf, assignment);
+    const ones = assignment.flatMap((on, v) => (on ? [v] : []));
+    const bs = opts.kind === "flag" ? [0, 1] : [0];
+    for (const b of bs) {
+      const input = b && targetReg ? [...ones, targetReg.start] : ones;
+      const expectOnes = opts.kind === "flag" && targetReg && (b ^ (f ? 1 : 0)) ? [...ones, targetReg.start] : ones;
+      const expected = basisTerm(c.qubits, expectOnes);
+      const sign = opts.kind === "phase" && f ? -1 : 1;
+      let terms: Term[];
+      try {
+        terms = runSparse(c, [basisTerm(c.qubits, input)], random).terms;
+      } catch (e) {
+        if (e instanceof CircuitFault) return { assignment, message: e.message };
+        throw e;
+      }
+      const key = expected.bits.join(",");
+      let hit: Term | undefined;
+      let stray = 0;
+      for (const t of terms) {
+        if (t.bits.join(",") === key) hit = t;
+        else stray += t.re * t.re + t.im * t.im;
+      }
+      if (stray > TOL * TOL || hit === undefined) {
+        const other = terms.find((t) => t.bits.join(",") !== key);
+        return { assignment, message: `the state left the expected basis state${other ? `: a term with ${describeBits(other, c)}` : ""}` };
+      }
+      if (Math.abs(hit.re - sign) > TOL || Math.abs(hit.im) > TOL) {
+        return { assignment, message: `amplitude ${hit.re.toFixed(6)}${hit.im >= 0 ? "+" : ""}${hit.im.toFixed(6)}i, expected ${sign} (f = ${f ? 1 : 0}${b ? ", target 1" : ""})` };
+      }
+    }
+  }
+  return null;
+}
+
+function describeBits(t: Term, c: Circuit): string {
+  const ones: string[] = [];
+  for (const r of c.registers) {
+    for (let i = 0; i < r.size; i++) {
+      const q = r.start + i;
+      if ((t.bits[q >>> 5]! >>> (q & 31)) & 1) ones.push(`${r.name}[${i}]=1`);
+    }
+  }
+  return ones.join(" ") || "all qubits 0";
+}
+
+/** All 2^n assignments. */
+export function* allAssignments(n: number): Generator<number> {
+  for (let x = 0; x < 2 ** n; x++) yield x;
+}

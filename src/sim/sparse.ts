@@ -1,0 +1,171 @@
+/**
+ * An exact sparse state-vector simulator: the state is a list of (basis state, amplitude) terms,
+ * so work qubits cost nothing while they hold |0>. Runs every gate kind of the IR, including
+ * H, S, T, measurement (a seeded outcome drawn with its Born probability), reset and
+ * classically conditioned gates, and the logical temporary ANDs (which check that their target
+ * is clean, or holds the AND, in every term).
+ */
+import { GATE_KINDS } from "../ir/kinds.js";
+import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
+
+/** One basis state with its amplitude. Bits of qubit q: word q >>> 5, bit q & 31. */
+export interface Term {
+  bits: Int32Array;
+  re: number;
+  im: number;
+}
+
+/** The result of a run. */
+export interface SparseRun {
+  terms: Term[];
+  /** Classical bits after the run (0/1). */
+  clbits: Uint8Array;
+}
+
+/** Thrown when a logical AND finds its target dirty: a bug in the circuit, reported with place. */
+export class CircuitFault extends Error {
+  constructor(readonly gate: number, message: string) {
+    super(`gate ${gate}: ${message}`);
+  }
+}
+
+const R = Math.SQRT1_2;
+/** e^(i pi k / 4) for k = 0..7. */
+const OMEGA: readonly (readonly [number, number])[] = [
+  [1, 0], [R, R], [0, 1], [-R, R], [-1, 0], [-R, -R], [0, -1], [R, -R],
+];
+
+const bit = (t: Term, q: number): number => (t.bits[q >>> 5]! >>> (q & 31)) & 1;
+const flip = (t: Term, q: number): void => {
+  t.bits[q >>> 5]! ^= 1 << (q & 31);
+};
+const fires = (t: Term, op: number): boolean => bit(t, qubitOf(op)) === (negated(op) ? 0 : 1);
+function rotate(t: Term, k: number): void {
+  const [c, s] = OMEGA[k & 7]!;
+  const re = t.re * c - t.im * s;
+  t.im = t.re * s + t.im * c;
+  t.re = re;
+}
+
+/** A basis state: qubit q set when bit q of `value` is (q < 53 for a number; any q for bigint). */
+export function basisTerm(qubits: number, ones: readonly number[]): Term {
+  const bits = new Int32Array(Math.max(1, Math.ceil(qubits / 32)));
+  const t: Term = { bits, re: 1, im: 0 };
+  for (const q of ones) flip(t, q);
+  return t;
+}
+
+/** Runs `c` on the given initial terms; `random` draws measurement outcomes. */
+export function runSparse(c: Circuit, initial: Term[], random: () => number): SparseRun {
+  let terms: Term[] = initial.map((t) => ({ bits: t.bits.slice(), re: t.re, im: t.im }));
+  const clbits = new Uint8Array(c.clbits);
+  for (let g = 0; g < c.gates; g++) {
+    const cond = c.cond[g]!;
+    if (cond >= 0 && clbits[cond] !== 1) continue;
+    const ops = operands(c, g);
+    const name = GATE_KINDS[c.kind[g]!]!;
+    const q0 = qubitOf(ops[0] ?? 0);
+    switch (name) {
+      case "x": for (const t of terms) flip(t, q0); break;
+      case "y": for (const t of terms) { rotate(t, bit(t, q0) ? 6 : 2); flip(t, q0); } break;
+      case "z": for (const t of terms) if (bit(t, q0)) rotate(t, 4); break;
+      case "s": for (const t of terms) if (bit(t, q0)) rotate(t, 2); break;
+      case "sdg": for (const t of terms) if (bit(t, q0)) rotate(t, 6); break;
+      case "t": for (const t of terms) if (bit(t, q0)) rotate(t, 1); break;
+      case "tdg": for (const t of terms) if (bit(t, q0)) rotate(t, 7); break;
+      case "gphase": for (const t of terms) rotate(t, ops[0]!); break;
+      case "cx": for (const t of terms) if (bit(t, q0)) flip(t, qubitOf(ops[1]!)); break;
+      case "cz": for (const t of terms) if (bit(t, q0) && bit(t, qubitOf(ops[1]!))) rotate(t, 4); break;
+      case "ccx": for (const t of terms) if (bit(t, q0) && bit(t, qubitOf(ops[1]!))) flip(t, qubitOf(ops[2]!)); break;
+      case "mcx": {
+        const tq = qubitOf(ops[ops.length - 1]!);
+        for (const t of terms) if (allFire(t, ops, ops.length - 1)) flip(t, tq);
+        break;
+      }
+      case "mcz": for (const t of terms) if (allFire(t, ops, ops.length)) rotate(t, 4); break;
+      case "and":
+      case "unand": {
+        const tq = qubitOf(ops[ops.length - 1]!);
+        for (const t of terms) {
+          const v = allFire(t, ops, ops.length - 1) ? 1 : 0;
+          const want = name === "and" ? 0 : v;
+          if (bit(t, tq) !== want) {
+            throw new CircuitFault(g, name === "and"
+              ? `temporary AND into qubit ${tq}, which is not |0>`
+              : `uncompute of the AND in qubit ${tq}, which does not hold the AND of its inputs`);
+          }
+          if (v) flip(t, tq);
+        }
+        break;
+      }
+      case "h": terms = hadamard(terms, q0); break;
+      case "measure": clbits[ops[1]!] = measure(terms, q0, random, (kept) => (terms = kept)); break;
+      case "reset": if (measure(terms, q0, random, (kept) => (terms = kept))) for (const t of terms) flip(t, q0); break;
+      default: {
+        const never: never = name;
+        throw new Error(`unknown gate ${String(never)}`);
+      }
+    }
+  }
+  return { terms, clbits };
+}
+
+function allFire(t: Term, ops: Int32Array, n: number): boolean {
+  for (let i = 0; i < n; i++) if (!fires(t, ops[i]!)) return false;
+  return true;
+}
+
+function hadamard(terms: Term[], q: number): Term[] {
+  const merged = new Map<string, Term>();
+  const add = (bits: Int32Array, re: number, im: number): void => {
+    const key = bits.join(",");
+    const t = merged.get(key);
+    if (t) {
+      t.re += re;
+      t.im += im;
+    } else merged.set(key, { bits, re, im });
+  };
+  for (const t of terms) {
+    const one = bit(t, q);
+    const b0 = t.bits.slice();
+    b0[q >>> 5]! &= ~(1 << (q & 31));
+    const b1 = b0.slice();
+    b1[q >>> 5]! |= 1 << (q & 31);
+    add(b0, t.re * R, t.im * R);
+    const sign = one ? -R : R;
+    add(b1, t.re * sign, t.im * sign);
+  }
+  return [...merged.values()].filter((t) => t.re * t.re + t.im * t.im > 1e-24);
+}
+
+/** Measures qubit q: draws an outcome, keeps the matching terms, renormalizes. */
+function measure(terms: Term[], q: number, random: () => number, set: (kept: Term[]) => void): number {
+  let p1 = 0;
+  let total = 0;
+  for (const t of terms) {
+    const w = t.re * t.re + t.im * t.im;
+    total += w;
+    if (bit(t, q)) p1 += w;
+  }
+  const outcome = random() * total < p1 ? 1 : 0;
+  const kept = terms.filter((t) => bit(t, q) === outcome);
+  const norm = Math.sqrt(outcome ? p1 : total - p1);
+  for (const t of kept) {
+    t.re /= norm;
+    t.im /= norm;
+  }
+  set(kept);
+  return outcome;
+}
+
+/** A seeded generator for measurement outcomes (mulberry32). */
+export function seededRandom(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}

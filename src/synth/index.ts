@@ -1,0 +1,36 @@
+/** Synthesis: a simplified formula to a logical oracle circuit, by the chosen strategy. */
+import type { Cnf } from "../cnf/cnf.js";
+import type { Circuit } from "../ir/circuit.js";
+import type { OracleKind } from "./common.js";
+import { synthesizeLean } from "./lean.js";
+import { synthesizeReference } from "./reference.js";
+import { simplify, type SimplifiedCnf, type SimplifyReport } from "./simplify.js";
+import { synthesizeWide } from "./wide.js";
+
+export type { OracleKind } from "./common.js";
+export type { SimplifiedCnf, SimplifyReport } from "./simplify.js";
+export { simplify } from "./simplify.js";
+
+/** How clauses become gates: `wide` keeps every clause bit (fewest T), `lean` counts violated clauses (fewest qubits). */
+export type Strategy = "wide" | "lean";
+/** Strategies including the textbook reference used in cost tables. */
+export type AnyStrategy = Strategy | "textbook";
+
+export const STRATEGIES: readonly Strategy[] = ["wide", "lean"];
+
+export function synthesize(f: SimplifiedCnf, kind: OracleKind, strategy: AnyStrategy): Circuit {
+  switch (strategy) {
+    case "wide":
+      return synthesizeWide(f, kind);
+    case "lean":
+      return synthesizeLean(f, kind);
+    case "textbook":
+      return synthesizeReference(f, kind);
+  }
+}
+
+/** Simplifies and synthesizes in one step. */
+export function synthesizeCnf(cnf: Cnf, kind: OracleKind, strategy: AnyStrategy): { circuit: Circuit; simplified: SimplifiedCnf; report: SimplifyReport } {
+  const simplified = simplify(cnf);
+  return { circuit: synthesize(simplified, kind, strategy), simplified, report: simplified.report };
+}

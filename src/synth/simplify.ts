@@ -1,0 +1,148 @@
+/**
+ * Simplification before synthesis: the same satisfying assignments over the declared
+ * variables, fewer literals. Drops duplicate literals, tautological clauses, repeated clauses
+ * and clauses subsumed by another clause (D subset of C: C holds whenever D does).
+ */
+import type { Cnf } from "../cnf/cnf.js";
+
+/** What simplification removed. */
+export interface SimplifyReport {
+  readonly duplicateLiterals: number;
+  readonly tautologies: number;
+  readonly repeated: number;
+  readonly subsumed: number;
+  /** False when the subsumption check ran out of budget (a formula with huge occurrence lists). */
+  readonly subsumptionComplete: boolean;
+}
+
+/** A simplified formula: clauses with distinct, sorted literals; `unsat` when one is empty. */
+export interface SimplifiedCnf {
+  readonly variables: number;
+  readonly lits: Int32Array;
+  readonly clauseStart: Uint32Array;
+  /** Some clause is empty: no assignment satisfies the formula. */
+  readonly unsat: boolean;
+  readonly report: SimplifyReport;
+}
+
+/** Budget of literal comparisons for the subsumption check (keeps it near-linear). */
+const SUBSUMPTION_BUDGET = 200_000_000;
+
+export function simplify(cnf: Cnf): SimplifiedCnf {
+  const m = cnf.clauseStart.length - 1;
+  const lits = new Int32Array(cnf.lits.length);
+  const start = new Uint32Array(m + 1);
+  let duplicateLiterals = 0;
+  let tautologies = 0;
+  let nl = 0;
+  let nc = 0;
+  let unsat = false;
+  for (let i = 0; i < m; i++) {
+    const s = cnf.clauseStart[i]!;
+    const e = cnf.clauseStart[i + 1]!;
+    const c = Array.from(cnf.lits.subarray(s, e)).sort((a, b) => Math.abs(a) - Math.abs(b) || a - b);
+    let taut = false;
+    const from = nl;
+    for (let k = 0; k < c.length; k++) {
+      const l = c[k]!;
+      if (k > 0 && c[k - 1] === l) {
+        duplicateLiterals++;
+        continue;
+      }
+      if (k > 0 && c[k - 1] === -l) taut = true;
+      lits[nl++] = l;
+    }
+    if (taut) {
+      tautologies++;
+      nl = from;
+      continue;
+    }
+    if (nl === from) unsat = true;
+    start[++nc] = nl;
+  }
+  // Complementary unit clauses (v) and (-v): no assignment satisfies both.
+  const unit = new Int8Array(cnf.variables + 1);
+  for (let i = 0; i < nc && !unsat; i++) {
+    if (start[i + 1]! - start[i]! !== 1) continue;
+    const l = lits[start[i]!]!;
+    const v = Math.abs(l);
+    const sign = l > 0 ? 1 : -1;
+    if (unit[v] === -sign) unsat = true;
+    unit[v] = sign;
+  }
+  const { keep, repeated, subsumed, complete } = subsumption(cnf.variables, lits, start.subarray(0, nc + 1));
+  const outLits = new Int32Array(nl);
+  const outStart = new Uint32Array(nc + 1);
+  let ol = 0;
+  let oc = 0;
+  for (let i = 0; i < nc; i++) {
+    if (!keep[i]) continue;
+    for (let k = start[i]!; k < start[i + 1]!; k++) outLits[ol++] = lits[k]!;
+    outStart[++oc] = ol;
+  }
+  return {
+    variables: cnf.variables,
+    lits: outLits.subarray(0, ol),
+    clauseStart: outStart.subarray(0, oc + 1),
+    unsat,
+    report: { duplicateLiterals, tautologies, repeated, subsumed, subsumptionComplete: complete },
+  };
+}
+
+/**
+ * Marks clauses subsumed by another. For each clause D (shortest first), every clause that
+ * contains D contains D's least frequent literal, so only that literal's clauses are checked.
+ */
+function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
+  const m = start.length - 1;
+  const keep = new Uint8Array(m).fill(1);
+  const index = (l: number): number => (l > 0 ? 2 * l - 2 : -2 * l - 1);
+  const occCount = new Uint32Array(2 * variables);
+  for (const l of lits) occCount[index(l)]!++;
+  const occStart = new Uint32Array(2 * variables + 1);
+  for (let i = 0; i < 2 * variables; i++) occStart[i + 1] = occStart[i]! + occCount[i]!;
+  const occ = new Uint32Array(lits.length);
+  const fill = occStart.slice(0, 2 * variables);
+  for (let i = 0; i < m; i++) for (let k = start[i]!; k < start[i + 1]!; k++) occ[fill[index(lits[k]!)]!++] = i;
+  const order = Array.from({ length: m }, (_, i) => i).sort((a, b) => start[a + 1]! - start[a]! - (start[b + 1]! - start[b]!) || a - b);
+  let repeated = 0;
+  let subsumed = 0;
+  let budget = SUBSUMPTION_BUDGET;
+  for (const d of order) {
+    if (!keep[d]) continue;
+    const ds = start[d]!;
+    const de = start[d + 1]!;
+    if (de === ds) continue;
+    let best = lits[ds]!;
+    for (let k = ds + 1; k < de; k++) if (occCount[index(lits[k]!)]! < occCount[index(best)]!) best = lits[k]!;
+    const bi = index(best);
+    for (let p = occStart[bi]!; p < occStart[bi + 1]!; p++) {
+      const c = occ[p]!;
+      if (c === d || !keep[c]) continue;
+      const cs = start[c]!;
+      const ce = start[c + 1]!;
+      if (ce - cs < de - ds) continue;
+      budget -= ce - cs + de - ds;
+      if (budget < 0) return { keep, repeated, subsumed, complete: false };
+      if (contains(lits, cs, ce, ds, de)) {
+        keep[c] = 0;
+        if (ce - cs === de - ds) repeated++;
+        else subsumed++;
+      }
+    }
+  }
+  return { keep, repeated, subsumed, complete: true };
+}
+
+/** True when sorted clause [ds, de) is a subset of sorted clause [cs, ce). */
+function contains(lits: Int32Array, cs: number, ce: number, ds: number, de: number): boolean {
+  const key = (l: number): number => Math.abs(l) * 2 + (l < 0 ? 1 : 0);
+  let i = cs;
+  for (let j = ds; j < de; j++) {
+    const want = key(lits[j]!);
+    while (i < ce && key(lits[i]!) < want) i++;
+    if (i === ce || key(lits[i]!) !== want) return false;
+    i++;
+  }
+  return true;
+}
