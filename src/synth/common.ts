@@ -19,13 +19,14 @@ export function violatedBy(l: number): number {
 /**
  * Computes the "clause violated" bit of clause i: the literal's own qubit for a unit clause,
  * else a multi-input AND into a fresh work qubit. Returns the encoded control that fires when
- * the clause is violated, and records the operations in `out`.
+ * the clause is violated, and records the operations in `out`. `into` names the work qubit to
+ * use (a strategy that computes one clause at a time reuses one).
  */
-export function clauseBit(b: CircuitBuilder, f: SimplifiedCnf, i: number, out: Op[]): number {
+export function clauseBit(b: CircuitBuilder, f: SimplifiedCnf, i: number, out: Op[], into?: number): number {
   const s = f.clauseStart[i]!;
   const e = f.clauseStart[i + 1]!;
   if (e - s === 1) return violatedBy(f.lits[s]!);
-  const w = b.newWork();
+  const w = into ?? b.newWork();
   const ops: number[] = [];
   for (let k = s; k < e; k++) ops.push(violatedBy(f.lits[k]!));
   ops.push(pos(w));

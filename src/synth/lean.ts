@@ -16,17 +16,34 @@ export function synthesizeLean(f: SimplifiedCnf, kind: OracleKind): Circuit {
   const w = Math.ceil(Math.log2(m + 1));
   const counter = Array.from({ length: w }, () => b.newWork());
   const forward: Op[] = [];
+  // Every clause gets fresh work qubits, each used for one compute-uncompute span, so that the
+  // work-qubit reuse after lowering (an interval colouring) can fold them onto few wires.
   for (let i = 0; i < m; i++) {
     const clause: Op[] = [];
     const bit = clauseBit(b, f, i, clause);
+    const carries = Array.from({ length: w - 1 }, () => b.newWork());
     forward.push(...clause);
-    increment(b, counter, bit, forward);
+    increment(counter, carries, bit, forward);
     for (let j = clause.length - 1; j >= 0; j--) forward.push([K.unand, clause[j]![1]]);
   }
   for (const [k, o] of forward) b.addN(k, o);
   mark(b, kind, counter.map((q) => pos(q) | 1), target); // fires when the counter is 0
-  emitInverse(b, forward);
+  emitInverse(b, renameWork(b, forward, new Set(counter)));
   return b.finish();
+}
+
+/** The same operations with every work qubit outside `keep` renamed to a fresh one. */
+function renameWork(b: CircuitBuilder, ops: readonly Op[], keep: ReadonlySet<number>): Op[] {
+  const base = b.search + b.target;
+  const fresh = new Map<number, number>();
+  const rename = (op: number): number => {
+    const q = op >>> 1;
+    if (q < base || keep.has(q)) return op;
+    let r = fresh.get(q);
+    if (r === undefined) fresh.set(q, (r = b.newWork()));
+    return (r << 1) | (op & 1);
+  };
+  return ops.map(([k, o]) => [k, o.map(rename)] as const);
 }
 
 /**
@@ -34,14 +51,12 @@ export function synthesizeLean(f: SimplifiedCnf, kind: OracleKind): Circuit {
  * bit AND q0 AND ... AND qi, computed with temporary ANDs; the counter flips from the top down,
  * each carry uncomputed right after the flip it drives (its inputs are still unchanged then).
  */
-function increment(b: CircuitBuilder, counter: readonly number[], bit: number, out: Op[]): void {
+function increment(counter: readonly number[], carries: readonly number[], bit: number, out: Op[]): void {
   const w = counter.length;
-  const carries: number[] = [];
   let prev = bit;
   for (let i = 0; i + 1 < w; i++) {
-    const c = b.newWork();
+    const c = carries[i]!;
     out.push([K.and, [prev, pos(counter[i]!), pos(c)]]);
-    carries.push(c);
     prev = pos(c);
   }
   for (let i = w - 1; i >= 1; i--) {

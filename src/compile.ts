@@ -1,0 +1,175 @@
+/**
+ * The pipeline driver: formula -> simplified clauses -> logical oracle (synthesis) -> gate basis
+ * (lowering) -> optimizer passes -> work-qubit reuse. Also the costs of an oracle, which are
+ * always those of its Clifford+T and Toffoli lowerings, whatever basis is emitted.
+ */
+import { clauseCount, type Cnf } from "./cnf/cnf.js";
+import { countCircuit, type CircuitCounts } from "./emit/resources.js";
+import type { Circuit } from "./ir/circuit.js";
+import { lower, type Basis, type Uncompute } from "./passes/lower.js";
+import { DEFAULT_PIPELINE } from "./passes/registry.js";
+import { reuseWork } from "./passes/reuseWork.js";
+import { runPasses } from "./passes/runner.js";
+import { simplify, synthesize, type AnyStrategy, type OracleKind, type SimplifiedCnf, type SimplifyReport, type Strategy } from "./synth/index.js";
+
+/** How to build an oracle. Every field has a default. */
+export interface OracleOptions {
+  /** `phase` (default): |x> -> (-1)^f(x) |x>. `flag`: |x>|b> -> |x>|b xor f(x)>. */
+  readonly kind?: OracleKind;
+  /** `wide` (default, fewest T) or `lean` (fewest qubits). */
+  readonly strategy?: Strategy;
+  /** `toffoli` (default), `mcx` (multi-controlled gates kept whole) or `clifford+t`. */
+  readonly basis?: Basis;
+  /** `unitary` (default) or `measured` (Gidney 2018: measure and fix up; no T to uncompute). */
+  readonly uncompute?: Uncompute;
+  /** Run the optimizer passes (default true). */
+  readonly optimize?: boolean;
+  /** Check the circuit's invariants after every pass, naming the pass that broke one. */
+  readonly validatePasses?: boolean;
+}
+
+/** A compiled oracle. */
+export interface Oracle {
+  /** The circuit in the chosen basis: search register `x` (x[v-1] is variable v), `target`, `work`. */
+  readonly circuit: Circuit;
+  readonly options: Required<OracleOptions>;
+  readonly variables: number;
+  /** Clauses in the input. */
+  readonly clauses: number;
+  /** What simplification removed before synthesis. */
+  readonly simplification: SimplifyReport & { readonly clausesKept: number; readonly literalsKept: number };
+}
+
+export const DEFAULT_ORACLE_OPTIONS: Required<OracleOptions> = {
+  kind: "phase",
+  strategy: "wide",
+  basis: "toffoli",
+  uncompute: "unitary",
+  optimize: true,
+  validatePasses: false,
+};
+
+/** Lowers and optimizes a logical circuit. */
+function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: boolean, validate: boolean, toffoliAnds = false): Circuit {
+  // Reuse work qubits first: a wire that one AND releases and the next takes up then shows the
+  // optimizer the gate pairs at the seam (H H, T Tdg) that cancel.
+  let c = reuseWork(lower(logical, { basis, uncompute, ...(toffoliAnds ? { andGate: "toffoli" as const } : {}) }));
+  if (optimize) c = runPasses(c, DEFAULT_PIPELINE, { validate });
+  return c;
+}
+
+/**
+ * Compiles a formula into an oracle circuit.
+ *
+ * @example
+ * ```ts
+ * const oracle = compileOracle(cnfFromClauses(2, [[1, -2]]), { basis: "clifford+t", uncompute: "measured" });
+ * ```
+ */
+export function compileOracle(cnf: Cnf, options: OracleOptions = {}): Oracle {
+  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
+  const simplified = simplify(cnf);
+  const logical = synthesize(simplified, o.kind, o.strategy);
+  const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
+  return { circuit, options: o, variables: cnf.variables, clauses: clauseCount(cnf), simplification: summary(simplified) };
+}
+
+function summary(s: SimplifiedCnf): Oracle["simplification"] {
+  return { ...s.report, clausesKept: s.clauseStart.length - 1, literalsKept: s.lits.length };
+}
+
+/** The resource report of an oracle (stable keys, for `--report`). */
+export interface ResourceReport {
+  readonly variables: number;
+  readonly clauses: number;
+  readonly kind: OracleKind;
+  readonly strategy: Strategy;
+  readonly basis: Basis;
+  readonly uncompute: Uncompute;
+  readonly qubits: { readonly search: number; readonly work: number; readonly target: number; readonly total: number };
+  /** Gates of the emitted circuit by OpenQASM 3 name. */
+  readonly gates: Record<string, number>;
+  /** Toffolis in the toffoli-basis lowering (with the chosen uncomputation). */
+  readonly toffoli_count: number;
+  /** T-count, T-depth and CNOT count of the Clifford+T lowering (with the chosen uncomputation). */
+  readonly t_count: number;
+  readonly t_depth: number;
+  readonly cnot_count: number;
+  /** Depth of the emitted circuit. */
+  readonly depth: number;
+  /** Measurements in the emitted circuit. */
+  readonly measurements: number;
+  readonly simplification: Oracle["simplification"];
+}
+
+/**
+ * Counts an oracle's resources. Recompiles the formula in the clifford+t and toffoli bases for
+ * the T and Toffoli figures, so pass the same formula the oracle was compiled from.
+ */
+export function oracleResources(cnf: Cnf, oracle: Oracle): ResourceReport {
+  const o = oracle.options;
+  const emitted = countCircuit(oracle.circuit);
+  const logical = synthesize(simplify(cnf), o.kind, o.strategy);
+  const cliffordT = o.basis === "clifford+t" ? emitted : countCircuit(finish(logical, "clifford+t", o.uncompute, o.optimize, false));
+  const toffoli = o.basis === "toffoli" ? emitted : countCircuit(finish(logical, "toffoli", o.uncompute, o.optimize, false));
+  const reg = (role: string): number => oracle.circuit.registers.find((r) => r.role === role)?.size ?? 0;
+  return {
+    variables: oracle.variables,
+    clauses: oracle.clauses,
+    kind: o.kind,
+    strategy: o.strategy,
+    basis: o.basis,
+    uncompute: o.uncompute,
+    qubits: { search: reg("search"), work: reg("work"), target: reg("target"), total: oracle.circuit.qubits },
+    gates: emitted.gates,
+    toffoli_count: toffoli.toffoliCount,
+    t_count: cliffordT.tCount,
+    t_depth: cliffordT.tDepth,
+    cnot_count: cliffordT.cnotCount,
+    depth: emitted.depth,
+    measurements: emitted.measurements,
+    simplification: oracle.simplification,
+  };
+}
+
+/** One row of the cost table. */
+export interface CostRow {
+  readonly strategy: AnyStrategy;
+  readonly uncompute: Uncompute;
+  readonly qubits: number;
+  readonly toffoli_count: number;
+  readonly t_count: number;
+  readonly t_depth: number;
+  readonly cnot_count: number;
+  /** Depth of the Clifford+T circuit. */
+  readonly depth: number;
+}
+
+/**
+ * Costs of every strategy and uncomputation for one formula, plus the textbook reference
+ * (one clause bit per clause, V-chains of 7-T Toffolis, unitary uncomputation).
+ */
+export function costTable(cnf: Cnf, kind: OracleKind = "phase"): CostRow[] {
+  const simplified = simplify(cnf);
+  const rows: CostRow[] = [];
+  const row = (strategy: AnyStrategy, uncompute: Uncompute): void => {
+    const logical = synthesize(simplified, kind, strategy);
+    const textbook = strategy === "textbook";
+    const ct = finish(logical, "clifford+t", uncompute, true, false, textbook);
+    const tof = countCircuit(finish(logical, "toffoli", uncompute, true, false, textbook));
+    const counts: CircuitCounts = countCircuit(ct);
+    rows.push({
+      strategy,
+      uncompute,
+      qubits: ct.qubits,
+      toffoli_count: tof.toffoliCount,
+      t_count: counts.tCount,
+      t_depth: counts.tDepth,
+      cnot_count: counts.cnotCount,
+      depth: counts.depth,
+    });
+  };
+  for (const s of ["wide", "lean"] as const) for (const u of ["unitary", "measured"] as const) row(s, u);
+  row("textbook", "unitary");
+  return rows;
+}

@@ -1,0 +1,32 @@
+/** Runs a list of passes; in debug mode validates after each one and blames the pass by name. */
+import type { Circuit } from "../ir/circuit.js";
+import { validateCircuit } from "../ir/validate.js";
+import { PASSES } from "./registry.js";
+
+export interface RunPassesOptions {
+  /** Validate the circuit after every pass (debug mode). */
+  readonly validate?: boolean;
+  /** Called with each pass's name and its output (for --trace). */
+  readonly onPass?: (name: string, c: Circuit) => void;
+}
+
+/** Thrown when a pass leaves a circuit that breaks an invariant. */
+export class PassError extends Error {
+  constructor(readonly pass: string, readonly invariant: string) {
+    super(`pass '${pass}' broke an invariant: ${invariant}`);
+  }
+}
+
+export function runPasses(c: Circuit, names: readonly string[], opts: RunPassesOptions = {}): Circuit {
+  for (const name of names) {
+    const pass = PASSES[name];
+    if (pass === undefined) throw new Error(`unknown pass '${name}'`);
+    c = pass.run(c);
+    if (opts.validate) {
+      const broken = validateCircuit(c);
+      if (broken !== null) throw new PassError(name, broken);
+    }
+    opts.onPass?.(name, c);
+  }
+  return c;
+}
