@@ -18,6 +18,26 @@ export { evaluate, evaluateWords } from "./cnf/evaluate.js";
 export type { CountOptions, CountResult } from "./cnf/count.js";
 export { countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "./cnf/count.js";
 
+export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";
+export type { GateKind } from "./ir/kinds.js";
+export { GATE_KINDS } from "./ir/kinds.js";
+export type { Basis, Uncompute } from "./passes/lower.js";
+export type { OracleKind, Strategy, SimplifyReport } from "./synth/index.js";
+export type { Oracle, OracleOptions, ResourceReport, CostRow } from "./compile.js";
+export { compileOracle, oracleResources, costTable, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export { PassError } from "./passes/runner.js";
+export type { Sink } from "./emit/sink.js";
+export { collect } from "./emit/sink.js";
+export { emitQasm3 } from "./emit/qasm3/index.js";
+export { emitQasm2, qasm2Problem } from "./emit/qasm2.js";
+export { emitJson, CIRCUIT_FORMAT, CIRCUIT_FORMAT_VERSION } from "./emit/json.js";
+export type { CircuitCounts } from "./emit/resources.js";
+export { countCircuit } from "./emit/resources.js";
+export type { Term, SparseRun } from "./sim/sparse.js";
+export { runSparse, basisTerm, seededRandom, CircuitFault } from "./sim/sparse.js";
+export type { Mismatch, OracleCheck } from "./sim/check.js";
+export { checkOracleSparse, allAssignments } from "./sim/check.js";
+
 import type { ReadResult } from "./cnf/scanner.js";
 import { bytesOf, type DimacsInput } from "./cnf/source.js";
 

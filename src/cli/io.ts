@@ -1,6 +1,7 @@
 /** CLI plumbing: loading inputs, printing diagnostics, atomic writes, progress bars, exit codes. */
 import { randomBytes } from "node:crypto";
-import { readFile, rename, rm, writeFile } from "node:fs/promises";
+import { closeSync, openSync, renameSync, rmSync, writeSync } from "node:fs";
+import { readFile } from "node:fs/promises";
 import { basename, dirname, join } from "node:path";
 import { Bar, Presets } from "cli-progress";
 import { formatDiagnostic, readDimacs, type Cnf, type Diagnostic } from "../index.js";
@@ -54,21 +55,33 @@ function ioReason(e: unknown): string {
 }
 
 /**
- * Writes a file atomically: to a temporary file beside it, then renamed over it, so a failure
- * never leaves a partial output.
+ * Writes a file atomically: chunks go to a temporary file beside it, which is renamed over it
+ * at the end, so a failure never leaves a partial output.
  */
-export async function writeAtomic(path: string, produce: (write: (chunk: string) => void) => void | Promise<void>): Promise<void> {
+export function writeAtomic(path: string, produce: (write: (chunk: string) => void) => void): void {
   const tmp = join(dirname(path), `.${basename(path)}.${randomBytes(4).toString("hex")}.tmp`);
-  const parts: string[] = [];
+  let fd = -1;
   try {
-    await produce((chunk) => parts.push(chunk));
-    await writeFile(tmp, parts.join(""));
-    await rename(tmp, path);
+    fd = openSync(tmp, "w");
+    const f = fd;
+    produce((chunk) => {
+      writeSync(f, chunk);
+    });
+    closeSync(fd);
+    fd = -1;
+    renameSync(tmp, path);
   } catch (e) {
-    await rm(tmp, { force: true });
+    if (fd >= 0) closeSync(fd);
+    rmSync(tmp, { force: true });
     if (e instanceof UserError) throw e;
+    if ((e as { code?: string }).code === undefined) throw e;
     throw new UserError(`${path}: error: cannot write the output (${ioReason(e)}); check that the folder exists and is writable`);
   }
+}
+
+/** Writes to standard output in order (chunks are queued if the reader is slower). */
+export function writeStdout(chunk: string): void {
+  process.stdout.write(chunk);
 }
 
 /**

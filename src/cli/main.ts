@@ -1,9 +1,13 @@
 /** The clausegate command line: dispatches to one command, maps errors to one line and an exit code. */
 import { readFileSync } from "node:fs";
 import { countCommand, countHelp } from "./count.js";
+import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
 import { EXIT_BAD_INPUT, UserError } from "./io.js";
+import { PassError } from "../index.js";
 
 const commands: Record<string, { run: (argv: string[]) => Promise<number>; summary: string; help: string }> = {
+  oracle: { run: oracleCommand, summary: "compile a DIMACS CNF formula into an oracle circuit", help: oracleHelp },
+  cost: { run: costCommand, summary: "tabulate what an oracle for the formula costs, per strategy", help: costHelp },
   count: { run: countCommand, summary: "count the models of a DIMACS CNF formula exactly", help: countHelp },
 };
 
@@ -59,6 +63,10 @@ export async function main(argv: string[]): Promise<number> {
     if (typeof code === "string" && code.startsWith("ERR_PARSE_ARGS")) {
       process.stderr.write(`clausegate ${first}: error: ${(e as Error).message}; see clausegate ${first} --help\n`);
       return EXIT_BAD_INPUT;
+    }
+    if (e instanceof PassError) {
+      process.stderr.write(`clausegate: internal error: ${e.message}; rerun with --no-optimize to skip the passes, and please report this with the input\n`);
+      return 70;
     }
     process.stderr.write(`clausegate: internal error: ${(e as Error).message ?? String(e)} (please report this with the input)\n`);
     if (process.env["CLAUSEGATE_DEBUG"]) process.stderr.write(`${(e as Error).stack}\n`);

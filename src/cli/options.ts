@@ -20,3 +20,29 @@ export function intOption(raw: string | undefined, name: string, min: number, ma
   }
   return v;
 }
+
+/** Parses an option with a closed set of values; `fallback` when absent. */
+export function choice<T extends string>(raw: string | undefined, name: string, values: readonly T[], fallback: T): T {
+  if (raw === undefined) return fallback;
+  if ((values as readonly string[]).includes(raw)) return raw as T;
+  throw new UserError(`clausegate: error: ${name} expects one of ${values.join(", ")} but got '${raw}'`);
+}
+
+/** The oracle options every circuit-making command shares, for parseArgs. */
+export const ORACLE_ARGS = {
+  kind: { type: "string" },
+  strategy: { type: "string" },
+  basis: { type: "string" },
+  uncompute: { type: "string" },
+  "no-optimize": { type: "boolean" },
+  "check-passes": { type: "boolean" },
+} as const;
+
+export const ORACLE_HELP = `  --kind phase|flag           phase: |x> -> (-1)^f(x)|x> (default); flag: |x>|b> -> |x>|b xor f(x)>
+  --strategy wide|lean        wide: every clause bit kept, fewest T (default); lean: a clause counter, fewest qubits
+  --basis mcx|toffoli|clifford+t
+                              gate basis (default toffoli); mcx keeps multi-controlled gates whole
+  --uncompute unitary|measured
+                              unitary inverse (default) or measurement and fix-up (Gidney 2018)
+  --no-optimize               skip the optimizer passes
+  --check-passes              check the circuit's invariants after every pass (debug)`;

@@ -116,26 +116,50 @@ function allFire(t: Term, ops: Int32Array, n: number): boolean {
 }
 
 function hadamard(terms: Term[], q: number): Term[] {
-  const merged = new Map<string, Term>();
+  const out: Term[] = [];
+  // Few terms is the common case (work qubits idle at |0>): merge by direct comparison then.
+  const byKey = terms.length > 8 ? new Map<string, Term>() : null;
   const add = (bits: Int32Array, re: number, im: number): void => {
-    const key = bits.join(",");
-    const t = merged.get(key);
-    if (t) {
-      t.re += re;
-      t.im += im;
-    } else merged.set(key, { bits, re, im });
+    if (byKey !== null) {
+      const key = bits.join(",");
+      const t = byKey.get(key);
+      if (t) {
+        t.re += re;
+        t.im += im;
+      } else {
+        const n = { bits, re, im };
+        byKey.set(key, n);
+        out.push(n);
+      }
+      return;
+    }
+    for (const t of out) {
+      if (sameBits(t.bits, bits)) {
+        t.re += re;
+        t.im += im;
+        return;
+      }
+    }
+    out.push({ bits, re, im });
   };
+  const w = q >>> 5;
+  const m = 1 << (q & 31);
   for (const t of terms) {
-    const one = bit(t, q);
+    const one = (t.bits[w]! & m) !== 0;
     const b0 = t.bits.slice();
-    b0[q >>> 5]! &= ~(1 << (q & 31));
+    b0[w]! &= ~m;
     const b1 = b0.slice();
-    b1[q >>> 5]! |= 1 << (q & 31);
+    b1[w]! |= m;
     add(b0, t.re * R, t.im * R);
     const sign = one ? -R : R;
     add(b1, t.re * sign, t.im * sign);
   }
-  return [...merged.values()].filter((t) => t.re * t.re + t.im * t.im > 1e-24);
+  return out.filter((t) => t.re * t.re + t.im * t.im > 1e-24);
+}
+
+function sameBits(a: Int32Array, b: Int32Array): boolean {
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
 }
 
 /** Measures qubit q: draws an outcome, keeps the matching terms, renormalizes. */

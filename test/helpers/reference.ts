@@ -18,3 +18,26 @@ export function logicSolverCount(cnf: Cnf, cap = 1 << 16): number {
   }
   return n;
 }
+
+import QuantumCircuit from "quantum-circuit";
+
+/**
+ * Runs an OpenQASM 2.0 program in the npm package quantum-circuit (a general-purpose state-vector
+ * simulator) from the basis state whose qubit k is `input[k]`; qubits are numbered across the
+ * qregs in declaration order. Returns the nonzero amplitudes by basis index (bit k = qubit k).
+ * Throws when the import reports any error.
+ */
+export function quantumCircuitRun(qasm: string, input: number[]): Map<number, [number, number]> {
+  const c = new QuantumCircuit();
+  const errors: unknown[] = [];
+  c.importQASM(qasm, (e: unknown[]) => {
+    if (e && e.length) errors.push(...e);
+  });
+  if (errors.length > 0) throw new Error(`quantum-circuit import errors: ${JSON.stringify(errors)}`);
+  c.run(input);
+  const out = new Map<number, [number, number]>();
+  for (const s of c.stateAsArray(true) as { index: number; amplitude: { re: number; im: number } }[]) {
+    out.set(s.index, [s.amplitude.re, s.amplitude.im]);
+  }
+  return out;
+}

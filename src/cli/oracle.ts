@@ -1,0 +1,136 @@
+/** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
+import { parseArgs } from "node:util";
+import {
+  compileOracle, costTable, emitJson, emitQasm2, emitQasm3, oracleResources, qasm2Problem,
+  type Cnf, type Oracle, type OracleOptions,
+} from "../index.js";
+import { displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
+import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
+
+export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
+
+Compiles a DIMACS CNF formula into a quantum oracle and writes it (OpenQASM 3 by default). The
+search register x holds the variables (x[v-1] is DIMACS variable v), work holds work qubits
+(returned to |0>), target the flag oracle's output qubit.
+
+Options:
+  -o, --output FILE           write here (atomically) instead of standard output
+  --format qasm3|qasm2|json   output format (default qasm3)
+${ORACLE_HELP}
+  --report FILE               also write the resource report (JSON)
+  -h, --help                  show this help
+`;
+
+export const costHelp = `Usage: clausegate cost FILE|- [--kind phase|flag] [--json]
+
+Prints what an oracle for the formula costs, one row per strategy and uncomputation, and a
+textbook reference row (a clause bit per clause, V-chains of 7-T Toffolis). Qubits, T-count,
+T-depth, CNOTs and depth are those of the Clifford+T circuit; Toffolis those of the toffoli basis.
+`;
+
+const FORMATS = ["qasm3", "qasm2", "json"] as const;
+
+/** The oracle options given on the command line. */
+export function oracleOptions(values: Record<string, string | boolean | undefined>): Required<OracleOptions> {
+  const str = (k: string): string | undefined => values[k] as string | undefined;
+  return {
+    kind: choice(str("kind"), "--kind", ["phase", "flag"], "phase"),
+    strategy: choice(str("strategy"), "--strategy", ["wide", "lean"], "wide"),
+    basis: choice(str("basis"), "--basis", ["mcx", "toffoli", "clifford+t"], "toffoli"),
+    uncompute: choice(str("uncompute"), "--uncompute", ["unitary", "measured"], "unitary"),
+    optimize: values["no-optimize"] !== true,
+    validatePasses: values["check-passes"] === true,
+  };
+}
+
+function describe(o: Oracle, file: string): string[] {
+  const { kind, strategy, basis, uncompute } = o.options;
+  return [
+    `clausegate ${kind} oracle for ${displayName(file)}: ${o.variables} variables, ${o.clauses} clauses`,
+    `strategy ${strategy}, basis ${basis}, uncompute ${uncompute}${o.options.optimize ? "" : ", not optimized"}`,
+  ];
+}
+
+function noteSimplification(o: Oracle, file: string): void {
+  const s = o.simplification;
+  const parts: string[] = [];
+  if (s.duplicateLiterals) parts.push(`${s.duplicateLiterals} duplicate literal${s.duplicateLiterals > 1 ? "s" : ""}`);
+  if (s.tautologies) parts.push(`${s.tautologies} tautolog${s.tautologies > 1 ? "ies" : "y"}`);
+  if (s.repeated) parts.push(`${s.repeated} repeated clause${s.repeated > 1 ? "s" : ""}`);
+  if (s.subsumed) parts.push(`${s.subsumed} subsumed clause${s.subsumed > 1 ? "s" : ""}`);
+  if (parts.length > 0) process.stderr.write(`${displayName(file)}: note: simplified before synthesis: removed ${parts.join(", ")}\n`);
+  if (!s.subsumptionComplete) process.stderr.write(`${displayName(file)}: note: the subsumption check stopped at its work budget\n`);
+}
+
+export async function oracleCommand(argv: string[]): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: {
+      ...ORACLE_ARGS,
+      output: { type: "string", short: "o" },
+      format: { type: "string" },
+      report: { type: "string" },
+      help: { type: "boolean", short: "h" },
+    },
+  });
+  if (values.help) {
+    process.stdout.write(oracleHelp);
+    return 0;
+  }
+  const file = oneInput(positionals, "oracle");
+  const format = choice(values.format, "--format", FORMATS, "qasm3");
+  const options = oracleOptions(values);
+  const cnf = await loadCnf(file);
+  const oracle = compileOracle(cnf, options);
+  noteSimplification(oracle, file);
+  writeOracle(oracle, cnf, file, format, values.output, values.report);
+  return 0;
+}
+
+/** Writes the circuit (and report) of an oracle; shared with later commands. */
+export function writeOracle(oracle: Oracle, cnf: Cnf, file: string, format: (typeof FORMATS)[number], output?: string, report?: string): void {
+  if (format === "qasm2") {
+    const problem = qasm2Problem(oracle.circuit);
+    if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
+  }
+  const comments = describe(oracle, file);
+  const emit = (sink: (s: string) => void): void => {
+    if (format === "qasm3") emitQasm3(oracle.circuit, sink, comments);
+    else if (format === "qasm2") emitQasm2(oracle.circuit, sink, comments);
+    else emitJson(oracle.circuit, sink, comments);
+  };
+  if (report !== undefined) {
+    const r = oracleResources(cnf, oracle);
+    writeAtomic(report, (w) => w(`${JSON.stringify(r, null, 2)}\n`));
+  }
+  if (output === undefined) emit(writeStdout);
+  else writeAtomic(output, emit);
+}
+
+export async function costCommand(argv: string[]): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: { kind: { type: "string" }, json: { type: "boolean" }, help: { type: "boolean", short: "h" } },
+  });
+  if (values.help) {
+    process.stdout.write(costHelp);
+    return 0;
+  }
+  const file = oneInput(positionals, "cost");
+  const kind = choice(values.kind, "--kind", ["phase", "flag"], "phase");
+  const cnf = await loadCnf(file);
+  const rows = costTable(cnf, kind);
+  if (values.json) {
+    process.stdout.write(`${JSON.stringify({ variables: cnf.variables, clauses: cnf.clauseStart.length - 1, kind, rows }, null, 2)}\n`);
+    return 0;
+  }
+  const head = ["strategy", "uncompute", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth"];
+  const body = rows.map((r) => [r.strategy, r.uncompute, r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String));
+  const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
+  const line = (cells: string[]): string => cells.map((c, i) => (i < 2 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join("  ");
+  process.stdout.write(`${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${cnf.clauseStart.length - 1} clauses\n`);
+  process.stdout.write(`${line(head)}\n${body.map(line).join("\n")}\n`);
+  return 0;
+}
