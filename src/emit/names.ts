@@ -4,8 +4,12 @@ import type { Circuit } from "../ir/circuit.js";
 /** Returns a function naming qubit q as `register[index]`. */
 export function qubitNamer(c: Circuit): (q: number) => string {
   const regs = c.registers.filter((r) => r.size > 0);
+  const prefixes = regs.map((r) => `${r.name}[`);
   return (q) => {
-    for (const r of regs) if (q >= r.start && q < r.start + r.size) return `${r.name}[${q - r.start}]`;
+    for (let i = 0; i < regs.length; i++) {
+      const r = regs[i]!;
+      if (q >= r.start && q < r.start + r.size) return prefixes[i]! + (q - r.start) + "]";
+    }
     throw new Error(`qubit ${q} is in no register`);
   };
 }

@@ -1,7 +1,7 @@
 /** Counting a circuit's resources: gates by emitted name, T-count and T-depth, CNOTs, depth. */
 import { GATE_KINDS, IS_T } from "../ir/kinds.js";
 import { operands, qubitOf, type Circuit } from "../ir/circuit.js";
-import { statements } from "./qasm3/lower.js";
+import { forEachStatement } from "./qasm3/lower.js";
 import { gateName } from "./qasm3/print.js";
 import type { Statement } from "./qasm3/ast.js";
 
@@ -31,7 +31,7 @@ export function countCircuit(c: Circuit): CircuitCounts {
     const key = s.kind === "QuantumGate" ? gateName(s) : s.kind === "QuantumPhase" ? "gphase" : s.kind === "QuantumReset" ? "reset" : "measure";
     gates[key] = (gates[key] ?? 0) + 1;
   };
-  for (const s of statements(c, () => "q")) tally(s);
+  forEachStatement(c, tally, () => "q");
   const sorted: Record<string, number> = {};
   for (const k of Object.keys(gates).sort()) sorted[k] = gates[k]!;
 

@@ -105,9 +105,14 @@ export class CircuitBuilder {
     return this.close(kind, p, cond);
   }
 
-  /** Copies gate g of circuit c. */
-  copy(c: Circuit, g: number): this {
-    return this.addN(c.kind[g]!, operands(c, g), c.cond[g]!);
+  /** Copies gate g of circuit c (without making a view of its operands: this runs per gate in every pass). */
+  copy(c: Circuit, g: number, ops: Int32Array = c.ops): this {
+    const s = c.opStart[g]!;
+    const e = c.opStart[g + 1]!;
+    this.room(e - s);
+    let p = this.nOps;
+    for (let i = s; i < e; i++) this.opsBuf[p++] = ops[i]!;
+    return this.close(c.kind[g]!, p, c.cond[g]!);
   }
 
   private close(kind: number, p: number, cond: number): this {

@@ -77,3 +77,14 @@ export const PHASE_EIGHTHS: Partial<Record<GateKind, number>> = { t: 1, s: 2, z:
 
 /** T-type gates (non-Clifford). */
 export const IS_T: Record<GateKind, boolean> = Object.fromEntries(GATE_KINDS.map((k) => [k, k === "t" || k === "tdg"])) as Record<GateKind, boolean>;
+
+/** Role codes for hot loops: the numeric form of {@link Role}. */
+export const ROLE_Z = 0;
+export const ROLE_X = 1;
+export const ROLE_OTHER = 2;
+const roleCode = (r: Role): number => (r === "z" ? ROLE_Z : r === "x" ? ROLE_X : ROLE_OTHER);
+/** Role of a kind on its operands other than the last, and on the last, by kind number. */
+export const ROLE_BODY = Uint8Array.from(GATE_KINDS, (k) => roleCode(roleOf(k, 0, 3)));
+export const ROLE_LAST = Uint8Array.from(GATE_KINDS, (k) => roleCode(roleOf(k, 2, 3)));
+/** Inverse kind by kind number, -1 when none. */
+export const INVERSE_KIND = Int8Array.from(GATE_KINDS, (k) => (INVERSE[k] === null ? -1 : GATE_KINDS.indexOf(INVERSE[k]!)));

@@ -15,6 +15,7 @@ export function dropIdentities(c: Circuit): Circuit {
       phases++;
     }
   }
+  if (phases === 0 && !hasNeverFiring(c)) return c;
   const out = emptyLike(c);
   // A global phase commutes with everything: one gate, first, stands for all of them.
   if (phase !== 0) out.add(K.gphase, phase);
@@ -25,8 +26,15 @@ export function dropIdentities(c: Circuit): Circuit {
     if ((name === "mcx" || name === "mcz") && neverFires(operands(c, g), name === "mcx" ? 1 : 0)) continue;
     out.copy(c, g);
   }
-  void phases;
   return out.finish();
+}
+
+function hasNeverFiring(c: Circuit): boolean {
+  for (let g = 0; g < c.gates; g++) {
+    const k = c.kind[g]!;
+    if ((k === K.mcx || k === K.mcz) && neverFires(operands(c, g), k === K.mcx ? 1 : 0)) return true;
+  }
+  return false;
 }
 
 function neverFires(ops: Int32Array, targets: number): boolean {

@@ -4,35 +4,46 @@
  * controls flip polarity (control on |1> becomes control on |0> and back).
  */
 import { emptyLike, qubitOf, type Circuit } from "../ir/circuit.js";
-import { GATE_KINDS, HAS_POLARITY } from "../ir/kinds.js";
+import { GATE_KINDS, HAS_POLARITY, K } from "../ir/kinds.js";
 import { qubitCount } from "./commute.js";
 
 export function foldXPolarity(c: Circuit): Circuit {
-  const uses: number[][] = Array.from({ length: c.qubits }, () => []);
+  // Bases without polarity (toffoli, clifford+t) have nothing to fold.
+  if (!c.kind.some((k) => HAS_POLARITY[GATE_KINDS[k]!])) return c;
+  // The gates on each qubit in order, as one CSR table: uses[useStart[q] .. useStart[q+1]).
+  const useStart = new Uint32Array(c.qubits + 1);
   for (let g = 0; g < c.gates; g++) {
     const n = qubitCount(c, g);
-    for (let i = 0; i < n; i++) uses[qubitOf(c.ops[c.opStart[g]! + i]!)]!.push(g);
+    for (let i = 0; i < n; i++) useStart[qubitOf(c.ops[c.opStart[g]! + i]!) + 1]!++;
+  }
+  for (let q = 0; q < c.qubits; q++) useStart[q + 1]! += useStart[q]!;
+  const fill = useStart.slice(0, c.qubits);
+  const uses = new Int32Array(useStart[c.qubits]!);
+  for (let g = 0; g < c.gates; g++) {
+    const n = qubitCount(c, g);
+    for (let i = 0; i < n; i++) uses[fill[qubitOf(c.ops[c.opStart[g]! + i]!)]!++] = g;
   }
   const drop = new Uint8Array(c.gates);
   const ops = c.ops.slice();
-  const isX = (g: number): boolean => GATE_KINDS[c.kind[g]!] === "x" && c.cond[g]! < 0;
+  const isX = (g: number): boolean => c.kind[g] === K.x && c.cond[g]! < 0;
   for (let q = 0; q < c.qubits; q++) {
-    const list = uses[q]!;
-    for (let i = 0; i < list.length; i++) {
-      if (!isX(list[i]!)) continue;
+    const end = useStart[q + 1]!;
+    for (let i = useStart[q]!; i < end; i++) {
+      if (!isX(uses[i]!)) continue;
       let j = i + 1;
-      while (j < list.length && controlOnly(c, list[j]!, q)) j++;
-      if (j < list.length && j > i + 1 && isX(list[j]!)) {
-        drop[list[i]!] = 1;
-        drop[list[j]!] = 1;
-        for (let k = i + 1; k < j; k++) flipPolarity(c, ops, list[k]!, q);
+      while (j < end && controlOnly(c, uses[j]!, q)) j++;
+      if (j < end && j > i + 1 && isX(uses[j]!)) {
+        drop[uses[i]!] = 1;
+        drop[uses[j]!] = 1;
+        for (let k = i + 1; k < j; k++) flipPolarity(c, ops, uses[k]!, q);
         i = j;
       }
     }
   }
+  if (drop.indexOf(1) < 0) return c;
   const out = emptyLike(c);
   for (let g = 0; g < c.gates; g++) {
-    if (!drop[g]) out.addN(c.kind[g]!, ops.subarray(c.opStart[g]!, c.opStart[g + 1]!), c.cond[g]!);
+    if (!drop[g]) out.copy(c, g, ops);
   }
   return out.finish();
 }

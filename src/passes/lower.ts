@@ -47,7 +47,8 @@ export function lower(c: Circuit, opts: LowerOptions): Circuit {
 
 class Lowering {
   private readonly out: CircuitBuilder;
-  private readonly flipped: number[] = [];
+  /** 1 where a qubit is currently flipped by a pending X (grows with the work register). */
+  private flipped = new Uint8Array(64);
   /** Target qubit of a logical AND -> the 2-input ANDs it was lowered to, in order (empty: a copy of `copied`). */
   private readonly ands = new Map<number, { record: And2[]; copied: number }>();
 
@@ -57,13 +58,24 @@ class Lowering {
 
   run(): Circuit {
     const c = this.c;
+    const mcx = this.opts.basis === "mcx";
     for (let g = 0; g < c.gates; g++) {
-      const ops = Array.from(operands(c, g));
       const cond = c.cond[g]!;
-      if (this.opts.basis === "mcx") this.mcxBasis(g, ops, cond);
+      const k = c.kind[g]!;
+      if (mcx && k !== K.unand && k !== K.and) {
+        this.out.copy(c, g);
+        continue;
+      }
+      if (!mcx && k === K.unand) {
+        // Only the target is needed: the AND's lowering was recorded under it.
+        this.unandK(qubitOf(c.ops[c.opStart[g + 1]! - 1]!));
+        continue;
+      }
+      const ops = Array.from(operands(c, g));
+      if (mcx) this.mcxBasis(g, ops, cond);
       else this.gateBasis(g, ops, cond);
     }
-    for (let q = 0; q < this.flipped.length; q++) if (this.flipped[q]) this.plain(q);
+    for (let q = 0; q < this.out.qubits; q++) if (this.flipped[q]) this.plain(q);
     return this.out.finish();
   }
 
@@ -102,6 +114,12 @@ class Lowering {
     }
   }
 
+  private growFlips(q: number): void {
+    const f = new Uint8Array(Math.max(q + 1, this.flipped.length * 2));
+    f.set(this.flipped);
+    this.flipped = f;
+  }
+
   /** Makes qubit q hold its own value (undoing a pending flip). */
   private plain(q: number): void {
     if (this.flipped[q]) {
@@ -114,7 +132,8 @@ class Lowering {
   private control(op: number): number {
     const q = qubitOf(op);
     const want = negated(op) ? 1 : 0;
-    if ((this.flipped[q] ?? 0) !== want) {
+    if (q >= this.flipped.length) this.growFlips(q);
+    if (this.flipped[q] !== want) {
       this.out.add(K.x, pos(q));
       this.flipped[q] = want;
     }
@@ -123,6 +142,13 @@ class Lowering {
 
   /** Reduces encoded controls to `r` encoded controls by 2-input ANDs into fresh qubits. */
   private tree(items: number[], r: number, record: And2[]): number[] {
+    if (items.length === r + 1) {
+      // One AND is enough (a 3-literal clause down to 2 inputs): no intermediate lists.
+      const w = this.out.newWork();
+      this.and2(items[0]!, items[1]!, w);
+      record.push([items[0]!, items[1]!, w]);
+      return r === 1 ? [pos(w)] : [pos(w), items[2]!];
+    }
     while (items.length > r) {
       const next: number[] = [];
       let excess = items.length - r;
@@ -271,6 +297,19 @@ class Lowering {
  * the gate never fires (null).
  */
 export function normalizeControls(ops: readonly number[]): number[] | null {
+  if (ops.length <= 16) {
+    // Small gates (nearly all): a quadratic scan beats building a map.
+    const out: number[] = [];
+    next: for (const op of ops) {
+      for (const o of out) {
+        if (o >>> 1 !== op >>> 1) continue;
+        if (o !== op) return null;
+        continue next;
+      }
+      out.push(op);
+    }
+    return out;
+  }
   const seen = new Map<number, number>();
   const out: number[] = [];
   for (const op of ops) {

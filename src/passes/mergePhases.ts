@@ -5,8 +5,8 @@
  * merged gates are placed where the run ends. A run of r gates becomes at most min(r, 2) gates.
  */
 import { emptyLike, pos, qubitOf, type Circuit, type CircuitBuilder } from "../ir/circuit.js";
-import { GATE_KINDS, K, PHASE_EIGHTHS } from "../ir/kinds.js";
-import { qubitCount, roleOn } from "./commute.js";
+import { GATE_KINDS, K, PHASE_EIGHTHS, ROLE_Z } from "../ir/kinds.js";
+import { qubitCount, roleCodeOn } from "./commute.js";
 
 /** Shortest sequence for e^(i pi k/4) on |1>, k = 0..7. */
 const SEQUENCE: readonly (readonly number[])[] = [
@@ -14,6 +14,10 @@ const SEQUENCE: readonly (readonly number[])[] = [
 ];
 
 export function mergePhases(c: Circuit): Circuit {
+  // Runs need two phase gates on one qubit; with fewer than two in the circuit there is nothing to merge.
+  let phaseGates = 0;
+  for (let g = 0; g < c.gates && phaseGates < 2; g++) if (PHASE_EIGHTHS[GATE_KINDS[c.kind[g]!]!] !== undefined) phaseGates++;
+  if (phaseGates < 2) return c;
   const out = emptyLike(c);
   const pending = new Int8Array(c.qubits);
   const count = new Int32Array(c.qubits);
@@ -35,7 +39,7 @@ export function mergePhases(c: Circuit): Circuit {
     const n = qubitCount(c, g);
     for (let i = 0; i < n; i++) {
       const q = qubitOf(c.ops[c.opStart[g]! + i]!);
-      if (roleOn(c, g, q) !== "z") flush(q);
+      if (roleCodeOn(c, g, q) !== ROLE_Z) flush(q);
     }
     out.copy(c, g);
   }

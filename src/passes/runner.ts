@@ -18,10 +18,15 @@ export class PassError extends Error {
 }
 
 export function runPasses(c: Circuit, names: readonly string[], opts: RunPassesOptions = {}): Circuit {
+  // A pass returns its input object when it changes nothing; a pass whose input is exactly its
+  // own last output (nothing ran in between that changed the circuit) is not run again.
+  const lastOutput = new Map<string, Circuit>();
   for (const name of names) {
     const pass = PASSES[name];
     if (pass === undefined) throw new Error(`unknown pass '${name}'`);
+    if (lastOutput.get(name) === c) continue;
     c = pass.run(c);
+    lastOutput.set(name, c);
     if (opts.validate) {
       const broken = validateCircuit(c);
       if (broken !== null) throw new PassError(name, broken);

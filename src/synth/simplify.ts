@@ -40,18 +40,29 @@ export function simplify(cnf: Cnf): SimplifiedCnf {
   for (let i = 0; i < m; i++) {
     const s = cnf.clauseStart[i]!;
     const e = cnf.clauseStart[i + 1]!;
-    const c = Array.from(cnf.lits.subarray(s, e)).sort((a, b) => Math.abs(a) - Math.abs(b) || a - b);
-    let taut = false;
+    // Insertion sort by variable, then sign, in place in the output (clauses are short).
     const from = nl;
-    for (let k = 0; k < c.length; k++) {
-      const l = c[k]!;
-      if (k > 0 && c[k - 1] === l) {
+    for (let k = s; k < e; k++) {
+      const l = cnf.lits[k]!;
+      let j = nl++;
+      while (j > from && litKey(lits[j - 1]!) > litKey(l)) {
+        lits[j] = lits[j - 1]!;
+        j--;
+      }
+      lits[j] = l;
+    }
+    let taut = false;
+    let w = from;
+    for (let k = from; k < nl; k++) {
+      const l = lits[k]!;
+      if (w > from && lits[w - 1] === l) {
         duplicateLiterals++;
         continue;
       }
-      if (k > 0 && c[k - 1] === -l) taut = true;
-      lits[nl++] = l;
+      if (w > from && lits[w - 1] === -l) taut = true;
+      lits[w++] = l;
     }
+    nl = w;
     if (taut) {
       tautologies++;
       nl = from;
@@ -104,7 +115,14 @@ function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
   const occ = new Uint32Array(lits.length);
   const fill = occStart.slice(0, 2 * variables);
   for (let i = 0; i < m; i++) for (let k = start[i]!; k < start[i + 1]!; k++) occ[fill[index(lits[k]!)]!++] = i;
-  const order = Array.from({ length: m }, (_, i) => i).sort((a, b) => start[a + 1]! - start[a]! - (start[b + 1]! - start[b]!) || a - b);
+  // Clauses by length, then index: a counting sort (lengths are small).
+  let maxLen = 0;
+  for (let i = 0; i < m; i++) maxLen = Math.max(maxLen, start[i + 1]! - start[i]!);
+  const byLen = new Uint32Array(maxLen + 2);
+  for (let i = 0; i < m; i++) byLen[start[i + 1]! - start[i]! + 1]!++;
+  for (let l = 0; l <= maxLen; l++) byLen[l + 1]! += byLen[l]!;
+  const order = new Uint32Array(m);
+  for (let i = 0; i < m; i++) order[byLen[start[i + 1]! - start[i]!]!++] = i;
   let repeated = 0;
   let subsumed = 0;
   let budget = SUBSUMPTION_BUDGET;
@@ -134,14 +152,16 @@ function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
   return { keep, repeated, subsumed, complete: true };
 }
 
+/** Sort key of a literal: by variable, then positive before negative. */
+const litKey = (l: number): number => (l < 0 ? -2 * l + 1 : 2 * l);
+
 /** True when sorted clause [ds, de) is a subset of sorted clause [cs, ce). */
 function contains(lits: Int32Array, cs: number, ce: number, ds: number, de: number): boolean {
-  const key = (l: number): number => Math.abs(l) * 2 + (l < 0 ? 1 : 0);
   let i = cs;
   for (let j = ds; j < de; j++) {
-    const want = key(lits[j]!);
-    while (i < ce && key(lits[i]!) < want) i++;
-    if (i === ce || key(lits[i]!) !== want) return false;
+    const want = litKey(lits[j]!);
+    while (i < ce && litKey(lits[i]!) < want) i++;
+    if (i === ce || litKey(lits[i]!) !== want) return false;
     i++;
   }
   return true;

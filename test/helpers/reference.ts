@@ -30,6 +30,10 @@ import QuantumCircuit from "quantum-circuit";
 export function quantumCircuitRun(qasm: string, input: number[]): Map<number, [number, number]> {
   const c = new QuantumCircuit();
   const errors: unknown[] = [];
+  // quantum-circuit sizes its state by the wires that gates touch: an identity on every
+  // declared qubit keeps idle qubits (a variable in no clause) in the state.
+  qasm = qasm.replace(/^qreg (\w+)\[(\d+)\];$/gm, (line, name: string, size: string) =>
+    `${line}\n${Array.from({ length: Number(size) }, (_, i) => `id ${name}[${i}];`).join("\n")}`);
   c.importQASM(qasm, (e: unknown[]) => {
     if (e && e.length) errors.push(...e);
   });

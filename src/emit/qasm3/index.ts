@@ -1,7 +1,7 @@
 /** The OpenQASM 3 emitter: lower to the syntax tree one statement at a time, print as it goes. */
 import type { Circuit } from "../../ir/circuit.js";
 import { batched, type Sink } from "../sink.js";
-import { programHead, statements } from "./lower.js";
+import { forEachStatement, programHead } from "./lower.js";
 import { printHead, printStatement } from "./print.js";
 
 /**
@@ -11,6 +11,6 @@ import { printHead, printStatement } from "./print.js";
 export function emitQasm3(c: Circuit, out: Sink, comments: readonly string[] = []): void {
   const w = batched(out);
   printHead(programHead(c, comments), w.write);
-  for (const s of statements(c)) w.write(printStatement(s));
+  forEachStatement(c, (s) => w.write(printStatement(s)));
   w.flush();
 }

@@ -2,7 +2,7 @@
  * Circuit -> OpenQASM 3 syntax: the program head, then statements one gate at a time (a
  * generator, so a million-gate circuit is never held as a tree).
  */
-import { GATE_KINDS } from "../../ir/kinds.js";
+import { GATE_KINDS, K } from "../../ir/kinds.js";
 import { negated, operands, qubitOf, type Circuit } from "../../ir/circuit.js";
 import { angleText, qubitNamer } from "../names.js";
 import type { Program, QuantumGate, QuantumGateModifier, Statement } from "./ast.js";
@@ -23,15 +23,32 @@ export function programHead(c: Circuit, comments: readonly string[]): Program {
   };
 }
 
-/** The statements of gate g (usually one; a Z-type gate whose qubits all fire on |0> needs X around it). */
-export function* statements(c: Circuit, name: (q: number) => string = qubitNamer(c)): Generator<Statement> {
+/**
+ * Visits the statements of every gate in order (usually one per gate; a Z-type gate whose
+ * qubits all fire on |0> needs X around it). A callback rather than a generator: this runs once
+ * per gate of circuits with millions of them.
+ */
+export function forEachStatement(c: Circuit, visit: (s: Statement) => void, name: (q: number) => string = qubitNamer(c)): void {
   for (let g = 0; g < c.gates; g++) {
-    const body = gateStatements(c, g, name);
     const cond = c.cond[g]!;
-    if (cond >= 0) yield { kind: "BranchingStatement", condition: `${OUTCOME_REGISTER}[${cond}]`, ifBlock: body };
-    else yield* body;
+    const k = c.kind[g]!;
+    if (cond < 0 && k <= K.ccx) {
+      // Fixed gates (x ... ccx): the common case, without the general path's allocations.
+      const s = c.opStart[g]!;
+      const e = c.opStart[g + 1]!;
+      const qubits: string[] = [];
+      for (let i = s; i < e; i++) qubits.push(name(c.ops[i]! >>> 1));
+      visit({ kind: "QuantumGate", modifiers: NONE, name: GATE_KINDS[k]!, args: NONE_ARGS, qubits });
+      continue;
+    }
+    const body = gateStatements(c, g, name);
+    if (cond >= 0) visit({ kind: "BranchingStatement", condition: `${OUTCOME_REGISTER}[${cond}]`, ifBlock: body });
+    else for (const st of body) visit(st);
   }
 }
+
+const NONE: readonly QuantumGateModifier[] = [];
+const NONE_ARGS: readonly string[] = [];
 
 const gate = (gname: string, qubits: string[], modifiers: QuantumGateModifier[] = [], args: string[] = []): QuantumGate => ({
   kind: "QuantumGate",

@@ -1,0 +1,91 @@
+// The oracle and cost commands, run as a user would.
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const dir = mkdtempSync(join(tmpdir(), "clausegate-oracle-"));
+
+describe("clausegate oracle", () => {
+  it("writes OpenQASM 3 to standard output by default (phase, wide, toffoli, unitary)", () => {
+    const r = cli(["oracle", "examples/allotment-pair.cnf"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^OPENQASM 3\.0;\n/);
+    expect(r.stdout).toContain("// strategy wide, basis toffoli, uncompute unitary");
+    expect(r.stdout).toContain("qubit[4] x;");
+    expect(r.stdout).toMatch(/^ccx /m);
+  });
+  it("writes a file with -o and a report with --report, both complete", () => {
+    const out = join(dir, "o.qasm");
+    const rep = join(dir, "o.json");
+    const r = cli(["oracle", "examples/launch-rota.cnf", "-o", out, "--report", rep, "--basis", "clifford+t", "--uncompute", "measured", "--strategy", "lean", "--kind", "flag"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe("");
+    expect(readFileSync(out, "utf8")).toMatch(/^OPENQASM 3\.0;[\s\S]*\nreset work\[\d+\];\n[\s\S]*;\n$/);
+    const report = JSON.parse(readFileSync(rep, "utf8"));
+    expect(Object.keys(report)).toEqual([
+      "variables", "clauses", "kind", "strategy", "basis", "uncompute", "qubits", "gates", "toffoli_count", "t_count",
+      "t_depth", "cnot_count", "depth", "measurements", "simplification",
+    ]);
+    expect(report).toMatchObject({ variables: 12, clauses: 19, kind: "flag", strategy: "lean", basis: "clifford+t", uncompute: "measured" });
+    expect(report.qubits.search).toBe(12);
+    expect(report.qubits.target).toBe(1);
+    expect(report.qubits.total).toBe(report.qubits.search + report.qubits.work + report.qubits.target);
+    expect(report.measurements).toBeGreaterThan(0);
+    expect(report.gates.t + report.gates.tdg).toBe(report.t_count);
+  });
+  it("writes OpenQASM 2 and JSON", () => {
+    expect(cli(["oracle", "examples/allotment-pair.cnf", "--format", "qasm2"]).stdout).toMatch(/^OPENQASM 2\.0;\n[\s\S]*include "qelib1\.inc";\nqreg x\[4\];/);
+    expect(JSON.parse(cli(["oracle", "examples/allotment-pair.cnf", "--format", "json"]).stdout).format).toBe("clausegate-circuit");
+  });
+  it("refuses OpenQASM 2 for multi-controlled gates with exit 2 and leaves no partial file", () => {
+    const out = join(dir, "refused.qasm");
+    const r = cli(["oracle", "examples/launch-rota.cnf", "--basis", "mcx", "--format", "qasm2", "-o", out]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/cannot write OpenQASM 2\.0.*use --basis toffoli/);
+    expect(existsSync(out)).toBe(false);
+    expect(readdirSync(dir).filter((f) => f.endsWith(".tmp"))).toEqual([]);
+  });
+  it("leaves no output file when the input is bad", () => {
+    const bad = join(dir, "bad.cnf");
+    writeFileSync(bad, "p cnf 2 1\n1 3 0\n");
+    const out = join(dir, "never.qasm");
+    const r = cli(["oracle", bad, "-o", out]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/bad\.cnf:2:3: error: expected a variable in 1\.\.2/);
+    expect(existsSync(out)).toBe(false);
+  });
+  it("says what simplification removed", () => {
+    const r = cli(["oracle", "-"], "p cnf 3 3\n1 1 2 0\n1 -1 0\n1 2 3 0\n");
+    expect(r.stderr).toBe("<stdin>: note: simplified before synthesis: removed 1 duplicate literal, 1 tautology, 1 subsumed clause\n");
+  });
+  it("is byte-identical across runs; --no-optimize gives a larger circuit", () => {
+    const a = cli(["oracle", "examples/launch-rota.cnf", "--basis", "clifford+t"]).stdout;
+    expect(cli(["oracle", "examples/launch-rota.cnf", "--basis", "clifford+t"]).stdout).toBe(a);
+    const raw = cli(["oracle", "examples/launch-rota.cnf", "--basis", "clifford+t", "--no-optimize", "--check-passes"]).stdout;
+    expect(raw.split("\n").length).toBeGreaterThan(a.split("\n").length);
+  });
+  it("rejects an unknown option value with exit 2", () => {
+    const r = cli(["oracle", "examples/allotment-pair.cnf", "--basis", "cliffordt"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/--basis expects one of mcx, toffoli, clifford\+t but got 'cliffordt'/);
+  });
+});
+
+describe("clausegate cost", () => {
+  it("prints one row per strategy and uncomputation plus the textbook row", () => {
+    const r = cli(["cost", "examples/launch-rota.cnf"]);
+    expect(r.code).toBe(0);
+    const lines = r.stdout.trimEnd().split("\n");
+    expect(lines[1]).toMatch(/^strategy\s+uncompute\s+qubits\s+Toffolis\s+T-count\s+T-depth\s+CNOTs\s+depth$/);
+    expect(lines.slice(2).map((l) => l.split(/\s+/).slice(0, 2).join(" "))).toEqual([
+      "wide unitary", "wide measured", "lean unitary", "lean measured", "textbook unitary",
+    ]);
+  });
+  it("prints JSON with --json", () => {
+    const doc = JSON.parse(cli(["cost", "examples/allotment-pair.cnf", "--json"]).stdout);
+    expect(doc.rows).toHaveLength(5);
+    expect(Object.keys(doc.rows[0])).toEqual(["strategy", "uncompute", "qubits", "toffoli_count", "t_count", "t_depth", "cnot_count", "depth"]);
+  });
+});
