@@ -32,14 +32,22 @@ export interface OracleOptions {
 export interface Oracle {
   /** The circuit in the chosen basis: search register `x` (x[v-1] is variable v), `target`, `work`. */
   readonly circuit: Circuit;
+  /** The options it was compiled with, defaults filled in. */
   readonly options: Required<OracleOptions>;
+  /** Declared variables of the formula (the size of the search register). */
   readonly variables: number;
   /** Clauses in the input. */
   readonly clauses: number;
   /** What simplification removed before synthesis. */
-  readonly simplification: SimplifyReport & { readonly clausesKept: number; readonly literalsKept: number };
+  readonly simplification: SimplifyReport & {
+    /** Clauses left for synthesis. */
+    readonly clausesKept: number;
+    /** Literals left for synthesis (L in the cost formulas). */
+    readonly literalsKept: number;
+  };
 }
 
+/** The defaults of {@link OracleOptions}: phase, wide, toffoli, unitary, optimized. */
 export const DEFAULT_ORACLE_OPTIONS: Required<OracleOptions> = {
   kind: "phase",
   strategy: "wide",
@@ -80,25 +88,44 @@ function summary(s: SimplifiedCnf): Oracle["simplification"] {
 
 /** The resource report of an oracle (stable keys, for `--report`). */
 export interface ResourceReport {
+  /** Declared variables. */
   readonly variables: number;
+  /** Clauses in the input. */
   readonly clauses: number;
+  /** The oracle's kind, strategy, basis and uncomputation. */
   readonly kind: OracleKind;
+  /** See {@link OracleOptions.strategy}. */
   readonly strategy: Strategy;
+  /** See {@link OracleOptions.basis}. */
   readonly basis: Basis;
+  /** See {@link OracleOptions.uncompute}. */
   readonly uncompute: Uncompute;
-  readonly qubits: { readonly search: number; readonly work: number; readonly target: number; readonly total: number };
+  /** Qubits by register, and in all. */
+  readonly qubits: {
+    /** The search register x. */
+    readonly search: number;
+    /** Work qubits. */
+    readonly work: number;
+    /** 1 for a flag oracle, else 0. */
+    readonly target: number;
+    /** All qubits. */
+    readonly total: number;
+  };
   /** Gates of the emitted circuit by OpenQASM 3 name. */
   readonly gates: Record<string, number>;
   /** Toffolis in the toffoli-basis lowering (with the chosen uncomputation). */
   readonly toffoli_count: number;
   /** T-count, T-depth and CNOT count of the Clifford+T lowering (with the chosen uncomputation). */
   readonly t_count: number;
+  /** T-depth of the Clifford+T lowering (ASAP). */
   readonly t_depth: number;
+  /** CX plus CZ gates of the Clifford+T lowering. */
   readonly cnot_count: number;
   /** Depth of the emitted circuit. */
   readonly depth: number;
   /** Measurements in the emitted circuit. */
   readonly measurements: number;
+  /** What simplification removed before synthesis. */
   readonly simplification: Oracle["simplification"];
 }
 
@@ -134,12 +161,19 @@ export function oracleResources(cnf: Cnf, oracle: Oracle): ResourceReport {
 
 /** One row of the cost table. */
 export interface CostRow {
+  /** `wide`, `lean`, or the `textbook` reference. */
   readonly strategy: AnyStrategy;
+  /** How temporary ANDs are uncomputed. */
   readonly uncompute: Uncompute;
+  /** Qubits of the Clifford+T circuit. */
   readonly qubits: number;
+  /** Toffolis of the toffoli-basis circuit. */
   readonly toffoli_count: number;
+  /** T gates of the Clifford+T circuit. */
   readonly t_count: number;
+  /** T-depth of the Clifford+T circuit. */
   readonly t_depth: number;
+  /** CX plus CZ gates of the Clifford+T circuit. */
   readonly cnot_count: number;
   /** Depth of the Clifford+T circuit. */
   readonly depth: number;

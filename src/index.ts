@@ -22,7 +22,7 @@ export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";
 export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
-export type { OracleKind, Strategy, SimplifyReport } from "./synth/index.js";
+export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
 export type { Oracle, OracleOptions, ResourceReport, CostRow } from "./compile.js";
 export { compileOracle, oracleResources, costTable, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
 export { PassError } from "./passes/runner.js";

@@ -17,9 +17,19 @@ import { GATE_KINDS } from "../ir/kinds.js";
 import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
 import { batched, type Sink } from "./sink.js";
 
+/** The `format` field of clausegate's JSON circuits. */
 export const CIRCUIT_FORMAT = "clausegate-circuit";
+/** The schema version written in the `version` field. */
 export const CIRCUIT_FORMAT_VERSION = 1;
 
+/**
+ * Writes `c` as versioned JSON (schema above) to `out`, one gate per line.
+ *
+ * @example
+ * ```ts
+ * const text = collect((sink) => emitJson(compileOracle(cnf).circuit, sink));
+ * ```
+ */
 export function emitJson(c: Circuit, out: Sink, comments: readonly string[] = []): void {
   const w = batched(out);
   w.write(`{"format":"${CIRCUIT_FORMAT}","version":${CIRCUIT_FORMAT_VERSION},"comments":${JSON.stringify(comments)},\n`);

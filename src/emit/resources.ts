@@ -9,6 +9,7 @@ import type { Statement } from "./qasm3/ast.js";
 export interface CircuitCounts {
   /** OpenQASM 3 gate name (with modifiers, e.g. `ctrl(3) @ x`) -> count, as emitted. */
   readonly gates: Record<string, number>;
+  /** T and Tdg gates. */
   readonly tCount: number;
   /** Largest number of T/Tdg gates on any path (ASAP layering). */
   readonly tDepth: number;
@@ -18,9 +19,18 @@ export interface CircuitCounts {
   readonly toffoliCount: number;
   /** ASAP depth: every gate but gphase is one layer on the qubits (and classical bit) it uses. */
   readonly depth: number;
+  /** Measurements. */
   readonly measurements: number;
 }
 
+/**
+ * Counts a circuit's gates, T-count, T-depth, CNOTs, Toffolis, depth and measurements.
+ *
+ * @example
+ * ```ts
+ * countCircuit(compileOracle(cnf, { basis: "clifford+t" }).circuit).tCount;
+ * ```
+ */
 export function countCircuit(c: Circuit): CircuitCounts {
   const gates: Record<string, number> = {};
   const tally = (s: Statement): void => {

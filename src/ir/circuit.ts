@@ -12,21 +12,31 @@ export type RegisterRole = "search" | "work" | "target";
 export interface Register {
   /** Name in emitted programs: `x`, `work` or `target`. */
   readonly name: string;
+  /** What the register is for. */
   readonly role: RegisterRole;
   /** First qubit index. */
   readonly start: number;
+  /** Number of qubits. */
   readonly size: number;
 }
 
 /** A quantum circuit over numbered qubits and classical bits. */
 export interface Circuit {
+  /** Number of qubits (all registers together). */
   readonly qubits: number;
+  /** Number of classical bits (measurement outcomes). */
   readonly clbits: number;
+  /** Registers in qubit order: `x` (search), `target` (flag oracles only), `work`. */
   readonly registers: readonly Register[];
+  /** Number of gates. */
   readonly gates: number;
+  /** Kind of each gate, an index into {@link GATE_KINDS}. */
   readonly kind: Uint8Array;
+  /** Gate g's operands are `ops[opStart[g] .. opStart[g + 1])`. */
   readonly opStart: Uint32Array;
+  /** Operands of all gates; qubit operands are encoded `(qubit << 1) | negated`. */
   readonly ops: Int32Array;
+  /** The classical bit each gate is conditioned on (it acts only when that bit is 1), or -1. */
   readonly cond: Int32Array;
 }
 

@@ -19,6 +19,7 @@ export const GATE_KINDS = [
   "gphase", "measure", "reset",
 ] as const;
 
+/** The name of a gate kind. */
 export type GateKind = (typeof GATE_KINDS)[number];
 
 /** Kind name -> small integer stored in Circuit.kind. */

@@ -12,7 +12,12 @@ export interface RunPassesOptions {
 
 /** Thrown when a pass leaves a circuit that breaks an invariant. */
 export class PassError extends Error {
-  constructor(readonly pass: string, readonly invariant: string) {
+  constructor(
+    /** The pass that ran last. */
+    readonly pass: string,
+    /** The invariant its output breaks. */
+    readonly invariant: string,
+  ) {
     super(`pass '${pass}' broke an invariant: ${invariant}`);
   }
 }

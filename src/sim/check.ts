@@ -12,10 +12,13 @@ import { basisTerm, CircuitFault, runSparse, seededRandom, type Term } from "./s
 export interface Mismatch {
   /** Values of x[0..n-1]. */
   readonly assignment: boolean[];
+  /** What the circuit did instead. */
   readonly message: string;
 }
 
+/** What {@link checkOracleSparse} checks. */
 export interface OracleCheck {
+  /** The oracle's kind. */
   readonly kind: "phase" | "flag";
   /** Assignments to check, each as a bit mask over variables (bit v-1 = variable v). */
   readonly assignments: Iterable<number>;

@@ -10,13 +10,17 @@ import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
 
 /** One basis state with its amplitude. Bits of qubit q: word q >>> 5, bit q & 31. */
 export interface Term {
+  /** The basis state, 32 qubits per word. */
   bits: Int32Array;
+  /** Real part of the amplitude. */
   re: number;
+  /** Imaginary part of the amplitude. */
   im: number;
 }
 
 /** The result of a run. */
 export interface SparseRun {
+  /** The final state's nonzero terms. */
   terms: Term[];
   /** Classical bits after the run (0/1). */
   clbits: Uint8Array;
@@ -24,7 +28,11 @@ export interface SparseRun {
 
 /** Thrown when a logical AND finds its target dirty: a bug in the circuit, reported with place. */
 export class CircuitFault extends Error {
-  constructor(readonly gate: number, message: string) {
+  constructor(
+    /** Index of the offending gate. */
+    readonly gate: number,
+    message: string,
+  ) {
     super(`gate ${gate}: ${message}`);
   }
 }

@@ -13,7 +13,7 @@ export { simplify } from "./simplify.js";
 
 /** How clauses become gates: `wide` keeps every clause bit (fewest T), `lean` counts violated clauses (fewest qubits). */
 export type Strategy = "wide" | "lean";
-/** Strategies including the textbook reference used in cost tables. */
+/** Strategies including `textbook`, the reference construction of cost tables. */
 export type AnyStrategy = Strategy | "textbook";
 
 export const STRATEGIES: readonly Strategy[] = ["wide", "lean"];

@@ -7,9 +7,13 @@ import type { Cnf } from "../cnf/cnf.js";
 
 /** What simplification removed. */
 export interface SimplifyReport {
+  /** Literals that stood twice in one clause. */
   readonly duplicateLiterals: number;
+  /** Clauses holding a literal and its negation (always true). */
   readonly tautologies: number;
+  /** Clauses equal to an earlier one. */
   readonly repeated: number;
+  /** Clauses that contain another, shorter clause (true whenever it is). */
   readonly subsumed: number;
   /** False when the subsumption check ran out of budget (a formula with huge occurrence lists). */
   readonly subsumptionComplete: boolean;
