@@ -22,21 +22,34 @@ export interface OracleCheck {
   readonly kind: "phase" | "flag";
   /** Assignments to check, each as a bit mask over variables (bit v-1 = variable v). */
   readonly assignments: Iterable<number>;
+  /** More assignments to check, as values of variables 1..n (for formulas beyond 52 variables). */
+  readonly explicit?: readonly boolean[][] | undefined;
   /** Seed for measurement outcomes. */
   readonly seed?: number;
 }
 
 const TOL = 1e-9;
 
-/** Checks the oracle on each assignment; returns the first mismatch or null. */
+/**
+ * Checks the oracle on each assignment; returns the first mismatch or null. Measurements take
+ * the outcomes drawn for the first input for every later input too, without renormalizing, so
+ * that the check is of one linear map: each outcome branch must act on every input as the
+ * oracle times one common positive factor (a branch whose outcome depends on the input, or
+ * whose factor differs between inputs, would spoil superpositions of inputs).
+ */
 export function checkOracleSparse(c: Circuit, cnf: Cnf, opts: OracleCheck): Mismatch | null {
   const n = cnf.variables;
   const search = c.registers.find((r) => r.role === "search")!;
   if (search.size !== n) return { assignment: [], message: `search register has ${search.size} qubits, the formula ${n} variables` };
   const targetReg = c.registers.find((r) => r.role === "target");
   const random = seededRandom(opts.seed ?? 1);
-  for (const x of opts.assignments) {
-    const assignment = Array.from({ length: n }, (_, v) => Math.floor(x / 2 ** v) % 2 === 1);
+  let forced: number[] | undefined;
+  let scale = 0;
+  function* all(): Generator<boolean[]> {
+    for (const x of opts.assignments) yield Array.from({ length: n }, (_, v) => Math.floor(x / 2 ** v) % 2 === 1);
+    if (opts.explicit) yield* opts.explicit;
+  }
+  for (const assignment of all()) {
     const f = evaluate(cnf, assignment);
     const ones = assignment.flatMap((on, v) => (on ? [v] : []));
     const bs = opts.kind === "flag" ? [0, 1] : [0];
@@ -46,8 +59,12 @@ export function checkOracleSparse(c: Circuit, cnf: Cnf, opts: OracleCheck): Mism
       const expected = basisTerm(c.qubits, expectOnes);
       const sign = opts.kind === "phase" && f ? -1 : 1;
       let terms: Term[];
+      let runScale: number;
+      const record: number[] = [];
       try {
-        terms = runSparse(c, [basisTerm(c.qubits, input)], random).terms;
+        const run = runSparse(c, [basisTerm(c.qubits, input)], random, forced ? { forced } : { record });
+        terms = run.terms;
+        runScale = run.scale;
       } catch (e) {
         if (e instanceof CircuitFault) return { assignment, message: e.message };
         throw e;
@@ -63,8 +80,16 @@ export function checkOracleSparse(c: Circuit, cnf: Cnf, opts: OracleCheck): Mism
         const other = terms.find((t) => t.bits.join(",") !== key);
         return { assignment, message: `the state left the expected basis state${other ? `: a term with ${describeBits(other, c)}` : ""}` };
       }
+      if (forced === undefined) {
+        forced = record;
+        scale = runScale;
+      }
       if (Math.abs(hit.re - sign) > TOL || Math.abs(hit.im) > TOL) {
-        return { assignment, message: `amplitude ${hit.re.toFixed(6)}${hit.im >= 0 ? "+" : ""}${hit.im.toFixed(6)}i, expected ${sign} (f = ${f ? 1 : 0}${b ? ", target 1" : ""})` };
+        const shown = `${hit.re.toFixed(6)}${hit.im >= 0 ? "+" : ""}${hit.im.toFixed(6)}i`;
+        return { assignment, message: `phase ${shown} where ${sign} was expected (f = ${f ? 1 : 0}${b ? ", target 1" : ""})` };
+      }
+      if (Math.abs(runScale / scale - 1) > TOL) {
+        return { assignment, message: `its measurement outcomes have probability ${(runScale * runScale).toExponential(3)} here but ${(scale * scale).toExponential(3)} for another input: the outcome depends on the input` };
       }
     }
   }

@@ -24,6 +24,11 @@ export interface SparseRun {
   terms: Term[];
   /** Classical bits after the run (0/1). */
   clbits: Uint8Array;
+  /**
+   * Amplitude of this outcome branch before renormalization: the product of the square roots of
+   * the chosen outcomes' probabilities (1 without measurements).
+   */
+  scale: number;
 }
 
 /** Thrown when a logical AND finds its target dirty: a bug in the circuit, reported with place. */
@@ -63,8 +68,33 @@ export function basisTerm(qubits: number, ones: readonly number[]): Term {
   return t;
 }
 
+/** How measurements behave in {@link runSparse}. */
+export interface SparseOptions {
+  /**
+   * Outcomes to force, in order (measurements and resets); when the list runs out, outcomes are
+   * drawn. A forced outcome of probability 0 throws a {@link CircuitFault}: the outcome depends on
+   * the input, so the circuit would decohere a superposition of inputs.
+   */
+  readonly forced?: readonly number[];
+  /** Receives every outcome, in order. */
+  readonly record?: number[];
+}
+
 /** Runs `c` on the given initial terms; `random` draws measurement outcomes. */
-export function runSparse(c: Circuit, initial: Term[], random: () => number): SparseRun {
+export function runSparse(c: Circuit, initial: Term[], random: () => number, opts: SparseOptions = {}): SparseRun {
+  let measured = 0;
+  const outcomeFor = (g: number, p1: number, total: number): number => {
+    const i = measured++;
+    let outcome: number;
+    if (opts.forced !== undefined && i < opts.forced.length) {
+      outcome = opts.forced[i]!;
+      const p = outcome ? p1 : total - p1;
+      if (p < 1e-12 * total) throw new CircuitFault(g, `measurement ${i} cannot give outcome ${outcome} here although it did for another input: its outcome depends on the input, so the circuit is not an oracle`);
+    } else outcome = random() * total < p1 ? 1 : 0;
+    opts.record?.push(outcome);
+    return outcome;
+  };
+  let scale = 1;
   let terms: Term[] = initial.map((t) => ({ bits: t.bits.slice(), re: t.re, im: t.im }));
   const clbits = new Uint8Array(c.clbits);
   for (let g = 0; g < c.gates; g++) {
@@ -107,15 +137,25 @@ export function runSparse(c: Circuit, initial: Term[], random: () => number): Sp
         break;
       }
       case "h": terms = hadamard(terms, q0); break;
-      case "measure": clbits[ops[1]!] = measure(terms, q0, random, (kept) => (terms = kept)); break;
-      case "reset": if (measure(terms, q0, random, (kept) => (terms = kept))) for (const t of terms) flip(t, q0); break;
+      case "measure": case "reset": {
+        let p = 1;
+        const outcome = measure(terms, q0, (p1, tot) => {
+          const o = outcomeFor(g, p1, tot);
+          p = (o ? p1 : tot - p1) / tot;
+          return o;
+        }, (kept) => (terms = kept));
+        scale *= Math.sqrt(p);
+        if (name === "measure") clbits[ops[1]!] = outcome;
+        else if (outcome) for (const t of terms) flip(t, q0);
+        break;
+      }
       default: {
         const never: never = name;
         throw new Error(`unknown gate ${String(never)}`);
       }
     }
   }
-  return { terms, clbits };
+  return { terms, clbits, scale };
 }
 
 function allFire(t: Term, ops: Int32Array, n: number): boolean {
@@ -170,8 +210,8 @@ function sameBits(a: Int32Array, b: Int32Array): boolean {
   return true;
 }
 
-/** Measures qubit q: draws an outcome, keeps the matching terms, renormalizes. */
-function measure(terms: Term[], q: number, random: () => number, set: (kept: Term[]) => void): number {
+/** Measures qubit q: picks an outcome, keeps the matching terms, renormalizes if asked. */
+function measure(terms: Term[], q: number, pick: (p1: number, total: number) => number, set: (kept: Term[]) => void): number {
   let p1 = 0;
   let total = 0;
   for (const t of terms) {
@@ -179,9 +219,9 @@ function measure(terms: Term[], q: number, random: () => number, set: (kept: Ter
     total += w;
     if (bit(t, q)) p1 += w;
   }
-  const outcome = random() * total < p1 ? 1 : 0;
+  const outcome = pick(p1, total);
   const kept = terms.filter((t) => bit(t, q) === outcome);
-  const norm = Math.sqrt(outcome ? p1 : total - p1);
+  const norm = Math.sqrt((outcome ? p1 : total - p1) / total);
   for (const t of kept) {
     t.re /= norm;
     t.im /= norm;

@@ -1,0 +1,157 @@
+/**
+ * The checking loop of `verify` over a range of blocks, shared by the main thread and the
+ * verification workers: plain data in, counts and the first failing lane out.
+ */
+import { newBlock, runBlock, type BitBlock, type BitProgram } from "./bitsim.js";
+
+/** Lane patterns: bit j of LANE[v] is bit v of j. */
+const LANE = [0xaaaaaaaa | 0, 0xcccccccc | 0, 0xf0f0f0f0 | 0, 0xff00ff00 | 0, 0xffff0000 | 0];
+
+/** Everything a range of checks needs (structured-clone friendly for workers). */
+export interface VerifyJob {
+  readonly program: BitProgram;
+  readonly variables: number;
+  readonly lits: Int32Array;
+  readonly clauseStart: Uint32Array;
+  readonly kind: "phase" | "flag";
+  /** Qubit of the flag oracle's target, or -1. */
+  readonly target: number;
+  /** Work qubits are [workStart, workEnd). */
+  readonly workStart: number;
+  readonly workEnd: number;
+  readonly seed: number;
+  readonly mode: "exhaustive" | "sampled";
+  /** Words per block. */
+  readonly blockWords: number;
+  /** Exhaustive: global word range; sampled: lane-word range over samples then models. */
+  readonly fromWord: number;
+  readonly toWord: number;
+  /** Sampled: number of random assignments, then `models` (n bits each, flattened). */
+  readonly samples: number;
+  readonly models: Uint8Array;
+  readonly modelCount: number;
+}
+
+export interface RangeResult {
+  /** Assignments checked (each with every target value and outcome pattern). */
+  checked: number;
+  /** Assignments that failed. */
+  bad: number;
+  /** The lowest failing lane index (an assignment for exhaustive, a sample index for sampled), or -1. */
+  firstBad: number;
+  /** Checked assignments that satisfy the formula. */
+  models: number;
+}
+
+/** A 32-bit hash of three integers (for reproducible outcomes and samples). */
+export function hash3(a: number, b: number, c: number): number {
+  let h = Math.imul(a ^ 0x9e3779b9, 0x85ebca6b) ^ Math.imul(b + 0x7f4a7c15, 0xc2b2ae35) ^ Math.imul(c + 0x165667b1, 0x27d4eb2f);
+  h ^= h >>> 15;
+  h = Math.imul(h, 0x2c1b3c6d);
+  h ^= h >>> 12;
+  h = Math.imul(h, 0x297a2d39);
+  return (h ^ (h >>> 15)) | 0;
+}
+
+/** Variable v (0-based) of sampled lane s. */
+export function sampleBit(job: VerifyJob, s: number, v: number): number {
+  if (s < job.samples) return hash3(job.seed, s, v) & 1;
+  const k = s - job.samples;
+  return job.models[k * job.variables + v]!;
+}
+
+/** Lanes of the last word that hold real assignments. */
+function validLanes(job: VerifyJob, word: number): number {
+  if (job.mode === "exhaustive") return job.variables >= 5 ? -1 : ((2 ** (2 ** job.variables)) - 1) | 0;
+  const total = job.samples + job.modelCount;
+  const first = word * 32;
+  if (first + 32 <= total) return -1;
+  return total <= first ? 0 : ((2 ** (total - first)) - 1) | 0;
+}
+
+function fillSearch(job: VerifyJob, b: BitBlock, word0: number): void {
+  const W = b.words;
+  const n = job.variables;
+  for (let v = 0; v < n; v++) {
+    for (let w = 0; w < W; w++) {
+      const g = word0 + w;
+      let x = 0;
+      if (job.mode === "exhaustive") x = v < 5 ? LANE[v]! : -((g >>> (v - 5)) & 1);
+      else for (let lane = 0; lane < 32; lane++) x |= sampleBit(job, g * 32 + lane, v) << lane;
+      b.state[v * W + w] = x;
+    }
+  }
+}
+
+/** Checks blocks of the job's range; `onBlock(words)` reports progress. */
+export function runVerifyRange(job: VerifyJob, onBlock?: (words: number) => void): RangeResult {
+  const { program, variables: n, lits, clauseStart } = job;
+  const W = job.blockWords;
+  const b = newBlock(program, W);
+  const init = new Int32Array(n * W);
+  const f = new Int32Array(W);
+  const badLanes = new Int32Array(W);
+  const result: RangeResult = { checked: 0, bad: 0, firstBad: -1, models: 0 };
+  const passes = job.kind === "flag" || program.measurements > 0 ? 2 : 1;
+  for (let word0 = job.fromWord; word0 < job.toWord; word0 += W) {
+    const words = Math.min(W, job.toWord - word0);
+    badLanes.fill(0);
+    for (let pass = 0; pass < passes; pass++) {
+      b.state.fill(0);
+      b.sign.fill(0);
+      b.fault.fill(0);
+      fillSearch(job, b, word0);
+      if (pass === 0) {
+        init.set(b.state.subarray(0, n * W));
+        for (let w = 0; w < W; w++) f[w] = formulaWord(lits, clauseStart, b.state, W, w);
+      }
+      const flagIn = pass === 1 ? -1 : 0;
+      if (job.target >= 0) b.state.fill(flagIn, job.target * W, job.target * W + W);
+      const flipOutcomes = pass === 1 ? -1 : 0;
+      runBlock(program, b, (m, w) => hash3(job.seed, m, word0 + w) ^ flipOutcomes);
+      // Block-wise loops (one register at a time) keep memory access sequential.
+      for (let w = 0; w < words; w++) badLanes[w]! |= b.fault[w]!;
+      for (let v = 0; v < n; v++) for (let w = 0; w < words; w++) badLanes[w]! |= b.state[v * W + w]! ^ init[v * W + w]!;
+      for (let q = job.workStart; q < job.workEnd; q++) for (let w = 0; w < words; w++) badLanes[w]! |= b.state[q * W + w]!;
+      for (let w = 0; w < words; w++) {
+        if (job.kind === "phase") badLanes[w]! |= b.sign[w]! ^ f[w]!;
+        else badLanes[w]! |= b.sign[w]! | (b.state[job.target * W + w]! ^ flagIn ^ f[w]!);
+      }
+    }
+    for (let w = 0; w < words; w++) {
+      const valid = validLanes(job, word0 + w);
+      const bad = badLanes[w]! & valid;
+      result.checked += popcount(valid);
+      result.models += popcount(f[w]! & valid);
+      if (bad !== 0) {
+        result.bad += popcount(bad);
+        const lane = 31 - Math.clz32(bad & -bad);
+        const index = (word0 + w) * 32 + lane;
+        if (result.firstBad < 0 || index < result.firstBad) result.firstBad = index;
+      }
+    }
+    onBlock?.(words);
+  }
+  return result;
+}
+
+/** The formula's value on the 32 lanes of word w. */
+function formulaWord(lits: Int32Array, clauseStart: Uint32Array, state: Int32Array, W: number, w: number): number {
+  let acc = -1;
+  for (let i = 0; i + 1 < clauseStart.length && acc !== 0; i++) {
+    let c = 0;
+    for (let k = clauseStart[i]!; k < clauseStart[i + 1]!; k++) {
+      const l = lits[k]!;
+      c |= l > 0 ? state[(l - 1) * W + w]! : ~state[(-l - 1) * W + w]!;
+    }
+    acc &= c;
+  }
+  return acc;
+}
+
+function popcount(x: number): number {
+  x -= (x >>> 1) & 0x55555555;
+  x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+  x = (x + (x >>> 4)) & 0x0f0f0f0f;
+  return Math.imul(x, 0x01010101) >>> 24;
+}
