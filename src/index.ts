@@ -37,6 +37,10 @@ export type { Term, SparseRun } from "./sim/sparse.js";
 export { runSparse, basisTerm, seededRandom, CircuitFault } from "./sim/sparse.js";
 export type { Mismatch, OracleCheck } from "./sim/check.js";
 export { checkOracleSparse, allAssignments } from "./sim/check.js";
+export type { VerifyOptions, VerifyResult, Counterexample } from "./sim/verify.js";
+export { verifyOracle, DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT } from "./sim/verify.js";
+export type { CircuitReadResult } from "./ir/read.js";
+export { readCircuit, readCircuitJson, readCircuitQasm3 } from "./ir/read.js";
 
 import type { ReadResult } from "./cnf/scanner.js";
 import { bytesOf, type DimacsInput } from "./cnf/source.js";

@@ -2,11 +2,13 @@
 import { readFileSync } from "node:fs";
 import { countCommand, countHelp } from "./count.js";
 import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
+import { verifyCommand, verifyHelp } from "./verify.js";
 import { EXIT_BAD_INPUT, UserError } from "./io.js";
 import { PassError } from "../index.js";
 
 const commands: Record<string, { run: (argv: string[]) => Promise<number>; summary: string; help: string }> = {
   oracle: { run: oracleCommand, summary: "compile a DIMACS CNF formula into an oracle circuit", help: oracleHelp },
+  verify: { run: verifyCommand, summary: "check that a circuit is an oracle for a formula", help: verifyHelp },
   cost: { run: costCommand, summary: "tabulate what an oracle for the formula costs, per strategy", help: costHelp },
   count: { run: countCommand, summary: "count the models of a DIMACS CNF formula exactly", help: countHelp },
 };

@@ -6,6 +6,7 @@ import {
 } from "../index.js";
 import { displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
 import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
+import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./verify.js";
 
 export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
 
@@ -18,6 +19,7 @@ Options:
   --format qasm3|qasm2|json   output format (default qasm3)
 ${ORACLE_HELP}
   --report FILE               also write the resource report (JSON)
+  --verify                    verify the oracle first (as clausegate verify); write only if it passes
   -h, --help                  show this help
 `;
 
@@ -34,10 +36,10 @@ const FORMATS = ["qasm3", "qasm2", "json"] as const;
 export function oracleOptions(values: Record<string, string | boolean | undefined>): Required<OracleOptions> {
   const str = (k: string): string | undefined => values[k] as string | undefined;
   return {
-    kind: choice(str("kind"), "--kind", ["phase", "flag"], "phase"),
-    strategy: choice(str("strategy"), "--strategy", ["wide", "lean"], "wide"),
-    basis: choice(str("basis"), "--basis", ["mcx", "toffoli", "clifford+t"], "toffoli"),
-    uncompute: choice(str("uncompute"), "--uncompute", ["unitary", "measured"], "unitary"),
+    kind: choice(str("kind"), "--kind", ["phase", "flag"] as const, "phase"),
+    strategy: choice(str("strategy"), "--strategy", ["wide", "lean"] as const, "wide"),
+    basis: choice(str("basis"), "--basis", ["mcx", "toffoli", "clifford+t"] as const, "toffoli"),
+    uncompute: choice(str("uncompute"), "--uncompute", ["unitary", "measured"] as const, "unitary"),
     optimize: values["no-optimize"] !== true,
     validatePasses: values["check-passes"] === true,
   };
@@ -71,6 +73,8 @@ export async function oracleCommand(argv: string[]): Promise<number> {
       output: { type: "string", short: "o" },
       format: { type: "string" },
       report: { type: "string" },
+      verify: { type: "boolean" },
+      ...VERIFY_ARGS,
       help: { type: "boolean", short: "h" },
     },
   });
@@ -78,12 +82,21 @@ export async function oracleCommand(argv: string[]): Promise<number> {
     process.stdout.write(oracleHelp);
     return 0;
   }
+  const flags = verifyFlags(values);
   const file = oneInput(positionals, "oracle");
   const format = choice(values.format, "--format", FORMATS, "qasm3");
   const options = oracleOptions(values);
   const cnf = await loadCnf(file);
   const oracle = compileOracle(cnf, options);
   noteSimplification(oracle, file);
+  if (values.verify) {
+    const r = await runVerification(cnf, oracle.circuit, flags, options.kind);
+    process.stderr.write(`${reportLines(r, file).join("\n")}\n`);
+    if (!r.verified) {
+      process.stderr.write("clausegate oracle: error: the oracle failed verification; nothing was written (please report this with the input)\n");
+      return 1;
+    }
+  }
   writeOracle(oracle, cnf, file, format, values.output, values.report);
   return 0;
 }
