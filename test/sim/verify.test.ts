@@ -1,0 +1,168 @@
+// Verification: both simulators against each other and against outside references, every
+// combination verified, and mutated circuits rejected with a true counterexample.
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { CircuitBuilder, K } from "../helpers/circuits.js";
+import { randomKSat } from "../helpers/formulas.js";
+import {
+  checkOracleSparse, cnfFromClauses, collect, compileOracle, countModels, emitJson, emitQasm3, readCircuit, verifyOracle,
+  type Circuit, type Cnf,
+} from "../helpers/lib.js";
+
+const formula = fc.integer({ min: 1, max: 8 }).chain((n) =>
+  fc.record({ n: fc.constant(n), clauses: fc.array(fc.array(fc.integer({ min: 1, max: n }).chain((v) => fc.constantFrom(v, -v)), { maxLength: 5 }), { maxLength: 10 }) }),
+);
+const COMBOS = (["phase", "flag"] as const).flatMap((kind) =>
+  (["wide", "lean"] as const).flatMap((strategy) =>
+    (["mcx", "toffoli", "clifford+t"] as const).flatMap((basis) => (["unitary", "measured"] as const).map((uncompute) => ({ kind, strategy, basis, uncompute }))),
+  ),
+);
+
+describe("verifyOracle", () => {
+  it("verifies every strategy x kind x basis x uncomputation exhaustively on random formulas", async () => {
+    await fc.assert(
+      fc.asyncProperty(formula, fc.constantFrom(...COMBOS), async ({ n, clauses }, o) => {
+        const cnf = cnfFromClauses(n, clauses);
+        const r = await verifyOracle(cnf, compileOracle(cnf, o).circuit, { threads: 1 });
+        expect(r.counterexample).toBeNull();
+        expect(r).toMatchObject({ verified: true, method: "exhaustive", assignments: 2 ** n });
+        // Clifford+T circuits need the state-vector simulator, unless they hold no T gate at all.
+        if (o.basis !== "clifford+t") expect(r.simulator).toBe("bit-parallel");
+      }),
+      { numRuns: 150 },
+    );
+  });
+  it("finds on all 2^n inputs exactly as many satisfying assignments as the exact model count", async () => {
+    await fc.assert(
+      fc.asyncProperty(formula, async ({ n, clauses }) => {
+        const cnf = cnfFromClauses(n, clauses);
+        const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "mcx" }).circuit, { threads: 1 });
+        const exact = await countModels(cnf);
+        expect(exact.ok && BigInt(r.models)).toBe(exact.ok && exact.models);
+      }),
+      { numRuns: 100 },
+    );
+  });
+  it("checks 2^20 assignments of a 20-variable formula on worker threads", async () => {
+    const cnf = randomKSat(20, 85, 3, 7);
+    const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "toffoli", uncompute: "measured" }).circuit, { threads: 2 });
+    expect(r).toMatchObject({ verified: true, method: "exhaustive", assignments: 2 ** 20 });
+    const exact = await countModels(cnf);
+    expect(exact.ok && BigInt(r.models)).toBe(exact.ok && exact.models);
+  });
+  it("samples above the exhaustive limit, including satisfying assignments found by local search", async () => {
+    const cnf = randomKSat(60, 200, 3, 8);
+    const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "mcx" }).circuit, { samples: 1000 });
+    expect(r).toMatchObject({ verified: true, method: "sampled" });
+    expect(r.assignments).toBeGreaterThanOrEqual(1000);
+    expect(r.models).toBeGreaterThan(0);
+  });
+  it("rejects a search register of the wrong size", async () => {
+    const cnf = cnfFromClauses(3, [[1, 2]]);
+    const r = await verifyOracle(cnfFromClauses(4, [[1, 2]]), compileOracle(cnf).circuit);
+    expect(r.verified).toBe(false);
+    expect(r.problem).toMatch(/3 qubits but the formula declares 4/);
+  });
+  it("verifies circuits read back from OpenQASM 3 and JSON", async () => {
+    const cnf = randomKSat(8, 30, 3, 9);
+    for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
+      const c = compileOracle(cnf, { basis, uncompute: "measured", kind: "flag" }).circuit;
+      for (const text of [collect((s) => emitQasm3(c, s)), collect((s) => emitJson(c, s))]) {
+        const back = readCircuit(text);
+        expect(back.diagnostics).toEqual([]);
+        expect((await verifyOracle(cnf, back.circuit!)).verified).toBe(true);
+      }
+    }
+  });
+});
+
+/** A copy of c with gate `drop` removed, or with gates inserted before index `at`. */
+function edit(c: Circuit, change: (b: CircuitBuilder, g: number) => boolean): Circuit {
+  const b = new CircuitBuilder({ search: c.registers[0]!.size, target: c.registers.find((r) => r.role === "target")?.size ?? 0, work: c.registers.find((r) => r.role === "work")?.size ?? 0, clbits: c.clbits });
+  for (let g = 0; g <= c.gates; g++) {
+    if (change(b, g)) continue;
+    if (g < c.gates) b.copy(c, g);
+  }
+  return b.finish();
+}
+
+/**
+ * True when the sparse simulator finds the circuit wrong on this assignment, for some of 16
+ * measurement-outcome sequences (a dropped reset shows only when its measurement gives 1).
+ */
+function wrongOn(cnf: Cnf, c: Circuit, kind: "phase" | "flag", assignment: boolean[]): boolean {
+  const x = assignment.reduce((acc, on, v) => acc + (on ? 2 ** v : 0), 0);
+  return Array.from({ length: 16 }, (_, i) => i + 1).some((seed) => checkOracleSparse(c, cnf, { kind, assignments: [x], seed }) !== null);
+}
+
+describe("mutation tests: verify rejects a broken oracle with a true counterexample", () => {
+  const satisfiable = fc.integer({ min: 3, max: 8 }).chain((n) => fc.integer({ min: 1, max: 1000 }).map((seed) => randomKSat(n, Math.round(n * 2.5), 3, seed)));
+
+  async function expectCaught(cnf: Cnf, mutated: Circuit, kind: "phase" | "flag"): Promise<void> {
+    const r = await verifyOracle(cnf, mutated, { threads: 1 });
+    expect(r.verified).toBe(false);
+    expect(r.counterexample).not.toBeNull();
+    expect(wrongOn(cnf, mutated, kind, r.counterexample!.assignment)).toBe(true);
+    expect(r.counterexample!.dimacs).toMatch(/^(-?\d+ )+0$/);
+  }
+
+  it("flipping one control polarity (mcx basis)", async () => {
+    await fc.assert(
+      fc.asyncProperty(satisfiable, fc.nat(), async (cnf, pick) => {
+        const c = compileOracle(cnf, { basis: "mcx" }).circuit;
+        const controlled = Array.from({ length: c.gates }, (_, g) => g).filter((g) => c.kind[g] === K.mcx && c.opStart[g + 1]! - c.opStart[g]! > 1);
+        fc.pre(controlled.length > 0);
+        const g = controlled[pick % controlled.length]!;
+        const ops = c.ops.slice();
+        ops[c.opStart[g]!]! ^= 1;
+        const mutated = { ...c, ops };
+        await expectCaught(cnf, mutated, "phase");
+      }),
+      { numRuns: 40 },
+    );
+  });
+  it("dropping one uncomputation gate (toffoli basis, unitary and measured)", async () => {
+    await fc.assert(
+      fc.asyncProperty(satisfiable, fc.constantFrom("unitary" as const, "measured" as const), fc.nat(), async (cnf, uncompute, pick) => {
+        const c = compileOracle(cnf, { basis: "toffoli", uncompute }).circuit;
+        const kind = uncompute === "unitary" ? K.ccx : K.reset;
+        const candidates = Array.from({ length: c.gates }, (_, g) => g).filter((g) => c.kind[g] === kind && g > c.gates / 2);
+        fc.pre(candidates.length > 0);
+        const drop = candidates[pick % candidates.length]!;
+        await expectCaught(cnf, edit(c, (_b, g) => g === drop), "phase");
+      }),
+      { numRuns: 40 },
+    );
+  });
+  it("adding a stray T (clifford+t basis, state-vector simulator)", async () => {
+    await fc.assert(
+      fc.asyncProperty(satisfiable, fc.nat(), async (cnf, pick) => {
+        const c = compileOracle(cnf, { basis: "clifford+t" }).circuit;
+        const at = pick % (c.gates + 1);
+        await expectCaught(cnf, edit(c, (b, g) => {
+          if (g === at) b.add(K.t, 0); // on x[0]: a phase of e^(i pi/4) whenever x1 = 1
+          return false;
+        }), "phase");
+      }),
+      { numRuns: 25 },
+    );
+  });
+  it("omitting the phase (the marking gate removed)", async () => {
+    await fc.assert(
+      fc.asyncProperty(satisfiable, fc.constantFrom("mcx" as const, "toffoli" as const), async (cnf, basis) => {
+        const c = compileOracle(cnf, { basis }).circuit;
+        const marks = Array.from({ length: c.gates }, (_, g) => g).filter((g) => c.kind[g] === K.mcz || c.kind[g] === K.cz || c.kind[g] === K.z || c.kind[g] === K.gphase);
+        fc.pre(marks.length === 1);
+        await expectCaught(cnf, edit(c, (_b, g) => g === marks[0]), "phase");
+      }),
+      { numRuns: 30 },
+    );
+  });
+  it("an oracle that leaves a work qubit dirty is reported with the qubit's name", async () => {
+    const cnf = cnfFromClauses(3, [[1, 2, 3], [-1, 2]]);
+    const c = compileOracle(cnf, { basis: "mcx" }).circuit;
+    const lastAnd = Array.from({ length: c.gates }, (_, g) => g).filter((g) => c.kind[g] === K.mcx).at(-1)!;
+    const r = await verifyOracle(cnf, edit(c, (_b, g) => g === lastAnd));
+    expect(r.counterexample!.actual).toMatch(/work\[\d+\] left at \|1>/);
+  });
+});
