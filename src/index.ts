@@ -33,7 +33,7 @@ export { emitQasm2, qasm2Problem } from "./emit/qasm2.js";
 export { emitJson, CIRCUIT_FORMAT, CIRCUIT_FORMAT_VERSION } from "./emit/json.js";
 export type { CircuitCounts } from "./emit/resources.js";
 export { countCircuit } from "./emit/resources.js";
-export type { Term, SparseRun } from "./sim/sparse.js";
+export type { Term, SparseRun, SparseOptions } from "./sim/sparse.js";
 export { runSparse, basisTerm, seededRandom, CircuitFault } from "./sim/sparse.js";
 export type { Mismatch, OracleCheck } from "./sim/check.js";
 export { checkOracleSparse, allAssignments } from "./sim/check.js";

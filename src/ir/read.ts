@@ -11,7 +11,9 @@ import { validateCircuit } from "./validate.js";
 
 /** A circuit read from text, or the diagnostic that rejects it. */
 export interface CircuitReadResult {
+  /** The circuit, or undefined when the text was rejected. */
   readonly circuit: Circuit | undefined;
+  /** The error that rejected the text (with line and column), if any. */
   readonly diagnostics: readonly Diagnostic[];
 }
 
