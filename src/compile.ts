@@ -10,6 +10,7 @@ import { lower, type Basis, type Uncompute } from "./passes/lower.js";
 import { DEFAULT_PIPELINE } from "./passes/registry.js";
 import { reuseWork } from "./passes/reuseWork.js";
 import { runPasses } from "./passes/runner.js";
+import { diffusionCircuit, searchCircuit } from "./search/build.js";
 import { simplify, synthesize, type AnyStrategy, type OracleKind, type SimplifiedCnf, type SimplifyReport, type Strategy } from "./synth/index.js";
 
 /** How to build an oracle. Every field has a default. */
@@ -206,4 +207,87 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase"): CostRow[] {
   for (const s of ["wide", "lean"] as const) for (const u of ["unitary", "measured"] as const) row(s, u);
   row("textbook", "unitary");
   return rows;
+}
+
+/** Options of {@link compileSearch}: the oracle's, and the number of Grover iterations. */
+export interface SearchOptions extends Omit<OracleOptions, "kind"> {
+  /** Grover iterations K. */
+  readonly iterations: number;
+  /** Measure the search register at the end (default true). */
+  readonly measure?: boolean;
+}
+
+/**
+ * Compiles the complete search circuit: H on the search register, K iterations of oracle and
+ * diffusion (sharing work qubits), measurement of the search register into bits 0..n-1.
+ *
+ * @example
+ * ```ts
+ * const c = compileSearch(cnf, { iterations: planSearch(cnf.variables, 1).iterations });
+ * ```
+ */
+export function compileSearch(cnf: Cnf, options: SearchOptions): Circuit {
+  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
+  const logical = searchCircuit(simplify(cnf), o.strategy, options.iterations, options.measure ?? true);
+  return finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
+}
+
+/** Costs of one part of a search (Clifford+T counts; Toffolis from the toffoli basis). */
+export interface PartCost {
+  /** Qubits of the Clifford+T circuit. */
+  readonly qubits: number;
+  /** T gates. */
+  readonly t_count: number;
+  /** T-depth. */
+  readonly t_depth: number;
+  /** CX plus CZ gates. */
+  readonly cnot_count: number;
+  /** Depth. */
+  readonly depth: number;
+  /** Toffolis in the toffoli basis. */
+  readonly toffoli_count: number;
+}
+
+function partCost(logical: Circuit, uncompute: Uncompute): PartCost {
+  const ct = countCircuit(finish(logical, "clifford+t", uncompute, true, false));
+  const ctCircuit = finish(logical, "clifford+t", uncompute, true, false);
+  const tof = countCircuit(finish(logical, "toffoli", uncompute, true, false));
+  return { qubits: ctCircuit.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount };
+}
+
+/** Costs of a whole search with one strategy and uncomputation. */
+export interface SearchCost {
+  readonly strategy: Strategy;
+  readonly uncompute: Uncompute;
+  /** Grover iterations per run. */
+  readonly iterations: number;
+  /** One oracle. */
+  readonly oracle: PartCost;
+  /** One diffusion. */
+  readonly diffusion: PartCost;
+  /** The whole circuit of one run (K iterations and the measurements). */
+  readonly circuit: PartCost;
+  /** Runs expected until success (1 / P). */
+  readonly expected_runs: number;
+  /** T gates over the expected number of runs. */
+  readonly expected_t_count: number;
+  /** Toffolis over the expected number of runs. */
+  readonly expected_toffoli_count: number;
+  /** Circuit depth over the expected number of runs (run one after another). */
+  readonly expected_depth: number;
+}
+
+/** What a whole search costs, per strategy and uncomputation. */
+export function searchCosts(cnf: Cnf, iterations: number, successProbability: number, uncompute: Uncompute): SearchCost[] {
+  const simplified = simplify(cnf);
+  const runs = successProbability > 0 ? 1 / successProbability : Infinity;
+  return (["wide", "lean"] as const).map((strategy) => {
+    const oracle = partCost(synthesize(simplified, "phase", strategy), uncompute);
+    const diff = partCost(diffusionCircuit(cnf.variables), uncompute);
+    const whole = partCost(searchCircuit(simplified, strategy, iterations), uncompute);
+    return {
+      strategy, uncompute, iterations, oracle, diffusion: diff, circuit: whole, expected_runs: runs,
+      expected_t_count: whole.t_count * runs, expected_toffoli_count: whole.toffoli_count * runs, expected_depth: whole.depth * runs,
+    };
+  });
 }
