@@ -3,6 +3,7 @@ import { readFileSync } from "node:fs";
 import { countCommand, countHelp } from "./count.js";
 import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
 import { verifyCommand, verifyHelp } from "./verify.js";
+import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp } from "./search.js";
 import { EXIT_BAD_INPUT, UserError } from "./io.js";
 import { PassError } from "../index.js";
 
@@ -10,6 +11,9 @@ const commands: Record<string, { run: (argv: string[]) => Promise<number>; summa
   oracle: { run: oracleCommand, summary: "compile a DIMACS CNF formula into an oracle circuit", help: oracleHelp },
   verify: { run: verifyCommand, summary: "check that a circuit is an oracle for a formula", help: verifyHelp },
   cost: { run: costCommand, summary: "tabulate what an oracle for the formula costs, per strategy", help: costHelp },
+  plan: { run: planCommand, summary: "plan a Grover search: iterations, success probability, classical comparison", help: planHelp },
+  search: { run: searchCommand, summary: "write the complete search circuit and its whole-run costs", help: searchHelp },
+  draw: { run: drawCommand, summary: "draw an oracle or search circuit as SVG", help: drawHelp },
   count: { run: countCommand, summary: "count the models of a DIMACS CNF formula exactly", help: countHelp },
 };
 
@@ -31,7 +35,7 @@ Options:
   -h, --help      show this help (clausegate COMMAND --help for a command)
   -v, --version   print the version
 
-Exit codes: 0 success, 1 a check failed, 2 bad input or usage.
+Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan).
 `;
 }
 
