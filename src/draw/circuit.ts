@@ -117,7 +117,7 @@ function gateShapes(c: Circuit, g: number, kind: string, ops: Int32Array, x: num
     const q = Math.max(...(kind === "gphase" ? [0] : qs));
     out.push(el("line", { x1: x, y1: y(q), x2: x, y2: cY, class: "clink" }));
     out.push(el("circle", { cx: x, cy: cY, r: 3.5, class: "ctrl-on" }));
-    out.push(el("text", { x, y: cY + 14, class: "note" }, `=1 ${cond}`));
+    out.push(el("text", { x, y: cY + 14, class: "note" }, `if ${cond}`));
   }
   switch (kind) {
     case "x":

@@ -14,6 +14,7 @@ const STYLE = [
   ".tick{text-anchor:middle}",
   ".ytick{text-anchor:end}",
   ".title{font-size:13px}",
+  ".axis-label{text-anchor:start}",
 ].join("");
 
 /**
@@ -29,7 +30,7 @@ export function plotSuccessSvg(theta: number, chosen: number, title: string, las
   const H = 360;
   const left = 56;
   const right = 20;
-  const top = 40;
+  const top = 48;
   const bottom = 44;
   const px = (j: number): number => left + (j / last) * (W - left - right);
   const py = (p: number): number => top + (1 - p) * (H - top - bottom);
@@ -44,7 +45,7 @@ export function plotSuccessSvg(theta: number, chosen: number, title: string, las
   body.push(el("line", { x1: left, y1: top, x2: left, y2: H - bottom, class: "axis" }));
   body.push(el("line", { x1: left, y1: H - bottom, x2: W - right, y2: H - bottom, class: "axis" }));
   body.push(el("text", { x: (left + W - right) / 2, y: H - 8, class: "tick" }, "Grover iterations j"));
-  body.push(el("text", { x: 14, y: top - 10, class: "ytick", "text-anchor": "start" }, "P(success)"));
+  body.push(el("text", { x: 8, y: top - 14, class: "axis-label" }, "P(success)"));
   const samples = Math.max(200, last * 20);
   const pts: string[] = [];
   for (let i = 0; i <= samples; i++) {
