@@ -257,7 +257,9 @@ function partCost(logical: Circuit, uncompute: Uncompute): PartCost {
 
 /** Costs of a whole search with one strategy and uncomputation. */
 export interface SearchCost {
+  /** The oracle's strategy. */
   readonly strategy: Strategy;
+  /** How temporary ANDs are uncomputed. */
   readonly uncompute: Uncompute;
   /** Grover iterations per run. */
   readonly iterations: number;

@@ -9,7 +9,12 @@ import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
 import { el, svgDocument } from "./svg.js";
 
 /** Largest circuit worth drawing. */
-export const DRAW_LIMITS = { gates: 400, qubits: 48 } as const;
+export const DRAW_LIMITS: {
+  /** Most gates drawn. */
+  readonly gates: number;
+  /** Most qubits drawn. */
+  readonly qubits: number;
+} = { gates: 400, qubits: 48 };
 
 const COL = 42;
 const ROW = 34;

@@ -66,6 +66,7 @@ export const BBHT_LAMBDA = 6 / 5;
 
 /** One round of the schedule: iterations are drawn uniformly from 0..choices-1. */
 export interface ScheduleRound {
+  /** Round number r, from 0. */
   readonly round: number;
   /** m = min(lambda^round, sqrt(N)) before rounding. */
   readonly bound: number;

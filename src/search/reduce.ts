@@ -19,6 +19,15 @@ export interface Reduction {
   readonly unsat: boolean;
 }
 
+/**
+ * Reduces the search register of a formula by unit propagation and by dropping variables that
+ * occur in no remaining clause.
+ *
+ * @example
+ * ```ts
+ * reduceSearch(cnfFromClauses(3, [[1], [-1, 2]])).fixed; // Map { 1 => true, 2 => true }
+ * ```
+ */
 export function reduceSearch(cnf: Cnf): Reduction {
   const n = cnf.variables;
   const m = cnf.clauseStart.length - 1;
