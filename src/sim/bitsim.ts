@@ -148,8 +148,16 @@ export function runBlock(p: BitProgram, b: BitBlock, outcome: (m: number, w: num
     const tBase = target * W;
     switch (opcode) {
       case FLIP:
-        fireBlock(code, ctl, n, state, W, fired);
-        for (let w = 0; w < W; w++) state[tBase + w]! ^= fired[w]!;
+        if (n === 2) {
+          const a = code[ctl]! * W;
+          const ma = code[ctl + 1]!;
+          const c = code[ctl + 2]! * W;
+          const mc = code[ctl + 3]!;
+          for (let w = 0; w < W; w++) state[tBase + w]! ^= (state[a + w]! ^ ma) & (state[c + w]! ^ mc);
+        } else {
+          fireBlock(code, ctl, n, state, W, fired);
+          for (let w = 0; w < W; w++) state[tBase + w]! ^= fired[w]!;
+        }
         break;
       case PHASE:
         fireBlock(code, ctl, n, state, W, fired);
@@ -158,14 +166,33 @@ export function runBlock(p: BitProgram, b: BitBlock, outcome: (m: number, w: num
       case AND:
       case UNAND: {
         let any = 0;
-        fireBlock(code, ctl, n, state, W, fired);
-        for (let w = 0; w < W; w++) {
-          const v = fired[w]!;
-          const t = state[tBase + w]!;
-          const bad = opcode === AND ? t : t ^ v;
-          fault[w]! |= bad;
-          any |= bad;
-          state[tBase + w] = opcode === AND ? v : 0;
+        if (n === 2 || n === 3) {
+          // The common cases (clauses of 2 or 3 literals, lowered ANDs), fused into one pass.
+          const a = code[ctl]! * W;
+          const ma = code[ctl + 1]!;
+          const c = code[ctl + 2]! * W;
+          const mc = code[ctl + 3]!;
+          const d = n === 3 ? code[ctl + 4]! * W : a;
+          const md = n === 3 ? code[ctl + 5]! : ma;
+          const and = opcode === AND;
+          for (let w = 0; w < W; w++) {
+            const v = (state[a + w]! ^ ma) & (state[c + w]! ^ mc) & (state[d + w]! ^ md);
+            const t = state[tBase + w]!;
+            const bad = and ? t : t ^ v;
+            fault[w]! |= bad;
+            any |= bad;
+            state[tBase + w] = and ? v : 0;
+          }
+        } else {
+          fireBlock(code, ctl, n, state, W, fired);
+          for (let w = 0; w < W; w++) {
+            const v = fired[w]!;
+            const t = state[tBase + w]!;
+            const bad = opcode === AND ? t : t ^ v;
+            fault[w]! |= bad;
+            any |= bad;
+            state[tBase + w] = opcode === AND ? v : 0;
+          }
         }
         if (any !== 0 && b.firstFaultGate < 0) b.firstFaultGate = gate;
         break;
