@@ -1,16 +1,6 @@
 /** Seeded random k-SAT text, written in chunks so that a million clauses never sit in one string. */
 import { openSync, writeSync, closeSync } from "node:fs";
-
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seededRandom as rng } from "../src/util/random.js";
 
 /** Clauses of random k-SAT with distinct variables per clause. */
 export function* randomClauses(n: number, m: number, k: number, seed: number): Generator<number[]> {

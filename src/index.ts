@@ -37,6 +37,8 @@ export type { Term, SparseRun, SparseOptions } from "./sim/sparse.js";
 export { runSparse, basisTerm, seededRandom, CircuitFault } from "./sim/sparse.js";
 export type { Mismatch, OracleCheck } from "./sim/check.js";
 export { checkOracleSparse, allAssignments } from "./sim/check.js";
+export type { ClassicalRun } from "./sim/bitsim.js";
+export { simulateClassical } from "./sim/bitsim.js";
 export type { VerifyOptions, VerifyResult, Counterexample } from "./sim/verify.js";
 export { verifyOracle, DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT } from "./sim/verify.js";
 export type { CircuitReadResult } from "./ir/read.js";

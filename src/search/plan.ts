@@ -5,6 +5,8 @@
  * k = floor(pi / (4 theta)).
  */
 
+import { seededRandom } from "../util/random.js";
+
 /** A plan for a known number of solutions. */
 export interface SearchPlan {
   /** Variables of the search register (log2 N). */
@@ -121,13 +123,6 @@ export function averageSuccess(theta: number, m: number): number {
 /** Iteration counts to run, round by round, drawn with a seeded generator (mulberry32). */
 export function bbhtSequence(n: number, rounds: number, seed: number): number[] {
   const schedule = bbhtRounds(n);
-  let a = seed >>> 0;
-  const random = (): number => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const random = seededRandom(seed);
   return Array.from({ length: rounds }, (_, r) => Math.floor(random() * schedule[Math.min(r, schedule.length - 1)]!.choices));
 }

@@ -237,3 +237,39 @@ export function fireBlock(code: Int32Array, ctl: number, n: number, state: Int32
     for (let w = 0; w < W; w++) out[w]! &= state[base + w]! ^ mask;
   }
 }
+
+/** The result of {@link simulateClassical}. */
+export interface ClassicalRun {
+  /** Every qubit's value at the end (qubit order). */
+  readonly qubits: boolean[];
+  /** The sign of the amplitude: 1 or -1. */
+  readonly phase: 1 | -1;
+  /** Classical bits at the end. */
+  readonly clbits: boolean[];
+  /** Index of the first temporary AND that found its target in the wrong state, or -1. */
+  readonly faultGate: number;
+}
+
+/**
+ * Runs a classical circuit (X, CX, CCX, multi-controlled X/Z with polarities, Z, CZ, a global
+ * phase of -1, temporary ANDs, X-basis measurement and reset) on one basis input, with the
+ * given measurement outcomes (default all 0). Returns null and a reason for other gates.
+ *
+ * @example
+ * ```ts
+ * const r = simulateClassical(compileOracle(cnf, { basis: "toffoli" }).circuit, [true, false, true]);
+ * ```
+ */
+export function simulateClassical(c: Circuit, input: readonly boolean[], outcomes: readonly boolean[] = []): ClassicalRun | { unsupported: string } {
+  const p = compileBitProgram(c);
+  if ("unsupported" in p) return p;
+  const b = newBlock(p, 1);
+  input.forEach((on, q) => (b.state[q] = on ? 1 : 0));
+  runBlock(p, b, (m) => (outcomes[m] ? 1 : 0));
+  return {
+    qubits: Array.from({ length: c.qubits }, (_, q) => (b.state[q]! & 1) === 1),
+    phase: b.sign[0]! & 1 ? -1 : 1,
+    clbits: Array.from({ length: c.clbits }, (_, k) => (b.state[c.qubits + k]! & 1) === 1),
+    faultGate: b.fault[0]! & 1 ? b.firstFaultGate : -1,
+  };
+}

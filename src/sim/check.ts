@@ -6,7 +6,8 @@
 import type { Cnf } from "../cnf/cnf.js";
 import { evaluate } from "../cnf/evaluate.js";
 import type { Circuit } from "../ir/circuit.js";
-import { basisTerm, CircuitFault, runSparse, seededRandom, type Term } from "./sparse.js";
+import { seededRandom } from "../util/random.js";
+import { basisTerm, CircuitFault, runSparse, type Term } from "./sparse.js";
 
 /** A failed check: the assignment and what went wrong. */
 export interface Mismatch {

@@ -7,6 +7,7 @@
  */
 import { GATE_KINDS } from "../ir/kinds.js";
 import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
+export { seededRandom } from "../util/random.js";
 
 /** One basis state with its amplitude. Bits of qubit q: word q >>> 5, bit q & 31. */
 export interface Term {
@@ -228,16 +229,4 @@ function measure(terms: Term[], q: number, pick: (p1: number, total: number) => 
   }
   set(kept);
   return outcome;
-}
-
-/** A seeded generator for measurement outcomes (mulberry32). */
-export function seededRandom(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }

@@ -38,17 +38,8 @@ export function colouring(vertices: number, edges: readonly (readonly [number, n
   return cnfFromClauses(vertices * k, clauses);
 }
 
-/** A seeded pseudo-random generator (mulberry32): tests and benches replay exactly. */
-export function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { seededRandom as rng } from "../../dist/src/util/random.js";
+import { seededRandom as rng } from "../../dist/src/util/random.js";
 
 /** Random k-SAT with distinct variables per clause. */
 export function randomKSat(n: number, m: number, k: number, seed: number): Cnf {
