@@ -39,7 +39,7 @@ export async function countCommand(argv: string[]): Promise<number> {
   const bar = progress("counting");
   const r = await countModels(cnf, { maxVariables, ...(threads === undefined ? {} : { threads }), onProgress: bar.update });
   bar.stop();
-  if (!r.ok) throw new UserError(`clausegate count: error: ${r.reason} (--max-variables N)`);
+  if (!r.ok) throw new UserError(`clausegate count: error: ${r.reason}`);
   const clauses = clauseCount(cnf);
   if (values.json) {
     process.stdout.write(`{"variables":${cnf.variables},"clauses":${clauses},"models":${r.models}}\n`);

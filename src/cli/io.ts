@@ -28,6 +28,16 @@ async function readAll(path: string): Promise<Buffer> {
   return Buffer.concat(chunks);
 }
 
+/** Most variables a circuit-making command accepts (the search register is one qubit per variable). */
+export const MAX_CIRCUIT_VARIABLES = 1_000_000;
+
+/** Refuses formulas whose search register would be too large to build. */
+export function checkCircuitSize(cnf: Cnf, file: string, command: string): void {
+  if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
+    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits; hint: declare only the variables the formula uses`);
+  }
+}
+
 /** Loads and reads a DIMACS file; prints warnings; throws UserError on the first error. */
 export async function loadCnf(path: string): Promise<Cnf> {
   let bytes: Buffer;

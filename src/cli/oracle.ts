@@ -4,7 +4,7 @@ import {
   compileOracle, costTable, emitJson, emitQasm2, emitQasm3, oracleResources, qasm2Problem,
   type Cnf, type Oracle, type OracleOptions,
 } from "../index.js";
-import { displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
+import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
 import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
 import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./verify.js";
 
@@ -87,6 +87,7 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   const format = choice(values.format, "--format", FORMATS, "qasm3");
   const options = oracleOptions(values);
   const cnf = await loadCnf(file);
+  checkCircuitSize(cnf, file, "oracle");
   const oracle = compileOracle(cnf, options);
   noteSimplification(oracle, file);
   if (values.verify) {
@@ -134,6 +135,7 @@ export async function costCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "cost");
   const kind = choice(values.kind, "--kind", ["phase", "flag"], "phase");
   const cnf = await loadCnf(file);
+  checkCircuitSize(cnf, file, "cost");
   const rows = costTable(cnf, kind);
   if (values.json) {
     process.stdout.write(`${JSON.stringify({ variables: cnf.variables, clauses: cnf.clauseStart.length - 1, kind, rows }, null, 2)}\n`);

@@ -5,9 +5,12 @@ import {
   drawCircuitSvg, drawProblem, emitJson, emitQasm2, emitQasm3, planSearch, plotSuccessSvg, qasm2Problem, reduceSearch,
   searchCosts, type Cnf, type Reduction, type SearchPlan,
 } from "../index.js";
-import { displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
+import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
 import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
 import { oracleOptions } from "./oracle.js";
+
+/** Largest search register plan works with: 2^n must stay a finite double. */
+const MAX_PLAN_QUBITS = 1000;
 
 /** Exit code of `plan` when the formula has no solution. */
 export const EXIT_UNSATISFIABLE = 3;
@@ -139,6 +142,7 @@ export async function planCommand(argv: string[]): Promise<number> {
   const seed = intOption(values.simulate, "--simulate", 0, 2 ** 31 - 1);
   const { cnf, reduction } = problemOf(await loadCnf(file), values.reduce === true);
   const n = cnf.variables;
+  if (n > MAX_PLAN_QUBITS) throw new UserError(`${displayName(file)}: error: the search register would have ${n} qubits; plan works with at most ${MAX_PLAN_QUBITS} (N = 2^n must fit a double); hint: try --reduce, or declare only the variables the formula uses`);
   const s = await solutionsOf(cnf, values.solutions);
   if (s.M === undefined) {
     if (values.json) {
@@ -201,6 +205,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const o = oracleOptions(values);
   if (values.kind === "flag") throw new UserError("clausegate search: error: a search uses the phase oracle; drop --kind flag");
   const original = await loadCnf(file);
+  checkCircuitSize(original, file, "search");
   const { cnf, reduction } = problemOf(original, values.reduce === true);
   const { K, plan, source } = await iterationsFor(cnf, values.iterations, values.solutions);
   const circuit = compileSearch(cnf, { ...o, iterations: K });
@@ -264,6 +269,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
   if (values.output === undefined) throw new UserError("clausegate draw: error: expected -o FILE.svg; see clausegate draw --help");
   const o = oracleOptions(values);
   const cnf = await loadCnf(file);
+  checkCircuitSize(cnf, file, "draw");
   let circuit;
   let title: string;
   if (values.search) {

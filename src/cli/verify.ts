@@ -5,7 +5,7 @@ import {
   compileOracle, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, verifyOracle,
   type Circuit, type Cnf, type VerifyResult,
 } from "../index.js";
-import { displayName, loadCnf, progress, UserError } from "./io.js";
+import { checkCircuitSize, displayName, loadCnf, progress, UserError } from "./io.js";
 import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
 import { oracleOptions } from "./oracle.js";
 
@@ -88,6 +88,7 @@ export async function verifyCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "verify");
   const flags = verifyFlags(values);
   const cnf = await loadCnf(file);
+  checkCircuitSize(cnf, file, "verify");
   let circuit: Circuit;
   let kind: "phase" | "flag" | undefined;
   if (values.circuit !== undefined) {

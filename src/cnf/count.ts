@@ -44,6 +44,8 @@ export type CountResult =
 
 /** Default limit on enumerated variables: 2^34 assignments take about a minute on two cores. */
 export const DEFAULT_COUNT_LIMIT = 34;
+/** Variables in no clause beyond which the count (times 2^free) is too large to write out. */
+const MAX_FREE_VARIABLES = 1_000_000;
 /** Hard ceiling for the limit. */
 export const MAX_COUNT_LIMIT = 1000;
 /** Above this many variables, split with propagation instead of enumerating everything. */
@@ -67,13 +69,16 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
     return { ok: false, reason: `the variable limit must be a whole number in 0..${MAX_COUNT_LIMIT}, got ${limit}`, enumerated: plan.used };
   }
   if (plan.unsat) return { ok: true, models: 0n, enumerated: 0 };
+  if (plan.free > MAX_FREE_VARIABLES) {
+    return { ok: false, enumerated: plan.used, reason: `the count is a multiple of 2^${plan.free} (${plan.free} declared variables occur in no clause), a number of over 300,000 digits; declare only the variables the formula uses` };
+  }
   if (plan.used > limit) {
     const seconds = 2 ** plan.used / 2e9;
     return {
       ok: false,
       enumerated: plan.used,
       reason: `refusing to enumerate 2^${plan.used} assignments (${plan.used} variables occur in clauses; the limit is ${limit}): ` +
-        `that would take about ${humanTime(seconds)} on two cores; raise the limit to try anyway`,
+        `that would take about ${humanTime(seconds)} on two cores; raise the limit to try anyway (--max-variables N)`,
     };
   }
   if (plan.used > SPLIT_ABOVE) {

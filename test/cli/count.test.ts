@@ -38,6 +38,21 @@ describe("clausegate count", () => {
   });
 });
 
+describe("formulas too large to handle", () => {
+  const huge = "p cnf 2147483647 1\n1 0\n";
+  it("count refuses a count with hundreds of thousands of digits, exit 2", () => {
+    const r = cli(["count", "-"], huge);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/a number of over 300,000 digits/);
+  });
+  it.each(["oracle", "cost", "verify", "search", "plan"])("%s refuses a search register of 2^31-1 qubits, exit 2", (command) => {
+    const r = cli([command, "-"], huge);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/2147483647 (variables|qubits)/);
+    expect(r.stderr).not.toMatch(/internal error/);
+  });
+});
+
 describe("the command line", () => {
   it("has --help, --version and per-command help", () => {
     expect(cli(["--help"]).stdout).toMatch(/Usage: clausegate COMMAND/);
