@@ -5,7 +5,7 @@
  */
 import { clauseCount, type Cnf } from "./cnf/cnf.js";
 import { countCircuit, type CircuitCounts } from "./emit/resources.js";
-import type { Circuit } from "./ir/circuit.js";
+import { recycleCircuit, type Circuit } from "./ir/circuit.js";
 import { lower, type Basis, type Uncompute } from "./passes/lower.js";
 import { DEFAULT_PIPELINE } from "./passes/registry.js";
 import { reuseWork } from "./passes/reuseWork.js";
@@ -62,8 +62,14 @@ export const DEFAULT_ORACLE_OPTIONS: Required<OracleOptions> = {
 function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: boolean, validate: boolean, toffoliAnds = false): Circuit {
   // Reuse work qubits first: a wire that one AND releases and the next takes up then shows the
   // optimizer the gate pairs at the seam (H H, T Tdg) that cancel.
-  let c = reuseWork(lower(logical, { basis, uncompute, ...(toffoliAnds ? { andGate: "toffoli" as const } : {}) }));
-  if (optimize) c = runPasses(c, DEFAULT_PIPELINE, { validate });
+  const lowered = lower(logical, { basis, uncompute, ...(toffoliAnds ? { andGate: "toffoli" as const } : {}) });
+  let c = reuseWork(lowered);
+  if (c !== lowered) recycleCircuit(lowered);
+  if (optimize) {
+    const input = c;
+    c = runPasses(c, DEFAULT_PIPELINE, { validate, recycle: true });
+    if (c !== input) recycleCircuit(input);
+  }
   return c;
 }
 

@@ -76,10 +76,11 @@ export class CircuitBuilder {
     this.qubits = layout.search + layout.target + (layout.work ?? 0);
     this.clbits = layout.clbits ?? 0;
     const cap = Math.max(16, expectedGates);
-    this.kinds = new Uint8Array(cap);
-    this.starts = new Uint32Array(cap + 1);
-    this.conds = new Int32Array(cap);
-    this.opsBuf = new Int32Array(cap * 3);
+    const spare = takeSpare(cap);
+    this.kinds = spare?.kinds ?? new Uint8Array(cap);
+    this.starts = spare?.starts ?? new Uint32Array(cap + 1);
+    this.conds = spare?.conds ?? new Int32Array(cap);
+    this.opsBuf = spare?.ops ?? new Int32Array(cap * 3);
   }
 
   get length(): number {
@@ -155,6 +156,39 @@ export class CircuitBuilder {
       cond: this.conds.subarray(0, this.n),
     };
   }
+}
+
+/**
+ * Buffers of circuits that their owner has finished with, for the next builder to take. On large
+ * circuits most of a pass's time went into the page faults of freshly allocated arrays; reusing
+ * arrays that are already mapped avoids them. Only a pipeline that owns a circuit may recycle it.
+ */
+interface Spare {
+  kinds: Uint8Array;
+  starts: Uint32Array;
+  conds: Int32Array;
+  ops: Int32Array;
+}
+const spares: Spare[] = [];
+
+/**
+ * Hands a circuit's buffers to later builders. The circuit must not be used afterwards: its
+ * arrays will be overwritten.
+ */
+export function recycleCircuit(c: Circuit): void {
+  if (c.kind.byteOffset !== 0 || c.ops.byteOffset !== 0 || c.opStart.byteOffset !== 0 || c.cond.byteOffset !== 0) return;
+  spares.push({
+    kinds: new Uint8Array(c.kind.buffer),
+    starts: new Uint32Array(c.opStart.buffer),
+    conds: new Int32Array(c.cond.buffer),
+    ops: new Int32Array(c.ops.buffer),
+  });
+  if (spares.length > 2) spares.shift();
+}
+
+function takeSpare(cap: number): Spare | undefined {
+  const i = spares.findIndex((s) => s.kinds.length >= cap && s.starts.length >= cap + 1 && s.conds.length >= cap && s.ops.length >= cap * 3);
+  return i < 0 ? undefined : spares.splice(i, 1)[0];
 }
 
 function grow<T extends Uint8Array | Uint32Array | Int32Array>(a: T, cap: number): T {

@@ -8,6 +8,7 @@
  * allocates nothing per gate.
  */
 import { emptyLike, qubitOf, type Circuit } from "../ir/circuit.js";
+import { scratchInt32 } from "../ir/scratch.js";
 import { K } from "../ir/kinds.js";
 import { commute, inversePair, qubitCount } from "./commute.js";
 
@@ -15,9 +16,9 @@ const WINDOW = 16;
 
 export function cancelInverses(c: Circuit): Circuit {
   const alive = new Uint8Array(c.gates).fill(1);
-  const gateOfSlot = new Int32Array(c.ops.length);
-  const prev = new Int32Array(c.ops.length).fill(-1); // previous slot on the same qubit
-  const last = new Int32Array(c.qubits).fill(-1); // last slot on each qubit
+  const gateOfSlot = scratchInt32("cancel.gateOfSlot", c.ops.length);
+  const prev = scratchInt32("cancel.prev", c.ops.length).fill(-1); // previous slot on the same qubit
+  const last = scratchInt32("cancel.last", c.qubits).fill(-1); // last slot on each qubit
   for (let g = 0; g < c.gates; g++) {
     const n = qubitCount(c, g);
     const s = c.opStart[g]!;

@@ -49,11 +49,16 @@ class Lowering {
   private readonly out: CircuitBuilder;
   /** 1 where a qubit is currently flipped by a pending X (grows with the work register). */
   private flipped = new Uint8Array(64);
-  /** Target qubit of a logical AND -> the 2-input ANDs it was lowered to, in order (empty: a copy of `copied`). */
-  private readonly ands = new Map<number, { record: And2[]; copied: number }>();
+  /**
+   * How each logical AND was lowered, so its uncompute can undo exactly that: records[recordAt[t]]
+   * starts a record of the AND into qubit t: count, copied control (or -1), then count triples
+   * (a, b, w) of the 2-input ANDs in the order they were computed. Flat numbers, no objects per AND.
+   */
+  private readonly records: number[] = [];
+  private recordAt = new Int32Array(64).fill(-1);
 
   constructor(private readonly c: Circuit, private readonly opts: LowerOptions) {
-    this.out = new CircuitBuilder(layoutOf(c), c.gates * 4);
+    this.out = new CircuitBuilder(layoutOf(c), c.gates * 6);
   }
 
   run(): Circuit {
@@ -71,6 +76,7 @@ class Lowering {
         this.unandK(qubitOf(c.ops[c.opStart[g + 1]! - 1]!));
         continue;
       }
+      if (!mcx && k === K.and && this.smallAnd(g)) continue;
       const ops = Array.from(operands(c, g));
       if (mcx) this.mcxBasis(g, ops, cond);
       else this.gateBasis(g, ops, cond);
@@ -171,11 +177,54 @@ class Lowering {
     for (let i = record.length - 1; i >= 0; i--) this.unand2(...record[i]!);
   }
 
+  /** Stores the record of the AND into t (see `records`). */
+  private remember(t: number, copied: number, record: readonly And2[]): void {
+    this.growRecords(t);
+    this.recordAt[t] = this.records.length;
+    this.records.push(record.length, copied);
+    for (const [a, b, w] of record) this.records.push(a, b, w);
+  }
+
+  private growRecords(t: number): void {
+    if (t < this.recordAt.length) return;
+    const r = new Int32Array(Math.max(t + 1, this.recordAt.length * 2)).fill(-1);
+    r.set(this.recordAt);
+    this.recordAt = r;
+  }
+
+  /**
+   * The common case without lists: an AND of two or three controls on distinct qubits. Returns
+   * false (doing nothing) for anything else.
+   */
+  private smallAnd(g: number): boolean {
+    const c = this.c;
+    const s = c.opStart[g]!;
+    const n = c.opStart[g + 1]! - s - 1;
+    if (n !== 2 && n !== 3) return false;
+    const a = c.ops[s]!;
+    const b = c.ops[s + 1]!;
+    const t = qubitOf(c.ops[s + n]!);
+    const d = n === 3 ? c.ops[s + 2]! : -1;
+    if (a >>> 1 === b >>> 1 || (n === 3 && (a >>> 1 === d >>> 1 || b >>> 1 === d >>> 1))) return false;
+    this.growRecords(t);
+    this.recordAt[t] = this.records.length;
+    if (n === 2) {
+      this.and2(a, b, t);
+      this.records.push(1, -1, a, b, t);
+    } else {
+      const w = this.out.newWork();
+      this.and2(a, b, w);
+      this.and2(pos(w), d, t);
+      this.records.push(2, -1, a, b, w, pos(w), d, t);
+    }
+    return true;
+  }
+
   private andK(raw: number[], t: number): void {
     const record: And2[] = [];
     const ctrls = normalizeControls(raw);
     if (ctrls === null) {
-      this.ands.set(t, { record, copied: -1 }); // never fires: t stays |0>
+      this.remember(t, -1, record); // never fires: t stays |0>
       return;
     }
     if (ctrls.length === 1) this.copy(ctrls[0]!, t);
@@ -184,7 +233,7 @@ class Lowering {
       this.and2(a!, b!, t);
       record.push([a!, b!, t]);
     }
-    this.ands.set(t, { record, copied: ctrls[0] ?? -1 });
+    this.remember(t, ctrls.length === 1 ? ctrls[0]! : -1, record);
   }
 
   /** A one-input AND is a copy: t ^= (control fires). Its own inverse. */
@@ -195,11 +244,14 @@ class Lowering {
   }
 
   private unandK(t: number): void {
-    const entry = this.ands.get(t);
-    if (entry === undefined) throw new Error(`lowering: uncompute of work qubit ${t} without its AND`);
-    this.ands.delete(t);
-    if (entry.record.length > 0) this.undoTree(entry.record);
-    else if (entry.copied >= 0) this.copy(entry.copied, t);
+    const at = t < this.recordAt.length ? this.recordAt[t]! : -1;
+    if (at < 0) throw new Error(`lowering: uncompute of work qubit ${t} without its AND`);
+    this.recordAt[t] = -1;
+    const r = this.records;
+    const count = r[at]!;
+    const copied = r[at + 1]!;
+    if (count > 0) for (let i = count - 1; i >= 0; i--) this.unand2(r[at + 2 + 3 * i]!, r[at + 3 + 3 * i]!, r[at + 4 + 3 * i]!);
+    else if (copied >= 0) this.copy(copied, t);
   }
 
   private mcxK(raw: number[], t: number, cond: number): void {

@@ -6,13 +6,14 @@
  * the most lifetimes that overlap at one point (interval-graph colouring).
  */
 import { CircuitBuilder, layoutOf, qubitOf, type Circuit } from "../ir/circuit.js";
+import { scratchInt32 } from "../ir/scratch.js";
 import { qubitCount } from "./commute.js";
 
 export function reuseWork(c: Circuit): Circuit {
   const layout = layoutOf(c);
   const base = layout.search + layout.target;
-  const first = new Int32Array(c.qubits).fill(-1);
-  const last = new Int32Array(c.qubits).fill(-1);
+  const first = scratchInt32("reuse.first", c.qubits).fill(-1);
+  const last = scratchInt32("reuse.last", c.qubits).fill(-1);
   for (let g = 0; g < c.gates; g++) {
     const n = qubitCount(c, g);
     for (let i = 0; i < n; i++) {
@@ -22,7 +23,7 @@ export function reuseWork(c: Circuit): Circuit {
     }
   }
   // Walk gates in order: at a qubit's first use take the lowest free wire; after its last, free it.
-  const wire = new Int32Array(c.qubits).fill(-1);
+  const wire = scratchInt32("reuse.wire", c.qubits).fill(-1);
   for (let q = 0; q < base; q++) wire[q] = q;
   // Any free wire will do (greedy colouring in order of first use is optimal for intervals);
   // a stack makes the choice O(1) and deterministic.
@@ -41,7 +42,8 @@ export function reuseWork(c: Circuit): Circuit {
     }
   }
   const out = new CircuitBuilder({ ...layout, work: wires }, c.gates);
-  const ops = c.ops.slice();
+  const ops = scratchInt32("reuse.ops", c.ops.length);
+  ops.set(c.ops);
   for (let g = 0; g < c.gates; g++) {
     const n = qubitCount(c, g);
     for (let p = c.opStart[g]!; p < c.opStart[g]! + n; p++) ops[p] = (wire[qubitOf(ops[p]!)]! << 1) | (ops[p]! & 1);

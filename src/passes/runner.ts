@@ -1,5 +1,5 @@
 /** Runs a list of passes; in debug mode validates after each one and blames the pass by name. */
-import type { Circuit } from "../ir/circuit.js";
+import { recycleCircuit, type Circuit } from "../ir/circuit.js";
 import { validateCircuit } from "../ir/validate.js";
 import { PASSES } from "./registry.js";
 
@@ -8,6 +8,11 @@ export interface RunPassesOptions {
   readonly validate?: boolean;
   /** Called with each pass's name and its output (for --trace). */
   readonly onPass?: (name: string, c: Circuit) => void;
+  /**
+   * Recycle the buffers of intermediate circuits (never the input) for later passes. Only for
+   * callers that keep none of the intermediates; ignored when `onPass` is given.
+   */
+  readonly recycle?: boolean;
 }
 
 /** Thrown when a pass leaves a circuit that breaks an invariant. */
@@ -26,11 +31,15 @@ export function runPasses(c: Circuit, names: readonly string[], opts: RunPassesO
   // A pass returns its input object when it changes nothing; a pass whose input is exactly its
   // own last output (nothing ran in between that changed the circuit) is not run again.
   const lastOutput = new Map<string, Circuit>();
+  const input = c;
+  const recycle = opts.recycle === true && opts.onPass === undefined;
   for (const name of names) {
     const pass = PASSES[name];
     if (pass === undefined) throw new Error(`unknown pass '${name}'`);
     if (lastOutput.get(name) === c) continue;
+    const before = c;
     c = pass.run(c);
+    if (recycle && c !== before && before !== input) recycleCircuit(before);
     lastOutput.set(name, c);
     if (opts.validate) {
       const broken = validateCircuit(c);
