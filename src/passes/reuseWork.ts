@@ -41,6 +41,8 @@ export function reuseWork(c: Circuit): Circuit {
       if (q >= base && last[q] === g) free.push(wire[q]!);
     }
   }
+  // Nothing to fold: keep the circuit as it is rather than only renumbering its wires.
+  if (wires === c.qubits - base) return c;
   const out = new CircuitBuilder({ ...layout, work: wires }, c.gates);
   const ops = scratchInt32("reuse.ops", c.ops.length);
   ops.set(c.ops);
