@@ -255,8 +255,8 @@ export interface PartCost {
 }
 
 function partCost(logical: Circuit, uncompute: Uncompute): PartCost {
-  const ct = countCircuit(finish(logical, "clifford+t", uncompute, true, false));
   const ctCircuit = finish(logical, "clifford+t", uncompute, true, false);
+  const ct = countCircuit(ctCircuit);
   const tof = countCircuit(finish(logical, "toffoli", uncompute, true, false));
   return { qubits: ctCircuit.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount };
 }
