@@ -37,3 +37,26 @@ export async function readStdin(): Promise<Buffer> {
 export async function loadBytes(path: string): Promise<Buffer> {
   return path === "-" ? readStdin() : readFile(path);
 }
+
+/**
+ * Reads a DIMACS file, or standard input when `path` is "-", with the fast scanner. An I/O
+ * failure is a diagnostic (code `io-error`, at 1:1), like any other reason the input is unusable.
+ *
+ * @example
+ * ```ts
+ * const { cnf, diagnostics } = await readDimacsFile("examples/launch-rota.cnf");
+ * ```
+ */
+export async function readDimacsFile(path: string): Promise<ReadResult> {
+  let bytes: Buffer;
+  try {
+    bytes = await loadBytes(path);
+  } catch (e) {
+    const code = (e as { code?: string }).code ?? String(e);
+    return {
+      cnf: undefined,
+      diagnostics: [{ code: "io-error", severity: "error", message: `cannot read the input (${code})`, offset: 0, line: 1, column: 1, hint: "check the path and permissions" }],
+    };
+  }
+  return scanDimacs(bytes);
+}

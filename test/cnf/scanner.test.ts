@@ -1,6 +1,6 @@
 // Accepted inputs and their meaning, read by the fast scanner and the grammar reader alike.
 import { describe, expect, it } from "vitest";
-import { clausesOf, countModels, readDimacs, readWithGrammarSync, scanDimacs, type ReadResult } from "../helpers/lib.js";
+import { clausesOf, countModels, readDimacs, readDimacsFile, readWithGrammarSync, scanDimacs, type ReadResult } from "../helpers/lib.js";
 
 const enc = (s: string): Uint8Array => Buffer.from(s, "latin1");
 
@@ -49,6 +49,16 @@ describe("accepted DIMACS", () => {
     expect(clausesOf(r.cnf!)).toEqual([[1], [2, -1]]);
     expect(r.diagnostics).toHaveLength(1);
     expect(r.diagnostics[0]).toMatchObject({ severity: "warning", code: "missing-terminator", line: 3, column: 5 });
+  });
+});
+
+describe("reading from a file", () => {
+  it("reads a file with readDimacsFile and reports a missing one as a diagnostic", async () => {
+    const { cnf } = await readDimacsFile("examples/allotment-pair.cnf");
+    expect(cnf?.variables).toBe(4);
+    const missing = await readDimacsFile("examples/no-such.cnf");
+    expect(missing.cnf).toBeUndefined();
+    expect(missing.diagnostics[0]).toMatchObject({ code: "io-error", line: 1, column: 1 });
   });
 });
 

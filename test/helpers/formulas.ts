@@ -39,22 +39,11 @@ export function colouring(vertices: number, edges: readonly (readonly [number, n
 }
 
 export { seededRandom as rng } from "../../dist/src/util/random.js";
-import { seededRandom as rng } from "../../dist/src/util/random.js";
+import { randomClauses } from "../../dist/bench/random.js";
 
-/** Random k-SAT with distinct variables per clause. */
+/** Random k-SAT with distinct variables per clause (the generator the benchmarks use). */
 export function randomKSat(n: number, m: number, k: number, seed: number): Cnf {
-  const r = rng(seed);
-  const clauses: number[][] = [];
-  for (let i = 0; i < m; i++) {
-    const c: number[] = [];
-    while (c.length < k) {
-      const v = 1 + Math.floor(r() * n);
-      if (c.some((l) => Math.abs(l) === v)) continue;
-      c.push(r() < 0.5 ? v : -v);
-    }
-    clauses.push(c);
-  }
-  return cnfFromClauses(n, clauses);
+  return cnfFromClauses(n, [...randomClauses(n, m, k, seed)]);
 }
 
 /** Truth-table count by plain loops: the simplest possible reference (n up to ~20). */
