@@ -260,7 +260,14 @@ export interface ClassicalRun {
  * const r = simulateClassical(compileOracle(cnf, { basis: "toffoli" }).circuit, [true, false, true]);
  * ```
  */
-export function simulateClassical(c: Circuit, input: readonly boolean[], outcomes: readonly boolean[] = []): ClassicalRun | { unsupported: string } {
+export function simulateClassical(
+  c: Circuit,
+  input: readonly boolean[],
+  outcomes: readonly boolean[] = [],
+): ClassicalRun | {
+  /** Why the circuit is not classical (the first gate the kernel cannot run). */
+  unsupported: string;
+} {
   const p = compileBitProgram(c);
   if ("unsupported" in p) return p;
   const b = newBlock(p, 1);
