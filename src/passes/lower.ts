@@ -93,7 +93,7 @@ class Lowering {
     if (k === K.and) o.addN(K.mcx, ops, cond);
     else if (k === K.unand) {
       if (this.opts.uncompute === "unitary") o.addN(K.mcx, ops, cond);
-      else this.measuredErase(ops.slice(0, -1), qubitOf(ops[ops.length - 1]!), (bit) => o.addN(K.mcz, ops.slice(0, -1), bit));
+      else this.measuredErase(qubitOf(ops[ops.length - 1]!), (bit) => o.addN(K.mcz, ops.slice(0, -1), bit));
     } else o.addN(k, ops, cond);
   }
 
@@ -310,7 +310,7 @@ class Lowering {
 
   private unand2(a: number, b: number, t: number): void {
     if (this.opts.uncompute === "measured" && this.opts.andGate !== "toffoli") {
-      this.measuredErase([a, b], t, (bit) => {
+      this.measuredErase(t, (bit) => {
         const qa = this.control(a);
         const qb = this.control(b);
         this.out.add(K.cz, pos(qa), pos(qb), NaN, bit);
@@ -333,7 +333,7 @@ class Lowering {
    * Gidney 2018: erase an AND qubit by measuring it in the X basis; on outcome 1 the inputs
    * pick up the phase (-1)^(AND), which `fixup(bit)` removes; then reset the qubit.
    */
-  private measuredErase(_inputs: number[], t: number, fixup: (bit: number) => void): void {
+  private measuredErase(t: number, fixup: (bit: number) => void): void {
     const o = this.out;
     if (this.opts.basis !== "mcx") this.plain(t);
     const bit = o.newClbit();
