@@ -45,10 +45,10 @@ export function oracleOptions(values: Record<string, string | boolean | undefine
   };
 }
 
-function describe(o: Oracle, file: string): string[] {
+function describe(o: Oracle): string[] {
   const { kind, strategy, basis, uncompute } = o.options;
   return [
-    `clausegate ${kind} oracle for ${displayName(file)}: ${o.variables} variables, ${o.clauses} clauses`,
+    `clausegate ${kind} oracle: ${o.variables} variables, ${o.clauses} clauses`,
     `strategy ${strategy}, basis ${basis}, uncompute ${uncompute}${o.options.optimize ? "" : ", not optimized"}`,
   ];
 }
@@ -108,7 +108,7 @@ export function writeOracle(oracle: Oracle, cnf: Cnf, file: string, format: (typ
     const problem = qasm2Problem(oracle.circuit);
     if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
   }
-  const comments = describe(oracle, file);
+  const comments = describe(oracle);
   const emit = (sink: (s: string) => void): void => {
     if (format === "qasm3") emitQasm3(oracle.circuit, sink, comments);
     else if (format === "qasm2") emitQasm2(oracle.circuit, sink, comments);

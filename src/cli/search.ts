@@ -214,7 +214,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
     if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
   }
   const comments = [
-    `clausegate search circuit for ${displayName(file)}: ${cnf.variables} search qubits, ${K} iteration${K === 1 ? "" : "s"}`,
+    `clausegate search circuit: ${cnf.variables} search qubits, ${K} iteration${K === 1 ? "" : "s"}`,
     `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds x[i]`,
     ...(reduction ? [`reduced search register: x[i] is DIMACS variable ${reduction.searched.map((v, i) => `${i}->${v}`).join(" ") || "(none)"}`] : []),
   ];

@@ -60,6 +60,10 @@ describe("clausegate oracle", () => {
     const r = cli(["oracle", "-"], "p cnf 3 3\n1 1 2 0\n1 -1 0\n1 2 3 0\n");
     expect(r.stderr).toBe("<stdin>: note: simplified before synthesis: removed 1 duplicate literal, 1 tautology, 1 subsumed clause\n");
   });
+  it("depends only on the formula and the options, not on where it was read from", () => {
+    const file = cli(["oracle", "examples/allotment-pair.cnf"]).stdout;
+    expect(cli(["oracle", "-"], readFileSync("examples/allotment-pair.cnf")).stdout).toBe(file);
+  });
   it("is byte-identical across runs; --no-optimize gives a larger circuit", () => {
     const a = cli(["oracle", "examples/launch-rota.cnf", "--basis", "clifford+t"]).stdout;
     expect(cli(["oracle", "examples/launch-rota.cnf", "--basis", "clifford+t"]).stdout).toBe(a);
