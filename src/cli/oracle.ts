@@ -98,12 +98,12 @@ export async function oracleCommand(argv: string[]): Promise<number> {
       return 1;
     }
   }
-  writeOracle(oracle, cnf, file, format, values.output, values.report);
+  writeOracle(oracle, cnf, format, values.output, values.report);
   return 0;
 }
 
-/** Writes the circuit (and report) of an oracle; shared with later commands. */
-export function writeOracle(oracle: Oracle, cnf: Cnf, file: string, format: (typeof FORMATS)[number], output?: string, report?: string): void {
+/** Writes the circuit (and report) of an oracle. */
+export function writeOracle(oracle: Oracle, cnf: Cnf, format: (typeof FORMATS)[number], output?: string, report?: string): void {
   if (format === "qasm2") {
     const problem = qasm2Problem(oracle.circuit);
     if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
