@@ -1,10 +1,9 @@
 /** CLI plumbing: loading inputs, printing diagnostics, atomic writes, progress bars, exit codes. */
 import { randomBytes } from "node:crypto";
 import { closeSync, openSync, renameSync, rmSync, writeSync } from "node:fs";
-import { readFile } from "node:fs/promises";
 import { basename, dirname, join } from "node:path";
 import { Bar, Presets } from "cli-progress";
-import { formatDiagnostic, readDimacs, type Cnf, type Diagnostic } from "../index.js";
+import { formatDiagnostic, readDimacsFile, type Cnf, type Diagnostic } from "../index.js";
 
 /** Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan). */
 export const EXIT_BAD_INPUT = 2;
@@ -21,13 +20,6 @@ export function displayName(path: string): string {
   return path === "-" ? "<stdin>" : path;
 }
 
-async function readAll(path: string): Promise<Buffer> {
-  if (path !== "-") return readFile(path);
-  const chunks: Buffer[] = [];
-  for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
-  return Buffer.concat(chunks);
-}
-
 /** Most variables a circuit-making command accepts (the search register is one qubit per variable). */
 export const MAX_CIRCUIT_VARIABLES = 1_000_000;
 
@@ -38,15 +30,9 @@ export function checkCircuitSize(cnf: Cnf, file: string, command: string): void 
   }
 }
 
-/** Loads and reads a DIMACS file; prints warnings; throws UserError on the first error. */
+/** Loads and reads a DIMACS file ("-": standard input); prints warnings; throws UserError on the first error. */
 export async function loadCnf(path: string): Promise<Cnf> {
-  let bytes: Buffer;
-  try {
-    bytes = await readAll(path);
-  } catch (e) {
-    throw new UserError(`${displayName(path)}: error: cannot read the input (${ioReason(e)}); check the path and permissions`);
-  }
-  const { cnf, diagnostics } = readDimacs(bytes);
+  const { cnf, diagnostics } = await readDimacsFile(path);
   printDiagnostics(diagnostics, displayName(path));
   if (cnf === undefined) throw new UserError("", EXIT_BAD_INPUT);
   return cnf;

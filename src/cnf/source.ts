@@ -23,6 +23,15 @@ export function readDimacs(input: DimacsInput): ReadResult {
   return scanDimacs(bytesOf(input));
 }
 
+/** A short human reason for an I/O error. */
+export function ioReason(e: unknown): string {
+  const code = (e as { code?: string }).code;
+  if (code === "ENOENT") return "no such file";
+  if (code === "EISDIR") return "it is a directory";
+  if (code === "EACCES") return "permission denied";
+  return code ?? String(e);
+}
+
 /** Reads all of standard input. */
 export async function readStdin(): Promise<Buffer> {
   const chunks: Buffer[] = [];
@@ -52,10 +61,9 @@ export async function readDimacsFile(path: string): Promise<ReadResult> {
   try {
     bytes = await loadBytes(path);
   } catch (e) {
-    const code = (e as { code?: string }).code ?? String(e);
     return {
       cnf: undefined,
-      diagnostics: [{ code: "io-error", severity: "error", message: `cannot read the input (${code})`, offset: 0, line: 1, column: 1, hint: "check the path and permissions" }],
+      diagnostics: [{ code: "io-error", severity: "error", message: `cannot read the input (${ioReason(e)})`, offset: 0, line: 1, column: 1, hint: "check the path and permissions" }],
     };
   }
   return scanDimacs(bytes);

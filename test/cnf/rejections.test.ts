@@ -77,6 +77,6 @@ describe("rejected inputs", () => {
   it("reports a missing file as bad input, without a stack trace", () => {
     const run = cli(["count", join(dir, "nope.cnf")]);
     expect(run.code).toBe(2);
-    expect(run.stderr).toMatch(/nope\.cnf: error: cannot read the input \(no such file\)/);
+    expect(run.stderr).toMatch(/nope\.cnf:1:1: error: cannot read the input \(no such file\); hint: check the path/);
   });
 });
