@@ -42,9 +42,10 @@ export function printDiagnostics(ds: readonly Diagnostic[], file: string): void 
   for (const d of ds) process.stderr.write(`${formatDiagnostic(d, file)}\n`);
 }
 
+/** A short reason for a failed write. */
 function ioReason(e: unknown): string {
   const code = (e as { code?: string }).code;
-  if (code === "ENOENT") return "no such file";
+  if (code === "ENOENT") return "no such folder";
   if (code === "EISDIR") return "it is a directory";
   if (code === "EACCES") return "permission denied";
   return code ?? String(e);
