@@ -127,6 +127,14 @@ function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
   for (let l = 0; l <= maxLen; l++) byLen[l + 1]! += byLen[l]!;
   const order = new Uint32Array(m);
   for (let i = 0; i < m; i++) order[byLen[start[i + 1]! - start[i]!]!++] = i;
+  // A 32-bit signature per clause (one bit per literal, hashed): D can only be inside C when every
+  // bit of D's signature is in C's, which rejects most candidates without comparing literals.
+  const sig = new Int32Array(m);
+  for (let i = 0; i < m; i++) {
+    let x = 0;
+    for (let k = start[i]!; k < start[i + 1]!; k++) x |= 1 << (index(lits[k]!) & 31);
+    sig[i] = x;
+  }
   let repeated = 0;
   let subsumed = 0;
   let budget = SUBSUMPTION_BUDGET;
@@ -143,7 +151,7 @@ function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
       if (c === d || !keep[c]) continue;
       const cs = start[c]!;
       const ce = start[c + 1]!;
-      if (ce - cs < de - ds) continue;
+      if (ce - cs < de - ds || (sig[d]! & ~sig[c]!) !== 0) continue;
       budget -= ce - cs + de - ds;
       if (budget < 0) return { keep, repeated, subsumed, complete: false };
       if (contains(lits, cs, ce, ds, de)) {
