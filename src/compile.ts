@@ -4,7 +4,7 @@
  * always those of its Clifford+T and Toffoli lowerings, whatever basis is emitted.
  */
 import { clauseCount, type Cnf } from "./cnf/cnf.js";
-import { countCircuit, type CircuitCounts } from "./emit/resources.js";
+import { countCircuit } from "./emit/resources.js";
 import { recycleCircuit, type Circuit } from "./ir/circuit.js";
 import { lower, type Basis, type Uncompute } from "./passes/lower.js";
 import { DEFAULT_PIPELINE } from "./passes/registry.js";
@@ -192,26 +192,13 @@ export interface CostRow {
  */
 export function costTable(cnf: Cnf, kind: OracleKind = "phase"): CostRow[] {
   const simplified = simplify(cnf);
-  const rows: CostRow[] = [];
-  const row = (strategy: AnyStrategy, uncompute: Uncompute): void => {
-    const logical = synthesize(simplified, kind, strategy);
-    const textbook = strategy === "textbook";
-    const ct = finish(logical, "clifford+t", uncompute, true, false, textbook);
-    const tof = countCircuit(finish(logical, "toffoli", uncompute, true, false, textbook));
-    const counts: CircuitCounts = countCircuit(ct);
-    rows.push({
-      strategy,
-      uncompute,
-      qubits: ct.qubits,
-      toffoli_count: tof.toffoliCount,
-      t_count: counts.tCount,
-      t_depth: counts.tDepth,
-      cnot_count: counts.cnotCount,
-      depth: counts.depth,
-    });
+  const row = (strategy: AnyStrategy, uncompute: Uncompute): CostRow => {
+    const { qubits, toffoli_count, t_count, t_depth, cnot_count, depth } = partCost(synthesize(simplified, kind, strategy), uncompute, strategy === "textbook");
+    return { strategy, uncompute, qubits, toffoli_count, t_count, t_depth, cnot_count, depth };
   };
-  for (const s of ["wide", "lean"] as const) for (const u of ["unitary", "measured"] as const) row(s, u);
-  row("textbook", "unitary");
+  const rows: CostRow[] = [];
+  for (const s of ["wide", "lean"] as const) for (const u of ["unitary", "measured"] as const) rows.push(row(s, u));
+  rows.push(row("textbook", "unitary"));
   return rows;
 }
 
@@ -254,10 +241,11 @@ export interface PartCost {
   readonly toffoli_count: number;
 }
 
-function partCost(logical: Circuit, uncompute: Uncompute): PartCost {
-  const ctCircuit = finish(logical, "clifford+t", uncompute, true, false);
+/** Clifford+T and toffoli-basis counts of a logical circuit (textbook: ANDs as 7-T Toffolis). */
+function partCost(logical: Circuit, uncompute: Uncompute, toffoliAnds = false): PartCost {
+  const ctCircuit = finish(logical, "clifford+t", uncompute, true, false, toffoliAnds);
   const ct = countCircuit(ctCircuit);
-  const tof = countCircuit(finish(logical, "toffoli", uncompute, true, false));
+  const tof = countCircuit(finish(logical, "toffoli", uncompute, true, false, toffoliAnds));
   return { qubits: ctCircuit.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount };
 }
 

@@ -76,7 +76,7 @@ export function writeAtomic(path: string, produce: (write: (chunk: string) => vo
   }
 }
 
-/** Writes to standard output in order (chunks are queued if the reader is slower). */
+/** Writes to standard output in order (synchronous for files and pipes on Linux, so nothing piles up). */
 export function writeStdout(chunk: string): void {
   process.stdout.write(chunk);
 }

@@ -2,7 +2,7 @@
 import { parseArgs } from "node:util";
 import {
   compileOracle, costTable, emitJson, emitQasm2, emitQasm3, oracleResources, qasm2Problem,
-  type Cnf, type Oracle, type OracleOptions,
+  type Circuit, type Cnf, type Oracle, type OracleOptions,
 } from "../index.js";
 import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
 import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
@@ -102,24 +102,35 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   return 0;
 }
 
-/** Writes the circuit (and report) of an oracle. */
-export function writeOracle(oracle: Oracle, cnf: Cnf, format: (typeof FORMATS)[number], output?: string, report?: string): void {
-  if (format === "qasm2") {
-    const problem = qasm2Problem(oracle.circuit);
-    if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
-  }
-  const comments = describe(oracle);
+/** Output formats of the circuit-writing commands. */
+export type Format = (typeof FORMATS)[number];
+
+/** Refuses, before anything is written, a circuit the format cannot express. */
+export function checkFormat(circuit: Circuit, format: Format): void {
+  const problem = format === "qasm2" ? qasm2Problem(circuit) : null;
+  if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
+}
+
+/** Writes a circuit in a format to a file (atomically) or standard output. */
+export function writeCircuit(circuit: Circuit, format: Format, comments: readonly string[], output: string | undefined): void {
+  checkFormat(circuit, format);
   const emit = (sink: (s: string) => void): void => {
-    if (format === "qasm3") emitQasm3(oracle.circuit, sink, comments);
-    else if (format === "qasm2") emitQasm2(oracle.circuit, sink, comments);
-    else emitJson(oracle.circuit, sink, comments);
+    if (format === "qasm3") emitQasm3(circuit, sink, comments);
+    else if (format === "qasm2") emitQasm2(circuit, sink, comments);
+    else emitJson(circuit, sink, comments);
   };
+  if (output === undefined) emit(writeStdout);
+  else writeAtomic(output, emit);
+}
+
+/** Writes the circuit (and report) of an oracle. */
+export function writeOracle(oracle: Oracle, cnf: Cnf, format: Format, output?: string, report?: string): void {
+  checkFormat(oracle.circuit, format);
   if (report !== undefined) {
     const r = oracleResources(cnf, oracle);
     writeAtomic(report, (w) => w(`${JSON.stringify(r, null, 2)}\n`));
   }
-  if (output === undefined) emit(writeStdout);
-  else writeAtomic(output, emit);
+  writeCircuit(oracle.circuit, format, describe(oracle), output);
 }
 
 export async function costCommand(argv: string[]): Promise<number> {

@@ -2,12 +2,12 @@
 import { parseArgs } from "node:util";
 import {
   bbhtExpectedCalls, bbhtRounds, bbhtSequence, BBHT_LAMBDA, compileOracle, compileSearch, countModels, DEFAULT_COUNT_LIMIT,
-  drawCircuitSvg, drawProblem, emitJson, emitQasm2, emitQasm3, planSearch, plotSuccessSvg, qasm2Problem, reduceSearch,
+  drawCircuitSvg, drawProblem, planSearch, plotSuccessSvg, reduceSearch,
   searchCosts, type Cnf, type Reduction, type SearchPlan,
 } from "../index.js";
-import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
+import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic } from "./io.js";
 import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
-import { oracleOptions } from "./oracle.js";
+import { checkFormat, oracleOptions, writeCircuit } from "./oracle.js";
 
 /** Largest search register plan works with: 2^n must stay a finite double. */
 const MAX_PLAN_QUBITS = 1000;
@@ -209,10 +209,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const { cnf, reduction } = problemOf(original, values.reduce === true);
   const { K, plan, source } = await iterationsFor(cnf, values.iterations, values.solutions);
   const circuit = compileSearch(cnf, { ...o, iterations: K });
-  if (format === "qasm2") {
-    const problem = qasm2Problem(circuit);
-    if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
-  }
+  checkFormat(circuit, format);
   const comments = [
     `clausegate search circuit: ${cnf.variables} search qubits, ${K} iteration${K === 1 ? "" : "s"}`,
     `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds x[i]`,
@@ -222,13 +219,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
     const report = wholeRunReport(original, cnf, K, plan, source, o.uncompute, reduction);
     writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`));
   }
-  const emit = (sink: (s: string) => void): void => {
-    if (format === "qasm3") emitQasm3(circuit, sink, comments);
-    else if (format === "qasm2") emitQasm2(circuit, sink, comments);
-    else emitJson(circuit, sink, comments);
-  };
-  if (values.output === undefined) emit(writeStdout);
-  else writeAtomic(values.output, emit);
+  writeCircuit(circuit, format, comments, values.output);
   return 0;
 }
 

@@ -24,7 +24,7 @@ export function readDimacs(input: DimacsInput): ReadResult {
 }
 
 /** A short human reason for an I/O error. */
-export function ioReason(e: unknown): string {
+function ioReason(e: unknown): string {
   const code = (e as { code?: string }).code;
   if (code === "ENOENT") return "no such file";
   if (code === "EISDIR") return "it is a directory";
