@@ -31,7 +31,7 @@ export interface OracleOptions {
 
 /** A compiled oracle. */
 export interface Oracle {
-  /** The circuit in the chosen basis: search register `x` (x[v-1] is variable v), `target`, `work`. */
+  /** The circuit in the chosen basis: search register `vars` (vars[v-1] is variable v), `target`, `work`. */
   readonly circuit: Circuit;
   /** The options it was compiled with, defaults filled in. */
   readonly options: Required<OracleOptions>;

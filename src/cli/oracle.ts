@@ -11,7 +11,7 @@ import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./verify
 export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
 
 Compiles a DIMACS CNF formula into a quantum oracle and writes it (OpenQASM 3 by default). The
-search register x holds the variables (x[v-1] is DIMACS variable v), work holds work qubits
+search register vars holds the variables (vars[v-1] is DIMACS variable v), work holds work qubits
 (returned to |0>), target the flag oracle's output qubit.
 
 Options:

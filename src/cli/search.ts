@@ -212,8 +212,8 @@ export async function searchCommand(argv: string[]): Promise<number> {
   checkFormat(circuit, format);
   const comments = [
     `clausegate search circuit: ${cnf.variables} search qubits, ${K} iteration${K === 1 ? "" : "s"}`,
-    `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds x[i]`,
-    ...(reduction ? [`reduced search register: x[i] is DIMACS variable ${reduction.searched.map((v, i) => `${i}->${v}`).join(" ") || "(none)"}`] : []),
+    `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds vars[i]`,
+    ...(reduction ? [`reduced search register: vars[i] is DIMACS variable ${reduction.searched.map((v, i) => `${i}->${v}`).join(" ") || "(none)"}`] : []),
   ];
   if (values.report !== undefined) {
     const report = wholeRunReport(original, cnf, K, plan, source, o.uncompute, reduction);
@@ -240,7 +240,7 @@ function wholeRunReport(original: Cnf, cnf: Cnf, K: number, plan: SearchPlan | u
           register: reduction.searched.map((v, i) => ({ bit: i, variable: v })),
           fixed: [...reduction.fixed].map(([variable, value]) => ({ variable, value })),
           free: reduction.free,
-          completion: "a measured result x gives the assignment: variable register[i].variable = x[i]; fixed variables take their value; free variables take any value (each choice is a solution)",
+          completion: "a measured result gives the assignment: variable register[i].variable = outcome[i]; fixed variables take their value; free variables take any value (each choice is a solution)",
         }
       : null,
   };

@@ -3,7 +3,7 @@
  *
  *   { "format": "clausegate-circuit", "version": 1, "comments": [..],
  *     "qubits": Q, "clbits": C,
- *     "registers": [{ "name": "x", "role": "search", "start": 0, "size": n }, ...],
+ *     "registers": [{ "name": "vars", "role": "search", "start": 0, "size": n }, ...],
  *     "gates": [ { "op": KIND, "qubits": [..] , ... }, ... ] }
  *
  * KIND is one of x y z h s sdg t tdg cx cz ccx mcx mcz and unand gphase measure reset. Qubits

@@ -205,8 +205,14 @@ export interface Layout {
   readonly clbits?: number;
 }
 
+/**
+ * Name of the search register. Not `x`: `stdgates.inc` declares a gate `x`, and OpenQASM 3 has one
+ * global scope in which a gate name may not be redeclared (specification, "Scoping of variables").
+ */
+export const SEARCH_REGISTER = "vars";
+
 export function registersOf(search: number, target: number, qubits: number): Register[] {
-  const regs: Register[] = [{ name: "x", role: "search", start: 0, size: search }];
+  const regs: Register[] = [{ name: SEARCH_REGISTER, role: "search", start: 0, size: search }];
   if (target > 0) regs.push({ name: "target", role: "target", start: search, size: target });
   regs.push({ name: "work", role: "work", start: search + target, size: qubits - search - target });
   return regs;

@@ -5,7 +5,7 @@
  * rejected with its line and column: this is not a general OpenQASM 3 parser.
  */
 import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
-import { CircuitBuilder, type Circuit } from "./circuit.js";
+import { CircuitBuilder, SEARCH_REGISTER, type Circuit } from "./circuit.js";
 import { GATE_KINDS, K, type GateKind } from "./kinds.js";
 import { validateCircuit } from "./validate.js";
 
@@ -122,7 +122,7 @@ class Qasm3Reader {
       let m = /^qubit\[(\d+)\] (\w+)$/.exec(t);
       if (m) {
         if (this.b) throw new Stop(err(s.at, "expected declarations before the first gate", HINT));
-        if (!["x", "target", "work"].includes(m[2]!)) throw new Stop(err(s.at, `expected a register named x, target or work but found '${m[2]}'`, HINT));
+        if (![SEARCH_REGISTER, "target", "work"].includes(m[2]!)) throw new Stop(err(s.at, `expected a register named ${SEARCH_REGISTER}, target or work but found '${m[2]}'`, HINT));
         this.sizes.set(m[2]!, Number(m[1]));
         continue;
       }
@@ -157,7 +157,7 @@ class Qasm3Reader {
 
   private builder(): CircuitBuilder {
     this.b ??= new CircuitBuilder({
-      search: this.sizes.get("x") ?? 0,
+      search: this.sizes.get(SEARCH_REGISTER) ?? 0,
       target: this.sizes.get("target") ?? 0,
       work: this.sizes.get("work") ?? 0,
       clbits: this.sizes.get(`#${this.clbitName}`) ?? 0,
@@ -176,9 +176,9 @@ class Qasm3Reader {
     const size = m ? this.sizes.get(m[1]!) : undefined;
     if (!m || size === undefined || Number(m[2]) >= size) throw new Stop(err(at, `expected a declared qubit but found '${ref.trim()}'`, HINT));
     const i = Number(m[2]);
-    const n = this.sizes.get("x") ?? 0;
+    const n = this.sizes.get(SEARCH_REGISTER) ?? 0;
     const t = this.sizes.get("target") ?? 0;
-    return m[1] === "x" ? i : m[1] === "target" ? n + i : n + t + i;
+    return m[1] === SEARCH_REGISTER ? i : m[1] === "target" ? n + i : n + t + i;
   }
 
   private statement(b: CircuitBuilder, t: string, at: number, cond: number): void {

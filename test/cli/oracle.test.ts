@@ -13,7 +13,7 @@ describe("clausegate oracle", () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^OPENQASM 3\.0;\n/);
     expect(r.stdout).toContain("// strategy wide, basis toffoli, uncompute unitary");
-    expect(r.stdout).toContain("qubit[4] x;");
+    expect(r.stdout).toContain("qubit[4] vars;");
     expect(r.stdout).toMatch(/^ccx /m);
   });
   it("writes a file with -o and a report with --report, both complete", () => {
@@ -36,7 +36,7 @@ describe("clausegate oracle", () => {
     expect(report.gates.t + report.gates.tdg).toBe(report.t_count);
   });
   it("writes OpenQASM 2 and JSON", () => {
-    expect(cli(["oracle", "examples/allotment-pair.cnf", "--format", "qasm2"]).stdout).toMatch(/^OPENQASM 2\.0;\n[\s\S]*include "qelib1\.inc";\nqreg x\[4\];/);
+    expect(cli(["oracle", "examples/allotment-pair.cnf", "--format", "qasm2"]).stdout).toMatch(/^OPENQASM 2\.0;\n[\s\S]*include "qelib1\.inc";\nqreg vars\[4\];/);
     expect(JSON.parse(cli(["oracle", "examples/allotment-pair.cnf", "--format", "json"]).stdout).format).toBe("clausegate-circuit");
   });
   it("refuses OpenQASM 2 for multi-controlled gates with exit 2 and leaves no partial file", () => {

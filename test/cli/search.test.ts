@@ -64,7 +64,7 @@ describe("clausegate search", () => {
     expect(r.code).toBe(0);
     const qasm = readFileSync(out, "utf8");
     expect(qasm).toContain("7 iterations");
-    expect(qasm).toMatch(/^outcome\[11\] = measure x\[11\];$/m);
+    expect(qasm).toMatch(/^outcome\[11\] = measure vars\[11\];$/m);
     const report = JSON.parse(readFileSync(rep, "utf8"));
     expect(report.plan).toMatchObject({ solutions: 49, optimal_iterations: 7 });
     expect(report.costs.map((c: { strategy: string }) => c.strategy)).toEqual(["wide", "lean"]);
@@ -78,7 +78,7 @@ describe("clausegate search", () => {
     const rep = join(dir, "r.json");
     const r = cli(["search", "-", "--reduce", "--report", rep], "p cnf 5 3\n1 0\n-1 2 3 0\n3 -4 0\n");
     expect(r.code).toBe(0);
-    expect(r.stdout).toMatch(/^qubit\[3\] x;$/m);
+    expect(r.stdout).toMatch(/^qubit\[3\] vars;$/m);
     const report = JSON.parse(readFileSync(rep, "utf8"));
     expect(report.reduction.register).toEqual([{ bit: 0, variable: 2 }, { bit: 1, variable: 3 }, { bit: 2, variable: 4 }]);
     expect(report.reduction.fixed).toEqual([{ variable: 1, value: true }]);
@@ -100,7 +100,7 @@ describe("clausegate draw", () => {
     // all-positive-literal clauses... counted exactly below), 12 targets, and the root: 6 open dots.
     expect(countClass(svg, "target")).toBe(12);
     expect(countClass(svg, "ctrl-on") + countClass(svg, "ctrl-off")).toBe(12 * 2 + 6);
-    expect(svg).toContain(">x[0]</text>");
+    expect(svg).toContain(">vars[0]</text>");
     expect(svg).toContain(">work[5]</text>");
   });
   it("draws a search circuit with measurements", () => {

@@ -46,10 +46,10 @@ describe("clausegate verify", () => {
   });
   it("rejects a malformed circuit with its line and column and exit 2", () => {
     const out = join(dir, "malformed.qasm");
-    writeFileSync(out, 'OPENQASM 3.0;\ninclude "stdgates.inc";\nqubit[4] x;\nqubit[1] work;\n  ccx x[0], x[9], work[0];\n');
+    writeFileSync(out, 'OPENQASM 3.0;\ninclude "stdgates.inc";\nqubit[4] vars;\nqubit[1] work;\n  ccx vars[0], vars[9], work[0];\n');
     const r = cli(["verify", "examples/allotment-pair.cnf", "--circuit", out]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/malformed\.qasm:5:3: error: expected a declared qubit but found 'x\[9\]'; hint: /);
+    expect(r.stderr).toMatch(/malformed\.qasm:5:3: error: expected a declared qubit but found 'vars\[9\]'; hint: /);
   });
   it("refuses OpenQASM 2 input with exit 2", () => {
     const out = join(dir, "old.qasm");

@@ -18,22 +18,22 @@ describe("OpenQASM 3", () => {
         "OPENQASM 3.0;",
         "// header",
         'include "stdgates.inc";',
-        "qubit[3] x;",
+        "qubit[3] vars;",
         "qubit[2] work;",
-        "negctrl @ ctrl @ x x[0], x[1], work[0];",
-        "negctrl(2) @ x x[1], x[2], work[1];",
+        "negctrl @ ctrl @ x vars[0], vars[1], work[0];",
+        "negctrl(2) @ x vars[1], vars[2], work[1];",
         "x work[1];",
         "negctrl @ z work[0], work[1];",
         "x work[1];",
-        "negctrl(2) @ x x[1], x[2], work[1];",
-        "negctrl @ ctrl @ x x[0], x[1], work[0];",
+        "negctrl(2) @ x vars[1], vars[2], work[1];",
+        "negctrl @ ctrl @ x vars[0], vars[1], work[0];",
         "",
       ].join("\n"),
     );
   });
-  it("declares x, work and target registers, and classical bits for measured uncomputation", () => {
+  it("declares vars, work and target registers, and classical bits for measured uncomputation", () => {
     const text = qasm3(randomKSat(5, 8, 3, 1), { kind: "flag", basis: "clifford+t", uncompute: "measured" });
-    expect(text).toMatch(/^qubit\[5\] x;$/m);
+    expect(text).toMatch(/^qubit\[5\] vars;$/m);
     expect(text).toMatch(/^qubit\[1\] target;$/m);
     expect(text).toMatch(/^qubit\[\d+\] work;$/m);
     expect(text).toMatch(/^bit\[\d+\] outcome;$/m);
@@ -110,7 +110,7 @@ describe("JSON", () => {
     const oracle = compileOracle(randomKSat(6, 12, 3, 6), { basis: "mcx", uncompute: "measured" });
     const doc = JSON.parse(collect((s) => emitJson(oracle.circuit, s, ["c"])));
     expect(doc).toMatchObject({ format: CIRCUIT_FORMAT, version: 1, qubits: oracle.circuit.qubits, clbits: oracle.circuit.clbits });
-    expect(doc.registers.map((r: { name: string }) => r.name)).toEqual(["x", "work"]);
+    expect(doc.registers.map((r: { name: string }) => r.name)).toEqual(["vars", "work"]);
     expect(doc.gates).toHaveLength(oracle.circuit.gates);
     const kinds = new Set(doc.gates.map((g: { op: string }) => g.op));
     expect([...kinds].every((k) => ["mcx", "mcz", "h", "measure", "reset", "x", "z", "cz", "cx", "ccx"].includes(k as string))).toBe(true);

@@ -31,16 +31,16 @@ describe("what the passes do", () => {
     b.add(K.h, 2).add(K.h, 2);
     b.add(K.cx, 0, 2).add(K.z, 0).add(K.cx, 0, 2); // Z on the control commutes with CX
     // x q2; cx q0 q2; x q2 | h q1; h q1 | cx q0 q1; z q0; cx q0 q1
-    expect(text(b)).toBe("cx x[0], x[2];\nz x[0];\n");
+    expect(text(b)).toBe("cx vars[0], vars[2];\nz vars[0];\n");
   });
   it("merges phase gates: T T -> S, S S -> Z, T Tdg -> nothing", () => {
     const b = new CircuitBuilder({ search: 2, target: 0 });
     b.add(K.t, 0).add(K.t, 0).add(K.s, 2).add(K.s, 2).add(K.t, 0).add(K.tdg, 0);
-    expect(text(b)).toBe("s x[0];\nz x[1];\n");
+    expect(text(b)).toBe("s vars[0];\nz vars[1];\n");
   });
   it("folds X conjugation into control polarity", () => {
     const b = new CircuitBuilder({ search: 3, target: 0 });
     b.add(K.x, 0).addN(K.mcx, [0, 2, 4]).add(K.x, 0);
-    expect(text(b)).toBe("negctrl @ ctrl @ x x[0], x[1], x[2];\n");
+    expect(text(b)).toBe("negctrl @ ctrl @ x vars[0], vars[1], vars[2];\n");
   });
 });
