@@ -1,11 +1,14 @@
 #!/usr/bin/env node
 // Entry point of the clausegate command.
+import { discardOutputs } from "./output.js";
 import { main } from "./main.js";
 
-// A reader that stops early (clausegate oracle f.cnf | head) is not an error.
 process.stdout.on("error", (e: NodeJS.ErrnoException) => {
+  // A reader that stops early (clausegate oracle f.cnf | head) is not an error.
   if (e.code === "EPIPE") process.exit(0);
-  throw e;
+  discardOutputs();
+  process.stderr.write(`clausegate: error: cannot write to standard output (${e.code ?? e.message}); hint: check the disk space or the program reading the output, or write to a file with -o\n`);
+  process.exit(2);
 });
 
 main(process.argv.slice(2)).then((code) => {

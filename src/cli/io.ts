@@ -1,9 +1,7 @@
 /** CLI plumbing: loading inputs, printing diagnostics, atomic writes, progress bars, exit codes. */
-import { randomBytes } from "node:crypto";
-import { closeSync, openSync, renameSync, rmSync, writeSync } from "node:fs";
-import { basename, dirname, join } from "node:path";
 import { Bar, Presets } from "cli-progress";
 import { formatDiagnostic, readDimacsFile, type Cnf, type Diagnostic } from "../index.js";
+import { noteInput, writeOutput } from "./output.js";
 
 /** Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan). */
 export const EXIT_BAD_INPUT = 2;
@@ -32,6 +30,7 @@ export function checkCircuitSize(cnf: Cnf, file: string, command: string): void 
 
 /** Loads and reads a DIMACS file ("-": standard input); prints warnings; throws UserError on the first error. */
 export async function loadCnf(path: string): Promise<Cnf> {
+  noteInput(path);
   const { cnf, diagnostics } = await readDimacsFile(path);
   printDiagnostics(diagnostics, displayName(path));
   if (cnf === undefined) throw new UserError("", EXIT_BAD_INPUT);
@@ -42,38 +41,12 @@ export function printDiagnostics(ds: readonly Diagnostic[], file: string): void 
   for (const d of ds) process.stderr.write(`${formatDiagnostic(d, file)}\n`);
 }
 
-/** A short reason for a failed write. */
-function ioReason(e: unknown): string {
-  const code = (e as { code?: string }).code;
-  if (code === "ENOENT") return "no such folder";
-  if (code === "EISDIR") return "it is a directory";
-  if (code === "EACCES") return "permission denied";
-  return code ?? String(e);
-}
-
 /**
- * Writes a file atomically: chunks go to a temporary file beside it, which is renamed over it
- * at the end, so a failure never leaves a partial output.
+ * Writes an output through the run's output transaction (see output.ts): checked destination,
+ * temporary file, renamed into place only when the command succeeds. `-` is standard output.
  */
-export function writeAtomic(path: string, produce: (write: (chunk: string) => void) => void): void {
-  const tmp = join(dirname(path), `.${basename(path)}.${randomBytes(4).toString("hex")}.tmp`);
-  let fd = -1;
-  try {
-    fd = openSync(tmp, "w");
-    const f = fd;
-    produce((chunk) => {
-      writeSync(f, chunk);
-    });
-    closeSync(fd);
-    fd = -1;
-    renameSync(tmp, path);
-  } catch (e) {
-    if (fd >= 0) closeSync(fd);
-    rmSync(tmp, { force: true });
-    if (e instanceof UserError) throw e;
-    if ((e as { code?: string }).code === undefined) throw e;
-    throw new UserError(`${path}: error: cannot write the output (${ioReason(e)}); check that the folder exists and is writable`);
-  }
+export function writeAtomic(path: string, produce: (write: (chunk: string) => void) => void, what = "the output"): void {
+  writeOutput(path, what, produce);
 }
 
 /** Writes to standard output in order (synchronous for files and pipes on Linux, so nothing piles up). */
@@ -81,9 +54,19 @@ export function writeStdout(chunk: string): void {
   process.stdout.write(chunk);
 }
 
+/** "12 s", "3 min 5 s", "1 h 2 min": a remaining time for the progress bar. */
+export function etaText(seconds: number): string {
+  if (!Number.isFinite(seconds) || seconds < 0) return "estimating";
+  const s = Math.round(seconds);
+  if (s < 60) return `${s} s`;
+  if (s < 3600) return `${Math.floor(s / 60)} min ${s % 60} s`;
+  return `${Math.floor(s / 3600)} h ${Math.floor((s % 3600) / 60)} min`;
+}
+
 /**
  * A progress reporter that shows a bar on a TTY only, and only once the work has run for a
- * second (short runs stay quiet).
+ * second (short runs stay quiet). The time left is our own estimate (elapsed / done x left),
+ * shown as "estimating" until 2% is done rather than the bar library's non-finite figure.
  */
 export function progress(label: string): { update: (fraction: number) => void; stop: () => void } {
   if (!process.stderr.isTTY) return { update: () => {}, stop: () => {} };
@@ -91,12 +74,14 @@ export function progress(label: string): { update: (fraction: number) => void; s
   let bar: Bar | undefined;
   return {
     update(fraction) {
-      if (bar === undefined && Date.now() - started < 1000) return;
+      const elapsed = (Date.now() - started) / 1000;
+      if (bar === undefined && elapsed < 1) return;
+      const left = fraction >= 0.02 ? etaText((elapsed / fraction) * (1 - fraction)) : "estimating";
       if (bar === undefined) {
-        bar = new Bar({ format: `${label} [{bar}] {percentage}% | {eta_formatted} left`, stream: process.stderr }, Presets.shades_classic);
-        bar.start(1000, 0);
+        bar = new Bar({ format: `${label} [{bar}] {percentage}% | {left} left`, stream: process.stderr, etaBuffer: 1 }, Presets.shades_classic);
+        bar.start(1000, 0, { left });
       }
-      bar.update(Math.round(fraction * 1000));
+      bar.update(Math.round(Math.min(1, Math.max(0, fraction)) * 1000), { left });
     },
     stop() {
       bar?.stop();

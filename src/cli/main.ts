@@ -5,6 +5,7 @@ import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
 import { verifyCommand, verifyHelp } from "./verify.js";
 import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp } from "./search.js";
 import { EXIT_BAD_INPUT, UserError } from "./io.js";
+import { checkpoint, cleanUpOnSignals, commitOutputs, discardOutputs, OutputError } from "./output.js";
 import { PassError } from "../index.js";
 
 const commands: Record<string, { run: (argv: string[]) => Promise<number>; summary: string; help: string }> = {
@@ -35,21 +36,43 @@ Options:
   -h, --help      show this help (clausegate COMMAND --help for a command)
   -v, --version   print the version
 
-Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan).
+Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan, search, draw --search).
+Errors are one line on stderr: WHERE: error: WHAT; hint: WHAT TO DO.
 `;
+}
+
+/** Node's argument-parser messages, reworded into our one-line shape. */
+function argumentError(e: Error, command: string): string {
+  const msg = e.message.replace(/\s+/g, " ").trim();
+  const where = `clausegate ${command}`;
+  const hint = `hint: see clausegate ${command} --help`;
+  let m = /^Unknown option '([^']+)'/.exec(msg);
+  if (m) return `${where}: error: unknown option '${m[1]}'; ${hint}`;
+  m = /^Option '(?:-\w, )?(--[\w-]+)[^']*' argument missing/.exec(msg);
+  if (m) return `${where}: error: option ${m[1]} needs a value; ${hint}`;
+  m = /^Option '(?:-\w, )?(--[\w-]+)[^']*' does not take an argument/.exec(msg);
+  if (m) return `${where}: error: option ${m[1]} takes no value; ${hint}`;
+  m = /^Unexpected argument '([^']+)'/.exec(msg);
+  if (m) return `${where}: error: unexpected argument '${m[1]}'; ${hint}`;
+  return `${where}: error: ${msg.replace(/[.;]\s.*$/, "")}; ${hint}`;
 }
 
 /** Runs the CLI with the given arguments; resolves to the exit code. */
 export async function main(argv: string[]): Promise<number> {
   const [first, ...rest] = argv;
+  cleanUpOnSignals();
   try {
-    if (first === undefined || first === "-h" || first === "--help" || first === "help") {
-      if (first === "help" && rest[0] !== undefined && commands[rest[0]]) {
-        process.stdout.write(commands[rest[0]]!.help);
-        return 0;
+    if (first === undefined) {
+      process.stderr.write(mainHelp());
+      return EXIT_BAD_INPUT;
+    }
+    if (first === "-h" || first === "--help" || first === "help") {
+      const topic = first === "help" && rest[0] !== undefined ? commands[rest[0]] : undefined;
+      if (first === "help" && rest[0] !== undefined && topic === undefined) {
+        throw new UserError(`clausegate: error: unknown command '${rest[0]}'; hint: run clausegate --help for the list`);
       }
-      process.stdout.write(mainHelp());
-      return first === undefined ? EXIT_BAD_INPUT : 0;
+      process.stdout.write(topic ? topic.help : mainHelp());
+      return 0;
     }
     if (first === "-v" || first === "--version") {
       process.stdout.write(`${version()}\n`);
@@ -57,24 +80,30 @@ export async function main(argv: string[]): Promise<number> {
     }
     const command = commands[first];
     if (command === undefined) {
-      throw new UserError(`clausegate: error: unknown command '${first}'; run clausegate --help for the list`);
+      throw new UserError(`clausegate: error: unknown command '${first}'; hint: run clausegate --help for the list`);
     }
-    return await command.run(rest);
+    const code = await command.run(rest);
+    // Signals that arrived during synchronous work are handled here, before anything is committed.
+    await checkpoint();
+    if (code === EXIT_BAD_INPUT) discardOutputs();
+    else commitOutputs();
+    return code;
   } catch (e) {
-    if (e instanceof UserError) {
+    discardOutputs();
+    if (e instanceof UserError || e instanceof OutputError) {
       if (e.message !== "") process.stderr.write(`${e.message}\n`);
-      return e.exitCode;
+      return e instanceof UserError ? e.exitCode : EXIT_BAD_INPUT;
     }
     const code = (e as { code?: string }).code;
     if (typeof code === "string" && code.startsWith("ERR_PARSE_ARGS")) {
-      process.stderr.write(`clausegate ${first}: error: ${(e as Error).message}; see clausegate ${first} --help\n`);
+      process.stderr.write(`${argumentError(e as Error, first ?? "")}\n`);
       return EXIT_BAD_INPUT;
     }
     if (e instanceof PassError) {
-      process.stderr.write(`clausegate: internal error: ${e.message}; rerun with --no-optimize to skip the passes, and please report this with the input\n`);
+      process.stderr.write(`clausegate: internal error: ${e.message}; hint: rerun with --no-optimize to skip the passes, and please report this with the input\n`);
       return 70;
     }
-    process.stderr.write(`clausegate: internal error: ${(e as Error).message ?? String(e)} (please report this with the input)\n`);
+    process.stderr.write(`clausegate: internal error: ${((e as Error).message ?? String(e)).replace(/\s+/g, " ")}; hint: please report this with the input\n`);
     if (process.env["CLAUSEGATE_DEBUG"]) process.stderr.write(`${(e as Error).stack}\n`);
     return 70;
   }

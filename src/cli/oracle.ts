@@ -4,7 +4,7 @@ import {
   compileOracle, costTable, emitJson, emitQasm2, emitQasm3, oracleResources, qasm2Problem,
   type Circuit, type Cnf, type Oracle, type OracleOptions,
 } from "../index.js";
-import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic, writeStdout } from "./io.js";
+import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic } from "./io.js";
 import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
 import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./verify.js";
 
@@ -119,8 +119,7 @@ export function writeCircuit(circuit: Circuit, format: Format, comments: readonl
     else if (format === "qasm2") emitQasm2(circuit, sink, comments);
     else emitJson(circuit, sink, comments);
   };
-  if (output === undefined) emit(writeStdout);
-  else writeAtomic(output, emit);
+  writeAtomic(output ?? "-", emit, "the circuit");
 }
 
 /** Writes the circuit (and report) of an oracle. */
@@ -128,7 +127,7 @@ export function writeOracle(oracle: Oracle, cnf: Cnf, format: Format, output?: s
   checkFormat(oracle.circuit, format);
   if (report !== undefined) {
     const r = oracleResources(cnf, oracle);
-    writeAtomic(report, (w) => w(`${JSON.stringify(r, null, 2)}\n`));
+    writeAtomic(report, (w) => w(`${JSON.stringify(r, null, 2)}\n`), "the report");
   }
   writeCircuit(oracle.circuit, format, describe(oracle), output);
 }

@@ -1,0 +1,226 @@
+/**
+ * Output files as one transaction per command run.
+ *
+ * A command writes each output to a short-named temporary file beside its destination; nothing
+ * reaches the destination until the command has finished successfully and pending signals have
+ * been handled (`commitOutputs`). On an error, or on SIGINT/SIGTERM/SIGHUP, every temporary file
+ * is removed (`discardOutputs`) and the signal is raised again, so the caller sees the
+ * conventional status (128 + signal number in a shell).
+ *
+ * Destinations are checked before any byte is written: `-` is standard output; an existing path
+ * must be a regular file (a symbolic link is written through to the regular file it names);
+ * devices, FIFOs, sockets and folders are refused rather than replaced; no destination may be an
+ * input of the run, and no two outputs of the run may be the same file.
+ */
+import { randomBytes } from "node:crypto";
+import {
+  chmodSync, chownSync, closeSync, fstatSync, lstatSync, openSync, realpathSync, renameSync, rmSync, statSync, writeSync,
+  type Stats,
+} from "node:fs";
+import { dirname, join, resolve } from "node:path";
+
+/** Thrown for a destination that cannot or must not be written; the CLI prints it as one line, exit 2. */
+export class OutputError extends Error {}
+
+interface Pending {
+  readonly tmp: string;
+  readonly dest: string;
+}
+
+const pending: Pending[] = [];
+/** Files read by this run (device:inode), and destinations claimed so far (by resolved path). */
+const inputs = new Map<string, string>();
+const claimed = new Map<string, string>();
+/** Standard-output text held back until the run succeeds (small reports, not streamed circuits). */
+let heldStdout: string[] = [];
+
+const fileId = (s: Stats): string => `${s.dev}:${s.ino}`;
+
+/** Records a file the run reads, so that no output may replace it. */
+export function noteInput(path: string): void {
+  if (path === "-") return;
+  try {
+    inputs.set(fileId(statSync(path)), path);
+  } catch {
+    // An input that cannot be stat'ed is reported by the reader.
+  }
+}
+
+function kindOf(s: Stats): string {
+  if (s.isDirectory()) return "a folder";
+  if (s.isCharacterDevice()) return "a character device";
+  if (s.isBlockDevice()) return "a block device";
+  if (s.isFIFO()) return "a FIFO";
+  if (s.isSocket()) return "a socket";
+  return "not a regular file";
+}
+
+/**
+ * Where the bytes for `path` really go: the path itself, or for a symbolic link the regular
+ * file it names. Refuses what is not (or would not be) a regular file, an input, or a
+ * destination already claimed by this run.
+ */
+function destination(path: string, what: string): { dest: string; existing: Stats | undefined } {
+  let dest = resolve(path);
+  let existing: Stats | undefined;
+  try {
+    const l = lstatSync(dest);
+    if (l.isSymbolicLink()) {
+      try {
+        existing = statSync(dest);
+      } catch {
+        throw new OutputError(`${path}: error: ${what} would go through a symbolic link to nothing; hint: remove the link or name a regular file`);
+      }
+      if (existing.isFile()) dest = realpathSync(dest);
+    } else existing = l;
+  } catch (e) {
+    if (e instanceof OutputError) throw e;
+    if ((e as { code?: string }).code !== "ENOENT") throw e;
+  }
+  if (existing !== undefined && !existing.isFile()) {
+    throw new OutputError(`${path}: error: refusing to replace ${kindOf(existing)} with ${what}; hint: name a regular file${existing.isDirectory() ? " inside it" : ", or - for standard output"}`);
+  }
+  if (existing !== undefined) {
+    const input = inputs.get(fileId(existing));
+    if (input !== undefined) throw new OutputError(`${path}: error: ${what} would replace the input ${input}; hint: write it to another file`);
+  }
+  const other = claimed.get(dest);
+  if (other !== undefined) throw new OutputError(`${path}: error: ${what} and ${other} name the same file; hint: give them different paths`);
+  claimed.set(dest, what);
+  return { dest, existing };
+}
+
+function reason(e: unknown): string {
+  const code = (e as { code?: string }).code;
+  switch (code) {
+    case "ENOENT": return "no such folder";
+    case "EISDIR": return "it is a folder";
+    case "EACCES": case "EPERM": return "permission denied";
+    case "ENOSPC": return "no space left on the device";
+    case "EDQUOT": return "disk quota exceeded";
+    case "EROFS": return "read-only file system";
+    case "ENAMETOOLONG": return "the name is too long";
+    case "ENOTDIR": return "a part of the path is not a folder";
+    default: return code ?? String(e);
+  }
+}
+
+/** Is this error a file-system failure (to be reported in one line), rather than a bug? */
+export function isIoError(e: unknown): boolean {
+  return typeof (e as { code?: unknown }).code === "string" && (e as { syscall?: unknown }).syscall !== undefined;
+}
+
+/**
+ * Writes one output. `path` "-" streams to standard output at once; any other path is written
+ * to a temporary file that {@link commitOutputs} renames into place. `what` names the output
+ * in messages (e.g. "the circuit", "the report").
+ */
+export function writeOutput(path: string, what: string, produce: (write: (chunk: string) => void) => void): void {
+  if (path === "-") {
+    destinationStdout(what);
+    produce(writeStdout);
+    return;
+  }
+  const { dest, existing } = destination(path, what);
+  // Short temporary names: the destination's own name may already be 255 bytes long.
+  const tmp = join(dirname(dest), `.cg${process.pid.toString(36)}${randomBytes(3).toString("hex")}.tmp`);
+  let fd = -1;
+  try {
+    fd = openSync(tmp, "wx", existing ? existing.mode & 0o7777 : 0o666);
+    pending.push({ tmp, dest });
+    const f = fd;
+    produce((chunk) => {
+      writeSync(f, chunk);
+    });
+    if (existing) keepOwnership(f, existing);
+    closeSync(fd);
+    fd = -1;
+  } catch (e) {
+    if (fd >= 0) closeSync(fd);
+    if (!isIoError(e)) throw e;
+    throw new OutputError(`${path}: error: cannot write ${what} (${reason(e)}); hint: check that the folder exists, is writable and has space`);
+  }
+}
+
+/** A replaced file keeps its mode (and, when we may set it, its owner). */
+function keepOwnership(fd: number, was: Stats): void {
+  const now = fstatSync(fd);
+  if ((now.mode & 0o7777) !== (was.mode & 0o7777)) chmodSync(`/proc/self/fd/${fd}`, was.mode & 0o7777);
+  if ((now.uid !== was.uid || now.gid !== was.gid) && process.getuid?.() === 0) {
+    try {
+      chownSync(`/proc/self/fd/${fd}`, was.uid, was.gid);
+    } catch {
+      // Not every file system lets even root give files away; the mode is what matters.
+    }
+  }
+}
+
+let stdoutClaim: string | undefined;
+function destinationStdout(what: string): void {
+  if (stdoutClaim !== undefined) throw new OutputError(`clausegate: error: ${what} and ${stdoutClaim} both go to standard output; hint: write one of them to a file`);
+  stdoutClaim = what;
+}
+
+/** Writes to standard output now (streamed output; synchronous for files and pipes on Linux). */
+export function writeStdout(chunk: string): void {
+  process.stdout.write(chunk);
+}
+
+/** Standard-output text that appears only if the run succeeds (so an error prints nothing before it). */
+export function printLater(text: string): void {
+  heldStdout.push(text);
+}
+
+/**
+ * Lets pending signal handlers run: a long synchronous stage defers them, and libuv hands a
+ * signal to JavaScript only on a later turn of the event loop (one immediate is not enough).
+ */
+export async function checkpoint(): Promise<void> {
+  await new Promise((done) => setTimeout(done, 1));
+  await new Promise((done) => setImmediate(done));
+  await new Promise((done) => setImmediate(done));
+}
+
+/** Moves every temporary file onto its destination and prints held-back output. */
+export function commitOutputs(): void {
+  try {
+    for (const p of pending) renameSync(p.tmp, p.dest);
+  } catch (e) {
+    discardOutputs();
+    throw new OutputError(`clausegate: error: cannot move the output into place (${reason(e)}); hint: check the folder's permissions`);
+  }
+  pending.length = 0;
+  for (const t of heldStdout) process.stdout.write(t);
+  heldStdout = [];
+}
+
+/** Removes every temporary file of the run and forgets held-back output. */
+export function discardOutputs(): void {
+  for (const p of pending) rmSync(p.tmp, { force: true });
+  pending.length = 0;
+  heldStdout = [];
+}
+
+const SIGNALS = ["SIGINT", "SIGTERM", "SIGHUP"] as const;
+
+/**
+ * On SIGINT, SIGTERM or SIGHUP: remove the temporary files, then die of the same signal
+ * (the conventional status for the caller).
+ */
+export function cleanUpOnSignals(): void {
+  for (const sig of SIGNALS) {
+    process.once(sig, () => {
+      discardOutputs();
+      for (const s of SIGNALS) process.removeAllListeners(s);
+      process.kill(process.pid, sig);
+    });
+  }
+}
+
+/** Forgets the run's state (for in-process callers that run several commands). */
+export function resetOutputs(): void {
+  discardOutputs();
+  inputs.clear();
+  claimed.clear();
+  stdoutClaim = undefined;
+}
