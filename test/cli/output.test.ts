@@ -1,0 +1,140 @@
+// Writing outputs safely: one fault class per test (issue: devices, links, FIFOs, inputs,
+// clashing outputs, long names, file modes, standard-output failures, signals).
+import { spawn, spawnSync } from "node:child_process";
+import {
+  chmodSync, closeSync, existsSync, lstatSync, mkdtempSync, openSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync,
+  writeFileSync,
+} from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { cli, ROOT } from "../helpers/cli.js";
+
+const BIN = join(ROOT, "dist/src/cli/bin.js");
+const EXAMPLE = join(ROOT, "examples/allotment-pair.cnf");
+const dir = mkdtempSync(join(tmpdir(), "cg-out-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const oneLine = (s: string): void => {
+  const lines = s.split("\n").filter((l) => l !== "" && !/: note: /.test(l));
+  expect(lines).toHaveLength(1);
+  expect(lines[0]).toMatch(/: error: .*; hint: /);
+  expect(s).not.toMatch(/\n\s+at /);
+};
+const leftovers = (d: string): string[] => readdirSync(d).filter((f) => f.endsWith(".tmp"));
+
+describe("output destinations", () => {
+  it("refuses a character device rather than replacing it", () => {
+    const r = cli(["oracle", EXAMPLE, "-o", "/dev/null"]);
+    expect(r.code).toBe(2);
+    oneLine(r.stderr);
+    expect(r.stderr).toMatch(/refusing to replace a character device/);
+    expect(statSync("/dev/null").isCharacterDevice()).toBe(true);
+  });
+  it("refuses a FIFO and a folder", () => {
+    const fifo = join(dir, "pipe");
+    spawnSync("mkfifo", [fifo]);
+    const r = cli(["oracle", EXAMPLE, "-o", fifo]);
+    expect(r.code).toBe(2);
+    oneLine(r.stderr);
+    expect(lstatSync(fifo).isFIFO()).toBe(true);
+    const f = cli(["oracle", EXAMPLE, "-o", dir]);
+    expect(f.code).toBe(2);
+    expect(f.stderr).toMatch(/refusing to replace a folder/);
+  });
+  it("writes through a symbolic link to a regular file and keeps the link", () => {
+    const real = join(dir, "real.qasm");
+    const link = join(dir, "link.qasm");
+    writeFileSync(real, "old\n");
+    symlinkSync(real, link);
+    const r = cli(["oracle", EXAMPLE, "-o", link]);
+    expect(r.code).toBe(0);
+    expect(lstatSync(link).isSymbolicLink()).toBe(true);
+    expect(readFileSync(real, "utf8")).toMatch(/^OPENQASM 3\.0;/);
+  });
+  it("treats -o - as standard output", () => {
+    const r = cli(["oracle", EXAMPLE, "-o", "-"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^OPENQASM 3\.0;/);
+  });
+  it("refuses to overwrite the input, and two outputs on one path, writing nothing", () => {
+    const copy = join(dir, "input.cnf");
+    writeFileSync(copy, readFileSync(EXAMPLE));
+    const before = readFileSync(copy, "utf8");
+    const r = cli(["oracle", copy, "-o", copy]);
+    expect(r.code).toBe(2);
+    oneLine(r.stderr);
+    expect(r.stderr).toMatch(/would replace the input/);
+    expect(readFileSync(copy, "utf8")).toBe(before);
+    const same = join(dir, "same.qasm");
+    const s = cli(["oracle", EXAMPLE, "-o", same, "--report", same]);
+    expect(s.code).toBe(2);
+    expect(s.stderr).toMatch(/name the same file/);
+    expect(existsSync(same)).toBe(false);
+    expect(leftovers(dir)).toEqual([]);
+  });
+  it("writes a legal 255-byte file name (short temporary names)", () => {
+    const name = join(dir, "o".repeat(250) + ".qasm");
+    const r = cli(["oracle", EXAMPLE, "-o", name]);
+    expect(r.stderr).not.toMatch(/error/);
+    expect(r.code).toBe(0);
+    expect(existsSync(name)).toBe(true);
+  });
+  it("keeps the mode of a file it replaces", () => {
+    const out = join(dir, "mode.qasm");
+    writeFileSync(out, "old\n");
+    chmodSync(out, 0o640);
+    expect(cli(["oracle", EXAMPLE, "-o", out]).code).toBe(0);
+    expect(statSync(out).mode & 0o777).toBe(0o640);
+    expect(readFileSync(out, "utf8")).toMatch(/^OPENQASM/);
+  });
+  it("reports a failed write to standard output in one line with exit 2", () => {
+    const fd = openSync("/dev/full", "w");
+    const r = spawnSync(process.execPath, [BIN, "oracle", EXAMPLE], { stdio: ["ignore", fd, "pipe"], encoding: "utf8" });
+    closeSync(fd);
+    expect(r.status).toBe(2);
+    oneLine(r.stderr);
+    expect(r.stderr).toMatch(/cannot write to standard output \(ENOSPC\)/);
+  });
+  it("exits quietly with 0 when the reader of standard output stops early", () => {
+    const r = spawnSync("bash", ["-c", `node ${BIN} oracle ${EXAMPLE} --basis clifford+t | head -c 10 >/dev/null; echo "\${PIPESTATUS[0]}"`], { encoding: "utf8" });
+    expect(r.stdout.trim()).toBe("0");
+    expect(r.stderr).not.toMatch(/error/);
+  });
+});
+
+describe("signals during a write", () => {
+  // A formula whose OpenQASM output takes a few seconds to write, so a signal lands mid-write.
+  const big = join(dir, "big.cnf");
+  const lines = ["p cnf 3000 60000"];
+  let seed = 7;
+  const rand = (): number => (seed = (seed * 1103515245 + 12345) % 2147483648) / 2147483648;
+  for (let i = 0; i < 60000; i++) {
+    const lits = [0, 1, 2].map((j) => (1 + ((Math.floor(rand() * 1000) * 3 + j) % 3000)) * (rand() < 0.5 ? -1 : 1));
+    lines.push(`${lits.join(" ")} 0`);
+  }
+  writeFileSync(big, `${lines.join("\n")}\n`);
+
+  for (const [signal, code] of [["SIGTERM", 143], ["SIGINT", 130], ["SIGHUP", 129]] as const) {
+    it(`${signal}: removes the temporary file and dies of the signal (status ${code} in a shell)`, async () => {
+      const out = mkdtempSync(join(dir, "sig-"));
+      const child = spawn(process.execPath, [BIN, "oracle", big, "--basis", "clifford+t", "-o", join(out, "o.qasm")], { stdio: "ignore" });
+      const ended = new Promise<{ code: number | null; signal: NodeJS.Signals | null }>((done) => child.on("exit", (c, s) => done({ code: c, signal: s })));
+      // Wait until the temporary file exists (the write has begun), then interrupt.
+      const start = Date.now();
+      let sawTemporary = false;
+      while (Date.now() - start < 60_000) {
+        if (readdirSync(out).some((f) => f.endsWith(".tmp"))) {
+          sawTemporary = true;
+          break;
+        }
+        await new Promise((r) => setTimeout(r, 20));
+      }
+      child.kill(signal);
+      const r = await ended;
+      expect(sawTemporary).toBe(true);
+      expect(r.signal === signal || r.code === code).toBe(true);
+      expect(readdirSync(out)).toEqual([]);
+    }, 120_000);
+  }
+});
