@@ -186,6 +186,11 @@ export function recycleCircuit(c: Circuit): void {
   if (spares.length > 2) spares.shift();
 }
 
+/** Drops every spare buffer (the end of the outermost pipeline; see `withBuffers`). */
+export function releaseSpares(): void {
+  spares.length = 0;
+}
+
 function takeSpare(cap: number): Spare | undefined {
   const i = spares.findIndex((s) => s.kinds.length >= cap && s.starts.length >= cap + 1 && s.conds.length >= cap && s.ops.length >= cap * 3);
   return i < 0 ? undefined : spares.splice(i, 1)[0];
