@@ -1,6 +1,7 @@
 // Cost targets of the published constructions, as inequalities on random 3-SAT of several sizes.
-// The formulas are derived in shared REFERENCES ("Cost formulas for k-CNF phase oracles"):
-// wide with measured uncomputation (temporary ANDs of Gidney 2018, 4 T each, 0 T to erase):
+// The formulas are our own derivation (not quoted from a paper) from the published cost of the temporary
+// logical AND (Gidney 2018, "Halving the cost of quantum addition": 4 T to compute, 0 T to erase):
+// wide with measured uncomputation:
 // n + L - 2 qubits and 4(L - 2) T; lean (sequential counter): n + 2w + k - 2 qubits and
 // 8m(k + w - 2) + 4w - 8 T, w = ceil(log2(m + 1)). Unitary uncomputation at most doubles T.
 import { describe, expect, it } from "vitest";

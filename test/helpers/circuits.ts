@@ -24,7 +24,7 @@ export function sameState(a: Map<string, Term>, b: Map<string, Term>): boolean {
   return true;
 }
 
-type GateSpec = { kind: string; qubits: number[]; negated: boolean[] };
+type GateSpec = { kind: string; qubits: number[]; negated: readonly boolean[] };
 
 /** Random unitary circuits over `qubits` qubits, with every unitary kind (polarities included). */
 export function arbitraryCircuit(qubits: number, maxGates = 30): fc.Arbitrary<Circuit> {

@@ -1,6 +1,7 @@
 // Minimal declarations for the npm package logic-solver (MiniSat compiled to JavaScript), which
 // ships none. Only what the tests use.
 declare module "logic-solver" {
+  // eslint-disable-next-line @typescript-eslint/no-empty-object-type -- opaque: tests only hand formulas back to the solver
   interface Formula {}
   interface Solution {
     getFormula(): Formula;

@@ -34,13 +34,14 @@ export function quantumCircuitRun(qasm: string, input: number[]): Map<number, [n
   // declared qubit keeps idle qubits (a variable in no clause) in the state.
   qasm = qasm.replace(/^qreg (\w+)\[(\d+)\];$/gm, (line, name: string, size: string) =>
     `${line}\n${Array.from({ length: Number(size) }, (_, i) => `id ${name}[${i}];`).join("\n")}`);
+  // The @types package declares every optional parameter as required: pass them as undefined.
   c.importQASM(qasm, (e: unknown[]) => {
     if (e && e.length) errors.push(...e);
-  });
+  }, undefined);
   if (errors.length > 0) throw new Error(`quantum-circuit import errors: ${JSON.stringify(errors)}`);
   c.run(input);
   const out = new Map<number, [number, number]>();
-  for (const s of c.stateAsArray(true) as { index: number; amplitude: { re: number; im: number } }[]) {
+  for (const s of c.stateAsArray(true, undefined, undefined, undefined) as { index: number; amplitude: { re: number; im: number } }[]) {
     out.set(s.index, [s.amplitude.re, s.amplitude.im]);
   }
   return out;

@@ -1,6 +1,7 @@
 // Grover planning against the exact values of Boyer, Brassard, Hoyer & Tapp 1998 ("Tight bounds
 // on quantum searching"): sin^2(theta) = M/N, P_j = sin^2((2j+1) theta), k = floor(pi/(4 theta)).
-// Fractions below are exact arithmetic from that formula (shared REFERENCES, confirmed).
+// Fractions below are that formula evaluated in exact arithmetic (Boyer, Brassard, Hoyer & Tapp 1998,
+// "Tight bounds on quantum searching").
 import { describe, expect, it } from "vitest";
 import { averageSuccess, bbhtExpectedCalls, bbhtRounds, bbhtSequence, planSearch, successAfter } from "../helpers/lib.js";
 import { rng } from "../helpers/formulas.js";
