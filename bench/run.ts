@@ -5,6 +5,7 @@
  *   npm run bench -- count   exact counting only
  *   npm run bench -- compile the oracle compiler only
  *   npm run bench -- verify  exhaustive verification and the state-vector simulator
+ *   npm run bench -- long-clause  one 100,000-literal clause through every stage
  */
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, statSync } from "node:fs";
@@ -12,7 +13,13 @@ import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { cnfFromClauses } from "../src/cnf/cnf.js";
 import { countModels } from "../src/cnf/count.js";
-import { compileOracle } from "../src/compile.js";
+import { scanDimacs } from "../src/cnf/scanner.js";
+import { compileOracle, costTable } from "../src/compile.js";
+import { emitQasm3 } from "../src/emit/qasm3/index.js";
+import { lower } from "../src/passes/lower.js";
+import { DEFAULT_PIPELINE } from "../src/passes/registry.js";
+import { reuseWork } from "../src/passes/reuseWork.js";
+import { runPasses } from "../src/passes/runner.js";
 import { verifyOracle } from "../src/sim/verify.js";
 import { simplify, synthesize } from "../src/synth/index.js";
 import { randomClauses, writeRandomCnf } from "./random.js";
@@ -129,7 +136,61 @@ async function benchVerify(): Promise<void> {
   console.log(`  state vector: clifford+t oracle of 12 variables, 50 clauses (${lowered.gates} gates): ${r2.verified ? "verified" : "FAILED"} ${r2.assignments} assignments x 2 outcome seeds in ${s2.toFixed(2)} s, ${((2 * lowered.gates * r2.assignments) / s2).toExponential(2)} gate applications/s`);
 }
 
+/** DIMACS text of one clause of `n` literals in descending order (the worst case for an insertion sort), plus three short clauses. */
+function longClauseText(n: number): Buffer {
+  const parts: string[] = [`p cnf ${n + 5} 4\n`];
+  for (let v = n; v >= 1; v--) parts.push(`${v % 3 === 0 ? -v : v} `);
+  parts.push(`0\n${n + 1} -${n + 2} 0\n${n + 3} ${n + 4} 0\n-${n + 5} 1 0\n`);
+  return Buffer.from(parts.join(""));
+}
+
+async function benchLongClause(): Promise<void> {
+  const n = 100_000;
+  const bytes = longClauseText(n);
+  console.log(`One clause of ${n.toLocaleString("en-US")} literals (descending order) plus 3 short clauses: time per stage (ms)`);
+  let mark = performance.now();
+  const stages: [string, number][] = [];
+  const stage = (name: string): void => {
+    const now = performance.now();
+    stages.push([name, now - mark]);
+    mark = now;
+  };
+  const { cnf } = scanDimacs(bytes);
+  stage("read (scanner)");
+  const simplified = simplify(cnf!);
+  stage("simplify");
+  const logical = synthesize(simplified, "phase", "wide");
+  stage("synthesize (wide)");
+  const lowered = lower(logical, { basis: "clifford+t", uncompute: "measured" });
+  stage("lower (clifford+t)");
+  const reused = reuseWork(lowered);
+  stage("reuse work");
+  const optimized = runPasses(reused, DEFAULT_PIPELINE);
+  stage("passes");
+  let written = 0;
+  emitQasm3(optimized, (chunk) => {
+    written += chunk.length;
+  });
+  stage(`emit OpenQASM 3 (${(written / 1e6).toFixed(1)} MB)`);
+  costTable(cnf!);
+  stage("cost table (all strategies)");
+  const v = await verifyOracle(cnf!, logical);
+  stage(`verify logical oracle (${v.method}, ${v.assignments} assignments)`);
+  for (const [name, ms] of stages) console.log(`  ${name.padEnd(58)} ${ms.toFixed(0).padStart(7)}`);
+  // Linear means doubling the clause doubles the time: simplify on 25k, 50k, 100k, 200k literals.
+  const sizes = [25_000, 50_000, 100_000, 200_000];
+  const times = sizes.map((k) => {
+    const c = scanDimacs(longClauseText(k)).cnf!;
+    simplify(c);
+    const t0 = performance.now();
+    for (let r = 0; r < 3; r++) simplify(c);
+    return (performance.now() - t0) / 3;
+  });
+  console.log(`  simplify alone, mean of 3 runs, by clause length: ${sizes.map((k, i) => `${k / 1000}k ${times[i]!.toFixed(1)} ms`).join(", ")} (200k/100k ratio ${(times[3]! / times[2]!).toFixed(2)}; 2 is linear, 4 quadratic)`);
+}
+
 if (only === undefined || only === "read") benchRead();
+if (only === undefined || only === "long-clause") await benchLongClause();
 if (only === undefined || only === "verify") await benchVerify();
 if (only === undefined || only === "compile") benchCompile();
 if (only === undefined || only === "count") await benchCount();

@@ -17,7 +17,8 @@ COMMENT : 'c' ~[\n]* -> skip ;
 P       : 'p' -> pushMode(HEADER) ;
 // The SATLIB end marker: everything after it is ignored (the '0' line that follows is NOT a clause).
 END     : '%' -> mode(AFTER_END) ;
-// One or more zeros terminate a clause. Listed before INT so that "0" is a terminator.
+// One or more zeros terminate a clause. Listed before INT so that "0" is a terminator. (A lone
+// ZERO after the declared clauses may also end the input: rule S5 in DimacsParser.g4.)
 ZERO    : '0'+ ;
 INT     : '-'? [0-9]+ ;
 WS      : [ \t\r\n]+ -> skip ;

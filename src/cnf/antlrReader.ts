@@ -14,7 +14,7 @@ import { DimacsLexer } from "./generated/DimacsLexer.js";
 import { DimacsParser } from "./generated/DimacsParser.js";
 import {
   MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero,
-  tooFewClauses, tooManyClauses, unexpected, variableOutOfRange, type Found,
+  tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
 } from "./messages.js";
 import type { ReadResult } from "./scanner.js";
 
@@ -68,6 +68,10 @@ class Builder implements ParseTreeListener {
   lits: number[] = [];
   starts: number[] = [0];
   end = -1;
+  /** Line of the token before the current one (0 before the first). */
+  lastLine = 0;
+  /** A ZERO past the declared clauses that may still be the end marker of rule S5, or -1. */
+  pendingZero = -1;
 
   constructor(private readonly b: Uint8Array, private readonly origin: number) {}
 
@@ -78,6 +82,10 @@ class Builder implements ParseTreeListener {
   visitTerminal(node: TerminalNode): void {
     const t = node.symbol;
     const at = this.origin + t.start;
+    const lastLine = this.lastLine;
+    this.lastLine = t.line;
+    // Rule S5: a pending ZERO stays the end marker only if END or EOF comes next.
+    if (this.pendingZero >= 0 && t.type !== DimacsParser.END && t.type !== Token.EOF) this.extraZero();
     switch (t.type) {
       case DimacsParser.P:
       case DimacsParser.CNF:
@@ -95,7 +103,12 @@ class Builder implements ParseTreeListener {
         this.phase = Phase.Body;
         return;
       case DimacsParser.ZERO:
-        if (this.starts.length - 1 === this.declared) throw new Stop(tooManyClauses(at, this.declared));
+        if (this.starts.length - 1 === this.declared) {
+          // First on its line: every token before it (comments never reach here) is on an earlier line.
+          if (t.line === lastLine) throw new Stop(tooManyClauses(at, this.declared));
+          this.pendingZero = at;
+          return;
+        }
         this.starts.push(this.lits.length);
         return;
       case DimacsParser.INT:
@@ -104,6 +117,11 @@ class Builder implements ParseTreeListener {
         this.end = at;
         return;
     }
+  }
+
+  /** The pending ZERO was not the last token: it is the extra clause it looks like. */
+  extraZero(): never {
+    throw new Stop(tooManyClauses(this.pendingZero, this.declared));
   }
 
   literal(t: Token, at: number): void {
@@ -147,6 +165,7 @@ export function readDimacsWithGrammar(b: Uint8Array): ReadResult {
   const onError = new (class extends BaseErrorListener {
     override syntaxError<S extends Token>(_r: unknown, offending: S | null): void {
       const t = offending!;
+      if (builder.pendingZero >= 0) builder.extraZero();
       const at = origin + t.start;
       let f: Found;
       if (t.type === Token.EOF) f = { kind: "eof" };
@@ -163,6 +182,7 @@ export function readDimacsWithGrammar(b: Uint8Array): ReadResult {
     parser.dimacs();
     const end = builder.end >= 0 ? builder.end : b.length;
     const { lits, starts } = builder;
+    if (builder.pendingZero >= 0) warnings.push(place(b, trailingZeroEndMarker(builder.pendingZero, builder.declared), origin));
     if (lits.length > starts[starts.length - 1]!) {
       warnings.push(place(b, missingTerminator(end), origin));
       starts.push(lits.length);

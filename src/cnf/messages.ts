@@ -162,6 +162,20 @@ export function missingTerminator(offset: number): Finding {
   };
 }
 
+/**
+ * A lone `0` line after the declared clauses, at the end of the input: an end marker (SATLIB's
+ * pret files end so), not an extra empty clause (grammar rule S5).
+ */
+export function trailingZeroEndMarker(offset: number, declared: number): Finding {
+  return {
+    code: "trailing-zero-end-marker",
+    severity: "warning",
+    message: `the lone 0 after the ${declared} declared clause${declared === 1 ? "" : "s"} was read as an end marker, not as an empty clause`,
+    offset,
+    hint: "remove the line, or raise the header's CLAUSES count if an empty clause was meant",
+  };
+}
+
 export function emptyInput(): Finding {
   return err("empty-input", 0, "expected a DIMACS CNF file but the input is empty",
     "give a file that starts with a header line such as 'p cnf 3 2'");

@@ -8,7 +8,7 @@ import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
 import type { Cnf } from "./cnf.js";
 import {
   MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero, nulByte,
-  tooFewClauses, tooManyClauses, unexpected, variableOutOfRange, type Found,
+  tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
 } from "./messages.js";
 
 /** What a reader returns: the formula when the input is accepted, and every diagnostic. */
@@ -103,6 +103,7 @@ interface BodyState {
   nl: number; // literals written
   nc: number; // clauses complete
   end: number; // where the input ends for the count check: '%' or end of file
+  zeroEnd: number; // offset of a lone '0' line read as an end marker (rule S5), or -1
 }
 
 /**
@@ -149,6 +150,26 @@ function fastBody(
 }
 
 /**
+ * Whether the '0' token at [s, i) is an end marker (rule S5): first on its line (only blanks
+ * before it since the last line feed) and followed by nothing but whitespace and comments up to
+ * the end of the input or a '%' end marker. Returns where the input ends (its length, or the '%'),
+ * or -1. Called at most once per input, so scanning back and ahead costs nothing.
+ */
+function zeroEndMarker(b: Uint8Array, s: number, i: number): number {
+  let k = s - 1;
+  while (k >= 0 && (b[k] === 32 || b[k] === 9 || b[k] === 13)) k--;
+  if (k >= 0 && b[k] !== 10) return -1;
+  const n = b.length;
+  for (;;) {
+    while (i < n && isSpace(b[i]!)) i++;
+    if (i >= n) return n;
+    if (b[i] === 99 /* c */) i = skipComment(b, i);
+    else if (b[i] === 37 /* % */ && (i + 1 >= n || isSpace(b[i + 1]!))) return i;
+    else return -1;
+  }
+}
+
+/**
  * The careful path: whitespace, then one token at `i`, with every check and diagnostic. Returns
  * the index after it, or the input length at the end marker.
  */
@@ -180,7 +201,15 @@ function oneToken(
   }
   if (v === 0) {
     if (neg) throw new Stop(negativeZero(s));
-    if (st.nc === declared) throw new Stop(tooManyClauses(s, declared));
+    if (st.nc === declared) {
+      // Rule S5: a '0' alone on its line with only comments and whitespace after it (up to the end
+      // or '%') ends the input; anything else after it makes it the extra clause it looks like.
+      const e = zeroEndMarker(b, s, i);
+      if (e < 0) throw new Stop(tooManyClauses(s, declared));
+      st.zeroEnd = s;
+      if (e < n) st.end = e;
+      return n;
+    }
     starts[++st.nc] = st.nl;
     return i;
   }
@@ -235,7 +264,7 @@ function scanFrom(b: Uint8Array, origin: number, warnings: Diagnostic[]): Cnf {
   const clauseCap = Math.min(declared, ((n - i) >> 1) + 1);
   const lits = new Int32Array(litCap);
   const starts = new Uint32Array(clauseCap + 1);
-  const st: BodyState = { nl: 0, nc: 0, end: n };
+  const st: BodyState = { nl: 0, nc: 0, end: n, zeroEnd: -1 };
   // The fast loop needs a whitespace byte before its limit (a sentinel that ends every number);
   // the last token, when the file does not end in whitespace, goes to the careful path.
   let limit = n;
@@ -248,6 +277,7 @@ function scanFrom(b: Uint8Array, origin: number, warnings: Diagnostic[]): Cnf {
   let { nc } = st;
   // What follows the end marker is never read, but a NUL byte there still makes the input binary.
   if (end < n && b.indexOf(0, end) >= 0) throw new Stop(nulByte(end));
+  if (st.zeroEnd >= 0) warnings.push(place(b, trailingZeroEndMarker(st.zeroEnd, declared), origin));
   if (nl > starts[nc]!) {
     warnings.push(place(b, missingTerminator(end), origin));
     starts[++nc] = nl;

@@ -31,6 +31,10 @@ export interface SimplifiedCnf {
 
 /** Budget of literal comparisons for the subsumption check (keeps it near-linear). */
 const SUBSUMPTION_BUDGET = 200_000_000;
+/** Clauses up to this length are sorted by insertion; longer ones by a typed-array sort. */
+const INSERTION_SORT_MAX = 32;
+/** A subset test walks C when C is at most this many times longer than D, else binary-searches it. */
+const MERGE_RATIO = 8;
 
 export function simplify(cnf: Cnf): SimplifiedCnf {
   const m = cnf.clauseStart.length - 1;
@@ -41,19 +45,30 @@ export function simplify(cnf: Cnf): SimplifiedCnf {
   let nl = 0;
   let nc = 0;
   let unsat = false;
+  let keys = new Uint32Array(0);
   for (let i = 0; i < m; i++) {
     const s = cnf.clauseStart[i]!;
     const e = cnf.clauseStart[i + 1]!;
-    // Insertion sort by variable, then sign, in place in the output (clauses are short).
     const from = nl;
-    for (let k = s; k < e; k++) {
-      const l = cnf.lits[k]!;
-      let j = nl++;
-      while (j > from && litKey(lits[j - 1]!) > litKey(l)) {
-        lits[j] = lits[j - 1]!;
-        j--;
+    if (e - s <= INSERTION_SORT_MAX) {
+      // Insertion sort by variable, then sign, in place in the output: fastest for short clauses.
+      for (let k = s; k < e; k++) {
+        const l = cnf.lits[k]!;
+        let j = nl++;
+        while (j > from && litKey(lits[j - 1]!) > litKey(l)) {
+          lits[j] = lits[j - 1]!;
+          j--;
+        }
+        lits[j] = l;
       }
-      lits[j] = l;
+    } else {
+      // A long clause: insertion sort would be quadratic (100,000 literals in descending order
+      // took 10 s), so sort the keys numerically, O(n log n), and turn them back into literals.
+      if (keys.length < e - s) keys = new Uint32Array(Math.max(e - s, 2 * keys.length));
+      const k0 = keys.subarray(0, e - s);
+      for (let k = s; k < e; k++) k0[k - s] = litKey(cnf.lits[k]!);
+      k0.sort();
+      for (let k = 0; k < k0.length; k++) lits[nl++] = keyLit(k0[k]!);
     }
     let taut = false;
     let w = from;
@@ -152,7 +167,7 @@ function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
       const cs = start[c]!;
       const ce = start[c + 1]!;
       if (ce - cs < de - ds || (sig[d]! & ~sig[c]!) !== 0) continue;
-      budget -= ce - cs + de - ds;
+      budget -= containsCost(ce - cs, de - ds);
       if (budget < 0) return { keep, repeated, subsumed, complete: false };
       if (contains(lits, cs, ce, ds, de)) {
         keep[c] = 0;
@@ -164,11 +179,41 @@ function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
   return { keep, repeated, subsumed, complete: true };
 }
 
-/** Sort key of a literal: by variable, then positive before negative. */
+/**
+ * Sort key of a literal: by variable, then positive before negative. At most 2^32 - 1 for
+ * variables up to 2^31 - 1, so it fits a Uint32Array.
+ */
 const litKey = (l: number): number => (l < 0 ? -2 * l + 1 : 2 * l);
+/** The literal of a sort key. */
+const keyLit = (k: number): number => (k & 1 ? -(k - 1) / 2 : k / 2);
+
+/**
+ * Literal comparisons `contains` makes: a walk over both clauses, or a binary search per literal
+ * of D when C is much longer (a 100,000-literal clause checked against every short clause that
+ * shares a literal with it would otherwise cost 100,000 per check).
+ */
+function containsCost(cLen: number, dLen: number): number {
+  return cLen <= MERGE_RATIO * dLen ? cLen + dLen : dLen * (32 - Math.clz32(cLen));
+}
 
 /** True when sorted clause [ds, de) is a subset of sorted clause [cs, ce). */
 function contains(lits: Int32Array, cs: number, ce: number, ds: number, de: number): boolean {
+  if (ce - cs > MERGE_RATIO * (de - ds)) {
+    // Binary search for each literal of D in what remains of C (D's literals ascend too).
+    let lo = cs;
+    for (let j = ds; j < de; j++) {
+      const want = litKey(lits[j]!);
+      let hi = ce;
+      while (lo < hi) {
+        const mid = (lo + hi) >>> 1;
+        if (litKey(lits[mid]!) < want) lo = mid + 1;
+        else hi = mid;
+      }
+      if (lo === ce || litKey(lits[lo]!) !== want) return false;
+      lo++;
+    }
+    return true;
+  }
   let i = cs;
   for (let j = ds; j < de; j++) {
     const want = litKey(lits[j]!);

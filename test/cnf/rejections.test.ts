@@ -26,6 +26,10 @@ const cases: [string, string, number, number, string][] = [
   ["variable beyond the declared count", "p cnf 3 2\n1 2 0\n-1\t4 0\n", 3, 4, "variable-out-of-range"],
   ["more clauses than declared", "p cnf 2 1\n1 0\n2 0\n", 3, 1, "too-many-clauses"],
   ["an extra empty clause", "p cnf 2 1\n1 0 0\n", 2, 5, "too-many-clauses"],
+  ["a lone 0 line followed by a second one", "p cnf 2 1\n1 0\n0\n0\n", 3, 1, "too-many-clauses"],
+  ["a lone 0 line followed by a clause", "p cnf 2 1\n1 0\nc x\n 0\n2 0\n", 4, 2, "too-many-clauses"],
+  ["a lone 0 line followed by a bad token", "p cnf 2 1\n1 0\n0\nend\n", 3, 1, "too-many-clauses"],
+  ["a 0 sharing the last clause's line (CR is not a line end)", "p cnf 2 1\n1 0\r0\n", 2, 5, "too-many-clauses"],
   ["fewer clauses than declared", "p cnf 2 3\n1 0\n2 0\n", 4, 1, "too-few-clauses"],
   ["fewer clauses than declared before '%'", "p cnf 2 3\n1 0\n%\n0\n", 3, 1, "too-few-clauses"],
   ["non-integer token 3x", "p cnf 3 1\n1 3x 0\n", 2, 3, "bad-literal"],
@@ -60,6 +64,17 @@ describe("rejected inputs", () => {
     expect(lines).toHaveLength(1);
     expect(lines[0]).toMatch(new RegExp(`^${file.replace(/[.]/g, "\\.")}:${line}:${column}: error: .+; hint: .+$`));
     expect(run.stderr).not.toMatch(/\n\s+at /);
+  });
+
+  it("accepts a lone 0 line after the declared clauses with one warning line, exit 0 (rule S5)", () => {
+    const file = join(dir, "lone-zero.cnf");
+    writeFileSync(file, "c ends like SATLIB's pret files\np cnf 2 2\n1 -2 0\n2 0\n0\n");
+    const run = cli(["count", file]);
+    expect(run.code).toBe(0);
+    expect(run.stdout).toMatch(/^clauses +2$/m);
+    expect(run.stderr).toBe(
+      `${file}:5:1: warning: the lone 0 after the 2 declared clauses was read as an end marker, not as an empty clause; hint: remove the line, or raise the header's CLAUSES count if an empty clause was meant\n`,
+    );
   });
 
   it("names standard input as <stdin>", () => {

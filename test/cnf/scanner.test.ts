@@ -38,6 +38,31 @@ describe("accepted DIMACS", () => {
     const r = both("p cnf 2 1\n1 2 0\n%\n0\n\n");
     expect(clausesOf(r.cnf!)).toEqual([[1, 2]]);
   });
+  it("reads a lone 0 line after the declared clauses as an end marker, with a warning at the 0 (rule S5, SATLIB pret files)", () => {
+    const r = both("p cnf 3 2\n1 -2 0\n2 3 0\n0\n");
+    expect(clausesOf(r.cnf!)).toEqual([[1, -2], [2, 3]]);
+    expect(r.diagnostics).toHaveLength(1);
+    expect(r.diagnostics[0]).toMatchObject({ severity: "warning", code: "trailing-zero-end-marker", line: 4, column: 1 });
+    expect(r.diagnostics[0]!.message).toContain("after the 2 declared clauses");
+  });
+  it("allows blanks before the lone 0, and comments, whitespace or '%' after it", () => {
+    for (const [src, line, column] of [
+      ["p cnf 2 1\n1 0\n\t 0 c end\nc more\n\n", 3, 3],
+      ["p cnf 2 1\r\n1 0\r\n0\r\n", 3, 1],
+      ["p cnf 2 1\n1 0\n0", 3, 1],
+      ["p cnf 2 1\n1 0\n0\n%\n0\n", 3, 1],
+      ["p cnf 0 0\n00\n", 2, 1],
+    ] as const) {
+      const r = both(src);
+      expect(clausesOf(r.cnf!), src).toEqual(src.startsWith("p cnf 0") ? [] : [[1]]);
+      expect(r.diagnostics.map((d) => [d.code, d.line, d.column]), src).toEqual([["trailing-zero-end-marker", line, column]]);
+    }
+  });
+  it("keeps a lone 0 before the declared count is reached an empty clause, with no warning", () => {
+    const r = both("p cnf 2 2\n1 0\n0\n");
+    expect(clausesOf(r.cnf!)).toEqual([[1], []]);
+    expect(r.diagnostics).toEqual([]);
+  });
   it("skips a UTF-8 byte-order mark", () => {
     expect(clauses("\xef\xbb\xbfp cnf 1 1\n1 0\n")).toEqual([[1]]);
   });
