@@ -285,8 +285,10 @@ export function bbhtRounds(n: number, first = 0, count = Infinity): ScheduleRoun
 
 /** Average of sin^2((2j + 1) theta) over j = 0..m-1 (BBHT 1998, Lemma 2). */
 export function averageSuccess(theta: number, m: number): number {
+  if (theta === 0) return 0;
   const s2 = Math.sin(2 * theta);
-  if (Math.abs(s2) < 1e-15) return successAfter(theta, 0);
+  // theta = pi/2 (M = N): sin(2 theta) is rounding noise and every j succeeds. A tiny theta keeps the formula.
+  if (theta > 1 && Math.abs(s2) < 1e-15) return successAfter(theta, 0);
   return 0.5 - Math.sin(4 * m * theta) / (4 * m * s2);
 }
 
