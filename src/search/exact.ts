@@ -174,7 +174,9 @@ function sinSquaredSmall(a: bigint, aErr: bigint, p: number): Fixed {
 
 /** Probabilities as doubles: success P and failure 1 - P, each with a relative error below 2^-40. */
 export interface Probability {
+  /** The success probability P. */
   readonly success: number;
+  /** 1 - P, computed on its own so that it keeps its digits where P rounds to 1. */
   readonly failure: number;
   /** log2 of the success probability (exact where it underflows a double). */
   readonly log2Success: number;

@@ -142,7 +142,7 @@ function thetaOf(c: bigint, u: number): { theta: number; log2Theta: number } {
  * @example
  * ```ts
  * planSearch(3, 1).iterations?.exact; // 2n (sin^2(5 theta) = 121/128)
- * planSearch(120, 1).iterations?.exact; // 902126525393232160n
+ * planSearch(120, 1).iterations?.exact; // 905502432259640355n (theta = asin(2^-60))
  * ```
  */
 export function planSearch(n: number, M: Solutions): SearchPlan {
@@ -292,6 +292,14 @@ export function averageSuccess(theta: number, m: number): number {
   return 0.5 - Math.sin(4 * m * theta) / (4 * m * s2);
 }
 
+/** Expected oracle calls of a schedule. */
+export interface ExpectedCalls {
+  /** The expected number of calls (Infinity when M = 0 or beyond the range of a double). */
+  readonly calls: number;
+  /** Its log2. */
+  readonly log2Calls: number;
+}
+
 /** Chance of still searching below which the expected-cost sums stop. */
 const REACH_FLOOR = 2 ** -60;
 
@@ -306,10 +314,10 @@ const REACH_FLOOR = 2 ** -60;
  *
  * @example
  * ```ts
- * bbhtExpectedCalls(20, 1).calls; // about 2.2e3, a small multiple of sqrt(2^20)
+ * bbhtExpectedCalls(20, 1).calls; // 1453.76..., about 1.42 sqrt(2^20)
  * ```
  */
-export function bbhtExpectedCalls(n: number, M: Solutions): { readonly calls: number; readonly log2Calls: number } {
+export function bbhtExpectedCalls(n: number, M: Solutions): ExpectedCalls {
   const s = scaled(n, M);
   const u = n - s.shift;
   if (s.count === 0n) return { calls: Infinity, log2Calls: Infinity };
