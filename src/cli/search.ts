@@ -218,12 +218,14 @@ function planLines(file: string, n: number, s: Known, p: SearchPlan, reduction: 
       "iterations: none: with M = 0 no number of iterations finds a solution (theta = 0, so pi/(4 theta) is undefined)",
       "success probability: 0 for any number of iterations",
       "expected oracle calls until success: never (there is no solution)",
-      `classical: guessing at random never succeeds; checking one by one tests all ${whole(p.classicalWorstCase)} assignments and finds none`,
+      `classical: guessing at random never succeeds; checking one by one tests ${p.classicalWorstCase.exact === 1n ? "the only assignment" : `all ${whole(p.classicalWorstCase)} assignments`} and finds none`,
       "verdict: the formula is unsatisfiable: no number of iterations finds a solution",
     );
     return lines;
   }
   const k = p.iterations!;
+  const expected = real(p.classicalExpectedEvaluations, p.log2ClassicalExpectedEvaluations);
+  const evaluations = `${expected} evaluation${expected === "1" ? "" : "s"}`;
   const failure = p.failureProbability === undefined
     ? `; 1 - P is at most M/N = ${real(2 ** ratioLog2, ratioLog2)}`
     : p.failureProbability > 0 && p.failureProbability < 1e-4 ? ` (1 - P = ${real(p.failureProbability, Math.log2(p.failureProbability))})` : "";
@@ -232,7 +234,7 @@ function planLines(file: string, n: number, s: Known, p: SearchPlan, reduction: 
     `iterations: k = floor(pi / (4 theta)) = ${whole(k)}`,
     `success probability: sin^2((2k+1) theta) = ${p.failureProbability === undefined ? "1" : real(p.successProbability, Math.log2(p.successProbability), 10)}${failure}`,
     `expected oracle calls until success: ${real(p.expectedOracleCalls, p.log2ExpectedOracleCalls)} (k / P, repeating the run on failure)`,
-    `classical: ${real(p.classicalExpectedEvaluations, p.log2ClassicalExpectedEvaluations)} evaluations expected guessing at random (N/M); ${whole(p.classicalWorstCase)} in the worst case checking one by one (N - M + 1)`,
+    `classical: ${evaluations} expected guessing at random (N/M); ${whole(p.classicalWorstCase)} in the worst case checking one by one (N - M + 1)`,
   );
   if (p.verdict === "trivial") lines.push("verdict: every assignment is a solution: no search is needed");
   if (p.verdict === "classical") lines.push("verdict: more than 3/4 of all assignments are solutions: a classical random guess is cheaper than a search");
