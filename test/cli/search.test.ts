@@ -81,6 +81,11 @@ describe("clausegate plan", { timeout: 60_000 }, () => {
     expect(countClass(svg, "chosen-point")).toBe(1);
     expect(countClass(svg, "point")).toBe(16); // j = 0..16 (2k+2), one of them the chosen point
   });
+  it("writes the plot before printing, so a plot that cannot be written leaves standard output empty", () => {
+    const r = cli(["plan", "examples/launch-rota.cnf", "--plot", join(dir, "no-such-folder", "p.svg")]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+  });
   it("refuses --plot without M before printing anything", () => {
     const r = cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--plot", join(dir, "none.svg")]);
     expect(r.code).toBe(2);
