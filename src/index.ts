@@ -42,13 +42,19 @@ export { simulateClassical } from "./sim/bitsim.js";
 export type { VerifyOptions, VerifyResult, Counterexample } from "./sim/verify.js";
 export { verifyOracle, DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT } from "./sim/verify.js";
 export type { CircuitReadResult } from "./ir/read.js";
-export type { SearchPlan, ScheduleRound } from "./search/plan.js";
-export { planSearch, successAfter, bbhtRounds, bbhtExpectedCalls, bbhtSequence, averageSuccess, BBHT_LAMBDA } from "./search/plan.js";
-export type { Reduction } from "./search/reduce.js";
+export type { SearchPlan, ScheduleRound, ScaledCount, Solutions, BigCount, Probability, ExpectedCalls } from "./search/plan.js";
+export {
+  planSearch, successAfter, successAfterIterations, bbhtRound, bbhtRounds, bbhtLastRound, bbhtExpectedCalls, bbhtSequence, averageSuccess,
+  BBHT_LAMBDA, EXACT_BITS,
+} from "./search/plan.js";
+export type { Reduction, VariableRange } from "./search/reduce.js";
 export { reduceSearch } from "./search/reduce.js";
+export type { SolutionsCount } from "./search/solutions.js";
+export { countSolutions } from "./search/solutions.js";
 export type { SearchOptions, SearchCost, PartCost } from "./compile.js";
 export { compileSearch, searchCosts } from "./compile.js";
 export { drawCircuitSvg, drawProblem, DRAW_LIMITS } from "./draw/circuit.js";
+export type { PlotOptions } from "./draw/plot.js";
 export { plotSuccessSvg } from "./draw/plot.js";
 export { readCircuit, readCircuitJson, readCircuitQasm3 } from "./ir/read.js";
 

@@ -1,35 +1,56 @@
 /** `clausegate plan`, `clausegate search` and `clausegate draw`: the whole search, costed and pictured. */
 import { parseArgs } from "node:util";
 import {
-  bbhtExpectedCalls, bbhtRounds, bbhtSequence, BBHT_LAMBDA, compileOracle, compileSearch, countModels, DEFAULT_COUNT_LIMIT,
-  drawCircuitSvg, drawProblem, planSearch, plotSuccessSvg, reduceSearch,
-  searchCosts, type Cnf, type Reduction, type SearchPlan,
+  bbhtExpectedCalls, bbhtLastRound, bbhtRounds, bbhtSequence, BBHT_LAMBDA, compileOracle, compileSearch, countSolutions, DEFAULT_COUNT_LIMIT,
+  drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, reduceSearch, searchCosts,
+  successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type Reduction, type ScheduleRound, type SearchPlan,
+  type Solutions,
 } from "../index.js";
-import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic } from "./io.js";
+import { checkCircuitSize, displayName, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
 import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
 import { checkFormat, oracleOptions, writeCircuit } from "./oracle.js";
 
-/** Largest search register plan works with: 2^n must stay a finite double. */
-const MAX_PLAN_QUBITS = 1000;
-
-/** Exit code of `plan` when the formula has no solution. */
+/** Exit code of `plan`, `search` and `draw --search` when the formula has no solution. */
 export const EXIT_UNSATISFIABLE = 3;
+
+/** Most Grover iterations `search` and `draw --search` build (2^20). */
+const MAX_ITERATIONS = 1 << 20;
+
+/**
+ * Most gates of a search circuit `search` builds (and of each circuit its whole-run report costs):
+ * about 100 bytes a gate at peak while lowering and optimizing, so about 1 GB.
+ */
+export const MAX_SEARCH_GATES = 10_000_000;
+
+/** The oracle options without --kind (a search always uses the phase oracle). */
+const SEARCH_ORACLE_HELP = ORACLE_HELP.split("\n").filter((line) => !line.trimStart().startsWith("--kind")).join("\n");
+
+const NUMBERS_NOTE = `Whole numbers are exact: N, M, k and the classical worst case are printed in full below 2^${EXACT_BITS}
+(with about 2^x beside large ones) and as about 2^x above it. In JSON, a whole number that a double
+cannot hold exactly (above 2^53) is a decimal string, one above 2^${EXACT_BITS} is null, and every such
+field has a log2_ twin (null for log2 of 0). theta and k come from the exact ratio M/N in BigInt fixed
+point: k = floor(pi/(4 theta)) is exact (the precision is raised until the floor is certain), the
+success probability and its complement have a relative error below 2^-40.`;
 
 export const planHelp = `Usage: clausegate plan FILE|- [--solutions M|unknown] [--reduce] [--json] [--plot FILE.svg] [--simulate SEED]
 
-Plans a Grover search for the formula (Boyer, Brassard, Hoyer & Tapp 1998). N = 2^n; M comes from
---solutions or, within ${DEFAULT_COUNT_LIMIT} variables occurring in clauses, from the exact model count. Prints theta
-(sin^2 theta = M/N), the iteration count k = floor(pi/(4 theta)), the success probability
-sin^2((2k+1) theta), the oracle calls expected until success (k/P, repeating on failure) and the
-classical comparison. With M unknown: the round-by-round schedule for an unknown number of
+Plans a Grover search for the formula (Boyer, Brassard, Hoyer & Tapp 1998), at any size. N = 2^n; M comes
+from --solutions or, within ${DEFAULT_COUNT_LIMIT} variables occurring in clauses, from the exact model count (variables in
+no clause double it). Prints theta (sin^2 theta = M/N), the iteration count k = floor(pi/(4 theta)), the
+success probability sin^2((2k+1) theta), the oracle calls expected until success (k/P, repeating on
+failure) and the classical comparison. With M unknown: the round-by-round schedule for an unknown number of
 solutions and its expected cost for a range of M.
 
+${NUMBERS_NOTE}
+
 Options:
-  --solutions M|unknown   the number of solutions, if known
-  --reduce                plan for the reduced search register (see clausegate search --help)
-  --json                  print the plan as JSON
+  --solutions M|unknown   the number of solutions, if known (a whole number up to 2^n)
+  --reduce                plan for the reduced search register (see clausegate search --help); the plan
+                          (and its JSON) maps every register bit to its variable
+  --json                  print the plan as JSON (snake_case keys)
   --plot FILE.svg         plot the success probability against the number of iterations
   --simulate SEED         with M unknown: the iteration counts to run, round by round, drawn with SEED
+  -h, --help              show this help
 
 Exit codes: 0, 3 when M = 0 (the formula is unsatisfiable; the numbers are still printed), 2 bad input.
 `;
@@ -39,37 +60,98 @@ export const searchHelp = `Usage: clausegate search FILE|- [options]
 Writes the complete search circuit: H on the search register, K iterations of the phase oracle and
 the diffusion (reflection about the uniform superposition), then the search register measured into
 outcome[0..n-1] (outcome[v-1] is variable v). Work qubits are shared by oracle and diffusion.
+The circuit's size is estimated from the formula and K before it is built; circuits above
+${MAX_SEARCH_GATES} gates are refused (clausegate plan gives the numbers at any size).
 
 Options:
-  --iterations K              Grover iterations (default: the plan's k)
-  --solutions M               plan k for M solutions (default: the exact model count)
+  --iterations K              Grover iterations, 0..${MAX_ITERATIONS} (default: the plan's k)
+  --solutions M               the number of solutions: sets k, and with --iterations the success
+                              probability of the report (default: the exact model count)
   --reduce                    take variables fixed by unit clauses and variables in no clause out of the
                               search register; the report maps every register bit to its variable
   -o, --output FILE           write here (atomically) instead of standard output
   --format qasm3|qasm2|json   output format (default qasm3)
-${ORACLE_HELP}
+${SEARCH_ORACLE_HELP}
   --report FILE               the whole-run report (JSON): plan, costs of one oracle, one diffusion and the
-                              whole circuit, totals over the expected runs, wide and lean side by side
+                              whole circuit of K iterations, totals over the runs expected at the success
+                              probability of K iterations (sin^2((2K+1) theta)), wide and lean side by side
   -h, --help                  show this help
+
+Exit codes: 0, 2 bad input or a circuit too large to build, 3 when the formula is unsatisfiable and
+--iterations is not given (there is nothing to search for).
 `;
 
 export const drawHelp = `Usage: clausegate draw FILE|- -o FILE.svg [--search [--iterations K]] [oracle options]
 
 Draws the oracle (or with --search the complete search circuit) as an SVG diagram: a filled dot is
 a control on |1>, an open dot a control on |0>, a circled plus an X target, boxes single-qubit gates,
-a meter a measurement. Refuses circuits too large to read.
+a meter a measurement. Refuses circuits too large to read (more than ${DRAW_LIMITS.qubits} qubits or ${DRAW_LIMITS.gates} gates), naming
+options that would draw, when some do.
 
 Options:
   -o, --output FILE.svg       where to write the drawing (required)
   --search                    draw the search circuit instead of the oracle
-  --iterations K              iterations of the drawn search (default: the plan's k)
+  --iterations K              iterations of the drawn search (with --search; default: the plan's k)
 ${ORACLE_HELP}
+  -h, --help                  show this help
+
+Exit codes: 0, 2 bad input or a circuit too large to draw, 3 with --search when the formula is
+unsatisfiable and --iterations is not given.
 `;
 
-interface Solutions {
-  readonly M: number | undefined;
-  readonly source: "exact" | "given" | "unknown";
+/** "1 clause", "2 clauses". */
+function plural(n: number | bigint, word: string, many = `${word}s`): string {
+  return `${n} ${n === 1 || n === 1n ? word : many}`;
 }
+
+/**
+ * A double for people: `digits` significant digits below 10^digits, whole above it (the values
+ * printed are accurate to far more digits than that), in exponent form from 10^15, and about 2^x
+ * outside the range of a double.
+ */
+function real(x: number, log2: number, digits = 6): string {
+  if (Number.isFinite(x) && x !== 0 && Math.abs(x) >= 1e-300) {
+    if (Math.abs(x) < 10 ** digits) return String(Number(x.toPrecision(digits)));
+    if (Math.abs(x) < 1e15) return String(Math.round(x));
+    return `${x.toPrecision(digits)} (about 2^${Number(log2.toFixed(3))})`;
+  }
+  if (x === 0 && log2 === -Infinity) return "0";
+  if (!Number.isFinite(log2)) return "infinite";
+  return `about 2^${Number(log2.toFixed(3))}`;
+}
+
+/** A whole number for people: exact digits (with about 2^x beside large ones), or about 2^x. */
+function whole(b: BigCount): string {
+  if (b.exact !== undefined) return b.exact >= 1n << 64n ? `${b.exact} (about 2^${Number(b.log2.toFixed(3))})` : String(b.exact);
+  return `about 2^${Number(b.log2.toFixed(3))}`;
+}
+
+/** N = 2^n with its digits when kept. */
+function assignmentsText(n: number): string {
+  if (n <= 64) return `N = ${n === 0 ? "1" : `2^${n} = ${1n << BigInt(n)}`}`;
+  return n < EXACT_BITS ? `N = 2^${n} = ${1n << BigInt(n)}` : `N = 2^${n}`;
+}
+
+/** A whole number in JSON: a number when a double holds it exactly, a decimal string above 2^53, null above 2^1024. */
+function jsonWhole(b: BigCount | undefined): number | string | null {
+  if (b === undefined || b.exact === undefined) return null;
+  return b.exact <= BigInt(Number.MAX_SAFE_INTEGER) ? Number(b.exact) : b.exact.toString();
+}
+
+/** A real or a logarithm in JSON: null when not finite. */
+const jsonReal = (x: number | undefined): number | null => (x !== undefined && Number.isFinite(x) ? x : null);
+
+interface Known {
+  readonly M: Solutions;
+  readonly source: "exact" | "given";
+}
+interface Unknown {
+  readonly M: undefined;
+  readonly source: "unknown";
+  /** Why M is not known, for the text. */
+  readonly why: string;
+}
+type SolutionsFound = Known | Unknown;
 
 /** The problem to search: the formula, or its reduction. */
 function problemOf(cnf: Cnf, reduce: boolean): { cnf: Cnf; reduction: Reduction | undefined } {
@@ -78,51 +160,191 @@ function problemOf(cnf: Cnf, reduce: boolean): { cnf: Cnf; reduction: Reduction 
   return { cnf: reduction.cnf, reduction };
 }
 
-async function solutionsOf(cnf: Cnf, raw: string | undefined): Promise<Solutions> {
-  if (raw === "unknown") return { M: undefined, source: "unknown" };
-  if (raw !== undefined) {
-    const M = intOption(raw, "--solutions", 0, Number.MAX_SAFE_INTEGER)!;
-    if (M > 2 ** cnf.variables) throw new UserError(`clausegate: error: --solutions ${M} exceeds 2^${cnf.variables} assignments`);
-    return { M, source: "given" };
+/** Parses --solutions M for a register of n qubits (any size: M is read as a BigInt). */
+function givenSolutions(raw: string, n: number, command: string): bigint {
+  if (!/^\d+$/.test(raw)) throw new UserError(`clausegate ${command}: error: --solutions expects a whole number or 'unknown' but got '${raw}'`);
+  const M = BigInt(raw);
+  const digits = M === 0n ? 0 : M.toString(2).length;
+  if (digits > n + 1 || (digits === n + 1 && M !== 1n << BigInt(n))) {
+    throw new UserError(`clausegate ${command}: error: --solutions ${raw} exceeds the ${n < 64 ? String(1n << BigInt(n)) : `2^${n}`} assignments of ${plural(n, "search qubit")}; hint: give a number in 0..${n < 64 ? String(1n << BigInt(n)) : `2^${n}`}`);
   }
-  const r = await countModels(cnf);
-  if (!r.ok || r.models > BigInt(Number.MAX_SAFE_INTEGER)) return { M: undefined, source: "unknown" };
-  return { M: Number(r.models), source: "exact" };
+  return M;
 }
 
-const fmt = (x: number, digits = 6): string => (Number.isFinite(x) ? String(Number(x.toPrecision(digits))) : "infinite");
+/**
+ * M for the search register: --solutions, or the exact model count of the variables that occur
+ * in clauses times 2^(variables in no clause), so a header of any size costs nothing.
+ */
+async function solutionsOf(cnf: Cnf, raw: string | undefined, command: string): Promise<SolutionsFound> {
+  if (raw === "unknown") return { M: undefined, source: "unknown", why: "--solutions unknown" };
+  if (raw !== undefined) return { M: givenSolutions(raw, cnf.variables, command), source: "given" };
+  const bar = progress("counting models");
+  const r = await countSolutions(cnf, { onProgress: bar.update });
+  bar.stop();
+  if (!r.ok) {
+    return {
+      M: undefined, source: "unknown",
+      why: `${r.occurring} variables occur in clauses and the exact count stops at ${DEFAULT_COUNT_LIMIT}; give --solutions M if you know it`,
+    };
+  }
+  return { M: r.solutions, source: "exact" };
+}
 
-function planLines(file: string, n: number, s: Solutions, p: SearchPlan, reduction: Reduction | undefined): string[] {
-  const N = 2 ** n;
+function reductionText(r: Reduction): string {
+  return `reduced: ${r.fixed.size} fixed, ${r.freeCount} free`;
+}
+
+/** The variable map of a reduction, as JSON (snake_case). */
+function reductionJson(r: Reduction) {
+  return {
+    register: r.searched.map((v, i) => ({ bit: i, variable: v })),
+    fixed: [...r.fixed].map(([variable, value]) => ({ variable, value })),
+    free: r.free.map(({ first, last }) => ({ first, last })),
+    free_count: r.freeCount,
+    unsat_by_propagation: r.unsat,
+    completion: "a measured result gives the assignment: variable register[i].variable = outcome[i]; fixed variables take their value; free variables (the ranges first..last) take any value, and each choice is a solution",
+  };
+}
+
+function planLines(file: string, n: number, s: Known, p: SearchPlan, reduction: Reduction | undefined): string[] {
+  const ratioLog2 = p.solutions.log2 - n;
   const lines = [
-    `formula: ${displayName(file)}; search register: ${n} qubits, N = ${N}${reduction ? ` (reduced: ${reduction.fixed.size} fixed, ${reduction.free.length} free)` : ""}`,
-    `solutions: M = ${s.M} (${s.source === "exact" ? "exact model count" : "given"})`,
-    `theta: ${fmt(p.theta)} rad (sin^2 theta = M/N = ${fmt(s.M! / N)})`,
-    `iterations: k = floor(pi / (4 theta)) = ${p.iterations}`,
-    `success probability: sin^2((2k+1) theta) = ${fmt(p.successProbability, 10)}`,
-    `expected oracle calls until success: ${fmt(p.expectedOracleCalls)} (k / P, repeating the run on failure)`,
-    `classical: ${fmt(p.classicalExpectedEvaluations)} evaluations expected guessing at random (N/M); ${p.classicalWorstCase} in the worst case checking one by one`,
+    `formula: ${displayName(file)}; search register: ${plural(n, "qubit")}, ${assignmentsText(n)}${reduction ? ` (${reductionText(reduction)})` : ""}`,
+    `solutions: M = ${whole(p.solutions)} (${s.source === "exact" ? "exact model count" : "given"})`,
   ];
-  if (p.verdict === "unsatisfiable") lines.push("verdict: the formula is unsatisfiable: no number of iterations finds a solution");
+  if (p.verdict === "unsatisfiable") {
+    lines.push(
+      "theta: 0 rad (sin^2 theta = M/N = 0)",
+      "iterations: none: with M = 0 no number of iterations finds a solution (theta = 0, so pi/(4 theta) is undefined)",
+      "success probability: 0 for any number of iterations",
+      "expected oracle calls until success: never (there is no solution)",
+      `classical: guessing at random never succeeds; checking one by one tests ${p.classicalWorstCase.exact === 1n ? "the only assignment" : `all ${whole(p.classicalWorstCase)} assignments`} and finds none`,
+      "verdict: the formula is unsatisfiable: no number of iterations finds a solution",
+    );
+    return lines;
+  }
+  const k = p.iterations!;
+  const expected = real(p.classicalExpectedEvaluations, p.log2ClassicalExpectedEvaluations);
+  const evaluations = `${expected} evaluation${expected === "1" ? "" : "s"}`;
+  const failure = p.failureProbability === undefined
+    ? `; 1 - P is at most M/N = ${real(2 ** ratioLog2, ratioLog2)}`
+    : p.failureProbability > 0 && p.failureProbability < 1e-4 ? ` (1 - P = ${real(p.failureProbability, Math.log2(p.failureProbability))})` : "";
+  lines.push(
+    `theta: ${real(p.theta, p.log2Theta)} rad (sin^2 theta = M/N = ${real(2 ** ratioLog2, ratioLog2)})`,
+    `iterations: k = floor(pi / (4 theta)) = ${whole(k)}`,
+    `success probability: sin^2((2k+1) theta) = ${p.failureProbability === undefined ? "1" : real(p.successProbability, Math.log2(p.successProbability), 10)}${failure}`,
+    `expected oracle calls until success: ${real(p.expectedOracleCalls, p.log2ExpectedOracleCalls)} (k / P, repeating the run on failure)`,
+    `classical: ${evaluations} expected guessing at random (N/M); ${whole(p.classicalWorstCase)} in the worst case checking one by one (N - M + 1)`,
+  );
   if (p.verdict === "trivial") lines.push("verdict: every assignment is a solution: no search is needed");
   if (p.verdict === "classical") lines.push("verdict: more than 3/4 of all assignments are solutions: a classical random guess is cheaper than a search");
   return lines;
 }
 
-function unknownLines(file: string, n: number, seed: number | undefined): string[] {
-  const rounds = bbhtRounds(n);
+function planJson(original: Cnf, n: number, s: Known, p: SearchPlan, reduction: Reduction | undefined) {
+  return {
+    variables: original.variables,
+    search_qubits: n,
+    n_assignments: jsonWhole(p.assignments),
+    log2_n_assignments: n,
+    solutions: jsonWhole(p.solutions),
+    log2_solutions: jsonReal(p.solutions.log2),
+    solutions_source: s.source,
+    theta: p.theta === 0 && p.verdict !== "unsatisfiable" ? null : p.theta,
+    log2_theta: jsonReal(p.log2Theta),
+    iterations: jsonWhole(p.iterations),
+    log2_iterations: jsonReal(p.iterations?.log2),
+    success_probability: p.successProbability,
+    failure_probability: jsonReal(p.failureProbability),
+    expected_oracle_calls: jsonReal(p.expectedOracleCalls),
+    log2_expected_oracle_calls: jsonReal(p.log2ExpectedOracleCalls),
+    classical_expected_evaluations: jsonReal(p.classicalExpectedEvaluations),
+    log2_classical_expected_evaluations: jsonReal(p.log2ClassicalExpectedEvaluations),
+    classical_worst_case: jsonWhole(p.classicalWorstCase),
+    log2_classical_worst_case: jsonReal(p.classicalWorstCase.log2),
+    verdict: p.verdict,
+    precision_bits: p.precision,
+    ...(reduction ? { reduction: reductionJson(reduction) } : {}),
+  };
+}
+
+/** Rows of the schedule shown: all of them up to 80, else the first 64 and the last 8. */
+function scheduleRows(n: number): { rows: ScheduleRound[]; omitted: [number, number] | undefined } {
+  const last = bbhtLastRound(n);
+  if (last < 80) return { rows: bbhtRounds(n), omitted: undefined };
+  return { rows: [...bbhtRounds(n, 0, 64), ...bbhtRounds(n, last - 7, 8)], omitted: [64, last - 8] };
+}
+
+/** The M at which the schedule's expected cost is listed: every power of two up to N, or 25 spread evenly. */
+function sampleExponents(n: number): number[] {
+  if (n <= 24) return Array.from({ length: n + 1 }, (_, e) => e);
+  return [...new Set(Array.from({ length: 25 }, (_, i) => Math.round((i * n) / 24)))];
+}
+
+/** Rounds of the seeded sequence: through 10 rounds past the last distinct one, at most 200. */
+const sequenceRounds = (n: number): number => Math.min(bbhtLastRound(n) + 11, 200);
+
+function powerOfTwoText(e: number): string {
+  return e === 0 ? "1" : e <= 64 ? `2^${e} = ${1n << BigInt(e)}` : `2^${e}`;
+}
+
+function unknownLines(file: string, n: number, why: string, seed: number | undefined, reduction: Reduction | undefined): string[] {
+  const { rows, omitted } = scheduleRows(n);
+  const last = bbhtLastRound(n);
   const lines = [
-    `formula: ${displayName(file)}; search register: ${n} qubits, N = ${2 ** n}; solutions: unknown`,
+    `formula: ${displayName(file)}; search register: ${plural(n, "qubit")}, ${assignmentsText(n)}${reduction ? ` (${reductionText(reduction)})` : ""}; solutions: unknown (${why})`,
     `schedule for an unknown number of solutions (Boyer, Brassard, Hoyer & Tapp 1998), lambda = ${BBHT_LAMBDA}:`,
     "round r draws j uniformly from {0, ..., ceil(min(lambda^r, sqrt N)) - 1}, runs j iterations, measures and checks;",
-    "on failure the next round follows (from the last row on, every round is like the last row)",
+    `on failure the next round follows (from round ${last} on, every round is like round ${last})`,
     "round  bound m     j drawn from",
-    ...rounds.map((r) => `${String(r.round).padStart(5)}  ${fmt(r.bound, 5).padEnd(10)}  0..${r.choices - 1}`),
-    "expected oracle calls of the schedule, by number of solutions M:",
   ];
-  for (let M = 1; M <= 2 ** n && lines.length < 60; M *= 2) lines.push(`  M = ${M}: ${fmt(bbhtExpectedCalls(n, M))}`);
-  if (seed !== undefined) lines.push(`iteration counts to run, rounds 0..${rounds.length + 9} (seed ${seed}): ${bbhtSequence(n, rounds.length + 10, seed).join(" ")}`);
+  for (const r of rows) {
+    if (omitted && r.round === omitted[1] + 1) lines.push(`  ... rounds ${omitted[0]}..${omitted[1]}: each bound is lambda times the one before`);
+    const top = r.choices.exact !== undefined ? String(r.choices.exact - 1n) : `about 2^${Number(r.log2Bound.toFixed(3))}`;
+    lines.push(`${String(r.round).padStart(5)}  ${real(r.bound, r.log2Bound, 5).padEnd(10)}  0..${top}`);
+  }
+  lines.push("expected oracle calls of the schedule, by number of solutions M:");
+  for (const e of sampleExponents(n)) {
+    const c = bbhtExpectedCalls(n, { count: 1n, shift: e });
+    lines.push(`  M = ${powerOfTwoText(e)}: ${real(c.calls, c.log2Calls)}`);
+  }
+  if (seed !== undefined) {
+    const seq = bbhtSequence(n, sequenceRounds(n), seed);
+    lines.push(`iteration counts to run, rounds 0..${seq.length - 1} (seed ${seed}): ${seq.join(" ")}`);
+  }
   return lines;
+}
+
+function unknownJson(original: Cnf, n: number, seed: number | undefined, reduction: Reduction | undefined) {
+  const { rows, omitted } = scheduleRows(n);
+  return {
+    variables: original.variables,
+    search_qubits: n,
+    n_assignments: jsonWhole({ exact: n < EXACT_BITS ? 1n << BigInt(n) : undefined, log2: n }),
+    log2_n_assignments: n,
+    solutions: null,
+    solutions_source: "unknown",
+    theta: null,
+    iterations: null,
+    success_probability: null,
+    expected_oracle_calls: null,
+    classical_expected_evaluations: null,
+    schedule_growth: BBHT_LAMBDA,
+    schedule_last_round: bbhtLastRound(n),
+    schedule_omitted_rounds: omitted ? { first: omitted[0], last: omitted[1] } : null,
+    schedule: rows.map((r) => ({
+      round: r.round, bound: jsonReal(r.bound), log2_bound: r.log2Bound, choices: jsonWhole(r.choices), log2_choices: jsonReal(r.choices.log2),
+    })),
+    expected_oracle_calls_by_solutions: sampleExponents(n).map((e) => {
+      const c = bbhtExpectedCalls(n, { count: 1n, shift: e });
+      return {
+        solutions: jsonWhole({ exact: e < EXACT_BITS ? 1n << BigInt(e) : undefined, log2: e }), log2_solutions: e,
+        expected_oracle_calls: jsonReal(c.calls), log2_expected_oracle_calls: jsonReal(c.log2Calls),
+      };
+    }),
+    ...(seed !== undefined ? { sequence: bbhtSequence(n, sequenceRounds(n), seed).map((j) => jsonWhole({ exact: j, log2: 0 })) } : {}),
+    ...(reduction ? { reduction: reductionJson(reduction) } : {}),
+  };
 }
 
 export async function planCommand(argv: string[]): Promise<number> {
@@ -140,51 +362,105 @@ export async function planCommand(argv: string[]): Promise<number> {
   }
   const file = oneInput(positionals, "plan");
   const seed = intOption(values.simulate, "--simulate", 0, 2 ** 31 - 1);
-  const { cnf, reduction } = problemOf(await loadCnf(file), values.reduce === true);
+  const original = await loadCnf(file);
+  const { cnf, reduction } = problemOf(original, values.reduce === true);
   const n = cnf.variables;
-  if (n > MAX_PLAN_QUBITS) throw new UserError(`${displayName(file)}: error: the search register would have ${n} qubits; plan works with at most ${MAX_PLAN_QUBITS} (N = 2^n must fit a double); hint: try --reduce, or declare only the variables the formula uses`);
-  const s = await solutionsOf(cnf, values.solutions);
+  const s = await solutionsOf(cnf, values.solutions, "plan");
   if (s.M === undefined) {
-    if (values.json) {
-      process.stdout.write(`${JSON.stringify({
-        variables: cnf.variables, search_qubits: n, solutions: null, solutions_source: "unknown", theta: null, iterations: null,
-        success_probability: null, expected_oracle_calls: null, classical_expected_evaluations: null,
-        schedule: bbhtRounds(n).map((r) => ({ round: r.round, bound: r.bound, choices: r.choices })),
-        ...(seed !== undefined ? { sequence: bbhtSequence(n, bbhtRounds(n).length + 10, seed) } : {}),
-      })}\n`);
-    } else process.stdout.write(`${unknownLines(file, n, seed).join("\n")}\n`);
-    if (values.plot !== undefined) throw new UserError("clausegate plan: error: --plot needs the number of solutions; give --solutions M");
+    // Checked before anything is printed: nothing reaches standard output before an error.
+    if (values.plot !== undefined) throw new UserError(`clausegate plan: error: --plot needs the number of solutions, which is unknown (${s.why}); hint: give --solutions M`);
+    if (values.json) process.stdout.write(`${JSON.stringify(unknownJson(original, n, seed, reduction))}\n`);
+    else process.stdout.write(`${unknownLines(file, n, s.why, seed, reduction).join("\n")}\n`);
     return 0;
   }
+  if (seed !== undefined) throw new UserError("clausegate plan: error: --simulate draws the schedule for an unknown number of solutions; hint: add --solutions unknown");
   const p = planSearch(n, s.M);
-  if (values.json) {
-    const num = (x: number): number | null => (Number.isFinite(x) ? x : null);
-    process.stdout.write(`${JSON.stringify({
-      variables: reduction ? reduction.searched.length + reduction.fixed.size + reduction.free.length : cnf.variables,
-      search_qubits: n, solutions: s.M, solutions_source: s.source, theta: p.theta, iterations: p.iterations,
-      success_probability: p.successProbability, expected_oracle_calls: num(p.expectedOracleCalls),
-      classical_expected_evaluations: num(p.classicalExpectedEvaluations),
-    })}\n`);
-  } else process.stdout.write(`${planLines(file, n, s, p, reduction).join("\n")}\n`);
   if (values.plot !== undefined) {
-    const svg = plotSuccessSvg(p.theta, p.iterations, `${displayName(file)}: M = ${s.M} of N = ${2 ** n}`);
+    const svg = plotSuccessSvg(p.theta, p.iterations ?? 0, `${displayName(file)}: M = ${whole(p.solutions)} of ${assignmentsText(n)}`, { successProbability: p.successProbability });
     writeAtomic(values.plot, (w) => w(svg));
   }
+  if (values.json) process.stdout.write(`${JSON.stringify(planJson(original, n, s, p, reduction))}\n`);
+  else process.stdout.write(`${planLines(file, n, s, p, reduction).join("\n")}\n`);
   return p.verdict === "unsatisfiable" ? EXIT_UNSATISFIABLE : 0;
 }
 
-/** K from --iterations, --solutions or the exact count. */
-async function iterationsFor(cnf: Cnf, rawK: string | undefined, rawM: string | undefined): Promise<{ K: number; plan: SearchPlan | undefined; source: string }> {
+interface Iterations {
+  /** Iterations to build. */
+  readonly K: number;
+  /** M, when known (for the report). */
+  readonly solutions: SolutionsFound | undefined;
+  /** The plan for M, when known. */
+  readonly plan: SearchPlan | undefined;
+}
+
+/**
+ * K from --iterations, or the plan's k for M from --solutions or the exact count. M is also
+ * found with --iterations when `needM` (the whole-run report prices K iterations at their own
+ * success probability).
+ */
+async function iterationsFor(cnf: Cnf, rawK: string | undefined, rawM: string | undefined, command: string, needM: boolean): Promise<Iterations> {
   if (rawK !== undefined) {
-    const K = intOption(rawK, "--iterations", 0, 1 << 20)!;
-    const s = rawM !== undefined ? await solutionsOf(cnf, rawM) : { M: undefined, source: "unknown" as const };
-    return { K, plan: s.M === undefined ? undefined : planSearch(cnf.variables, s.M), source: s.source };
+    const K = intOption(rawK, "--iterations", 0, MAX_ITERATIONS)!;
+    if (!needM && rawM === undefined) return { K, solutions: undefined, plan: undefined };
+    const s = await solutionsOf(cnf, rawM, command);
+    return { K, solutions: s, plan: s.M === undefined ? undefined : planSearch(cnf.variables, s.M) };
   }
-  const s = await solutionsOf(cnf, rawM);
-  if (s.M === undefined) throw new UserError(`clausegate: error: the number of solutions is unknown (more than ${DEFAULT_COUNT_LIMIT} variables to count); give --iterations K or --solutions M`);
+  const s = await solutionsOf(cnf, rawM, command);
+  if (s.M === undefined) throw new UserError(`clausegate ${command}: error: the number of solutions is unknown (${s.why}); hint: give --iterations K or --solutions M`);
   const plan = planSearch(cnf.variables, s.M);
-  if (plan.verdict === "unsatisfiable") throw new UserError("clausegate: error: the formula is unsatisfiable: there is nothing to search for (give --iterations K to build the circuit anyway)", EXIT_UNSATISFIABLE);
-  return { K: plan.iterations, plan, source: s.source };
+  if (plan.verdict === "unsatisfiable") {
+    throw new UserError(`clausegate ${command}: error: the formula is unsatisfiable: there is nothing to search for; hint: give --iterations K to build the circuit anyway`, EXIT_UNSATISFIABLE);
+  }
+  const k = plan.iterations!;
+  if (k.exact === undefined || k.exact > BigInt(MAX_ITERATIONS)) {
+    throw new UserError(`clausegate ${command}: error: the plan's k = ${whole(k)} iterations is more than clausegate ${command} builds (${MAX_ITERATIONS} at most); hint: clausegate plan gives the numbers at any size, or give --iterations K for a shorter search`);
+  }
+  return { K: Number(k.exact), solutions: s, plan };
+}
+
+/** A search circuit's size estimated from one iteration: gates(0) + K (gates(1) - gates(0)). */
+interface SizeEstimate {
+  readonly gates: number;
+  readonly qubits: number;
+  readonly perIteration: number;
+  readonly base: number;
+}
+
+function estimateSearch(cnf: Cnf, o: Omit<OracleOptions, "kind">, K: number): SizeEstimate {
+  const c0 = compileSearch(cnf, { ...o, iterations: 0 });
+  if (K === 0) return { gates: c0.gates, qubits: c0.qubits, perIteration: 0, base: c0.gates };
+  const c1 = compileSearch(cnf, { ...o, iterations: 1 });
+  const perIteration = Math.max(1, c1.gates - c0.gates);
+  return { gates: c0.gates + K * perIteration, qubits: c1.qubits, perIteration, base: c0.gates };
+}
+
+/** Most iterations whose estimated circuit stays within `limit` gates. */
+const iterationsWithin = (e: SizeEstimate, limit: number): number => Math.max(0, Math.floor((limit - e.base) / e.perIteration));
+
+/**
+ * Refuses, before building, a search circuit above MAX_SEARCH_GATES: first from a lower bound
+ * that needs no compilation (each iteration has a diffusion of at least 2n + 2 gates), then from
+ * the size of one compiled iteration; with a report, also the Clifford+T circuits it costs.
+ */
+function checkSearchSize(file: string, cnf: Cnf, o: Required<OracleOptions>, K: number, report: boolean): void {
+  const n = cnf.variables;
+  const hint = (fits: number): string => `hint: ${fits > 0 ? `--iterations ${fits} or fewer fits` : "no number of iterations fits"}, or clausegate plan ${displayName(file)} gives the numbers only`;
+  const lower = K * (2 * n + 2) + 2 * n;
+  if (lower > MAX_SEARCH_GATES) {
+    throw new UserError(`clausegate search: error: ${K} iterations on ${plural(n, "search qubit")} make a circuit of more than ${lower} gates; clausegate search builds at most ${MAX_SEARCH_GATES}; ${hint(Math.floor((MAX_SEARCH_GATES - 2 * n) / (2 * n + 2)))}`);
+  }
+  if (K < 3) return; // at most about three oracles: as cheap to build as to estimate
+  const e = estimateSearch(cnf, o, K);
+  if (e.gates > MAX_SEARCH_GATES) {
+    throw new UserError(`clausegate search: error: the circuit would have about ${e.gates} gates on ${plural(e.qubits, "qubit")} (${plural(K, "iteration")} of about ${e.perIteration} gates); clausegate search builds at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(e, MAX_SEARCH_GATES))}`);
+  }
+  if (!report) return;
+  for (const strategy of ["wide", "lean"] as const) {
+    const ct = estimateSearch(cnf, { ...o, strategy, basis: "clifford+t" }, K);
+    if (ct.gates > MAX_SEARCH_GATES) {
+      throw new UserError(`clausegate search: error: the report costs the ${strategy} Clifford+T circuit of about ${ct.gates} gates (${plural(K, "iteration")}); clausegate search costs at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(ct, MAX_SEARCH_GATES))} (or leave out --report)`);
+    }
+  }
 }
 
 export async function searchCommand(argv: string[]): Promise<number> {
@@ -202,48 +478,130 @@ export async function searchCommand(argv: string[]): Promise<number> {
   }
   const file = oneInput(positionals, "search");
   const format = choice(values.format, "--format", ["qasm3", "qasm2", "json"] as const, "qasm3");
+  if (values.kind !== undefined) throw new UserError("clausegate search: error: --kind is not an option of search: a search always uses the phase oracle; hint: leave out --kind");
   const o = oracleOptions(values);
-  if (values.kind === "flag") throw new UserError("clausegate search: error: a search uses the phase oracle; drop --kind flag");
+  if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
   const original = await loadCnf(file);
-  checkCircuitSize(original, file, "search");
+  if (values.reduce !== true) checkCircuitSize(original, file, "search");
   const { cnf, reduction } = problemOf(original, values.reduce === true);
-  const { K, plan, source } = await iterationsFor(cnf, values.iterations, values.solutions);
+  if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
+    throw new UserError(`${displayName(file)}: error: the reduced search register has ${cnf.variables} qubits; clausegate search builds at most ${MAX_CIRCUIT_VARIABLES}; hint: clausegate plan --reduce gives the numbers`);
+  }
+  const { K, solutions, plan } = await iterationsFor(cnf, values.iterations, values.solutions, "search", values.report !== undefined);
+  checkSearchSize(file, cnf, o, K, values.report !== undefined);
   const circuit = compileSearch(cnf, { ...o, iterations: K });
   checkFormat(circuit, format);
   const comments = [
-    `clausegate search circuit: ${cnf.variables} search qubits, ${K} iteration${K === 1 ? "" : "s"}`,
+    `clausegate search circuit: ${plural(cnf.variables, "search qubit")}, ${plural(K, "iteration")}`,
     `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds vars[i]`,
     ...(reduction ? [`reduced search register: vars[i] is DIMACS variable ${reduction.searched.map((v, i) => `${i}->${v}`).join(" ") || "(none)"}`] : []),
   ];
   if (values.report !== undefined) {
-    const report = wholeRunReport(original, cnf, K, plan, source, o.uncompute, reduction);
+    const report = wholeRunReport(original, cnf, K, solutions, plan, o.uncompute, reduction);
     writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`));
   }
   writeCircuit(circuit, format, comments, values.output);
   return 0;
 }
 
-function wholeRunReport(original: Cnf, cnf: Cnf, K: number, plan: SearchPlan | undefined, source: string, uncompute: "unitary" | "measured", reduction: Reduction | undefined) {
-  const P = plan ? planSearch(cnf.variables, plan.solutions).successProbability : NaN;
-  const costs = searchCosts(cnf, K, Number.isFinite(P) ? P : 0, uncompute);
-  const num = (x: number): number | null => (Number.isFinite(x) ? x : null);
+/**
+ * The whole-run report: the costs of one run of K iterations, and their totals over the runs
+ * expected at the success probability of those K iterations, sin^2((2K+1) theta), with theta from
+ * M (--solutions or the exact count). K need not be the plan's k.
+ */
+function wholeRunReport(original: Cnf, cnf: Cnf, K: number, s: SolutionsFound | undefined, plan: SearchPlan | undefined, uncompute: "unitary" | "measured", reduction: Reduction | undefined) {
+  const built = s?.M !== undefined ? successAfterIterations(cnf.variables, s.M, K) : undefined;
+  const costs = searchCosts(cnf, K, built?.success ?? 0, uncompute);
+  const runsLog2 = built ? -built.log2Success : Infinity;
   return {
     variables: original.variables,
     search_qubits: cnf.variables,
     iterations: K,
-    plan: plan
-      ? { solutions: plan.solutions, solutions_source: source, theta: plan.theta, optimal_iterations: plan.iterations, success_probability: plan.successProbability, expected_runs: num(1 / plan.successProbability) }
-      : null,
-    costs: costs.map((c) => ({ ...c, expected_runs: num(c.expected_runs), expected_t_count: num(c.expected_t_count), expected_toffoli_count: num(c.expected_toffoli_count), expected_depth: num(c.expected_depth) })),
-    reduction: reduction
+    plan: plan && built && s?.M !== undefined
       ? {
-          register: reduction.searched.map((v, i) => ({ bit: i, variable: v })),
-          fixed: [...reduction.fixed].map(([variable, value]) => ({ variable, value })),
-          free: reduction.free,
-          completion: "a measured result gives the assignment: variable register[i].variable = outcome[i]; fixed variables take their value; free variables take any value (each choice is a solution)",
+          solutions: jsonWhole(plan.solutions),
+          log2_solutions: jsonReal(plan.solutions.log2),
+          solutions_source: s.source,
+          theta: plan.theta,
+          log2_theta: jsonReal(plan.log2Theta),
+          optimal_iterations: jsonWhole(plan.iterations),
+          optimal_success_probability: plan.successProbability,
+          iterations: K,
+          success_probability: built.success,
+          failure_probability: built.failure,
+          expected_runs: jsonReal(built.success > 0 ? 1 / built.success : Infinity),
+          log2_expected_runs: jsonReal(runsLog2),
         }
       : null,
+    plan_note: plan
+      ? plan.verdict === "unsatisfiable" ? "M = 0: no run succeeds, so the expected totals are null" : null
+      : `the number of solutions is unknown (${s?.M === undefined && s ? s.why : "not counted"}), so the expected totals are null; give --solutions M`,
+    costs: costs.map((c) => ({
+      ...c,
+      expected_runs: jsonReal(c.expected_runs),
+      expected_t_count: jsonReal(c.expected_t_count),
+      expected_toffoli_count: jsonReal(c.expected_toffoli_count),
+      expected_depth: jsonReal(c.expected_depth),
+    })),
+    reduction: reduction ? reductionJson(reduction) : null,
   };
+}
+
+/** Option sets tried when a drawing is refused, each with the flags that select it. */
+function drawCandidates(o: Required<OracleOptions>): { options: Required<OracleOptions>; flags: string[] }[] {
+  const out: { options: Required<OracleOptions>; flags: string[] }[] = [];
+  for (const strategy of ["wide", "lean"] as const) {
+    for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
+      for (const uncompute of ["unitary", "measured"] as const) {
+        const flags = [
+          ...(strategy !== o.strategy ? [`--strategy ${strategy}`] : []),
+          ...(basis !== o.basis ? [`--basis ${basis}`] : []),
+          ...(uncompute !== o.uncompute ? [`--uncompute ${uncompute}`] : []),
+        ];
+        if (flags.length > 0) out.push({ options: { ...o, strategy, basis, uncompute }, flags });
+      }
+    }
+  }
+  return out.sort((a, b) => a.flags.length - b.flags.length);
+}
+
+const fits = (c: Circuit): boolean => drawProblem(c) === null;
+
+/**
+ * Options that draw what was refused, computed by compiling the alternatives (only for formulas
+ * whose search register fits a diagram): fewest changed options first, then fewest gates; for a
+ * search also fewer iterations.
+ */
+function drawSuggestion(cnf: Cnf, o: Required<OracleOptions>, search: boolean, K: number): string {
+  const none = search
+    ? `no strategy, basis or number of iterations draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate plan and clausegate cost give the numbers`
+    : `no strategy, basis or uncomputation draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate cost gives the numbers, or draw a smaller formula`;
+  if (cnf.variables > DRAW_LIMITS.qubits) return none;
+  const found: { flags: string[]; circuit: Circuit }[] = [];
+  const fewest = (): number => Math.min(Infinity, ...found.map((f) => f.flags.length));
+  const build = (opts: Required<OracleOptions>, k: number): Circuit => (search ? compileSearch(cnf, { ...opts, iterations: k }) : compileOracle(cnf, opts).circuit);
+  for (const c of drawCandidates(o)) {
+    if (c.flags.length > fewest()) break;
+    const circuit = build(c.options, K);
+    if (fits(circuit)) found.push({ flags: c.flags, circuit });
+  }
+  if (search && found.length === 0 && K > 1) {
+    // Fewer iterations: the most that fit with each option set, checked by building it.
+    for (const c of [{ options: o, flags: [] as string[] }, ...drawCandidates(o)]) {
+      if (c.flags.length + 1 > fewest()) break;
+      const e = estimateSearch(cnf, c.options, 1);
+      let k = Math.min(K - 1, iterationsWithin(e, DRAW_LIMITS.gates));
+      let circuit: Circuit | undefined;
+      for (; k >= 1; k--) {
+        circuit = build(c.options, k);
+        if (fits(circuit)) break;
+      }
+      if (k >= 1 && circuit) found.push({ flags: [...c.flags, `--iterations ${k}`], circuit });
+    }
+  }
+  if (found.length === 0) return none;
+  const best = found.sort((a, b) => a.flags.length - b.flags.length || a.circuit.gates - b.circuit.gates)[0]!;
+  return `${best.flags.join(" ")} draws it (${plural(best.circuit.qubits, "qubit")}, ${plural(best.circuit.gates, "gate")})`;
 }
 
 export async function drawCommand(argv: string[]): Promise<number> {
@@ -258,21 +616,33 @@ export async function drawCommand(argv: string[]): Promise<number> {
   }
   const file = oneInput(positionals, "draw");
   if (values.output === undefined) throw new UserError("clausegate draw: error: expected -o FILE.svg; see clausegate draw --help");
+  if (values.iterations !== undefined && values.search !== true) throw new UserError("clausegate draw: error: --iterations sets the iterations of a search; hint: add --search, or leave out --iterations to draw the oracle");
   const o = oracleOptions(values);
+  if (values.search && o.kind === "flag") throw new UserError("clausegate draw: error: a search uses the phase oracle; hint: leave out --kind flag, or leave out --search to draw the flag oracle");
   const cnf = await loadCnf(file);
+  const what = values.search ? "search circuit" : "oracle";
+  // Sizes first: the search register alone is one qubit per variable.
+  if (cnf.variables > DRAW_LIMITS.qubits) {
+    throw new UserError(`clausegate draw: error: refusing to draw: the ${what} has at least ${cnf.variables} qubits (one per variable); diagrams stay readable up to ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; hint: draw a formula with at most ${DRAW_LIMITS.qubits} variables, or clausegate cost ${displayName(file)} for the numbers`);
+  }
   checkCircuitSize(cnf, file, "draw");
-  let circuit;
+  let circuit: Circuit;
   let title: string;
+  let K = 0;
   if (values.search) {
-    const { K } = await iterationsFor(cnf, values.iterations, undefined);
+    K = (await iterationsFor(cnf, values.iterations, undefined, "draw", false)).K;
+    const lower = K * (2 * cnf.variables + 2) + 2 * cnf.variables;
+    if (lower > DRAW_LIMITS.gates) {
+      throw new UserError(`clausegate draw: error: refusing to draw: ${plural(K, "iteration")} on ${plural(cnf.variables, "qubit")} make more than ${lower} gates; diagrams stay readable up to ${DRAW_LIMITS.gates} gates; hint: ${drawSuggestion(cnf, o, true, K)}`);
+    }
     circuit = compileSearch(cnf, { ...o, iterations: K });
-    title = `search for ${displayName(file)}: ${K} iteration${K === 1 ? "" : "s"}, ${o.strategy}, ${o.basis}, ${o.uncompute}`;
+    title = `search for ${displayName(file)}: ${plural(K, "iteration")}, ${o.strategy}, ${o.basis}, ${o.uncompute}`;
   } else {
     circuit = compileOracle(cnf, o).circuit;
     title = `${o.kind} oracle for ${displayName(file)}: ${o.strategy}, ${o.basis}, ${o.uncompute}`;
   }
   const problem = drawProblem(circuit);
-  if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}`);
+  if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}; hint: ${drawSuggestion(cnf, o, values.search === true, K)}`);
   const svg = drawCircuitSvg(circuit, title);
   writeAtomic(values.output, (w) => w(svg));
   return 0;

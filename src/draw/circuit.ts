@@ -45,7 +45,7 @@ const BOX_LABEL: Record<string, string> = { y: "Y", z: "Z", h: "H", s: "S", sdg:
 /** Why a circuit is too large to draw, or null. */
 export function drawProblem(c: Circuit): string | null {
   if (c.gates > DRAW_LIMITS.gates || c.qubits > DRAW_LIMITS.qubits) {
-    return `the circuit has ${c.qubits} qubits and ${c.gates} gates; diagrams stay readable up to ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates (try clausegate cost for the numbers)`;
+    return `the circuit has ${c.qubits} qubit${c.qubits === 1 ? "" : "s"} and ${c.gates} gate${c.gates === 1 ? "" : "s"}; diagrams stay readable up to ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates`;
   }
   return null;
 }

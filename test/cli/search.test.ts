@@ -6,36 +6,63 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
+import { basisTerm, compileSearch, evaluate, readDimacs, runSparse, seededRandom } from "../helpers/lib.js";
 import { checkXml, countClass } from "../helpers/xml.js";
 
 const dir = mkdtempSync(join(tmpdir(), "clausegate-search-"));
 
-describe("clausegate plan", () => {
+describe("clausegate plan", { timeout: 60_000 }, () => {
   it("prints theta, k, P, expected oracle calls and the classical comparison", () => {
     const r = cli(["plan", "examples/launch-rota.cnf"]);
     expect(r.code).toBe(0);
+    expect(r.stdout).toContain("search register: 12 qubits, N = 2^12 = 4096");
     expect(r.stdout).toContain("solutions: M = 49 (exact model count)");
     expect(r.stdout).toContain("iterations: k = floor(pi / (4 theta)) = 7");
     expect(r.stdout).toMatch(/success probability: sin\^2\(\(2k\+1\) theta\) = 0\.99466/);
     expect(r.stdout).toMatch(/classical: 83\.59\d* evaluations expected .*; 4048 in the worst case/);
   });
-  it("prints JSON with the stable keys", () => {
+  it("prints JSON with the stable snake_case keys, each large whole number with a log2_ twin", () => {
     const doc = JSON.parse(cli(["plan", "examples/allotment-row.cnf", "--json"]).stdout);
-    expect(Object.keys(doc)).toEqual(["variables", "search_qubits", "solutions", "solutions_source", "theta", "iterations", "success_probability", "expected_oracle_calls", "classical_expected_evaluations"]);
-    expect(doc).toMatchObject({ variables: 12, search_qubits: 12, solutions: 4, solutions_source: "exact", iterations: 25 });
+    expect(Object.keys(doc)).toEqual([
+      "variables", "search_qubits", "n_assignments", "log2_n_assignments", "solutions", "log2_solutions", "solutions_source", "theta", "log2_theta",
+      "iterations", "log2_iterations", "success_probability", "failure_probability", "expected_oracle_calls", "log2_expected_oracle_calls",
+      "classical_expected_evaluations", "log2_classical_expected_evaluations", "classical_worst_case", "log2_classical_worst_case", "verdict", "precision_bits",
+    ]);
+    for (const key of Object.keys(doc)) expect(key).toMatch(/^[a-z0-9]+(_[a-z0-9]+)*$/);
+    expect(doc).toMatchObject({ variables: 12, search_qubits: 12, n_assignments: 4096, solutions: 4, solutions_source: "exact", iterations: 25 });
   });
   it("takes --solutions and says when M is given", () => {
     const doc = JSON.parse(cli(["plan", "examples/allotment-pair.cnf", "--solutions", "1", "--json"]).stdout);
     expect(doc).toMatchObject({ solutions: 1, solutions_source: "given", iterations: 3 });
   });
-  it("exits 3 for an unsatisfiable formula, with the numbers printed", () => {
+  it("exits 3 for an unsatisfiable formula, with the numbers printed and no k = ... = 0", () => {
     const r = cli(["plan", "examples/herb-spiral.cnf"]);
     expect(r.code).toBe(3);
     expect(r.stdout).toContain("verdict: the formula is unsatisfiable");
+    expect(r.stdout).not.toContain("floor(pi");
+    expect(r.stdout).toContain("no number of iterations finds a solution");
+    // Checking one by one with no solution tests all N = 2^6 assignments, not N - M + 1 = 65.
+    expect(r.stdout).toContain("tests all 64 assignments and finds none");
+    expect(JSON.parse(cli(["plan", "examples/herb-spiral.cnf", "--json"]).stdout)).toMatchObject({ iterations: null, classical_worst_case: 64 });
+  });
+  it("one of each is singular: 1 qubit", () => {
+    const r = cli(["plan", "-"], "p cnf 1 1\n1 0\n");
+    expect(r.stdout).toContain("search register: 1 qubit, N = 2^1 = 2");
   });
   it("says when every assignment works, and when classical sampling is cheaper", () => {
     expect(cli(["plan", "-"], "p cnf 3 0\n").stdout).toContain("no search is needed");
     expect(cli(["plan", "-"], "p cnf 3 1\n1 2 3 0\n").stdout).toContain("a classical random guess is cheaper");
+  });
+  it("JSON for an unknown M holds the schedule and the expected calls by M, as the text does", () => {
+    const doc = JSON.parse(cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--json", "--simulate", "7"]).stdout);
+    expect(doc.schedule[0]).toEqual({ round: 0, bound: 1, log2_bound: 0, choices: 1, log2_choices: 0 });
+    expect(doc.schedule).toHaveLength(doc.schedule_last_round + 1);
+    expect(doc.expected_oracle_calls_by_solutions.map((r: { solutions: number }) => r.solutions)).toEqual(Array.from({ length: 13 }, (_, e) => 2 ** e));
+    const text = cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown"]).stdout;
+    for (const r of doc.expected_oracle_calls_by_solutions) {
+      expect(text).toContain(`M = ${r.solutions === 1 ? 1 : `2^${r.log2_solutions} = ${r.solutions}`}: `);
+    }
+    expect(doc.sequence.length).toBeGreaterThan(doc.schedule_last_round);
   });
   it("prints the schedule for an unknown M and a seeded sequence of iteration counts", () => {
     const r = cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--simulate", "7"]);
@@ -54,25 +81,151 @@ describe("clausegate plan", () => {
     expect(countClass(svg, "chosen-point")).toBe(1);
     expect(countClass(svg, "point")).toBe(16); // j = 0..16 (2k+2), one of them the chosen point
   });
+  it("writes the plot before printing, so a plot that cannot be written leaves standard output empty", () => {
+    const r = cli(["plan", "examples/launch-rota.cnf", "--plot", join(dir, "no-such-folder", "p.svg")]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+  });
+  it("refuses --plot without M before printing anything", () => {
+    const r = cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--plot", join(dir, "none.svg")]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr.trim().split("\n")).toHaveLength(1);
+  });
 });
 
-describe("clausegate search", () => {
+describe("clausegate plan at any size", { timeout: 60_000 }, () => {
+  it("prints exact integers: N = 2^60 = 1152921504606846976, k and N - M + 1 in full", () => {
+    const r = cli(["plan", "-", "--solutions", "1"], "p cnf 60 0\n");
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("N = 2^60 = 1152921504606846976");
+    expect(r.stdout).toContain("; 1152921504606846976 in the worst case");
+    // k = floor(pi/(4 asin(2^-30))) = 843314856 (mpmath 1.3.0, 600 bits).
+    expect(r.stdout).toContain("k = floor(pi / (4 theta)) = 843314856");
+  });
+  it("JSON: whole numbers above 2^53 are decimal strings, above 2^1024 null with log2", () => {
+    const doc = JSON.parse(cli(["plan", "-", "--solutions", "7", "--json"], "p cnf 200 0\n").stdout);
+    // k for M = 7 of 2^200 from mpmath 1.3.0 at 600 bits.
+    expect(doc.iterations).toBe("376305380284707550202764859524");
+    expect(doc.n_assignments).toBe((1n << 200n).toString());
+    expect(doc.failure_probability / 4.23109628814536e-60).toBeCloseTo(1, 9);
+    const huge = JSON.parse(cli(["plan", "-", "--solutions", "3", "--json"], "p cnf 5000 0\n").stdout);
+    expect(huge).toMatchObject({ n_assignments: null, log2_n_assignments: 5000, iterations: null, success_probability: 1, failure_probability: null });
+    expect(huge.log2_iterations).toBeCloseTo(Math.log2(Math.PI / 4) + (5000 - Math.log2(3)) / 2, 9);
+  });
+  it("plans a header declaring 2^31 - 1 variables, counting only the variables that occur", () => {
+    const input = "p cnf 2147483647 2\n1 2 0\n-1 5 0\n";
+    const r = cli(["plan", "-"], input);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("N = 2^2147483647");
+    expect(r.stdout).toMatch(/^iterations: k = floor\(pi \/ \(4 theta\)\) = 1$/m); // M/N = 4/8
+    expect(r.stdout).not.toMatch(/Infinity|NaN/);
+    const unknown = cli(["plan", "-", "--solutions", "unknown"], input);
+    expect(unknown.code).toBe(0);
+    expect(unknown.stdout).not.toMatch(/Infinity|NaN/);
+    const one = cli(["plan", "-", "--solutions", "1"], input);
+    expect(one.stdout).toMatch(/k = floor\(pi \/ \(4 theta\)\) = about 2\^1073741823\.15/);
+  });
+  it("plan --reduce on a 2^31 - 1 header: the JSON maps register bits, fixed and free variables", () => {
+    const r = cli(["plan", "-", "--reduce", "--json"], "p cnf 2147483647 3\n1 2 0\n-1 5 0\n7 0\n");
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc).toMatchObject({ variables: 2147483647, search_qubits: 3, solutions: 4 });
+    expect(doc.reduction.register).toEqual([{ bit: 0, variable: 1 }, { bit: 1, variable: 2 }, { bit: 2, variable: 5 }]);
+    expect(doc.reduction.fixed).toEqual([{ variable: 7, value: true }]);
+    expect(doc.reduction.free).toEqual([{ first: 3, last: 4 }, { first: 6, last: 6 }, { first: 8, last: 2147483647 }]);
+    expect(doc.reduction.free_count).toBe(2147483647 - 4);
+  });
+  it("plots a huge k as a sampled curve, marking only k", () => {
+    const out = join(dir, "huge.svg");
+    expect(cli(["plan", "-", "--solutions", "7", "--plot", out], "p cnf 200 0\n").code).toBe(0);
+    const svg = readFileSync(out, "utf8");
+    expect(checkXml(svg).ok).toBe(true);
+    expect(countClass(svg, "point")).toBe(0);
+    expect(countClass(svg, "chosen-point")).toBe(1);
+    expect(svg.match(/points="([^"]*)"/)![1]!.split(" ").length).toBeLessThanOrEqual(2001);
+    expect(svg).toContain("k = 376305380284707550202764859524");
+  });
+});
+
+describe("clausegate search", { timeout: 60_000 }, () => {
   it("writes the search circuit and a whole-run report (wide and lean side by side)", () => {
     const out = join(dir, "s.qasm");
     const rep = join(dir, "s.json");
     const r = cli(["search", "examples/launch-rota.cnf", "-o", out, "--report", rep, "--uncompute", "measured"]);
     expect(r.code).toBe(0);
     const qasm = readFileSync(out, "utf8");
-    expect(qasm).toContain("7 iterations");
+    expect(qasm).toContain("12 search qubits, 7 iterations");
     expect(qasm).toMatch(/^outcome\[11\] = measure vars\[11\];$/m);
     const report = JSON.parse(readFileSync(rep, "utf8"));
-    expect(report.plan).toMatchObject({ solutions: 49, optimal_iterations: 7 });
+    expect(report.plan).toMatchObject({ solutions: 49, optimal_iterations: 7, iterations: 7 });
     expect(report.costs.map((c: { strategy: string }) => c.strategy)).toEqual(["wide", "lean"]);
     for (const c of report.costs) {
       expect(Object.keys(c.oracle)).toEqual(["qubits", "t_count", "t_depth", "cnot_count", "depth", "toffoli_count"]);
       expect(c.circuit.t_count).toBeGreaterThanOrEqual(7 * c.oracle.t_count);
       expect(c.expected_t_count).toBeCloseTo(c.circuit.t_count * c.expected_runs, 6);
     }
+  });
+  it("prices the K built, not the optimal k: runs = 1/sin^2((2K+1) theta) for K = 0, 1, 3, k, 20 (BBHT 1998)", () => {
+    const theta = Math.asin(Math.sqrt(49 / 4096)); // launch-rota: 49 models of 12 variables
+    for (const K of [0, 1, 3, 7, 20]) {
+      const rep = join(dir, `k${K}.json`);
+      expect(cli(["search", "examples/launch-rota.cnf", "--iterations", String(K), "--report", rep, "-o", join(dir, `k${K}.qasm`)]).code).toBe(0);
+      const report = JSON.parse(readFileSync(rep, "utf8"));
+      const P = Math.sin((2 * K + 1) * theta) ** 2;
+      expect(report.iterations).toBe(K);
+      expect(report.plan).toMatchObject({ solutions: 49, solutions_source: "exact", optimal_iterations: 7, iterations: K });
+      expect(report.plan.success_probability).toBeCloseTo(P, 12);
+      expect(report.plan.failure_probability).toBeCloseTo(1 - P, 12);
+      expect(report.plan.expected_runs).toBeCloseTo(1 / P, 9);
+      for (const c of report.costs) {
+        expect(c.iterations).toBe(K);
+        expect(c.expected_runs).toBeCloseTo(1 / P, 9);
+        expect(c.expected_t_count).toBeCloseTo(c.circuit.t_count / P, 6);
+        expect(c.expected_toffoli_count).toBeCloseTo(c.circuit.toffoli_count / P, 6);
+      }
+    }
+    // The figure from the issue: one iteration on launch-rota needs 9.59 runs, not 1.005.
+    const one = JSON.parse(readFileSync(join(dir, "k1.json"), "utf8"));
+    expect(one.plan.expected_runs).toBeCloseTo(9.5915211076004, 9);
+  });
+  it("--solutions M sets the success probability of the report", () => {
+    const rep = join(dir, "m.json");
+    expect(cli(["search", "examples/launch-rota.cnf", "--iterations", "2", "--solutions", "7", "--report", rep, "-o", join(dir, "m.qasm")]).code).toBe(0);
+    const report = JSON.parse(readFileSync(rep, "utf8"));
+    const P = Math.sin(5 * Math.asin(Math.sqrt(7 / 4096))) ** 2;
+    expect(report.plan).toMatchObject({ solutions: 7, solutions_source: "given" });
+    expect(report.costs[0].expected_runs).toBeCloseTo(1 / P, 9);
+  });
+  it("the report's success probability is what the circuit does (state-vector simulation of K = 1 and 3)", () => {
+    const cnf = readDimacs(readFileSync("examples/launch-rota.cnf")).cnf!;
+    for (const K of [1, 3]) {
+      const rep = join(dir, `sim${K}.json`);
+      expect(cli(["search", "examples/launch-rota.cnf", "--iterations", String(K), "--report", rep, "-o", join(dir, `sim${K}.qasm`)]).code).toBe(0);
+      const report = JSON.parse(readFileSync(rep, "utf8"));
+      const c = compileSearch(cnf, { basis: "mcx", iterations: K, measure: false });
+      const run = runSparse(c, [basisTerm(c.qubits, [])], seededRandom(K));
+      let p = 0;
+      for (const t of run.terms) {
+        const a = Array.from({ length: 12 }, (_, v) => ((t.bits[v >>> 5]! >>> (v & 31)) & 1) === 1);
+        if (evaluate(cnf, a)) p += t.re * t.re + t.im * t.im;
+      }
+      expect(Math.abs(report.plan.success_probability - p)).toBeLessThan(1e-9);
+    }
+  });
+  it("leaves the expected totals null, saying why, when M is unknown or 0", () => {
+    const chain = `p cnf 40 39\n${Array.from({ length: 39 }, (_, i) => `${i + 1} ${i + 2} 0`).join("\n")}\n`;
+    const rep = join(dir, "u.json");
+    expect(cli(["search", "-", "--iterations", "1", "--report", rep, "-o", join(dir, "u.qasm")], chain).code).toBe(0);
+    const report = JSON.parse(readFileSync(rep, "utf8"));
+    expect(report.plan).toBeNull();
+    expect(report.plan_note).toContain("unknown");
+    expect(report.costs[0].expected_t_count).toBeNull();
+    const unsat = join(dir, "z.json");
+    expect(cli(["search", "examples/herb-spiral.cnf", "--iterations", "1", "--report", unsat, "-o", join(dir, "z.qasm")]).code).toBe(0);
+    const z = JSON.parse(readFileSync(unsat, "utf8"));
+    expect(z.plan).toMatchObject({ solutions: 0, optimal_iterations: null, success_probability: 0, expected_runs: null });
+    expect(z.costs[0].expected_runs).toBeNull();
   });
   it("reduces the search register and maps each bit back to its variable", () => {
     const rep = join(dir, "r.json");
@@ -82,15 +235,47 @@ describe("clausegate search", () => {
     const report = JSON.parse(readFileSync(rep, "utf8"));
     expect(report.reduction.register).toEqual([{ bit: 0, variable: 2 }, { bit: 1, variable: 3 }, { bit: 2, variable: 4 }]);
     expect(report.reduction.fixed).toEqual([{ variable: 1, value: true }]);
-    expect(report.reduction.free).toEqual([5]);
+    expect(report.reduction.free).toEqual([{ first: 5, last: 5 }]);
   });
   it("refuses to search an unsatisfiable formula (exit 3) unless told how many iterations", () => {
     expect(cli(["search", "examples/herb-spiral.cnf"]).code).toBe(3);
     expect(cli(["search", "examples/herb-spiral.cnf", "--iterations", "1"]).code).toBe(0);
   });
+  it("estimates the size before building and refuses with it (exit 2, one line)", () => {
+    const max = cli(["search", "examples/launch-rota.cnf", "--iterations", "1048576"]);
+    expect(max.code).toBe(2);
+    expect(max.stdout).toBe("");
+    expect(max.stderr.trim().split("\n")).toHaveLength(1);
+    expect(max.stderr).toMatch(/more than \d+ gates; clausegate search builds at most \d+; hint: --iterations \d+ or fewer fits, or clausegate plan/);
+    const est = cli(["search", "examples/launch-rota.cnf", "--iterations", "60000"]);
+    expect(est.code).toBe(2);
+    expect(est.stderr).toMatch(/about \d+ gates on \d+ qubits \(60000 iterations of about \d+ gates\)/);
+    const report = cli(["search", "examples/launch-rota.cnf", "--iterations", "20000", "--report", join(dir, "big.json")]);
+    expect(report.code).toBe(2);
+    expect(report.stderr).toMatch(/Clifford\+T circuit of about \d+ gates/);
+  });
+  it("refuses a plan's huge k with exit 2 (not 70), pointing to clausegate plan", () => {
+    const r = cli(["search", "-", "--solutions", "1"], "p cnf 60 0\n");
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/the plan's k = 843314856 iterations is more than clausegate search builds .*clausegate plan/);
+    expect(r.stderr.trim().split("\n")).toHaveLength(1);
+  });
+  it("searches a reduced 2^31 - 1 header", () => {
+    const r = cli(["search", "-", "--reduce"], "p cnf 2147483647 2\n1 2 0\n-1 5 0\n");
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^qubit\[3\] vars;$/m);
+  });
+  it("help and behaviour agree: no --kind, exit 3 documented", () => {
+    const help = cli(["search", "--help"]).stdout;
+    expect(help).not.toContain("--kind");
+    expect(help).toContain("3 when the formula is unsatisfiable");
+    const r = cli(["search", "examples/launch-rota.cnf", "--kind", "flag"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^clausegate search: error: --kind is not an option of search.*; hint: /);
+  });
 });
 
-describe("clausegate draw", () => {
+describe("clausegate draw", { timeout: 60_000 }, () => {
   it("draws an oracle: dots for controls on 1, open dots for controls on 0, circled plus for targets", () => {
     const out = join(dir, "o.svg");
     expect(cli(["draw", "examples/allotment-pair.cnf", "--basis", "mcx", "-o", out]).code).toBe(0);
@@ -110,10 +295,34 @@ describe("clausegate draw", () => {
     expect(checkXml(svg).ok).toBe(true);
     expect(countClass(svg, "meter")).toBe(4);
   });
-  it("refuses a circuit too large to read, saying its size", () => {
-    const r = cli(["draw", "examples/launch-rota.cnf", "--search", "--basis", "clifford+t", "-o", join(dir, "big.svg")]);
+  it("refuses a circuit too large to read, saying its size and an option that draws it (computed, and it works)", () => {
+    for (const args of [["examples/launch-rota.cnf"], ["examples/launch-rota.cnf", "--search"]]) {
+      const r = cli(["draw", ...args, "-o", join(dir, "big.svg")]);
+      expect(r.code).toBe(2);
+      expect(r.stderr.trim().split("\n")).toHaveLength(1);
+      const m = r.stderr.match(/refusing to draw: the circuit has \d+ qubits and \d+ gates; .*; hint: (.*) draws it \((\d+) qubits, (\d+) gates\)$/m);
+      expect(m).not.toBeNull();
+      const out = join(dir, "suggested.svg");
+      const again = cli(["draw", ...args, ...m![1]!.split(" "), "-o", out]);
+      expect(again.code).toBe(0);
+      expect(countClass(readFileSync(out, "utf8"), "wire")).toBe(Number(m![2]));
+    }
+  });
+  it("checks sizes first: a 2^31 - 1 header is refused at once, with the size", () => {
+    const r = cli(["draw", "-", "--search", "-o", join(dir, "h.svg")], "p cnf 2147483647 1\n1 2 0\n");
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/refusing to draw: the circuit has \d+ qubits and \d+ gates.*clausegate cost/);
+    expect(r.stderr).toMatch(/at least 2147483647 qubits/);
+    expect(r.stderr.trim().split("\n")).toHaveLength(1);
+  });
+  it("refuses options it would ignore, and exits 3 on an unsatisfiable search", () => {
+    const r = cli(["draw", "examples/allotment-pair.cnf", "--iterations", "2", "-o", join(dir, "i.svg")]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^clausegate draw: error: --iterations .*; hint: add --search/);
+    expect(cli(["draw", "examples/allotment-pair.cnf", "--search", "--kind", "flag", "-o", join(dir, "f.svg")]).code).toBe(2);
+    expect(cli(["draw", "examples/herb-spiral.cnf", "--search", "--basis", "mcx", "-o", join(dir, "u.svg")]).code).toBe(3);
+    const help = cli(["draw", "--help"]).stdout;
+    expect(help).toContain("-h, --help");
+    expect(help).toContain("3 with --search when the formula is");
   });
   it("renders in headless Chromium", (ctx) => {
     const browser = ["/usr/bin/chromium", "/usr/bin/chromium-browser"].find((b) => existsSync(b));

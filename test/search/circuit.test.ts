@@ -3,7 +3,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
-  basisTerm, cnfFromClauses, compileSearch, countModels, evaluate, reduceSearch, runSparse, seededRandom, successAfter, type Cnf,
+  basisTerm, cnfFromClauses, compileSearch, countModels, evaluate, runSparse, seededRandom, successAfter, type Cnf,
 } from "../helpers/lib.js";
 
 async function models(cnf: Cnf): Promise<number> {
@@ -51,26 +51,5 @@ describe("search circuits in the state-vector simulator", () => {
   it("stays exactly 0 when the formula is unsatisfiable", () => {
     const cnf = cnfFromClauses(4, [[1, 2], [-1], [-2], [3, 4]]);
     for (const K of [0, 1, 2]) expect(successProbability(cnf, K, { basis: "clifford+t", uncompute: "measured" })).toBe(0);
-  });
-});
-
-describe("reducing the search register", () => {
-  it("keeps the models: count(original) = count(reduced) x 2^(free variables)", async () => {
-    await fc.assert(
-      fc.asyncProperty(formula, async ({ n, clauses }) => {
-        const cnf = cnfFromClauses(n, clauses);
-        const r = reduceSearch(cnf);
-        const expected = r.unsat ? 0 : (await models(r.cnf)) * 2 ** r.free.length;
-        expect(await models(cnf)).toBe(expected);
-        expect(r.searched.length + r.fixed.size + r.free.length).toBe(n);
-      }),
-      { numRuns: 200 },
-    );
-  });
-  it("fixes variables of unit clauses and drops variables in no clause", () => {
-    const r = reduceSearch(cnfFromClauses(5, [[1], [-1, 2, 3], [3, -4]]));
-    expect([...r.fixed]).toEqual([[1, true]]);
-    expect(r.free).toEqual([5]);
-    expect(r.searched).toEqual([2, 3, 4]);
   });
 });
