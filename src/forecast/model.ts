@@ -125,7 +125,7 @@ export interface RegimeEstimate {
   readonly expectedSeconds: number;
   /** Code cycles of the expected search. */
   readonly expectedCodeCycles: number;
-  /** What bounds the run: the T-depth at one reaction time per layer, or the magic-state supply. */
+  /** What bounds the run: the T-depth at one reaction time per layer, or the magic-state supply ("none" when the run has no T gate, k = 0). */
   readonly limitedBy: "t-depth" | "magic-states" | "none";
   /** Probability of a logical failure over the expected search, from memory errors and from faulty magic states. */
   readonly logicalFailure: {
@@ -313,7 +313,7 @@ export function forecastSearch(input: ForecastInput, machine: Partial<Machine> =
       expectedSeconds,
       expectedCodeCycles,
       // A relative margin keeps a float rounding of the factory count from flipping the label.
-      limitedBy: iterationSeconds === 0 ? "none" : supplySeconds > tDepthSeconds * (1 + 1e-9) ? "magic-states" : "t-depth",
+      limitedBy: runSeconds === 0 ? "none" : supplySeconds > tDepthSeconds * (1 + 1e-9) ? "magic-states" : "t-depth",
       logicalFailure: { memory, magicStates, total: memory + magicStates },
     };
   };

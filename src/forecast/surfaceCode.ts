@@ -15,6 +15,8 @@ export interface LogicalErrorModel {
   readonly prefactor: number;
   /** The threshold p_th. */
   readonly threshold: number;
+  /** Authors and year, for short mentions. */
+  readonly citation: string;
   /** Where the constants come from. */
   readonly source: string;
 }
@@ -33,6 +35,7 @@ export const LOGICAL_ERROR_MODELS: {
     name: "fowler-gidney-2018",
     prefactor: 0.1,
     threshold: 0.01,
+    citation: "Fowler & Gidney 2018",
     source:
       "Fowler & Gidney 2018, \"Low overhead quantum computation using lattice surgery\" (arXiv:1808.06709): p_L = 0.1 (100 p)^((d+1)/2) per qubit per code cycle; the scaling Litinski 2019 (Quantum 3:205) computes his distillation table with",
   },
@@ -40,6 +43,7 @@ export const LOGICAL_ERROR_MODELS: {
     name: "fowler-2012",
     prefactor: 0.03,
     threshold: 0.0057,
+    citation: "Fowler, Mariantoni, Martinis & Cleland 2012",
     source:
       "Fowler, Mariantoni, Martinis & Cleland 2012, \"Surface codes: towards practical large-scale quantum computation\" (PRA 86:032324): P_L ~ 0.03 (p / p_th)^((d+1)/2) with p_th ~ 0.57%",
   },
