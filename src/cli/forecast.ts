@@ -405,7 +405,7 @@ function plotOf(rows: readonly Row[], fam: FamilyFits, machine: Machine): string
   }
   const notes = [
     `A MODEL, NOT A MEASUREMENT. Surface code: p = ${machine.physicalErrorRate}, cycle ${formatSeconds(machine.cycleSeconds)}, reaction ${formatSeconds(machine.reactionSeconds)}, failure budget ${machine.failureBudget},`,
-    `p_L: ${LOGICAL_ERROR_MODELS[machine.logicalModel].source.split(":")[0]}; 15-to-1 factories from Litinski 2019 (Table 1); routing: Litinski 2019 fast block.`,
+    `p_L: ${LOGICAL_ERROR_MODELS[machine.logicalModel].citation}; 15-to-1 factories from Litinski 2019 (Table 1); routing: Litinski 2019 fast block.`,
     "Classical: N/M evaluations (N when M is unknown) at the rate of clausegate's bit-parallel evaluator, measured on each formula.",
     "Dashed: least-squares lines of log10(seconds) on n, extended beyond the data (an extrapolation):",
     ...["reaction_limited", "one_factory", "classical", "solver"].filter((k) => fam.fits[k]).map((k) => fitText(k, fam.fits[k]).trim()),

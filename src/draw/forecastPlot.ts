@@ -80,6 +80,20 @@ function decade(k: number): string {
   return k >= -2 && k <= 3 ? `${10 ** k} s` : `1e${k > 0 ? "+" : ""}${k} s`;
 }
 
+/** Splits a note into lines of at most `width` characters at spaces. */
+function wrap(text: string, width: number): string[] {
+  const lines: string[] = [];
+  let line = "";
+  for (const word of text.split(" ")) {
+    if (line !== "" && line.length + 1 + word.length > width) {
+      lines.push(line);
+      line = word;
+    } else line = line === "" ? word : `${line} ${word}`;
+  }
+  if (line !== "") lines.push(line);
+  return lines;
+}
+
 /**
  * Draws the forecast plot as an SVG document.
  *
@@ -95,12 +109,14 @@ function decade(k: number): string {
  */
 export function plotForecastSvg(input: ForecastPlotInput): string {
   const W = 760;
-  const plotH = 400;
   const left = 70;
   const right = 24;
-  const top = 64;
+  // Legend rows under the title, then the plot area, then the notes (wrapped).
+  const top = 44 + input.series.length * 15 + 22;
+  const plotH = top + 340;
   const bottom = 48;
-  const H = plotH + input.notes.length * 15 + 12;
+  const notes = input.notes.flatMap((n) => wrap(n, 118));
+  const H = plotH + notes.length * 15 + 12;
   const points = input.series.flatMap((s) => s.points.filter((p) => p.seconds > 0 && Number.isFinite(p.seconds)));
   const xsData = points.map((p) => p.variables);
   let xMin = xsData.length ? Math.min(...xsData) : 0;
@@ -143,7 +159,7 @@ export function plotForecastSvg(input: ForecastPlotInput): string {
   body.push(el("line", { x1: left, y1: top, x2: left, y2: plotH - bottom, class: "axis" }));
   body.push(el("line", { x1: left, y1: plotH - bottom, x2: W - right, y2: plotH - bottom, class: "axis" }));
   body.push(el("text", { x: (left + W - right) / 2, y: plotH - 10, class: "tick" }, "variables (search register qubits)"));
-  body.push(el("text", { x: 8, y: top - 10 }, "expected seconds to a solution (log scale)"));
+  body.push(el("text", { x: 8, y: top - 8 }, "expected seconds to a solution (log scale)"));
 
   input.series.forEach((s, i) => {
     const pts = s.points.filter((p) => p.seconds > 0 && Number.isFinite(p.seconds)).sort((a, b) => a.variables - b.variables);
@@ -151,17 +167,18 @@ export function plotForecastSvg(input: ForecastPlotInput): string {
     if (s.fit) body.push(el("line", { x1: px(xMin), y1: py(s.fit.intercept + s.fit.slope * xMin), x2: px(xMax), y2: py(s.fit.intercept + s.fit.slope * xMax), class: `line-${s.role} fit` }));
     if (pts.length > 1) body.push(el("polyline", { points: pts.map((p) => `${px(p.variables).toFixed(1)},${py(Math.log10(p.seconds)).toFixed(1)}`).join(" "), class: `line-${s.role}` }));
     for (const p of pts) body.push(el("circle", { cx: px(p.variables), cy: py(Math.log10(p.seconds)), r: 3.5, class: `point-${s.role}` }));
-    const ly = 38 + Math.floor(i / 2) * 14;
-    const lx = left + (i % 2) * 330;
+    const ly = 44 + i * 15;
+    const lx = left;
     body.push(el("circle", { cx: lx + 5, cy: ly - 4, r: 4, class: `point-${s.role}` }));
     body.push(el("text", { x: lx + 14, y: ly }, `${s.label}${s.fit ? " (dashed: fitted line)" : ""}`));
   });
-  for (const c of shown) {
+  shown.forEach((c, i) => {
     body.push(el("line", { x1: px(c.variables), y1: top, x2: px(c.variables), y2: plotH - bottom, class: "crossover" }));
     body.push(el("circle", { cx: px(c.variables), cy: py(c.log10Seconds), r: 5, class: "crossover-point" }));
-    const toLeft = px(c.variables) > W - 220;
-    body.push(el("text", { x: px(c.variables) + (toLeft ? -6 : 6), y: top + 12, ...(toLeft ? { "text-anchor": "end" } : {}) }, c.label));
-  }
-  input.notes.forEach((line, i) => body.push(el("text", { x: 12, y: plotH + 14 + i * 15, class: "note" }, line)));
+    const toLeft = px(c.variables) > W - 300;
+    // Labels step down so that two crossovers close together stay readable.
+    body.push(el("text", { x: px(c.variables) + (toLeft ? -6 : 6), y: top + 12 + i * 14, ...(toLeft ? { "text-anchor": "end" } : {}) }, c.label));
+  });
+  notes.forEach((line, i) => body.push(el("text", { x: 12, y: plotH + 14 + i * 15, class: "note" }, line)));
   return svgDocument(W, H, input.title, STYLE, body);
 }
