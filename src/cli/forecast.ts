@@ -237,7 +237,7 @@ function regimeLines(f: Extract<Forecast, { ok: true }>): string[] {
     ["time per run (k iterations)", formatSeconds(a.runSeconds), formatSeconds(b.runSeconds)],
     ["expected until success (run / P)", formatSeconds(a.expectedSeconds), formatSeconds(b.expectedSeconds)],
     ["run bounded by", a.limitedBy === "t-depth" ? "T-depth x reaction" : a.limitedBy, b.limitedBy === "t-depth" ? "T-depth x reaction" : b.limitedBy],
-    ["logical failure (expected search)", a.logicalFailure.total.toPrecision(2), b.logicalFailure.total.toPrecision(2)],
+    ["logical failure (expected search)", a.logicalFailure.total === 0 ? "0" : a.logicalFailure.total.toPrecision(2), b.logicalFailure.total === 0 ? "0" : b.logicalFailure.total.toPrecision(2)],
   ];
   const w0 = Math.max(...rows.map((r) => r[0].length));
   const w1 = Math.max("enough factories".length, ...rows.map((r) => r[1].length));
@@ -274,7 +274,7 @@ function singleText(r: Row): string[] {
   else {
     const i = g.input;
     lines.push(
-      `  search register ${r.variables} qubits; ${g.solutionsSource === "exact" ? `M = ${g.solutions} solutions (exact count)` : "M unknown: M = 1 assumed"}; k = ${g.iterations} iterations, success probability ${g.successProbability.toPrecision(6)}`,
+      `  search register ${r.variables} qubit${r.variables === 1 ? "" : "s"}; ${g.solutionsSource === "exact" ? `M = ${g.solutions} (exact model count)` : "M unknown: M = 1 assumed"}; k = ${formatCount(g.iterations)} iteration${g.iterations === 1 ? "" : "s"}, success probability ${g.successProbability.toPrecision(6)}`,
       `  one oracle call: T-count ${i.oracle.tCount}, T-depth ${i.oracle.tDepth}, Toffolis ${i.oracle.toffoliCount}, CNOTs ${i.oracle.cnotCount}`,
       `  one iteration: T-count ${i.iteration.tCount}, T-depth ${i.iteration.tDepth}; logical qubits ${i.logicalQubits}`,
     );
@@ -318,9 +318,13 @@ function familyFits(rows: readonly Row[]): FamilyFits {
     classical: fitLogLinear(rows.map((r) => r.variables), rows.map((r) => r.classicalSeconds ?? NaN)),
     solver: fitLogLinear(rows.map((r) => r.variables), rows.map((r) => r.solverSeconds ?? NaN)),
   };
-  const ns = rows.map((r) => r.variables);
-  const lo = Math.min(...ns);
-  const hi = Math.max(...ns);
+  // "Within the data" means between sizes where both series have points.
+  const sizes: Record<string, number[]> = {
+    reaction_limited: ok.map((r) => r.variables),
+    one_factory: ok.map((r) => r.variables),
+    classical: rows.filter((r) => r.classicalSeconds !== undefined).map((r) => r.variables),
+    solver: rows.filter((r) => r.solverSeconds !== undefined).map((r) => r.variables),
+  };
   const crossovers: FamilyFits["crossovers"] = [];
   for (const q of ["reaction_limited", "one_factory"]) {
     for (const c of ["classical", "solver"]) {
@@ -328,6 +332,8 @@ function familyFits(rows: readonly Row[]): FamilyFits {
       const b = fits[c];
       if (a === undefined || b === undefined) continue;
       const x = crossoverOf(a, b);
+      const lo = Math.max(Math.min(...sizes[q]!), Math.min(...sizes[c]!));
+      const hi = Math.min(Math.max(...sizes[q]!), Math.max(...sizes[c]!));
       if (x !== undefined) crossovers.push({ quantum: q, against: c, crossover: x, withinData: x.variables >= lo && x.variables <= hi });
     }
   }
@@ -371,6 +377,17 @@ function familyText(rows: readonly Row[], fam: FamilyFits): string[] {
       f && r.classicalSeconds ? formatCount(f.reactionLimited.expectedSeconds / r.classicalSeconds) : "-",
     ];
   });
+  // The age-of-the-universe remark would widen the table: a star in the cell, a footnote below.
+  const LONG = " (longer than the age of the universe)";
+  let starred = false;
+  for (const b of body) {
+    for (let i = 0; i < b.length; i++) {
+      if (b[i]!.endsWith(LONG)) {
+        b[i] = `${b[i]!.slice(0, -LONG.length)}*`;
+        starred = true;
+      }
+    }
+  }
   const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
   const line = (cells: string[]): string => cells.map((c, i) => (i === 0 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join("  ");
   const lines = [
@@ -378,6 +395,7 @@ function familyText(rows: readonly Row[], fam: FamilyFits): string[] {
     line(head),
     ...body.map(line),
   ];
+  if (starred) lines.push("* longer than the age of the universe (13.8 billion years)");
   for (const r of rows) if (r.limit !== undefined) lines.push(`${displayName(r.file)}: ${r.limit}`);
   lines.push("fits (least squares of log10 expected seconds on the number of variables n; lines extrapolate, they are not estimates):");
   for (const k of ["reaction_limited", "one_factory", "classical", "solver"]) if (k !== "solver" || rows.some((r) => r.solverSeconds !== undefined)) lines.push(fitText(k, fam.fits[k]));
@@ -410,6 +428,7 @@ function plotOf(rows: readonly Row[], fam: FamilyFits, machine: Machine): string
     "Dashed: least-squares lines of log10(seconds) on n, extended beyond the data (an extrapolation):",
     ...["reaction_limited", "one_factory", "classical", "solver"].filter((k) => fam.fits[k]).map((k) => fitText(k, fam.fits[k]).trim()),
     ...fam.crossovers.map((c) => crossoverText(c).trim()),
+    ...rows.filter((r) => r.limit !== undefined).map((r) => `No quantum point for ${displayName(r.file)}: ${r.limit!.replace(/^no quantum estimate: /, "").split(";")[0]}.`),
   ];
   return plotForecastSvg({
     title: `clausegate forecast: expected time to a solution, ${rows.length} formula${rows.length === 1 ? "" : "s"}`,

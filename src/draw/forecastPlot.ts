@@ -13,9 +13,19 @@ export interface ForecastPlotSeries {
   /** Colour and marker: the two quantum regimes, classical brute force, or a solver's measured times. */
   readonly role: "quantum" | "quantum-one-factory" | "classical" | "solver";
   /** Measured or estimated points (seconds > 0; others are left out). */
-  readonly points: readonly { readonly variables: number; readonly seconds: number }[];
+  readonly points: readonly {
+    /** Number of variables (x). */
+    readonly variables: number;
+    /** Expected seconds (y, log scale). */
+    readonly seconds: number;
+  }[];
   /** A fitted line log10(seconds) = intercept + slope x variables, drawn dashed across the plot. */
-  readonly fit?: { readonly intercept: number; readonly slope: number };
+  readonly fit?: {
+    /** log10(seconds) at 0 variables. */
+    readonly intercept: number;
+    /** Decades per variable. */
+    readonly slope: number;
+  };
 }
 
 /** A marked crossing of two fitted lines. */

@@ -54,7 +54,14 @@ export function fitLogLinear(variables: readonly number[], seconds: readonly num
   return { intercept, slope, points: k, rmsDecades: Math.sqrt(ss / k) };
 }
 
-/** log10(seconds) of a fit at n variables. */
+/**
+ * log10(seconds) of a fit at n variables.
+ *
+ * @example
+ * ```ts
+ * 10 ** fitAt(fitLogLinear([10, 20], [1e-3, 1])!, 30); // 1000 seconds at 30 variables, extrapolated
+ * ```
+ */
 export function fitAt(fit: LogLinearFit, variables: number): number {
   return fit.intercept + fit.slope * variables;
 }

@@ -3,10 +3,24 @@
  * reader can picture, three significant digits, and exponents once years run into the thousands.
  */
 
-/** Seconds in a (Julian) year. */
+/**
+ * Seconds in a (Julian) year.
+ *
+ * @example
+ * ```ts
+ * 1e9 / SECONDS_PER_YEAR; // 31.7 years
+ * ```
+ */
 export const SECONDS_PER_YEAR = 365.25 * 86400;
 
-/** Age of the universe in years (Planck Collaboration 2018: 13.8 billion years), for scale. */
+/**
+ * Age of the universe in years (Planck Collaboration 2018: 13.8 billion years), for scale.
+ *
+ * @example
+ * ```ts
+ * formatSeconds(UNIVERSE_AGE_YEARS * SECONDS_PER_YEAR * 2); // "2.76e+10 years (longer than the age of the universe)"
+ * ```
+ */
 export const UNIVERSE_AGE_YEARS = 1.38e10;
 
 const sig = (x: number): string => {

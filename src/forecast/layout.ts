@@ -6,7 +6,14 @@
  * state) reach every data qubit in one step. Routing is the tiles beyond the n data patches.
  */
 
-/** Where {@link routingPatches} comes from. */
+/**
+ * Where {@link routingPatches} comes from.
+ *
+ * @example
+ * ```ts
+ * `${routingPatches(60)} routing patches (${ROUTING_SOURCE})`; // 83 routing patches (...)
+ * ```
+ */
 export const ROUTING_SOURCE =
   "Litinski 2019, \"A Game of Surface Codes\", Quantum 3:128: the fast data block, 2n + sqrt(8n) + 1 tiles for n data qubits (sqrt rounded up)";
 

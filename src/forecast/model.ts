@@ -61,7 +61,14 @@ export interface Machine {
   readonly logicalModel: LogicalErrorModelName;
 }
 
-/** The defaults of {@link Machine}: p = 1e-3, 1 us cycle, 10 us reaction, 1% failure budget, Fowler & Gidney 2018. */
+/**
+ * The defaults of {@link Machine}: p = 1e-3, 1 us cycle, 10 us reaction, 1% failure budget, Fowler & Gidney 2018.
+ *
+ * @example
+ * ```ts
+ * forecastSearch(input, { ...DEFAULT_MACHINE, physicalErrorRate: 1e-4 });
+ * ```
+ */
 export const DEFAULT_MACHINE: Machine = {
   physicalErrorRate: 1e-3,
   cycleSeconds: 1e-6,
@@ -72,7 +79,14 @@ export const DEFAULT_MACHINE: Machine = {
 
 const GIDNEY_EKERA = "Gidney & Ekera 2021, \"How to factor 2048 bit RSA integers in 8 hours using 20 million noisy qubits\", Quantum 5:433";
 
-/** Why each default of {@link DEFAULT_MACHINE} is what it is. */
+/**
+ * Why each default of {@link DEFAULT_MACHINE} is what it is.
+ *
+ * @example
+ * ```ts
+ * MACHINE_DEFAULT_SOURCES.reactionSeconds; // "default: a 10 us reaction time, as assumed by Gidney & Ekera 2021, ..."
+ * ```
+ */
 export const MACHINE_DEFAULT_SOURCES: Record<keyof Machine, string> = {
   physicalErrorRate: `default: as assumed by ${GIDNEY_EKERA}; also a row of ${DISTILLATION_SOURCE}`,
   cycleSeconds: `default: a 1 us surface-code cycle, as assumed by ${GIDNEY_EKERA}`,
@@ -141,6 +155,7 @@ export interface RegimeEstimate {
 /** A physical estimate, or why the model cannot give one. */
 export type Forecast =
   | {
+      /** An estimate was made. */
       readonly ok: true;
       /** The chosen distillation protocol (undefined when the search has no T gate). */
       readonly protocol: DistillationProtocol | undefined;
@@ -163,6 +178,7 @@ export type Forecast =
       readonly assumptions: readonly Assumption[];
     }
   | {
+      /** The model cannot give an estimate. */
       readonly ok: false;
       /** Why there is no estimate. */
       readonly reason: string;

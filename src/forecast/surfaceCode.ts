@@ -24,6 +24,11 @@ export interface LogicalErrorModel {
 /**
  * The two published scalings we offer. Fowler & Gidney 2018 is the default because Litinski's
  * distillation table (factories.ts), which the model also uses, was computed with it.
+ *
+ * @example
+ * ```ts
+ * LOGICAL_ERROR_MODELS["fowler-2012"].threshold; // 0.0057
+ * ```
  */
 export const LOGICAL_ERROR_MODELS: {
   /** p_L = 0.1 (100 p)^((d+1)/2). */
@@ -77,7 +82,14 @@ export function patchQubits(distance: number): number {
   return 2 * distance * distance;
 }
 
-/** Largest code distance the model considers; beyond it the estimate is refused. */
+/**
+ * Largest code distance the model considers; beyond it the estimate is refused.
+ *
+ * @example
+ * ```ts
+ * codeDistanceFor(LOGICAL_ERROR_MODELS["fowler-gidney-2018"], 0.0099, 1e30, 1e-9) === undefined; // true: d would pass MAX_CODE_DISTANCE
+ * ```
+ */
 export const MAX_CODE_DISTANCE = 9999;
 
 /**
