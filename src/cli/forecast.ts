@@ -296,8 +296,10 @@ function singleText(r: Row): string[] {
   }
   if (r.solverSeconds !== undefined) lines.push(`  solver: ${formatSeconds(r.solverSeconds)} (given with --classical-time)`);
   if (f?.ok && r.classicalSeconds !== undefined) {
-    lines.push(`  comparison (enough factories): ${comparison(f.reactionLimited.expectedSeconds, r.classicalSeconds, "classical brute force")}`);
-    if (r.solverSeconds !== undefined) lines.push(`  comparison (enough factories): ${comparison(f.reactionLimited.expectedSeconds, r.solverSeconds, "the solver")}`);
+    for (const [regime, e] of [["enough factories", f.reactionLimited], ["one factory", f.oneFactory]] as const) {
+      lines.push(`  comparison (${regime}): ${comparison(e.expectedSeconds, r.classicalSeconds, "classical brute force")}`);
+      if (r.solverSeconds !== undefined) lines.push(`  comparison (${regime}): ${comparison(e.expectedSeconds, r.solverSeconds, "the solver")}`);
+    }
   }
   lines.push(...assumptionLines(r.assumptions));
   return lines;
