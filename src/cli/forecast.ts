@@ -40,7 +40,8 @@ model count; when M cannot be counted, M = 1 is assumed and said). Then:
     as you think", Table 1), the cheapest whose output error keeps the other half of the budget;
   - time: run = max(T-depth x reaction time, T-count x state time / factories) over k iterations;
     expected = run / P. Two regimes: enough factories that T-depth x reaction time bounds the run,
-    and one factory (T-count bound);
+    and one factory (T-count bound). Clifford gates take no time, and a T layer takes one reaction
+    time whatever d: the time-optimal limit of Fowler 2012, whose extra qubits are not counted;
   - classical: N/M evaluations (N when M is unknown) at the rate clausegate's bit-parallel
     evaluator reaches on the formula, measured for ${MEASURE_SECONDS} s at run time.
 Several files (a family at growing sizes): one table, least-squares lines of log10(time) against
