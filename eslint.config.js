@@ -24,6 +24,8 @@ const mayImport = {
   sim: ["ir", "cnf"],
   search: ["cnf", "ir", "synth"],
   draw: ["ir", "search"],
+  // The physical model takes plain numbers; cnf only for the classical evaluator's rate.
+  forecast: ["cnf"],
   // The command line uses the library through a top-level entry (index.ts), never a stage directly.
   cli: [],
 };

@@ -4,6 +4,7 @@ import { countCommand, countHelp } from "./count.js";
 import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
 import { verifyCommand, verifyHelp } from "./verify.js";
 import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp } from "./search.js";
+import { forecastCommand, forecastHelp } from "./forecast.js";
 import { EXIT_BAD_INPUT, UserError } from "./io.js";
 import { checkpoint, cleanUpOnSignals, commitOutputs, discardOutputs, OutputError } from "./output.js";
 import { PassError } from "../index.js";
@@ -15,6 +16,7 @@ const commands: Record<string, { run: (argv: string[]) => Promise<number>; summa
   plan: { run: planCommand, summary: "plan a Grover search: iterations, success probability, classical comparison", help: planHelp },
   search: { run: searchCommand, summary: "write the complete search circuit and its whole-run costs", help: searchHelp },
   draw: { run: drawCommand, summary: "draw an oracle or search circuit as SVG", help: drawHelp },
+  forecast: { run: forecastCommand, summary: "estimate a fault-tolerant run (qubits, time) beside the classical time: a model", help: forecastHelp },
   count: { run: countCommand, summary: "count the models of a DIMACS CNF formula exactly", help: countHelp },
 };
 
