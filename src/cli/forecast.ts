@@ -109,6 +109,8 @@ export async function forecastInputOf(cnf: Cnf, strategy: Strategy, uncompute: U
   const M = exact ? Number(counted.models) : 1;
   if (M === 0) return { unsatisfiable: true };
   const plan = planSearch(cnf.variables, M);
+  // k as a double: exact below 2^53, and beyond that the model's times are estimates anyway.
+  const k = plan.iterations === undefined ? 0 : plan.iterations.exact !== undefined ? Number(plan.iterations.exact) : 2 ** plan.iterations.log2;
   const costs = searchCosts(cnf, 1, plan.successProbability, uncompute).find((c) => c.strategy === strategy)!;
   const work = (p: { t_count: number; t_depth: number; toffoli_count: number; cnot_count: number; depth: number }) => ({
     tCount: p.t_count, tDepth: p.t_depth, toffoliCount: p.toffoli_count, cnotCount: p.cnot_count, depth: p.depth,
@@ -119,13 +121,13 @@ export async function forecastInputOf(cnf: Cnf, strategy: Strategy, uncompute: U
       logicalQubits: costs.circuit.qubits,
       oracle: work(costs.oracle),
       iteration: work(costs.circuit),
-      iterations: plan.iterations,
+      iterations: k,
       successProbability: plan.successProbability,
       source: `clausegate: Clifford+T lowering of a one-iteration search circuit (strategy ${strategy}, uncompute ${uncompute}); k and P from the Grover plan with ${solutionsText} (Boyer, Brassard, Hoyer & Tapp 1998)`,
     },
     solutions: M,
     solutionsSource: exact ? "exact" : "assumed",
-    iterations: plan.iterations,
+    iterations: k,
     successProbability: plan.successProbability,
   };
 }
