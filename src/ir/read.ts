@@ -208,7 +208,7 @@ class JsonCircuitReader {
       if (kind < 0) throw stop(op.at, `expected a gate kind (${GATE_KINDS.join(" ")}) but found ${shownValue(op)} in gate ${i}`);
       const name = GATE_KINDS[kind]!;
       const where = `in gate ${i} (${name})`;
-      const list = (key: "qubits" | "negated", out: number[], what: string): void => {
+      const list = (key: "qubits" | "negated", out: number[], what: string, one: string): void => {
         out.length = 0;
         const v = f[key];
         if (v === undefined) {
@@ -217,12 +217,12 @@ class JsonCircuitReader {
         }
         if (v.kind !== "array") throw stop(v.at, `expected "${key}" as a list of ${what} ${where} but found ${shownValue(v)}`);
         for (const item of v.items) {
-          if (item.kind !== "number") throw stop(item.at, `expected ${what.replace(/s$/, "")} (a whole number) ${where} but found ${shownValue(item)}`);
+          if (item.kind !== "number") throw stop(item.at, `expected ${one} (a whole number) ${where} but found ${shownValue(item)}`);
           out.push(item.value);
         }
       };
-      list("qubits", qubits, "qubit indices");
-      list("negated", negated, "control positions");
+      list("qubits", qubits, "qubit indices", "a qubit index");
+      list("negated", negated, "control positions", "a control position");
       const scalar = (key: "angle" | "clbit" | "if"): number | undefined => {
         const v = f[key];
         if (v === undefined) return undefined;

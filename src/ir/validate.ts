@@ -40,7 +40,7 @@ export interface GateFields {
 const isIndex = (x: number, size: number): boolean => Number.isInteger(x) && x >= 0 && x < size;
 /** "expected WHAT in 0..size-1 but found X", or, when there are none to choose from, says so. */
 const outOf = (what: string, plural: string, size: number, found: number): string =>
-  size === 0 ? `expected no ${what}, as the circuit declares no ${plural}, but found ${found}` : `expected ${what} in 0..${size - 1} but found ${found}`;
+  size === 0 ? `expected ${what}, but the circuit declares no ${plural}; found ${found}` : `expected ${what} in 0..${size - 1} but found ${found}`;
 /** Kinds whose last qubit is a target (so it cannot carry a polarity). */
 const HAS_TARGET: Partial<Record<GateKind, true>> = { mcx: true, and: true, unand: true };
 
@@ -69,7 +69,7 @@ export class GateChecker {
     }
     for (let i = 0; i < nq; i++) {
       const q = qs[i]!;
-      if (!isIndex(q, this.qubits)) return { field: "qubits", index: i, message: outOf("qubit", "qubits", this.qubits, q) };
+      if (!isIndex(q, this.qubits)) return { field: "qubits", index: i, message: outOf("a qubit", "qubits", this.qubits, q) };
       if (this.seen[q] === this.gen) return { field: "qubits", index: i, message: `expected distinct qubits but ${this.qubitName(q)} appears twice` };
       this.seen[q] = this.gen;
     }
@@ -90,10 +90,10 @@ export class GateChecker {
     } else if (g.angle !== undefined) return { field: "angle", index: -1, message: `expected no angle: only gphase has one, not ${kind}` };
     if (kind === "measure") {
       if (g.clbit === undefined) return { field: "clbit", index: -1, message: "expected the classical bit a measure writes but found none" };
-      if (!isIndex(g.clbit, this.clbits)) return { field: "clbit", index: -1, message: outOf("classical bit", "classical bits", this.clbits, g.clbit) };
+      if (!isIndex(g.clbit, this.clbits)) return { field: "clbit", index: -1, message: outOf("a classical bit", "classical bits", this.clbits, g.clbit) };
     } else if (g.clbit !== undefined) return { field: "clbit", index: -1, message: `expected no classical bit: only measure writes one, not ${kind}` };
     if (g.cond !== undefined && !isIndex(g.cond, this.clbits)) {
-      return { field: "if", index: -1, message: outOf("condition on a classical bit", "classical bits", this.clbits, g.cond) };
+      return { field: "if", index: -1, message: outOf("a condition on a classical bit", "classical bits", this.clbits, g.cond) };
     }
     return null;
   }
