@@ -99,9 +99,11 @@ export function reportLines(r: VerifyResult, file: string): string[] {
   const s = r.modelSearch;
   if (s) {
     const found = s.status === "unsat"
-      ? "none exist (the CDCL solver proved it)"
-      : `${s.found} found by the CDCL solver${s.all ? " (all there are)" : ""}${s.status === "unknown" ? " (budget spent)" : ""}`;
-    lines.push(`models: ${found} in ${plural(s.conflicts, "conflict")}; also checked: ${plural(r.falsifying, "assignment")} falsifying one clause each, and the random sample`);
+      ? `none, as the CDCL solver proved in ${plural(s.conflicts, "conflict")}`
+      : s.status === "unknown"
+        ? `none found by the CDCL solver within its budget of ${plural(s.conflictLimit, "conflict")}`
+        : `${s.found} found by the CDCL solver in ${plural(s.conflicts, "conflict")}${s.all ? " (all there are)" : ""}`;
+    lines.push(`models: ${found}; also checked: ${plural(r.falsifying, "assignment")} falsifying one clause each, ${r.samples} random`);
   }
   for (const note of r.notes) lines.push(`note: ${note}`);
   return lines;
@@ -115,6 +117,7 @@ export function reportJson(r: VerifyResult): object {
     verified: r.verified, method: r.method, simulator: r.simulator, assignments: r.assignments, models: r.models, non_models: r.nonModels,
     model_search: s ? { method: "cdcl", status: s.status, found: s.found, all: s.all, conflicts: s.conflicts, conflict_limit: s.conflictLimit } : null,
     falsifying: r.falsifying,
+    random_samples: r.samples,
     notes: r.notes,
     counterexample: c ? c.dimacs : null,
     ...(c ? { expected: c.expected, actual: c.actual } : {}),

@@ -71,6 +71,8 @@ export interface VerifyResult {
   readonly modelSearch: ModelSearchReport | null;
   /** Sampled checks: assignments made to falsify one clause each (so that unmarked inputs are checked). */
   readonly falsifying: number;
+  /** Sampled checks: random assignments checked (0 when exhaustive). */
+  readonly samples: number;
   /** The first failing assignment, or null. */
   readonly counterexample: Counterexample | null;
   /** Why the circuit could not even be run against the formula (register sizes), or undefined. */
@@ -126,7 +128,7 @@ export async function verifyOracle(cnf: Cnf, circuit: Circuit, opts: VerifyOptio
   // Word indices are 32-bit in the kernel: 2^36 assignments is the most it can enumerate.
   const limit = Math.min(opts.exhaustiveLimit ?? DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT);
   const n = cnf.variables;
-  const base = { verified: false, assignments: 0, models: 0, nonModels: 0, modelSearch: null, falsifying: 0, counterexample: null, notes: [] } as const;
+  const base = { verified: false, assignments: 0, models: 0, nonModels: 0, modelSearch: null, falsifying: 0, samples: 0, counterexample: null, notes: [] } as const;
   if ((search?.size ?? 0) !== n) {
     return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: `the search register ${search?.name ?? SEARCH_REGISTER} has ${search?.size ?? 0} qubits but the formula declares ${n} variables` };
   }
@@ -217,10 +219,10 @@ function verdict(run: Run, inputs: SampledInputs | null): VerifyResult {
   if (inputs === null) {
     if (run.models === 0) notes.push(NO_MODELS);
     if (nonModels === 0) notes.push(NO_NON_MODELS);
-    return { ...common, verified: run.counterexample === null, method: "exhaustive", modelSearch: null, falsifying: 0, notes };
+    return { ...common, verified: run.counterexample === null, method: "exhaustive", modelSearch: null, falsifying: 0, samples: 0, notes };
   }
   const s = inputs.search;
-  if (s.status === "unsat") notes.push(`${NO_MODELS} (proved by the CDCL solver in ${s.conflicts} conflicts)`);
+  if (s.status === "unsat") notes.push(NO_MODELS);
   if (!inputs.hasNonModels) notes.push(`${NO_NON_MODELS} (every clause holds a literal and its negation)`);
   if (run.models === 0 && s.status !== "unsat") {
     unchecked = s.status === "unknown"
@@ -235,6 +237,7 @@ function verdict(run: Run, inputs: SampledInputs | null): VerifyResult {
     method: "sampled",
     modelSearch: s,
     falsifying: inputs.falsifying,
+    samples: inputs.samples,
     notes,
     ...(unchecked === undefined ? {} : { unchecked }),
   };
