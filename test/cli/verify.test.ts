@@ -133,7 +133,7 @@ describe("clausegate verify --circuit refuses malformed circuits with exit 2 and
     const text = `${head}"gates":[\n{"op":"x","qubits":[5]},\n{"op":"ccx","qubits":[4,5,4]}]}`;
     expectRefused(run("rep.json", text), /rep\.json:3:27: error: expected distinct qubits but qubit 4 appears twice in gate 1 \(ccx\)/);
     const qasm = 'OPENQASM 3.0;\n// Größe ✓\nqubit[4] vars;\nqubit[6] work;\nx vars[1]; ccx vars[0], vars[1], vars[0];\n';
-    expectRefused(run("rep.qasm", qasm), /rep\.qasm:5:35: error: expected distinct qubits but vars\[0\] appears twice; hint: /);
+    expectRefused(run("rep.qasm", qasm), /rep\.qasm:5:34: error: expected distinct qubits but vars\[0\] appears twice; hint: /);
   });
   it("an absurd register size is bad input (exit 2), not an internal error", () => {
     const text = head.replace('"size":6', '"size":1e15') + '"gates":[]}';
