@@ -262,13 +262,61 @@ export class JsonScanner {
     }
     this.pos = p + 1;
     if (!decode) return "";
-    if (!escaped && ascii && p - start < 64) {
-      let s = "";
-      for (let i = start + 1; i < p; i++) s += String.fromCharCode(bytes[i]!);
-      return s;
-    }
+    if (!escaped && ascii && p - start <= 17) return this.short(start + 1, p);
     const raw = utf8.decode(bytes.subarray(start, p + 1));
     return escaped ? (JSON.parse(raw) as string) : raw.slice(1, -1);
+  }
+
+  /**
+   * A short ASCII string from bytes [from, to): keys and gate names repeat on every line of a
+   * circuit file, so they are kept and handed out again instead of being built per gate.
+   */
+  private short(from: number, to: number): string {
+    const bytes = this.bytes;
+    let h = 0x811c9dc5;
+    for (let i = from; i < to; i++) h = Math.imul(h ^ bytes[i]!, 16777619);
+    const hit = this.interned.get(h);
+    if (hit !== undefined && hit.length === to - from) {
+      let same = true;
+      for (let i = 0; i < hit.length && same; i++) same = hit.charCodeAt(i) === bytes[from + i];
+      if (same) return hit;
+    }
+    let s = "";
+    for (let i = from; i < to; i++) s += String.fromCharCode(bytes[i]!);
+    if (this.interned.size < 4096) this.interned.set(h, s);
+    return s;
+  }
+
+  private readonly interned = new Map<number, string>();
+
+  /**
+   * Reads a number's value; whole numbers of up to 15 digits without a fraction or exponent
+   * (every number a circuit file holds) are computed without building their text.
+   */
+  numberValue(): number {
+    const bytes = this.bytes;
+    const start = this.pos;
+    let p = start;
+    const negative = bytes[p] === 0x2d;
+    if (negative) p++;
+    let v = 0;
+    const first = p;
+    if (bytes[p] === 0x30) p++;
+    else while (p - first < 15 && bytes[p]! >= 0x30 && bytes[p]! <= 0x39) v = v * 10 + bytes[p++]! - 0x30;
+    const next = bytes[p];
+    if (p > first && !(next !== undefined && ((next >= 0x30 && next <= 0x39) || next === 0x2e || next === 0x65 || next === 0x45))) {
+      this.pos = p;
+      return negative ? -v : v;
+    }
+    this.pos = start;
+    return Number(this.number());
+  }
+
+  /** The source text of bytes [from, to) (ASCII: numbers, for messages). */
+  text(from: number, to: number): string {
+    let s = "";
+    for (let i = from; i < to; i++) s += String.fromCharCode(this.bytes[i]!);
+    return s;
   }
 
   /** Reads a number's text (RFC 8259 grammar: -?(0|[1-9][0-9]*)(.[0-9]+)?([eE][+-]?[0-9]+)?). */

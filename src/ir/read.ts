@@ -13,7 +13,8 @@ import { CircuitBuilder, SEARCH_REGISTER, type Circuit } from "./circuit.js";
 import { firstInvalidUtf8, JsonScanner, JsonSyntaxError, shownByte, shownValue, type JsonNode } from "./json.js";
 import { GATE_KINDS, K, type GateKind } from "./kinds.js";
 import {
-  checkRegisters, GateChecker, MAX_CIRCUIT_CLBITS, MAX_CIRCUIT_QUBITS, REGISTER_ORDER, validateCircuit, type GateFault, type RegisterFields,
+  checkRegisters, GateChecker, MAX_CIRCUIT_CLBITS, MAX_CIRCUIT_QUBITS, REGISTER_ORDER, validateCircuit, type GateFault, type GateFields,
+  type RegisterFields,
 } from "./validate.js";
 
 /** A circuit read from text, or the diagnostic that rejects it. */
@@ -192,64 +193,161 @@ class JsonCircuitReader {
     return { fields, nodes };
   }
 
-  /** Reads, checks and builds the gates one at a time (no tree of a million gates). */
+  /**
+   * Reads, checks and builds the gates one at a time, straight from the bytes into arrays that
+   * are reused from gate to gate: no tree and no garbage per gate (circuit files hold millions).
+   */
   private gates(sc: JsonScanner, b: CircuitBuilder): void {
     if (sc.peek() !== 0x5b) throw stop(sc.pos, `expected "gates" as a list of gates but found ${shownValue(sc.value(1))}`);
     const checker = new GateChecker(b.qubits, b.clbits);
-    const qubits: number[] = [];
-    const negated: number[] = [];
+    const g = new GateReader(sc);
     const ops: number[] = [];
     sc.items((i) => {
-      const node = sc.value(2);
-      const f = fieldsOf(node, GATE_KEYS, `gate ${i}`);
-      const op = f.op;
-      if (op === undefined) throw stop(node.at, `expected "op", the gate's kind, in gate ${i} but found none`);
-      const kind = op.kind === "string" ? GATE_KINDS.indexOf(op.value as GateKind) : -1;
-      if (kind < 0) throw stop(op.at, `expected a gate kind (${GATE_KINDS.join(" ")}) but found ${shownValue(op)} in gate ${i}`);
-      const name = GATE_KINDS[kind]!;
-      const where = `in gate ${i} (${name})`;
-      const list = (key: "qubits" | "negated", out: number[], what: string, one: string): void => {
-        out.length = 0;
-        const v = f[key];
-        if (v === undefined) {
-          if (key === "qubits") throw stop(node.at, `expected "qubits", the list of qubits, ${where} but found none`);
-          return;
-        }
-        if (v.kind !== "array") throw stop(v.at, `expected "${key}" as a list of ${what} ${where} but found ${shownValue(v)}`);
-        for (const item of v.items) {
-          if (item.kind !== "number") throw stop(item.at, `expected ${one} (a whole number) ${where} but found ${shownValue(item)}`);
-          out.push(item.value);
-        }
-      };
-      list("qubits", qubits, "qubit indices", "a qubit index");
-      list("negated", negated, "control positions", "a control position");
-      const scalar = (key: "angle" | "clbit" | "if"): number | undefined => {
-        const v = f[key];
-        if (v === undefined) return undefined;
-        if (v.kind !== "number") throw stop(v.at, `expected "${key}" as a whole number ${where} but found ${shownValue(v)}`);
-        return v.value;
-      };
-      const angle = scalar("angle");
-      const clbit = scalar("clbit");
-      const cond = scalar("if");
-      const fault = checker.check({ kind: name, qubits, negated, angle, clbit, cond });
-      if (fault !== null) throw stop(faultAt(fault, f, node), `${fault.message} ${where}`);
+      g.read(i);
+      const where = `in gate ${i} (${g.kind})`;
+      const fault = checker.check(g);
+      if (fault !== null) throw stop(g.faultAt(fault), `${fault.message} ${where}`);
       ops.length = 0;
-      for (let k = 0; k < qubits.length; k++) ops.push(qubits[k]! << 1);
-      for (const p of negated) ops[p]! |= 1;
-      if (angle !== undefined) ops.push(angle);
-      if (clbit !== undefined) ops.push(clbit);
-      b.addN(kind, ops, cond ?? -1);
+      for (let k = 0; k < g.qubits.length; k++) ops.push(g.qubits[k]! << 1);
+      for (const p of g.negated) ops[p]! |= 1;
+      if (g.angle !== undefined) ops.push(g.angle);
+      if (g.clbit !== undefined) ops.push(g.clbit);
+      b.addN(K[g.kind], ops, g.cond ?? -1);
     }, 1);
   }
 }
 
-/** The offset a gate fault points at: the element, else the field, else the gate. */
-function faultAt(fault: GateFault, f: Partial<Record<(typeof GATE_KEYS)[number], JsonNode>>, gate: JsonNode): number {
-  const field = f[fault.field];
-  if (field === undefined) return gate.at;
-  if (fault.index >= 0 && field.kind === "array") return field.items[fault.index]?.at ?? field.at;
-  return field.at;
+const OP = 0;
+const QUBITS = 1;
+const NEGATED = 2;
+const ANGLE = 3;
+const CLBIT = 4;
+const IF = 5;
+/** A value of the wrong type, and its message once the gate's kind is known. */
+interface Pending {
+  readonly at: number;
+  readonly message: (where: string) => string;
+}
+const GATE_KEY_INDEX = new Map<string, number>(GATE_KEYS.map((k, i) => [k, i]));
+
+/** One gate of a JSON circuit as read: its fields and where each value (and list element) starts. */
+class GateReader implements GateFields {
+  kind: GateKind = "x";
+  readonly qubits: number[] = [];
+  readonly negated: number[] = [];
+  angle: number | undefined;
+  clbit: number | undefined;
+  cond: number | undefined;
+  private readonly qubitAt: number[] = [];
+  private readonly negatedAt: number[] = [];
+  /** Offset of each field's value, -1 when absent. */
+  private readonly fieldAt = new Float64Array(GATE_KEYS.length);
+  private seen = 0;
+  private index = 0;
+  private gateAt = 0;
+  private opText: string | undefined;
+  private opShown = "";
+  /** The first value of a wrong type, reported once the gate's kind is known. */
+  private pending: Pending | undefined;
+  private list: number[] = this.qubits;
+  private listAt: number[] = this.qubitAt;
+  private listKey: "qubits" | "negated" = "qubits";
+  private readonly member: (key: string, keyAt: number) => void;
+  private readonly element: () => void;
+
+  constructor(private readonly sc: JsonScanner) {
+    this.member = (key, keyAt) => this.field(key, keyAt);
+    this.element = () => {
+      this.sc.peek();
+      const at = this.sc.pos;
+      const byte = this.sc.bytes[at];
+      if (byte === 0x2d || (byte !== undefined && byte >= 0x30 && byte <= 0x39)) {
+        this.list.push(this.sc.numberValue());
+        this.listAt.push(at);
+        return;
+      }
+      const node = this.sc.value(4);
+      const one = this.listKey === "qubits" ? "a qubit index" : "a control position";
+      this.pending ??= { at, message: (where) => `expected ${one} (a whole number) ${where} but found ${shownValue(node)}` };
+    };
+  }
+
+  /** Reads gate `i` (the scanner at its value). */
+  read(i: number): void {
+    const sc = this.sc;
+    this.index = i;
+    sc.peek();
+    this.gateAt = sc.pos;
+    if (sc.bytes[this.gateAt] !== 0x7b) throw stop(this.gateAt, `expected gate ${i} as an object but found ${shownValue(sc.value(2))}`);
+    this.qubits.length = 0;
+    this.negated.length = 0;
+    this.qubitAt.length = 0;
+    this.negatedAt.length = 0;
+    this.fieldAt.fill(-1);
+    this.seen = 0;
+    this.angle = this.clbit = this.cond = undefined;
+    this.opText = undefined;
+    this.pending = undefined;
+    sc.members(this.member, 2);
+    if (this.fieldAt[OP]! < 0) throw stop(this.gateAt, `expected "op", the gate's kind, in gate ${i} but found none`);
+    const kind = this.opText === undefined ? -1 : GATE_KINDS.indexOf(this.opText as GateKind);
+    if (kind < 0) throw stop(this.fieldAt[OP]!, `expected a gate kind (${GATE_KINDS.join(" ")}) but found ${this.opShown} in gate ${i}`);
+    this.kind = GATE_KINDS[kind]!;
+    const where = `in gate ${i} (${this.kind})`;
+    if (this.fieldAt[QUBITS]! < 0) throw stop(this.gateAt, `expected "qubits", the list of qubits, ${where} but found none`);
+    const pending = this.pending as Pending | undefined; // set by the member callbacks
+    if (pending) throw stop(pending.at, pending.message(where));
+  }
+
+  private field(key: string, keyAt: number): void {
+    const sc = this.sc;
+    const k = GATE_KEY_INDEX.get(key);
+    if (k === undefined) throw stop(keyAt, `expected a field of gate ${this.index} (${GATE_KEYS.join(", ")}) but found ${JSON.stringify(key)}`);
+    if ((this.seen >> k) & 1) throw stop(keyAt, `expected each field once but found ${JSON.stringify(key)} again in gate ${this.index}`);
+    this.seen |= 1 << k;
+    sc.peek();
+    const at = sc.pos;
+    this.fieldAt[k] = at;
+    const byte = sc.bytes[at];
+    if (k === OP) {
+      if (byte === 0x22) {
+        this.opText = sc.string();
+        this.opShown = JSON.stringify(this.opText);
+      } else this.opShown = shownValue(sc.value(3));
+      return;
+    }
+    if (k === QUBITS || k === NEGATED) {
+      if (byte === 0x5b) {
+        this.list = k === QUBITS ? this.qubits : this.negated;
+        this.listAt = k === QUBITS ? this.qubitAt : this.negatedAt;
+        this.listKey = k === QUBITS ? "qubits" : "negated";
+        sc.items(this.element, 3);
+        return;
+      }
+      const node = sc.value(3);
+      const what = k === QUBITS ? "qubit indices" : "control positions";
+      this.pending ??= { at, message: (where) => `expected "${key}" as a list of ${what} ${where} but found ${shownValue(node)}` };
+      return;
+    }
+    if (byte === 0x2d || (byte !== undefined && byte >= 0x30 && byte <= 0x39)) {
+      const v = sc.numberValue();
+      if (k === ANGLE) this.angle = v;
+      else if (k === CLBIT) this.clbit = v;
+      else if (k === IF) this.cond = v;
+      return;
+    }
+    const node = sc.value(3);
+    this.pending ??= { at, message: (where) => `expected "${key}" as a whole number ${where} but found ${shownValue(node)}` };
+  }
+
+  /** The offset a fault points at: the list element, else the field, else the gate. */
+  faultAt(fault: GateFault): number {
+    const k = GATE_KEY_INDEX.get(fault.field)!;
+    const at = this.fieldAt[k]!;
+    if (at < 0) return this.gateAt;
+    if (fault.index >= 0 && (k === QUBITS || k === NEGATED)) return (k === QUBITS ? this.qubitAt : this.negatedAt)[fault.index] ?? at;
+    return at;
+  }
 }
 
 // ---- OpenQASM 3 ---------------------------------------------------------------------------

@@ -152,25 +152,30 @@ export function checkRegisters(regs: readonly RegisterFields[], qubits: number):
   return null;
 }
 
-/** One gate of a built circuit, decoded into the fields {@link GateChecker} checks. */
-function fieldsOf(c: Circuit, g: number): GateFields {
-  const kind = GATE_KINDS[c.kind[g]!]!;
-  const ops = operands(c, g);
-  const nq = kind === "gphase" ? 0 : kind === "measure" ? 1 : ops.length;
-  const qubits: number[] = [];
-  const neg: number[] = [];
-  for (let i = 0; i < nq; i++) {
-    qubits.push(qubitOf(ops[i]!));
-    if (negated(ops[i]!)) neg.push(i);
+/** Gates of a built circuit decoded into the fields {@link GateChecker} checks, in arrays reused per gate. */
+class DecodedGate implements GateFields {
+  kind: GateKind = "x";
+  readonly qubits: number[] = [];
+  readonly negated: number[] = [];
+  angle: number | undefined;
+  clbit: number | undefined;
+  cond: number | undefined;
+
+  decode(c: Circuit, g: number): this {
+    const kind = (this.kind = GATE_KINDS[c.kind[g]!]!);
+    const ops = operands(c, g);
+    const nq = kind === "gphase" ? 0 : kind === "measure" ? 1 : ops.length;
+    this.qubits.length = 0;
+    this.negated.length = 0;
+    for (let i = 0; i < nq; i++) {
+      this.qubits.push(qubitOf(ops[i]!));
+      if (negated(ops[i]!)) this.negated.push(i);
+    }
+    this.angle = kind === "gphase" ? (ops.length === 1 ? ops[0]! : NaN) : undefined;
+    this.clbit = kind === "measure" ? (ops.length === 2 ? ops[1]! : NaN) : undefined;
+    this.cond = c.cond[g]! === -1 ? undefined : c.cond[g]!;
+    return this;
   }
-  return {
-    kind,
-    qubits,
-    negated: neg,
-    angle: kind === "gphase" ? (ops.length === 1 ? ops[0]! : NaN) : undefined,
-    clbit: kind === "measure" ? (ops.length === 2 ? ops[1]! : NaN) : undefined,
-    cond: c.cond[g]! === -1 ? undefined : c.cond[g]!,
-  };
 }
 
 /** Returns the first broken invariant of a built circuit, or null. */
@@ -179,10 +184,11 @@ export function validateCircuit(c: Circuit): string | null {
   if (regs !== null) return regs.index < 0 ? regs.message : `register ${regs.index}: ${regs.message}`;
   if (c.opStart.length !== c.gates + 1 || c.kind.length !== c.gates || c.cond.length !== c.gates) return "array lengths disagree with the gate count";
   const checker = new GateChecker(c.qubits, c.clbits);
+  const gate = new DecodedGate();
   for (let g = 0; g < c.gates; g++) {
     const name = GATE_KINDS[c.kind[g]!];
     if (name === undefined) return `gate ${g}: unknown kind ${c.kind[g]}`;
-    const fault = checker.check(fieldsOf(c, g));
+    const fault = checker.check(gate.decode(c, g));
     if (fault !== null) return `gate ${g} (${name}): ${fault.message}`;
   }
   return null;
