@@ -11,7 +11,8 @@
  * - learnt-clause minimization by self-subsumption against reasons (Sorensson & Biere 2009);
  * - phase saving (Pipatsrisawat & Darwiche 2007);
  * - restarts on the Luby sequence (Luby, Sinclair & Zuckerman 1993);
- * - learnt-clause deletion ranked by literal block distance (Audemard & Simon 2009, Glucose).
+ * - learnt-clause deletion ranked by literal block distance (Audemard & Simon 2009, Glucose);
+ * - circular search for a new watch (Gent 2013, "Optimal implementation of watched literals").
  *
  * Everything lives in typed arrays: clauses in one arena of 32-bit words, watch lists as flat
  * (clause, blocker) pairs per literal. Literals are `2 * (v - 1) + sign` for DIMACS variable v
@@ -23,10 +24,15 @@ import { seededRandom } from "../util/random.js";
 /** The outcome of {@link CdclSolver.solve}. */
 export type SolveStatus = "sat" | "unsat" | "unknown";
 
-/** Clause header words: size, flags (bit 0 learnt, bit 1 deleted, bits 2.. literal block distance). */
-const HEADER = 2;
+/**
+ * Clause header words: size, flags (bit 0 learnt, bit 1 deleted, bits 2.. literal block distance),
+ * and where the last search for a new watch stopped (see propagate).
+ */
+const HEADER = 3;
 const LEARNT = 1;
 const DELETED = 2;
+/** The watch list of a literal that watches nothing yet (shared, never written). */
+const NO_WATCHES = new Int32Array(0);
 
 /** Luby sequence term i (1-based): 1 1 2 1 1 2 4 1 1 2 1 1 2 4 8 ... */
 function luby(i: number): number {
@@ -85,13 +91,17 @@ export class CdclSolver {
 
   private levelStamp: Int32Array;
   private stamp = 0;
+  private readonly litStamp: Int32Array;
+  private clauseStamp = 0;
 
   /** `seed` picks the initial phase of every variable (different seeds lead to different models). */
   constructor(variables: number, seed = 1) {
     this.variables = variables;
     const lits = 2 * variables;
     this.litVal = new Int8Array(lits);
-    this.watches = Array.from({ length: lits }, () => new Int32Array(4));
+    // Watch lists are allocated when first used: most literals of a large formula watch little.
+    this.watches = new Array<Int32Array>(lits).fill(NO_WATCHES);
+    this.litStamp = new Int32Array(lits);
     this.watchLen = new Int32Array(lits);
     this.level = new Int32Array(variables);
     this.reason = new Int32Array(variables).fill(-1);
@@ -123,14 +133,19 @@ export class CdclSolver {
     if (!this.ok) return false;
     this.cancelUntil(0);
     const c: number[] = [];
+    // Literals already in c carry this clause's stamp (one pass, even for a clause of 100,000 literals).
+    const s = ++this.clauseStamp;
     for (let i = 0; i < dimacs.length; i++) {
       const d = dimacs[i]!;
       const l = d > 0 ? 2 * (d - 1) : 2 * (-d - 1) + 1;
       const val = this.litVal[l]!;
       if (val === 1) return true; // satisfied at level 0
       if (val === -1) continue; // false at level 0
-      if (c.includes(l ^ 1)) return true; // tautology
-      if (!c.includes(l)) c.push(l);
+      if (this.litStamp[l ^ 1] === s) return true; // tautology
+      if (this.litStamp[l] !== s) {
+        this.litStamp[l] = s;
+        c.push(l);
+      }
     }
     if (c.length === 0) return (this.ok = false);
     if (c.length === 1) {
@@ -288,17 +303,22 @@ export class CdclSolver {
           ws[j++] = first;
           continue;
         }
+        // Look for a new watch circularly from where the last search stopped (Gent 2013): starting
+        // at position 2 every time made a clause of k literals cost O(k^2) as its literals fell.
         const size = mem[cref]!;
         let moved = false;
-        for (let k = 2; k < size; k++) {
+        let k = mem[cref + 2]!;
+        for (let left = size - 2; left > 0; left--) {
           const l = mem[base + k]!;
           if (litVal[l] !== -1) {
             mem[base + 1] = l;
             mem[base + k] = falseLit;
+            mem[cref + 2] = k;
             this.watch(l, cref, first);
             moved = true;
             break;
           }
+          if (++k === size) k = 2;
         }
         if (moved) continue;
         ws[j++] = cref;
@@ -406,6 +426,7 @@ export class CdclSolver {
     const cref = this.memTop;
     this.mem[cref] = c.length;
     this.mem[cref + 1] = lbd > 0 ? LEARNT | (lbd << 2) : 0;
+    this.mem[cref + 2] = 2;
     for (let i = 0; i < c.length; i++) this.mem[cref + HEADER + i] = c[i]!;
     this.memTop += need;
     return cref;
@@ -422,7 +443,7 @@ export class CdclSolver {
     let ws = this.watches[l]!;
     const n = this.watchLen[l]!;
     if (n + 2 > ws.length) {
-      const bigger = new Int32Array(ws.length * 2);
+      const bigger = new Int32Array(Math.max(4, ws.length * 2));
       bigger.set(ws);
       this.watches[l] = ws = bigger;
     }

@@ -150,6 +150,17 @@ describe("the solver on random formulas", () => {
     expect(none.models).toHaveLength(1);
     expect(findModels(cnfFromClauses(2, [[1, -1]]), 5).models).toHaveLength(4);
   });
+  it("handles a clause of 100,000 literals (the models of x1 ∧ ¬x2 ∧ (the long clause) are found and correct)", () => {
+    const n = 100_000;
+    const long = Array.from({ length: n }, (_, i) => (i % 2 === 0 ? i + 1 : -(i + 1)));
+    const cnf = cnfFromClauses(n, [long, [1], [-2]]);
+    const r = findModels(cnf, 3);
+    expect(r.models).toHaveLength(3);
+    for (const m of r.models) expect([satisfies(cnf, m), m[0], m[1]]).toEqual([true, 1, 0]);
+    // With x1 forced true the long clause holds; forcing every literal of it false leaves none.
+    const none = cnfFromClauses(n, [long, ...long.map((l) => [-l])]);
+    expect(findModels(none, 1).status).toBe("unsat");
+  });
   it("different seeds reach different models of a formula with many", () => {
     const cnf = randomKSat(40, 60, 3, 3);
     const firsts = new Set([1, 2, 3, 4, 5, 6].map((seed) => findModels(cnf, 1, { seed }).models[0]!.join("")));
