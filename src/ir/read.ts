@@ -117,6 +117,9 @@ function integerOf(node: JsonNode | undefined, what: string, missingAt: number):
   return node.value;
 }
 
+/** A register's value nodes by field, and its own node (where a missing field is reported). */
+type RegisterNodes = Partial<Record<(typeof REGISTER_KEYS)[number], JsonNode>> & { readonly self: JsonNode };
+
 class JsonCircuitReader {
   constructor(private readonly bytes: Uint8Array, private readonly origin: number) {}
 
@@ -170,11 +173,11 @@ class JsonCircuitReader {
     return b.finish();
   }
 
-  private registers(node: JsonNode | undefined, objectAt: number): { fields: RegisterFields[]; nodes: (Partial<Record<(typeof REGISTER_KEYS)[number], JsonNode>> & { self: JsonNode })[] } {
+  private registers(node: JsonNode | undefined, objectAt: number): { fields: RegisterFields[]; nodes: RegisterNodes[] } {
     if (node === undefined) throw stop(objectAt, `expected "registers" but found none`);
     if (node.kind !== "array") throw stop(node.at, `expected "registers" as a list of registers but found ${shownValue(node)}`);
     const fields: RegisterFields[] = [];
-    const nodes: (Partial<Record<(typeof REGISTER_KEYS)[number], JsonNode>> & { self: JsonNode })[] = [];
+    const nodes: RegisterNodes[] = [];
     for (const item of node.items) {
       const f = fieldsOf(item, REGISTER_KEYS, "a register");
       const text = (key: "name" | "role"): string => {
