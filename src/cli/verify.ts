@@ -2,56 +2,73 @@
 import { readFile } from "node:fs/promises";
 import { parseArgs } from "node:util";
 import {
-  compileOracle, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, verifyOracle,
+  compileOracle, DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, verifyOracle,
   type Circuit, type Cnf, type VerifyResult,
 } from "../index.js";
 import { checkCircuitSize, displayName, loadCnf, progress, UserError } from "./io.js";
 import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
 import { oracleOptions } from "./oracle.js";
 
-export const verifyHelp = `Usage: clausegate verify FILE.cnf [--circuit CIRCUIT] [options]
+export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT [--kind phase|flag]] [options]
 
 Checks that a circuit is an oracle for the formula: for every checked assignment x, the phase
 (or the target bit) equals f(x), every work qubit is back to |0>, the search register is
 unchanged and there is no stray phase. Without --circuit, compiles the formula with the given
 oracle options and checks the result. With it, reads a circuit clausegate wrote (JSON, or
-OpenQASM 3 as clausegate emits it).
+OpenQASM 3 as clausegate emits it), after checking every field of every gate; only --kind of the
+oracle options applies then (the others shape a compilation, and are refused).
 
 All 2^n assignments are checked when n is at most the exhaustive limit (the bit-parallel
-simulator, for mcx and toffoli circuits); above it, a seeded sample plus satisfying assignments
-found by a quick local search. Clifford+T circuits run in the exact state-vector simulator,
-exhaustively up to 12 variables.
+simulator, for mcx and toffoli circuits; the exact state-vector simulator, for Clifford+T
+circuits, up to 12 variables). Above it the check is sampled: satisfying assignments found by a
+CDCL solver (which also proves a formula unsatisfiable), assignments that falsify one clause
+each, and a seeded random sample. "verified" needs both satisfying and falsifying assignments
+checked, unless the formula has none of one kind; otherwise the exit code is 1 and the reason is
+printed.
 
 Options:
   --circuit FILE              the circuit to check (.json or OpenQASM 3)
 ${ORACLE_HELP}
+                              (--strategy, --basis, --uncompute, --no-optimize and
+                              --check-passes apply only without --circuit)
   --exhaustive-limit N        check every assignment up to N variables (default ${DEFAULT_EXHAUSTIVE_LIMIT}, at most ${MAX_EXHAUSTIVE_LIMIT})
-  --samples K                 assignments to sample above the limit (default 4096; 256 for state vectors)
-  --seed S                    seed for samples and measurement outcomes (default 1)
-  --json                      print {"verified":..,"method":..,"assignments":..,"counterexample":..}
+  --samples K                 random assignments to sample above the limit (default 4096; 256 for state vectors)
+  --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
+  --conflict-limit N          conflicts the solver may spend finding them (default ${DEFAULT_CONFLICT_LIMIT})
+  --seed S                    seed for samples, the solver and measurement outcomes (default 1)
+  --json                      print the result as one JSON object
   -h, --help                  show this help
 
-Exit codes: 0 verified, 1 a mismatch (the first counterexample is printed), 2 bad input.
+Exit codes: 0 verified, 1 not verified (a mismatch, with the first counterexample printed, or a
+kind of input left unchecked, with the reason), 2 bad input or usage.
 `;
 
 export interface VerifyFlags {
   exhaustiveLimit: number;
   samples?: number;
+  models?: number;
+  conflictLimit?: number;
   seed: number;
 }
 
 export const VERIFY_ARGS = {
   "exhaustive-limit": { type: "string" },
   samples: { type: "string" },
+  models: { type: "string" },
+  "conflict-limit": { type: "string" },
   seed: { type: "string" },
 } as const;
 
 export function verifyFlags(values: Record<string, string | boolean | undefined>): VerifyFlags {
   const str = (k: string): string | undefined => values[k] as string | undefined;
   const samples = intOption(str("samples"), "--samples", 1, 1 << 24);
+  const models = intOption(str("models"), "--models", 1, 1 << 16);
+  const conflictLimit = intOption(str("conflict-limit"), "--conflict-limit", 0, 2 ** 31 - 1);
   return {
     exhaustiveLimit: intOption(str("exhaustive-limit"), "--exhaustive-limit", 0, MAX_EXHAUSTIVE_LIMIT) ?? DEFAULT_EXHAUSTIVE_LIMIT,
     ...(samples === undefined ? {} : { samples }),
+    ...(models === undefined ? {} : { models }),
+    ...(conflictLimit === undefined ? {} : { conflictLimit }),
     seed: intOption(str("seed"), "--seed", 0, 2 ** 31 - 1) ?? 1,
   };
 }
@@ -66,14 +83,51 @@ export async function runVerification(cnf: Cnf, circuit: Circuit, flags: VerifyF
   }
 }
 
+const plural = (k: number, one: string, many = `${one}s`): string => `${k} ${k === 1 ? one : many}`;
+
 /** Human-readable lines for a result. */
 export function reportLines(r: VerifyResult, file: string): string[] {
   if (r.problem) return [`${displayName(file)}: not an oracle for this formula: ${r.problem}`];
-  const how = `${r.method} (${r.assignments} assignment${r.assignments === 1 ? "" : "s"}, ${r.simulator} simulator)`;
-  if (r.verified) return [`verified: ${how}; ${r.models} satisfying`];
-  const c = r.counterexample!;
-  return [`mismatch: ${how}`, `counterexample: ${c.dimacs}`, `expected: ${c.expected}`, `circuit:  ${c.actual}`];
+  const how = `${r.method} (${plural(r.assignments, "assignment")}, ${r.simulator} simulator)`;
+  const counts = `${r.models} satisfying, ${r.nonModels} not`;
+  const lines: string[] = [];
+  if (r.counterexample) {
+    const c = r.counterexample;
+    lines.push(`mismatch: ${how}`, `counterexample: ${c.dimacs}`, `expected: ${c.expected}`, `circuit:  ${c.actual}`);
+  } else if (r.verified) lines.push(`verified: ${how}; ${counts}`);
+  else lines.push(`not verified: ${how}; ${counts}`, `reason: ${r.unchecked}${/budget/.test(r.unchecked ?? "") ? "; hint: raise --conflict-limit" : ""}`);
+  const s = r.modelSearch;
+  if (s) {
+    const found = s.status === "unsat"
+      ? `none, as the CDCL solver proved in ${plural(s.conflicts, "conflict")}`
+      : s.status === "unknown"
+        ? `none found by the CDCL solver within its budget of ${plural(s.conflictLimit, "conflict")}`
+        : `${s.found} found by the CDCL solver in ${plural(s.conflicts, "conflict")}${s.all ? " (all there are)" : ""}`;
+    lines.push(`models: ${found}; also checked: ${plural(r.falsifying, "assignment")} falsifying one clause each, ${r.samples} random`);
+  }
+  for (const note of r.notes) lines.push(`note: ${note}`);
+  return lines;
 }
+
+/** The result as one JSON object (snake_case keys). */
+export function reportJson(r: VerifyResult): object {
+  const c = r.counterexample;
+  const s = r.modelSearch;
+  return {
+    verified: r.verified, method: r.method, simulator: r.simulator, assignments: r.assignments, models: r.models, non_models: r.nonModels,
+    model_search: s ? { method: "cdcl", status: s.status, found: s.found, all: s.all, conflicts: s.conflicts, conflict_limit: s.conflictLimit } : null,
+    falsifying: r.falsifying,
+    random_samples: r.samples,
+    notes: r.notes,
+    counterexample: c ? c.dimacs : null,
+    ...(c ? { expected: c.expected, actual: c.actual } : {}),
+    ...(r.unchecked ? { unchecked: r.unchecked } : {}),
+    ...(r.problem ? { problem: r.problem } : {}),
+  };
+}
+
+/** Oracle options that shape a compilation: meaningless when the circuit is given. */
+const COMPILE_ONLY = ["strategy", "basis", "uncompute", "no-optimize", "check-passes"] as const;
 
 export async function verifyCommand(argv: string[]): Promise<number> {
   const { values, positionals } = parseArgs({
@@ -86,43 +140,40 @@ export async function verifyCommand(argv: string[]): Promise<number> {
     return 0;
   }
   const file = oneInput(positionals, "verify");
-  const flags = verifyFlags(values);
-  const cnf = await loadCnf(file);
-  checkCircuitSize(cnf, file, "verify");
-  let circuit: Circuit;
-  let kind: "phase" | "flag" | undefined;
   if (values.circuit !== undefined) {
-    circuit = await loadCircuit(values.circuit);
+    const ignored = COMPILE_ONLY.find((k) => values[k] !== undefined);
+    if (ignored !== undefined) {
+      throw new UserError(`clausegate verify: error: --${ignored} shapes the oracle that verify compiles, and --circuit gives the circuit instead; hint: drop --${ignored}, or drop --circuit to compile and check`);
+    }
+  }
+  const flags = verifyFlags(values);
+  let kind: "phase" | "flag" | undefined;
+  let options: ReturnType<typeof oracleOptions> | undefined;
+  if (values.circuit !== undefined) {
     if (values.kind !== undefined) kind = choice(values.kind, "--kind", ["phase", "flag"] as const, "phase");
   } else {
-    const o = oracleOptions(values);
-    circuit = compileOracle(cnf, o).circuit;
-    kind = o.kind;
+    options = oracleOptions(values);
+    kind = options.kind;
   }
+  const cnf = await loadCnf(file);
+  checkCircuitSize(cnf, file, "verify");
+  const circuit = options === undefined ? await loadCircuit(values.circuit!) : compileOracle(cnf, options).circuit;
   const r = await runVerification(cnf, circuit, flags, kind);
-  if (values.json) {
-    const c = r.counterexample;
-    process.stdout.write(`${JSON.stringify({
-      verified: r.verified, method: r.method, simulator: r.simulator, assignments: r.assignments, models: r.models,
-      counterexample: c ? c.dimacs : null, ...(c ? { expected: c.expected, actual: c.actual } : {}), ...(r.problem ? { problem: r.problem } : {}),
-    })}\n`);
-  } else {
-    process.stdout.write(`${reportLines(r, values.circuit ?? file).join("\n")}\n`);
-  }
+  if (values.json) process.stdout.write(`${JSON.stringify(reportJson(r))}\n`);
+  else process.stdout.write(`${reportLines(r, values.circuit ?? file).join("\n")}\n`);
   return r.verified ? 0 : 1;
 }
 
 async function loadCircuit(path: string): Promise<Circuit> {
-  let text: string;
+  let bytes: Uint8Array;
   try {
-    text = await readFile(path, "utf8");
-  } catch {
-    throw new UserError(`${path}: error: cannot read the circuit; check the path`);
+    bytes = await readFile(path);
+  } catch (e) {
+    const code = (e as { code?: string }).code;
+    const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a directory" : code === "EACCES" ? "permission denied" : code ?? "unreadable";
+    throw new UserError(`clausegate verify: error: cannot read the circuit ${path} (${why}); hint: check the path given to --circuit`);
   }
-  if (/^\s*OPENQASM\s+2/.test(text)) {
-    throw new UserError(`${path}:1:1: error: expected OpenQASM 3 or clausegate JSON but found OpenQASM 2.0; hint: verify the OpenQASM 3 or JSON form of the oracle`);
-  }
-  const { circuit, diagnostics } = readCircuit(text);
-  if (circuit === undefined) throw new UserError(diagnostics.map((d) => formatDiagnostic(d, path)).join("\n"));
+  const { circuit, diagnostics } = readCircuit(bytes);
+  if (circuit === undefined) throw new UserError(formatDiagnostic(diagnostics[0]!, path));
   return circuit;
 }

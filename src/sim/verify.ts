@@ -9,8 +9,8 @@ import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
 import type { Cnf } from "../cnf/cnf.js";
 import { evaluate } from "../cnf/evaluate.js";
-import { findModels } from "../cnf/findModels.js";
-import type { Circuit } from "../ir/circuit.js";
+import { DEFAULT_CONFLICT_LIMIT, findModels } from "../cnf/findModels.js";
+import { SEARCH_REGISTER, type Circuit } from "../ir/circuit.js";
 import { compileBitProgram, newBlock, runBlock, type BitProgram } from "./bitsim.js";
 import { checkOracleSparse } from "./check.js";
 import { hash3, runVerifyRange, sampleBit, type RangeResult, type VerifyJob } from "./verifyKernel.js";
@@ -23,7 +23,11 @@ export interface VerifyOptions {
   readonly exhaustiveLimit?: number;
   /** Random assignments to check when sampling (default 4096 bit-parallel, 256 state-vector). */
   readonly samples?: number;
-  /** Seed for samples and measurement outcomes (default 1). */
+  /** Most satisfying assignments the solver looks for when sampling (default 64 bit-parallel, 16 state-vector). */
+  readonly models?: number;
+  /** Conflicts the solver may spend looking for them (default 1,000,000). */
+  readonly conflictLimit?: number;
+  /** Seed for samples, the solver's phases and measurement outcomes (default 1). */
   readonly seed?: number;
   /** Worker threads (default: the number of cores). */
   readonly threads?: number;
@@ -31,9 +35,27 @@ export interface VerifyOptions {
   readonly onProgress?: (fraction: number) => void;
 }
 
+/** How the satisfying assignments of a sampled check were found: the CDCL solver (solve.ts). */
+export interface ModelSearchReport {
+  /** "sat": models found; "unsat": the solver proved there are none; "unknown": its budget ran out first. */
+  readonly status: "sat" | "unsat" | "unknown";
+  /** Distinct models the solver found and the check included. */
+  readonly found: number;
+  /** True when they are all the formula has. */
+  readonly all: boolean;
+  /** Conflicts the solver spent. */
+  readonly conflicts: number;
+  /** Its conflict budget. */
+  readonly conflictLimit: number;
+}
+
 /** What {@link verifyOracle} found. */
 export interface VerifyResult {
-  /** True when every check passed. */
+  /**
+   * True when every check passed and both kinds of input were checked: at least one satisfying
+   * assignment (unless the formula is unsatisfiable) and at least one other (unless every
+   * assignment satisfies the formula).
+   */
   readonly verified: boolean;
   /** `exhaustive` (all 2^n assignments) or `sampled`. */
   readonly method: "exhaustive" | "sampled";
@@ -43,10 +65,22 @@ export interface VerifyResult {
   readonly assignments: number;
   /** Checked assignments that satisfy the formula (all models when exhaustive). */
   readonly models: number;
+  /** Checked assignments that do not satisfy it. */
+  readonly nonModels: number;
+  /** Sampled checks: how the satisfying assignments were found; null when exhaustive. */
+  readonly modelSearch: ModelSearchReport | null;
+  /** Sampled checks: assignments made to falsify one clause each (so that unmarked inputs are checked). */
+  readonly falsifying: number;
+  /** Sampled checks: random assignments checked (0 when exhaustive). */
+  readonly samples: number;
   /** The first failing assignment, or null. */
   readonly counterexample: Counterexample | null;
   /** Why the circuit could not even be run against the formula (register sizes), or undefined. */
   readonly problem?: string;
+  /** Why no mismatch was found and yet the circuit is not verified (a kind of input left unchecked), or undefined. */
+  readonly unchecked?: string;
+  /** Facts about the formula that explain the counts: no models, or no assignment that is not one. */
+  readonly notes: readonly string[];
 }
 
 /** A failing assignment and what went wrong there. */
@@ -67,8 +101,15 @@ export const MAX_EXHAUSTIVE_LIMIT = 36;
 export const DEFAULT_EXHAUSTIVE_LIMIT = 26;
 /** The state-vector simulator checks all assignments up to this many variables only. */
 const STATE_VECTOR_EXHAUSTIVE = 12;
+/** Assignments made to falsify one clause each, per sampled check. */
+const FALSIFYING = 32;
+/** Bytes of simulator state per block (all threads together stay within a few of these). */
+const BLOCK_BYTES = 64 << 20;
 
 const dimacsOf = (a: boolean[]): string => `${a.map((on, v) => (on ? v + 1 : -(v + 1))).join(" ")}${a.length ? " " : ""}0`;
+
+const NO_MODELS = "no models: the formula is unsatisfiable";
+const NO_NON_MODELS = "no unmarked inputs: every assignment satisfies the formula";
 
 /**
  * Verifies `circuit` as an oracle for `cnf`.
@@ -76,48 +117,158 @@ const dimacsOf = (a: boolean[]): string => `${a.map((on, v) => (on ? v + 1 : -(v
  * @example
  * ```ts
  * const r = await verifyOracle(cnf, compileOracle(cnf).circuit);
- * if (!r.verified) console.log(r.counterexample?.dimacs);
+ * if (!r.verified) console.log(r.counterexample?.dimacs ?? r.unchecked ?? r.problem);
  * ```
  */
 export async function verifyOracle(cnf: Cnf, circuit: Circuit, opts: VerifyOptions = {}): Promise<VerifyResult> {
   const reg = (role: string) => circuit.registers.find((r) => r.role === role);
   const kind = opts.kind ?? (reg("target")?.size ? "flag" : "phase");
-  const search = reg("search")?.size ?? 0;
+  const search = reg("search");
   const seed = opts.seed ?? 1;
   // Word indices are 32-bit in the kernel: 2^36 assignments is the most it can enumerate.
   const limit = Math.min(opts.exhaustiveLimit ?? DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT);
   const n = cnf.variables;
-  const base = { verified: false, assignments: 0, models: 0, counterexample: null } as const;
-  if (search !== n) {
-    return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: `the search register x has ${search} qubits but the formula declares ${n} variables` };
+  const base = { verified: false, assignments: 0, models: 0, nonModels: 0, modelSearch: null, falsifying: 0, samples: 0, counterexample: null, notes: [] } as const;
+  if ((search?.size ?? 0) !== n) {
+    return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: `the search register ${search?.name ?? SEARCH_REGISTER} has ${search?.size ?? 0} qubits but the formula declares ${n} variables` };
   }
   if (kind === "flag" && reg("target")?.size !== 1) {
     return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: "a flag oracle needs a target register of one qubit" };
   }
   const program = compileBitProgram(circuit);
-  if ("unsupported" in program) return stateVector(cnf, circuit, kind, limit, opts, seed);
-  const exhaustive = n <= limit;
-  const models = exhaustive ? new Uint8Array(0) : flatten(findModels(cnf, 256, seed), n);
-  const modelCount = exhaustive ? 0 : models.length / Math.max(1, n);
-  const samples = exhaustive ? 0 : (opts.samples ?? 4096);
-  const totalWords = exhaustive ? (n >= 5 ? 2 ** (n - 5) : 1) : Math.ceil((samples + modelCount) / 32);
+  const stateVector = "unsupported" in program;
+  const exhaustive = n <= (stateVector ? Math.min(limit, STATE_VECTOR_EXHAUSTIVE) : limit);
+  const inputs = exhaustive ? null : sampledInputs(cnf, opts, seed, stateVector);
+  const run = stateVector ? runStateVector(cnf, circuit, kind, inputs, opts, seed) : await runBitParallel(cnf, circuit, program, kind, inputs, opts, seed);
+  return verdict(run, inputs);
+}
+
+/** What one simulator run found, before the verdict. */
+interface Run {
+  readonly simulator: "bit-parallel" | "state-vector";
+  readonly assignments: number;
+  readonly models: number;
+  readonly counterexample: Counterexample | null;
+}
+
+/** The assignments of a sampled check besides the random ones: solver models, then clause-falsifying ones. */
+interface SampledInputs {
+  readonly samples: number;
+  readonly explicit: Uint8Array[];
+  readonly search: ModelSearchReport;
+  readonly falsifying: number;
+  /** False when no assignment falsifies the formula (every clause is a tautology). */
+  readonly hasNonModels: boolean;
+}
+
+function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector: boolean): SampledInputs {
+  const conflictLimit = opts.conflictLimit ?? DEFAULT_CONFLICT_LIMIT;
+  const found = findModels(cnf, opts.models ?? (stateVector ? 16 : 64), { seed, conflictLimit });
+  const search: ModelSearchReport = { status: found.status, found: found.models.length, all: found.all, conflicts: found.conflicts, conflictLimit };
+  const { clauses, hasNonModels } = falsifiable(cnf);
+  // Each assignment falsifies one clause and, where a model was found, agrees with it elsewhere:
+  // an input just outside the marked set, where an oracle that mishandles one clause goes wrong.
+  const falsifying: Uint8Array[] = [];
+  const count = Math.min(FALSIFYING, clauses.length);
+  for (let j = 0; j < count; j++) {
+    const i = clauses[Math.floor((j * clauses.length) / count)]!;
+    const a = found.models.length > 0 ? found.models[j % found.models.length]!.slice() : Uint8Array.from({ length: cnf.variables }, (_, v) => hash3(seed, -1 - j, v) & 1);
+    for (let k = cnf.clauseStart[i]!; k < cnf.clauseStart[i + 1]!; k++) {
+      const l = cnf.lits[k]!;
+      a[Math.abs(l) - 1] = l > 0 ? 0 : 1;
+    }
+    falsifying.push(a);
+  }
+  return {
+    samples: opts.samples ?? (stateVector ? 256 : 4096),
+    explicit: [...found.models, ...falsifying],
+    search,
+    falsifying: falsifying.length,
+    hasNonModels,
+  };
+}
+
+/** Clauses that some assignment falsifies (those without a literal and its negation). */
+function falsifiable(cnf: Cnf): { clauses: number[]; hasNonModels: boolean } {
+  const clauses: number[] = [];
+  const mark = new Int32Array(cnf.variables + 1);
+  const m = cnf.clauseStart.length - 1;
+  for (let i = 0; i < m; i++) {
+    let tautology = false;
+    for (let k = cnf.clauseStart[i]!; k < cnf.clauseStart[i + 1]!; k++) {
+      const l = cnf.lits[k]!;
+      const v = Math.abs(l);
+      const want = l > 0 ? i + 1 : -(i + 1);
+      if (mark[v] === -want) tautology = true;
+      else mark[v] = want;
+    }
+    if (!tautology) clauses.push(i);
+  }
+  return { clauses, hasNonModels: clauses.length > 0 };
+}
+
+/**
+ * Verified only when there was no mismatch and both kinds of input were checked, or the formula
+ * is shown to have none of one kind: checking only unmarked inputs proves nothing about marking.
+ */
+function verdict(run: Run, inputs: SampledInputs | null): VerifyResult {
+  const nonModels = run.assignments - run.models;
+  const notes: string[] = [];
+  let unchecked: string | undefined;
+  const common = { simulator: run.simulator, assignments: run.assignments, models: run.models, nonModels, counterexample: run.counterexample };
+  if (inputs === null) {
+    if (run.models === 0) notes.push(NO_MODELS);
+    if (nonModels === 0) notes.push(NO_NON_MODELS);
+    return { ...common, verified: run.counterexample === null, method: "exhaustive", modelSearch: null, falsifying: 0, samples: 0, notes };
+  }
+  const s = inputs.search;
+  if (s.status === "unsat") notes.push(NO_MODELS);
+  if (!inputs.hasNonModels) notes.push(`${NO_NON_MODELS} (every clause holds a literal and its negation)`);
+  if (run.models === 0 && s.status !== "unsat") {
+    unchecked = s.status === "unknown"
+      ? `no satisfying assignment was checked: the CDCL solver spent its budget of ${s.conflictLimit} conflicts without finding one or proving that there is none`
+      : "no satisfying assignment was checked";
+  } else if (nonModels === 0 && inputs.hasNonModels) {
+    unchecked = "no assignment that falsifies the formula was checked";
+  }
+  return {
+    ...common,
+    verified: run.counterexample === null && unchecked === undefined,
+    method: "sampled",
+    modelSearch: s,
+    falsifying: inputs.falsifying,
+    samples: inputs.samples,
+    notes,
+    ...(unchecked === undefined ? {} : { unchecked }),
+  };
+}
+
+async function runBitParallel(
+  cnf: Cnf, circuit: Circuit, program: BitProgram, kind: "phase" | "flag", inputs: SampledInputs | null, opts: VerifyOptions, seed: number,
+): Promise<Run> {
+  const n = cnf.variables;
+  const reg = (role: string) => circuit.registers.find((r) => r.role === role);
+  const models = inputs === null ? new Uint8Array(0) : flatten(inputs.explicit, n);
+  const modelCount = inputs === null ? 0 : inputs.explicit.length;
+  const samples = inputs === null ? 0 : inputs.samples;
+  const totalWords = inputs === null ? (n >= 5 ? 2 ** (n - 5) : 1) : Math.ceil((samples + modelCount) / 32);
   const work = reg("work");
+  // Words per block: 64, or fewer when a block of that many words over every qubit would be large.
+  const perWord = 4 * (program.qubits + program.clbits);
+  const blockWords = Math.max(1, Math.min(64, totalWords, Math.floor(BLOCK_BYTES / Math.max(1, perWord))));
   const job: VerifyJob = {
     program, variables: n, lits: cnf.lits, clauseStart: cnf.clauseStart, kind,
     target: kind === "flag" ? reg("target")!.start : -1,
     workStart: work?.start ?? 0, workEnd: (work?.start ?? 0) + (work?.size ?? 0),
-    seed, mode: exhaustive ? "exhaustive" : "sampled",
-    blockWords: Math.min(64, totalWords), fromWord: 0, toWord: totalWords, samples, models, modelCount,
+    seed, mode: inputs === null ? "exhaustive" : "sampled",
+    blockWords, fromWord: 0, toWord: totalWords, samples, models, modelCount,
   };
   const result = await runJob(job, totalWords, opts);
-  const counterexample = result.firstBad < 0 ? null : describe(job, circuit, result.firstBad);
   return {
-    verified: result.bad === 0,
-    method: job.mode,
     simulator: "bit-parallel",
     assignments: result.checked,
     models: result.models,
-    counterexample,
+    counterexample: result.firstBad < 0 ? null : describe(job, circuit, result.firstBad),
   };
 }
 
@@ -177,9 +328,7 @@ function describe(job: VerifyJob, c: Circuit, lane: number): Counterexample {
     const r = c.registers.find((x) => q >= x.start && q < x.start + x.size)!;
     return `${r.name}[${q - r.start}]`;
   };
-  const expected = job.kind === "phase"
-    ? `phase ${f ? "-1" : "+1"} (the formula is ${f ? "" : "not "}satisfied), every work qubit back to |0>`
-    : `target flipped ${f ? "" : "not "}(the formula is ${f ? "" : "not "}satisfied), every work qubit back to |0>`;
+  const expected = expectation(job.kind, f);
   const word = Math.floor(lane / 32);
   const bit = lane % 32;
   const problems: string[] = [];
@@ -205,41 +354,41 @@ function describe(job: VerifyJob, c: Circuit, lane: number): Counterexample {
 }
 
 /** Circuits with S, T, or other non-classical gates: the exact state-vector simulator. */
-function stateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", limit: number, opts: VerifyOptions, seed: number): VerifyResult {
+function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inputs: SampledInputs | null, opts: VerifyOptions, seed: number): Run {
   const n = cnf.variables;
-  const exhaustive = n <= Math.min(limit, STATE_VECTOR_EXHAUSTIVE);
   const list: number[] = [];
   const assignments: boolean[][] = [];
-  if (exhaustive) for (let x = 0; x < 2 ** n; x++) list.push(x);
-  const samples = exhaustive ? [] : [...findModels(cnf, 32, seed).map((m) => Array.from(m, (b) => b === 1))];
-  if (!exhaustive) {
-    const k = opts.samples ?? 256;
-    for (let s = 0; s < k; s++) samples.push(Array.from({ length: n }, (_, v) => (hash3(seed, s, v) & 1) === 1));
-    assignments.push(...samples);
+  if (inputs === null) for (let x = 0; x < 2 ** n; x++) list.push(x);
+  else {
+    for (const a of inputs.explicit) assignments.push(Array.from(a, (b) => b === 1));
+    for (let s = 0; s < inputs.samples; s++) assignments.push(Array.from({ length: n }, (_, v) => (hash3(seed, s, v) & 1) === 1));
   }
-  const total = exhaustive ? list.length : assignments.length;
+  const total = inputs === null ? list.length : assignments.length;
   let models = 0;
   for (let i = 0; i < total; i++) {
-    const a = exhaustive ? Array.from({ length: n }, (_, v) => Math.floor(list[i]! / 2 ** v) % 2 === 1) : assignments[i]!;
+    const a = inputs === null ? Array.from({ length: n }, (_, v) => Math.floor(list[i]! / 2 ** v) % 2 === 1) : assignments[i]!;
     if (evaluate(cnf, a)) models++;
   }
   const seeds = [seed, seed + 1];
   for (const s of seeds) {
-    const bad = checkOracleSparse(circuit, cnf, { kind, seed: s, assignments: exhaustive ? list : [], explicit: exhaustive ? undefined : assignments });
+    const bad = checkOracleSparse(circuit, cnf, { kind, seed: s, assignments: list, explicit: inputs === null ? undefined : assignments });
     opts.onProgress?.((s - seed + 1) / seeds.length);
     if (bad !== null) {
       const f = evaluate(cnf, bad.assignment);
       return {
-        verified: false, method: exhaustive ? "exhaustive" : "sampled", simulator: "state-vector", assignments: total, models,
-        counterexample: {
-          assignment: bad.assignment, dimacs: dimacsOf(bad.assignment),
-          expected: kind === "phase" ? `phase ${f ? "-1" : "+1"} (the formula is ${f ? "" : "not "}satisfied), every work qubit back to |0>` : `target flipped ${f ? "" : "not "}(the formula is ${f ? "" : "not "}satisfied), every work qubit back to |0>`,
-          actual: bad.message,
-        },
+        simulator: "state-vector", assignments: total, models,
+        counterexample: { assignment: bad.assignment, dimacs: dimacsOf(bad.assignment), expected: expectation(kind, f), actual: bad.message },
       };
     }
   }
-  return { verified: true, method: exhaustive ? "exhaustive" : "sampled", simulator: "state-vector", assignments: total, models, counterexample: null };
+  return { simulator: "state-vector", assignments: total, models, counterexample: null };
+}
+
+/** What the oracle should do on an assignment with formula value f. */
+function expectation(kind: "phase" | "flag", f: boolean): string {
+  return kind === "phase"
+    ? `phase ${f ? "-1" : "+1"} (the formula is ${f ? "" : "not "}satisfied), every work qubit back to |0>`
+    : `target flipped ${f ? "" : "not "}(the formula is ${f ? "" : "not "}satisfied), every work qubit back to |0>`;
 }
 
 export type { BitProgram };

@@ -1,9 +1,9 @@
 // clausegate verify and oracle --verify, run as a user would.
 import { mkdtempSync, readFileSync, writeFileSync, existsSync } from "node:fs";
 import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { join, resolve } from "node:path";
 import { describe, expect, it } from "vitest";
-import { cli } from "../helpers/cli.js";
+import { cli, ROOT, type Run } from "../helpers/cli.js";
 
 const dir = mkdtempSync(join(tmpdir(), "clausegate-verify-"));
 
@@ -11,12 +11,15 @@ describe("clausegate verify", () => {
   it("compiles and verifies with exit 0, exhaustively, and counts the models", () => {
     const r = cli(["verify", "examples/launch-rota.cnf", "--strategy", "lean", "--uncompute", "measured"]);
     expect(r.code).toBe(0);
-    expect(r.stdout).toBe("verified: exhaustive (4096 assignments, bit-parallel simulator); 49 satisfying\n");
+    expect(r.stdout).toBe("verified: exhaustive (4096 assignments, bit-parallel simulator); 49 satisfying, 4047 not\n");
   });
   it("prints JSON with --json", () => {
     const r = cli(["verify", "examples/allotment-row.cnf", "--json", "--basis", "clifford+t"]);
     expect(r.code).toBe(0);
-    expect(JSON.parse(r.stdout)).toEqual({ verified: true, method: "exhaustive", simulator: "state-vector", assignments: 4096, models: 4, counterexample: null });
+    expect(JSON.parse(r.stdout)).toEqual({
+      verified: true, method: "exhaustive", simulator: "state-vector", assignments: 4096, models: 4, non_models: 4092,
+      model_search: null, falsifying: 0, random_samples: 0, notes: [], counterexample: null,
+    });
   });
   it("verifies a circuit file in OpenQASM 3 and in JSON", () => {
     for (const format of ["qasm3", "json"]) {
@@ -49,7 +52,8 @@ describe("clausegate verify", () => {
     writeFileSync(out, 'OPENQASM 3.0;\ninclude "stdgates.inc";\nqubit[4] vars;\nqubit[1] work;\n  ccx vars[0], vars[9], work[0];\n');
     const r = cli(["verify", "examples/allotment-pair.cnf", "--circuit", out]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/malformed\.qasm:5:3: error: expected a declared qubit but found 'vars\[9\]'; hint: /);
+    expect(r.stderr).toMatch(/^[^\n]*malformed\.qasm:5:16: error: expected a declared qubit but found 'vars\[9\]'; hint: [^\n]*\n$/);
+    expect(r.stdout).toBe("");
   });
   it("refuses OpenQASM 2 input with exit 2", () => {
     const out = join(dir, "old.qasm");
@@ -63,11 +67,127 @@ describe("clausegate verify", () => {
     cli(["oracle", "examples/allotment-pair.cnf", "--format", "json", "-o", out]);
     const r = cli(["verify", "examples/launch-rota.cnf", "--circuit", out]);
     expect(r.code).toBe(1);
-    expect(r.stdout).toMatch(/not an oracle for this formula: the search register x has 4 qubits but the formula declares 12 variables/);
+    expect(r.stdout).toMatch(/not an oracle for this formula: the search register vars has 4 qubits but the formula declares 12 variables/);
   });
   it("samples above --exhaustive-limit and says so", () => {
-    const r = cli(["verify", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--json"]);
-    expect(JSON.parse(r.stdout)).toMatchObject({ verified: true, method: "sampled" });
+    const r = cli(["verify", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--models", "5", "--json"]);
+    expect(r.code).toBe(0);
+    const json = JSON.parse(r.stdout);
+    expect(json).toMatchObject({ verified: true, method: "sampled", random_samples: 500, model_search: { method: "cdcl", status: "sat", found: 5, all: false } });
+    expect(json.models).toBeGreaterThanOrEqual(5);
+    expect(json.non_models).toBeGreaterThan(0);
+    expect(json.models + json.non_models).toBe(json.assignments);
+    // 524 = 500 random + 5 models + one assignment falsifying each of the 19 clauses.
+    const text = cli(["verify", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--models", "5"]);
+    expect(text.stdout).toMatch(/^verified: sampled \(524 assignments, bit-parallel simulator\); \d+ satisfying, \d+ not\nmodels: 5 found by the CDCL solver in \d+ conflicts?; also checked: 19 assignments falsifying one clause each, 500 random\n$/);
+  });
+});
+
+const SATLIB = resolve(ROOT, "../shared/satlib");
+const haveSatlib = existsSync(resolve(SATLIB, "manifest.json"));
+
+/** One line on stderr, nothing on stdout, exit 2. */
+function expectRefused(r: Run, line: RegExp): void {
+  expect(r.code, r.stderr).toBe(2);
+  expect(r.stdout).toBe("");
+  expect(r.stderr).toMatch(/^[^\n]+\n$/);
+  expect(r.stderr).toMatch(line);
+  expect(r.stderr).not.toMatch(/ at .*\.js:\d+/); // no stack trace
+}
+
+describe("clausegate verify --circuit refuses malformed circuits with exit 2 and one line", () => {
+  const pair = "examples/allotment-pair.cnf";
+  const head = '{"format":"clausegate-circuit","version":1,"comments":["Größe ✓"],"qubits":10,"clbits":0,"registers":[{"name":"vars","role":"search","start":0,"size":4},{"name":"work","role":"work","start":4,"size":6}],';
+  const run = (name: string, text: string): Run => {
+    const path = join(dir, name);
+    writeFileSync(path, text);
+    return cli(["verify", pair, "--circuit", path]);
+  };
+  // Byte columns: the comment's ö, ✓ take 2 and 3 bytes, so each column is 3 more than the character count.
+  const col = (text: string, at: string): number => Buffer.byteLength(text.slice(0, text.indexOf(at))) + 1;
+  it("a gphase angle that is a string, null or missing", () => {
+    for (const [angle, found] of [['"x"', '"x"'], ["null", "null"]] as const) {
+      const text = `${head}"gates":[{"op":"gphase","qubits":[],"angle":${angle}}]}`;
+      expectRefused(run("angle.json", text), new RegExp(`angle\\.json:1:${col(text, `${angle}}]}`)}: error: expected "angle" as a whole number in gate 0 \\(gphase\\) but found ${found}; hint: `));
+    }
+    const text = `${head}"gates":[{"op":"gphase","qubits":[]}]}`;
+    expectRefused(run("angle.json", text), new RegExp(`:1:${col(text, '{"op"')}: error: expected an angle for gphase but found none`));
+  });
+  it("negated: [7] on a gate with fewer controls", () => {
+    const text = `${head}"gates":[{"op":"mcx","qubits":[0,1,4],"negated":[7]}]}`;
+    expectRefused(run("neg.json", text), new RegExp(`:1:${col(text, "7]")}: error: expected a control position in 0\\.\\.1 but found 7 in gate 0 \\(mcx\\)`));
+  });
+  it("overlapping registers", () => {
+    const text = head.replace('"start":4', '"start":2') + '"gates":[]}';
+    expectRefused(run("overlap.json", text), new RegExp(`:1:${col(text, '2,"size":6')}: error: expected register work to start at qubit 4, where the one before it ends, but found 2`));
+  });
+  it('"gates": null is bad input (exit 2), not a failed check', () => {
+    const text = `${head}"gates":null}`;
+    expectRefused(run("null.json", text), new RegExp(`:1:${col(text, "null}")}: error: expected "gates" as a list of gates but found null`));
+  });
+  it("qubit -1 is reported as -1", () => {
+    const text = `${head}"gates":[{"op":"x","qubits":[-1]}]}`;
+    expectRefused(run("neg1.json", text), new RegExp(`:1:${col(text, "-1")}: error: expected a qubit in 0\\.\\.9 but found -1 in gate 0 \\(x\\)`));
+  });
+  it("a ccx with a repeated qubit is reported at the repeated qubit, in JSON and OpenQASM 3", () => {
+    const text = `${head}"gates":[\n{"op":"x","qubits":[5]},\n{"op":"ccx","qubits":[4,5,4]}]}`;
+    expectRefused(run("rep.json", text), /rep\.json:3:27: error: expected distinct qubits but qubit 4 appears twice in gate 1 \(ccx\)/);
+    const qasm = 'OPENQASM 3.0;\n// Größe ✓\nqubit[4] vars;\nqubit[6] work;\nx vars[1]; ccx vars[0], vars[1], vars[0];\n';
+    expectRefused(run("rep.qasm", qasm), /rep\.qasm:5:34: error: expected distinct qubits but vars\[0\] appears twice; hint: /);
+  });
+  it("an absurd register size is bad input (exit 2), not an internal error", () => {
+    const text = head.replace('"size":6', '"size":1e15') + '"gates":[]}';
+    expectRefused(run("huge.json", text), /huge\.json:1:\d+: error: expected a register size in 0\.\.67108864 but found 1000000000000000/);
+    expectRefused(run("huge.qasm", "OPENQASM 3.0;\nqubit[4] vars;\nqubit[123456789012] work;\n"), /huge\.qasm:3:7: error: expected a register size in 0\.\.67108864 but found 123456789012/);
+  });
+  it("a missing circuit file", () => {
+    expectRefused(cli(["verify", pair, "--circuit", join(dir, "absent.json")]), /^clausegate verify: error: cannot read the circuit .*absent\.json \(no such file\); hint: /);
+  });
+});
+
+describe("clausegate verify --circuit refuses the options that only shape a compilation", () => {
+  it("--strategy, --basis, --uncompute, --no-optimize and --check-passes, each with exit 2 and one line", () => {
+    const out = join(dir, "given.json");
+    expect(cli(["oracle", "examples/allotment-pair.cnf", "--format", "json", "-o", out]).code).toBe(0);
+    for (const extra of [["--strategy", "lean"], ["--basis", "mcx"], ["--uncompute", "measured"], ["--no-optimize"], ["--check-passes"]]) {
+      const r = cli(["verify", "examples/allotment-pair.cnf", "--circuit", out, ...extra]);
+      expectRefused(r, new RegExp(`^clausegate verify: error: ${extra[0]} shapes the oracle that verify compiles, and --circuit gives the circuit instead; hint: drop ${extra[0]}, or drop --circuit`));
+    }
+    // --kind still applies: it says how to read the circuit.
+    expect(cli(["verify", "examples/allotment-pair.cnf", "--circuit", out, "--kind", "phase"]).code).toBe(0);
+    expect(cli(["verify", "--help"]).stdout).toMatch(/only --kind of the\s+oracle options applies then/);
+  });
+});
+
+describe.skipIf(!haveSatlib)("clausegate verify on SATLIB (Hoos & Stuetzle 2000) formulas, sampled", () => {
+  it("aim-50-1_6-yes1-1 (one model): the oracle without its phase gate fails with exit 1, even with 65536 samples", () => {
+    const cnf = resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf");
+    const out = join(dir, "aim.json");
+    expect(cli(["oracle", cnf, "--basis", "mcx", "--format", "json", "-o", out]).code).toBe(0);
+    const lines = readFileSync(out, "utf8").split("\n");
+    const marking = lines.filter((l) => l.startsWith('{"op":"mcz"'));
+    expect(marking).toHaveLength(1);
+    const broken = join(dir, "aim-identity.json");
+    writeFileSync(broken, lines.filter((l) => !l.startsWith('{"op":"mcz"')).join("\n").replace(",\n]}", "\n]}"));
+    const r = cli(["verify", cnf, "--circuit", broken, "--samples", "65536"]);
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(/^mismatch: sampled \(65569 assignments, bit-parallel simulator\)\ncounterexample: (-?\d+ ){50}0\nexpected: phase -1 \(the formula is satisfied\)/);
+    expect(r.stdout).toMatch(/\nmodels: 1 found by the CDCL solver in \d+ conflicts? \(all there are\); also checked: 32 assignments falsifying one clause each, 65536 random\n$/);
+    const json = JSON.parse(cli(["verify", cnf, "--circuit", broken, "--json"]).stdout);
+    expect(json).toMatchObject({ verified: false, method: "sampled", models: 1, model_search: { method: "cdcl", status: "sat", found: 1, all: true } });
+    expect(cli(["verify", cnf, "--circuit", out]).code).toBe(0);
+  });
+  it("an unsatisfiable formula is verified on its unmarked inputs, and the output says why that suffices", () => {
+    const r = cli(["verify", resolve(SATLIB, "aim/aim-50-1_6-no-1.cnf"), "--basis", "mcx"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^verified: sampled \(4128 assignments, bit-parallel simulator\); 0 satisfying, 4128 not\nmodels: none, as the CDCL solver proved in \d+ conflicts?; .*\nnote: no models: the formula is unsatisfiable\n$/);
+  });
+  it("a solver out of budget: exit 1 and the reason, with a hint", () => {
+    const r = cli(["verify", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0"]);
+    expect(r.code).toBe(1);
+    expect(r.stdout).toMatch(/^not verified: sampled .*; 0 satisfying, 4128 not\nreason: no satisfying assignment was checked: the CDCL solver spent its budget of 0 conflicts without finding one or proving that there is none; hint: raise --conflict-limit\n/);
+    const json = JSON.parse(cli(["verify", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0", "--json"]).stdout);
+    expect(json).toMatchObject({ verified: false, counterexample: null, unchecked: expect.stringMatching(/^no satisfying assignment was checked/), model_search: { status: "unknown" } });
   });
 });
 

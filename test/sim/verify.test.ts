@@ -4,9 +4,10 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { CircuitBuilder, K } from "../helpers/circuits.js";
 import { randomKSat } from "../helpers/formulas.js";
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
+import { existsSync, readFileSync } from "node:fs";
+import { join, resolve } from "node:path";
 import { ROOT } from "../helpers/cli.js";
+import { evaluate } from "../../dist/src/cnf/evaluate.js";
 import {
   checkOracleSparse, cnfFromClauses, collect, compileOracle, countModels, emitJson, emitQasm3, readCircuit, readDimacs,
   simulateClassical, verifyOracle, type Circuit, type Cnf,
@@ -45,7 +46,9 @@ describe("verifyOracle", () => {
         const cnf = cnfFromClauses(n, clauses);
         const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "mcx" }).circuit, { threads: 1 });
         const exact = await countModels(cnf);
-        expect(exact.ok && BigInt(r.models)).toBe(exact.ok && exact.models);
+        if (!exact.ok) throw new Error(`the exact count failed: ${exact.reason}`);
+        expect(BigInt(r.models)).toBe(exact.models);
+        expect(r.models + r.nonModels).toBe(2 ** n);
       }),
       { numRuns: 100 },
     );
@@ -55,14 +58,19 @@ describe("verifyOracle", () => {
     const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "toffoli", uncompute: "measured" }).circuit, { threads: 2 });
     expect(r).toMatchObject({ verified: true, method: "exhaustive", assignments: 2 ** 20 });
     const exact = await countModels(cnf);
-    expect(exact.ok && BigInt(r.models)).toBe(exact.ok && exact.models);
+    if (!exact.ok) throw new Error(`the exact count failed: ${exact.reason}`);
+    expect(exact.models).toBeGreaterThan(0n);
+    expect(BigInt(r.models)).toBe(exact.models);
   });
-  it("samples above the exhaustive limit, including satisfying assignments found by local search", async () => {
+  it("samples above the exhaustive limit, including satisfying assignments found by the CDCL solver", async () => {
     const cnf = randomKSat(60, 200, 3, 8);
     const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "mcx" }).circuit, { samples: 1000 });
-    expect(r).toMatchObject({ verified: true, method: "sampled" });
-    expect(r.assignments).toBeGreaterThanOrEqual(1000);
-    expect(r.models).toBeGreaterThan(0);
+    expect(r).toMatchObject({ verified: true, method: "sampled", samples: 1000, falsifying: 32, notes: [] });
+    expect(r.modelSearch).toMatchObject({ status: "sat", found: 64 });
+    expect(r.assignments).toBe(1000 + 64 + 32);
+    expect(r.models).toBeGreaterThanOrEqual(64);
+    expect(r.nonModels).toBeGreaterThanOrEqual(32);
+    expect(r.models + r.nonModels).toBe(r.assignments);
   });
   it("verifies the examples in every combination", async () => {
     for (const file of ["allotment-pair.cnf", "allotment-row.cnf", "herb-spiral.cnf", "launch-rota.cnf"]) {
@@ -85,7 +93,7 @@ describe("verifyOracle", () => {
     const cnf = cnfFromClauses(3, [[1, 2]]);
     const r = await verifyOracle(cnfFromClauses(4, [[1, 2]]), compileOracle(cnf).circuit);
     expect(r.verified).toBe(false);
-    expect(r.problem).toMatch(/3 qubits but the formula declares 4/);
+    expect(r.problem).toBe("the search register vars has 3 qubits but the formula declares 4 variables");
   });
   it("verifies circuits read back from OpenQASM 3 and JSON", async () => {
     const cnf = randomKSat(8, 30, 3, 9);
@@ -188,5 +196,110 @@ describe("mutation tests: verify rejects a broken oracle with a true counterexam
     const lastAnd = Array.from({ length: c.gates }, (_, g) => g).filter((g) => c.kind[g] === K.mcx).at(-1)!;
     const r = await verifyOracle(cnf, edit(c, (_b, g) => g === lastAnd));
     expect(r.counterexample!.actual).toMatch(/work\[\d+\] left at \|1>/);
+  });
+});
+
+const SATLIB = resolve(ROOT, "../shared/satlib");
+const haveSatlib = existsSync(resolve(SATLIB, "manifest.json"));
+const satlib = (file: string): Cnf => readDimacs(readFileSync(resolve(SATLIB, file))).cnf!;
+/** Everything but the gates that mark: the oracle's own computation, uncomputed, with no phase. */
+const withoutMarking = (c: Circuit): Circuit => edit(c, (_b, g) => g < c.gates && (c.kind[g] === K.mcz || c.kind[g] === K.cz || c.kind[g] === K.z || c.kind[g] === K.gphase));
+/** The identity on the circuit's registers: no gates at all. */
+const identity = (c: Circuit): Circuit => edit(c, (_b, g) => g < c.gates);
+
+describe("sampled verification says verified only after checking both marked and unmarked inputs", () => {
+  it.skipIf(!haveSatlib)("SATLIB (Hoos & Stuetzle 2000) aim-50-1_6-yes1-1, one model: its oracle without the phase gate is not verified", async () => {
+    const cnf = satlib("aim/aim-50-1_6-yes1-1.cnf");
+    const c = compileOracle(cnf, { basis: "mcx" }).circuit;
+    expect(Array.from(c.kind).filter((k) => k === K.mcz)).toHaveLength(1); // the only phase gate
+    for (const broken of [withoutMarking(c), identity(c)]) {
+      const r = await verifyOracle(cnf, broken, { samples: 65536 });
+      expect(r).toMatchObject({ verified: false, method: "sampled", models: 1 });
+      expect(r.modelSearch).toMatchObject({ status: "sat", found: 1, all: true });
+      // The counterexample is the formula's one model, left unmarked.
+      expect(evaluate(cnf, r.counterexample!.assignment)).toBe(true);
+      expect(r.counterexample!.actual).toBe("phase +1");
+    }
+    const good = await verifyOracle(cnf, c);
+    expect(good).toMatchObject({ verified: true, method: "sampled", models: 1 });
+  });
+  it.skipIf(!haveSatlib)("15 satisfiable SATLIB formulas (aim *-1_6-yes1, ais10, ais12, logistics, bw_large) each get models checked", async () => {
+    const files = [
+      ...["1", "2", "3", "4"].map((i) => `aim/aim-50-1_6-yes1-${i}.cnf`), "aim/aim-100-1_6-yes1-1.cnf",
+      "ais/ais10.cnf", "ais/ais12.cnf",
+      ...["a", "b", "c", "d"].map((x) => `logistics/logistics.${x}.cnf`),
+      ...["a", "b", "c", "d"].map((x) => `blocksworld/bw_large.${x}.cnf`),
+    ];
+    for (const file of files) {
+      const cnf = satlib(file);
+      // Unoptimized: the optimizer's passes take most of a minute on bw_large.c/d and change nothing checked here.
+      const c = compileOracle(cnf, { basis: "mcx", optimize: false }).circuit;
+      const r = await verifyOracle(cnf, c, { samples: 256, models: 4 });
+      expect(r.verified, file).toBe(true);
+      expect(r.method, file).toBe("sampled");
+      expect(r.modelSearch!.status, file).toBe("sat");
+      expect(r.models, file).toBeGreaterThanOrEqual(1);
+      expect(r.nonModels, file).toBeGreaterThanOrEqual(256);
+    }
+  }, 120_000);
+  it.skipIf(!haveSatlib)("an unsatisfiable formula (SATLIB aim-50-1_6-no-1) checks only unmarked inputs, and says so", async () => {
+    const cnf = satlib("aim/aim-50-1_6-no-1.cnf");
+    const c = compileOracle(cnf, { basis: "toffoli" }).circuit;
+    const r = await verifyOracle(cnf, c, { samples: 512 });
+    expect(r).toMatchObject({ verified: true, method: "sampled", models: 0, nonModels: 512 + 32, notes: ["no models: the formula is unsatisfiable"] });
+    expect(r.modelSearch).toMatchObject({ status: "unsat", found: 0, all: true });
+    // An oracle that marks everything is caught on the unmarked inputs.
+    const marksAll = edit(c, (b, g) => {
+      if (g === 0) b.add(K.gphase, 4);
+      return false;
+    });
+    expect(await verifyOracle(cnf, marksAll, { samples: 512 })).toMatchObject({ verified: false, counterexample: { actual: "phase -1" } });
+  });
+  it("a formula every assignment satisfies has no unmarked inputs to check, and says so", async () => {
+    const n = 30;
+    const cnf = cnfFromClauses(n, [[1, -1], [5, 2, -5]]);
+    const c = compileOracle(cnf, { basis: "mcx" }).circuit;
+    const r = await verifyOracle(cnf, c, { samples: 300 });
+    expect(r).toMatchObject({ verified: true, method: "sampled", nonModels: 0, falsifying: 0 });
+    expect(r.notes).toEqual(["no unmarked inputs: every assignment satisfies the formula (every clause holds a literal and its negation)"]);
+    expect(r.models).toBe(r.assignments);
+    const none = await verifyOracle(cnf, identity(c), { samples: 300 });
+    expect(none).toMatchObject({ verified: false, counterexample: { actual: "phase +1" } });
+    const exhaustive = await verifyOracle(cnfFromClauses(4, [[1, -1]]), compileOracle(cnfFromClauses(4, [[1, -1]]), { basis: "mcx" }).circuit);
+    expect(exhaustive).toMatchObject({ verified: true, method: "exhaustive", models: 16, nonModels: 0, notes: ["no unmarked inputs: every assignment satisfies the formula"] });
+  });
+  it("a solver out of budget leaves the marked inputs unchecked: not verified, and why", async () => {
+    const cnf = randomKSat(40, 170, 3, 11);
+    const c = compileOracle(cnf, { basis: "mcx" }).circuit;
+    const r = await verifyOracle(cnf, c, { samples: 100, conflictLimit: 0 });
+    expect(r.modelSearch!.status).toBe("unknown");
+    // At 4.25 clauses per variable a random sample of 100 holds no model (the chance is below 1e-6).
+    expect(r).toMatchObject({ verified: false, models: 0, counterexample: null });
+    expect(r.unchecked).toBe("no satisfying assignment was checked: the CDCL solver spent its budget of 0 conflicts without finding one or proving that there is none");
+  });
+  it("every check of a sampled run is counted: models, others, the solver's, the falsifying and the random ones", async () => {
+    const cnf = randomKSat(30, 100, 3, 5);
+    const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "toffoli", uncompute: "measured" }).circuit, { exhaustiveLimit: 10, samples: 64, models: 8 });
+    expect(r.modelSearch!.found).toBe(8);
+    expect(r.assignments).toBe(64 + 8 + r.falsifying);
+    expect(r.falsifying).toBe(32);
+    expect(r.models).toBeGreaterThanOrEqual(8);
+    expect(r.models + r.nonModels).toBe(r.assignments);
+  });
+  it("the state-vector simulator's sampled check includes the solver's models too", async () => {
+    const cnf = cnfFromClauses(14, [[1, 2], [-1, 3], [4, -5, 6], [7, 8, 9], [-10, 11], [12, -13, 14], [-2, -3, -4], [5, 6], [-6, -7]]);
+    const c = compileOracle(cnf, { basis: "clifford+t" }).circuit;
+    const r = await verifyOracle(cnf, c, { exhaustiveLimit: 8, samples: 16, models: 4 });
+    expect(r).toMatchObject({ verified: true, method: "sampled", simulator: "state-vector" });
+    expect(r.modelSearch!.found).toBe(4);
+    expect(r.models).toBeGreaterThanOrEqual(4);
+    const broken = await verifyOracle(cnf, withoutMarking(c), { exhaustiveLimit: 8, samples: 16, models: 4 });
+    expect(broken.verified).toBe(false);
+    expect(evaluate(cnf, broken.counterexample!.assignment)).toBe(true);
+  });
+  it("exhaustive checks of an unsatisfiable formula say that there are no models", async () => {
+    const cnf = cnfFromClauses(3, [[1], [-1]]);
+    const r = await verifyOracle(cnf, compileOracle(cnf, { basis: "mcx" }).circuit);
+    expect(r).toMatchObject({ verified: true, method: "exhaustive", models: 0, nonModels: 8, notes: ["no models: the formula is unsatisfiable"], modelSearch: null });
   });
 });
