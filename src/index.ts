@@ -1,92 +1,65 @@
 /**
- * clausegate: compile DIMACS CNF formulas into quantum search oracles.
+ * clausegate: compile DIMACS CNF formulas into verified, costed quantum search oracles.
  *
- * This module is the whole public API. Readers return diagnostics as data and never throw for
- * bad input; they throw only on clausegate's own bugs.
+ * This module is the whole public API, what a toolchain needs: read a formula, compile an oracle
+ * or a search circuit, emit it, verify it, cost it, plan and forecast the search. Readers return
+ * diagnostics as data and never throw for bad input; a throw is a clausegate bug.
+ *
+ * Naming: functions are verb first (`readDimacs`, `compileOracle`, `emitQasm3`, `verifyOracle`,
+ * `planSearch`); objects that are also written as JSON reports (`ResourceReport`, `CostRow`,
+ * `SearchCost`) keep the snake_case keys of their JSON form, every other object is camelCase.
  *
  * @packageDocumentation
  */
+
+// Reading and writing formulas.
 export type { Diagnostic, Severity } from "./diag/diagnostic.js";
 export { formatDiagnostic } from "./diag/diagnostic.js";
 export type { Cnf } from "./cnf/cnf.js";
-export { clauseCount, clausesOf, cnfFromClauses } from "./cnf/cnf.js";
+export { clausesOf, cnfFromClauses } from "./cnf/cnf.js";
 export type { ReadResult } from "./cnf/scanner.js";
 export type { DimacsInput } from "./cnf/source.js";
 export { readDimacs, readDimacsFile } from "./cnf/source.js";
+export { readDimacsWithGrammar } from "./cnf/grammarReader.js";
 export { writeDimacs } from "./cnf/writer.js";
-export { evaluate, evaluateWords } from "./cnf/evaluate.js";
 export type { CountOptions, CountResult } from "./cnf/count.js";
-export { countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "./cnf/count.js";
+export { countModels } from "./cnf/count.js";
 
+// Compiling.
 export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";
 export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
 export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
-export type { Oracle, OracleOptions, ResourceReport, CostRow } from "./compile.js";
-export { compileOracle, oracleResources, costTable, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
-export { PassError } from "./passes/runner.js";
+export type { Oracle, OracleOptions, SearchOptions } from "./compile.js";
+export { compileOracle, compileSearch, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+
+// Emitting and reading circuits back.
 export type { Sink } from "./emit/sink.js";
 export { collect } from "./emit/sink.js";
 export { emitQasm3 } from "./emit/qasm3/index.js";
 export { emitQasm2, qasm2Problem } from "./emit/qasm2.js";
-export { emitJson, CIRCUIT_FORMAT, CIRCUIT_FORMAT_VERSION } from "./emit/json.js";
+export { emitJson } from "./emit/json.js";
+export type { CircuitReadResult } from "./ir/read.js";
+export { readCircuit } from "./ir/read.js";
+
+// Verifying.
+export type { VerifyOptions, VerifyResult, Counterexample, ModelSearchReport } from "./sim/verify.js";
+export { verifyOracle } from "./sim/verify.js";
+
+// Costing.
+export type { ResourceReport, CostRow, SearchCost, PartCost } from "./compile.js";
+export { oracleResources, costTable, searchCosts } from "./compile.js";
 export type { CircuitCounts } from "./emit/resources.js";
 export { countCircuit } from "./emit/resources.js";
-export type { Term, SparseRun, SparseOptions } from "./sim/sparse.js";
-export { runSparse, basisTerm, seededRandom, CircuitFault } from "./sim/sparse.js";
-export type { Mismatch, OracleCheck } from "./sim/check.js";
-export { checkOracleSparse, allAssignments } from "./sim/check.js";
-export type { ClassicalRun } from "./sim/bitsim.js";
-export { simulateClassical } from "./sim/bitsim.js";
-export type { VerifyOptions, VerifyResult, Counterexample, ModelSearchReport } from "./sim/verify.js";
-export { DEFAULT_CONFLICT_LIMIT } from "./cnf/findModels.js";
-export { verifyOracle, DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT } from "./sim/verify.js";
-export type { CircuitReadResult } from "./ir/read.js";
+
+// Planning.
 export type { SearchPlan, ScheduleRound, ScaledCount, Solutions, BigCount, Probability, ExpectedCalls } from "./search/plan.js";
-export {
-  planSearch, successAfter, successAfterIterations, bbhtRound, bbhtRounds, bbhtLastRound, bbhtExpectedCalls, bbhtSequence, averageSuccess,
-  BBHT_LAMBDA, EXACT_BITS,
-} from "./search/plan.js";
-export type { Reduction, VariableRange } from "./search/reduce.js";
-export { reduceSearch } from "./search/reduce.js";
-export type { SolutionsCount } from "./search/solutions.js";
-export { countSolutions } from "./search/solutions.js";
-export type { SearchOptions, SearchCost, PartCost } from "./compile.js";
-export { compileSearch, searchCosts } from "./compile.js";
-export { drawCircuitSvg, drawProblem, DRAW_LIMITS } from "./draw/circuit.js";
-export type { PlotOptions } from "./draw/plot.js";
-export { plotSuccessSvg } from "./draw/plot.js";
-export { readCircuit, readCircuitJson, readCircuitQasm3 } from "./ir/read.js";
-export type { LogicalErrorModel, LogicalErrorModelName } from "./forecast/surfaceCode.js";
-export { LOGICAL_ERROR_MODELS, logicalErrorRate, codeDistanceFor, patchQubits, MAX_CODE_DISTANCE } from "./forecast/surfaceCode.js";
-export type { DistillationProtocol, ProtocolChoice } from "./forecast/factories.js";
-export { DISTILLATION_PROTOCOLS, DISTILLATION_SOURCE, MAX_TABULATED_ERROR_RATE, chooseDistillation, fifteenToOneQubits, fifteenToOneCycles } from "./forecast/factories.js";
-export { routingPatches, ROUTING_SOURCE } from "./forecast/layout.js";
+export { planSearch, bbhtRounds, bbhtExpectedCalls, EXACT_BITS } from "./search/plan.js";
+
+// Forecasting a fault-tolerant run.
 export type { LogicalWork, ForecastInput, Machine, Assumption, PhysicalQubits, RegimeEstimate, Forecast } from "./forecast/model.js";
-export { forecastSearch, DEFAULT_MACHINE, MACHINE_DEFAULT_SOURCES } from "./forecast/model.js";
-export type { EvaluationRate } from "./forecast/classical.js";
-export { measureEvaluationRate } from "./forecast/classical.js";
-export type { LogLinearFit, Crossover } from "./forecast/fit.js";
-export { fitLogLinear, fitAt, crossoverOf } from "./forecast/fit.js";
-export { formatSeconds, formatCount, SECONDS_PER_YEAR, UNIVERSE_AGE_YEARS } from "./forecast/format.js";
-export type { ForecastPlotInput, ForecastPlotSeries, ForecastPlotCrossover } from "./draw/forecastPlot.js";
-export { plotForecastSvg } from "./draw/forecastPlot.js";
-
-import type { ReadResult } from "./cnf/scanner.js";
-import { bytesOf, type DimacsInput } from "./cnf/source.js";
-
-/**
- * Reads DIMACS CNF with the parser generated from the normative grammar in `grammar/`. Same
- * result as {@link readDimacs} (a test holds them equal) but slower; use it as the reference.
- * Loads the ANTLR runtime on first use.
- *
- * @example
- * ```ts
- * const { cnf } = await readDimacsWithGrammar("p cnf 1 1\n1 0\n");
- * ```
- */
-export async function readDimacsWithGrammar(input: DimacsInput): Promise<ReadResult> {
-  const { readDimacsWithGrammar: read } = await import("./cnf/antlrReader.js");
-  return read(bytesOf(input));
-}
+export { forecastSearch, DEFAULT_MACHINE } from "./forecast/model.js";
+export type { DistillationProtocol } from "./forecast/factories.js";
+export type { LogicalErrorModel, LogicalErrorModelName } from "./forecast/surfaceCode.js";
+export { LOGICAL_ERROR_MODELS } from "./forecast/surfaceCode.js";

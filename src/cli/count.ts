@@ -1,6 +1,6 @@
 /** `clausegate count FILE|-`: variables, clauses and the exact model count. */
 import { parseArgs } from "node:util";
-import { clauseCount, countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "../index.js";
+import { clauseCount, countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "../internal.js";
 import { loadCnf, progress, UserError } from "./io.js";
 import { intOption, oneInput } from "./options.js";
 

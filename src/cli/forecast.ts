@@ -12,11 +12,10 @@ import {
   MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchCosts, clauseCount,
   type Assumption, type Cnf, type Crossover, type Forecast, type ForecastInput, type ForecastPlotSeries, type LogLinearFit,
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type Uncompute, type Strategy,
-} from "../index.js";
-import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic } from "./io.js";
+} from "../internal.js";
+import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
 import { choice } from "./options.js";
 import { printLater } from "./output.js";
-import { EXIT_UNSATISFIABLE } from "./search.js";
 
 /** Seconds the classical evaluator is timed on each formula. */
 const MEASURE_SECONDS = 0.2;

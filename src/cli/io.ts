@@ -1,10 +1,12 @@
 /** CLI plumbing: loading inputs, printing diagnostics, atomic writes, progress bars, exit codes. */
 import { Bar, Presets } from "cli-progress";
-import { formatDiagnostic, readDimacsFile, type Cnf, type Diagnostic } from "../index.js";
+import { formatDiagnostic, readDimacsFile, type Cnf, type Diagnostic } from "../internal.js";
 import { noteInput, writeOutput } from "./output.js";
 
 /** Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan). */
 export const EXIT_BAD_INPUT = 2;
+/** Exit code of `plan`, `search`, `draw --search` and `forecast` when the formula has no solution. */
+export const EXIT_UNSATISFIABLE = 3;
 
 /** An error meant for the user: printed as one line, no stack trace. */
 export class UserError extends Error {

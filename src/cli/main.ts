@@ -7,7 +7,7 @@ import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp
 import { forecastCommand, forecastHelp } from "./forecast.js";
 import { EXIT_BAD_INPUT, UserError } from "./io.js";
 import { checkpoint, cleanUpOnSignals, commitOutputs, discardOutputs, OutputError } from "./output.js";
-import { PassError } from "../index.js";
+import { PassError } from "../internal.js";
 
 const commands: Record<string, { run: (argv: string[]) => Promise<number>; summary: string; help: string }> = {
   oracle: { run: oracleCommand, summary: "compile a DIMACS CNF formula into an oracle circuit", help: oracleHelp },

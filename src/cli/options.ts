@@ -1,4 +1,5 @@
 /** Shared argument checks for the commands. */
+import type { OracleOptions } from "../internal.js";
 import { UserError } from "./io.js";
 
 /** The single FILE|- positional of a command. */
@@ -46,3 +47,16 @@ export const ORACLE_HELP = `  --kind phase|flag           phase: |x> -> (-1)^f(x
                               unitary inverse (default) or measurement and fix-up (Gidney 2018)
   --no-optimize               skip the optimizer passes
   --check-passes              check the circuit's invariants after every pass (debug)`;
+
+/** The oracle options given on the command line. */
+export function oracleOptions(values: Record<string, string | boolean | undefined>): Required<OracleOptions> {
+  const str = (k: string): string | undefined => values[k] as string | undefined;
+  return {
+    kind: choice(str("kind"), "--kind", ["phase", "flag"] as const, "phase"),
+    strategy: choice(str("strategy"), "--strategy", ["wide", "lean"] as const, "wide"),
+    basis: choice(str("basis"), "--basis", ["mcx", "toffoli", "clifford+t"] as const, "toffoli"),
+    uncompute: choice(str("uncompute"), "--uncompute", ["unitary", "measured"] as const, "unitary"),
+    optimize: values["no-optimize"] !== true,
+    validatePasses: values["check-passes"] === true,
+  };
+}

@@ -1,12 +1,10 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
 import { parseArgs } from "node:util";
-import {
-  compileOracle, costTable, emitJson, emitQasm2, emitQasm3, oracleResources, qasm2Problem,
-  type Circuit, type Cnf, type Oracle, type OracleOptions,
-} from "../index.js";
-import { checkCircuitSize, displayName, loadCnf, UserError, writeAtomic } from "./io.js";
-import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
-import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./verify.js";
+import { compileOracle, costTable, oracleResources, type Cnf, type Oracle } from "../internal.js";
+import { checkCircuitSize, displayName, loadCnf, writeAtomic } from "./io.js";
+import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
+import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
+import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
 
 export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
 
@@ -29,21 +27,6 @@ Prints what an oracle for the formula costs, one row per strategy and uncomputat
 textbook reference row (a clause bit per clause, V-chains of 7-T Toffolis). Qubits, T-count,
 T-depth, CNOTs and depth are those of the Clifford+T circuit; Toffolis those of the toffoli basis.
 `;
-
-const FORMATS = ["qasm3", "qasm2", "json"] as const;
-
-/** The oracle options given on the command line. */
-export function oracleOptions(values: Record<string, string | boolean | undefined>): Required<OracleOptions> {
-  const str = (k: string): string | undefined => values[k] as string | undefined;
-  return {
-    kind: choice(str("kind"), "--kind", ["phase", "flag"] as const, "phase"),
-    strategy: choice(str("strategy"), "--strategy", ["wide", "lean"] as const, "wide"),
-    basis: choice(str("basis"), "--basis", ["mcx", "toffoli", "clifford+t"] as const, "toffoli"),
-    uncompute: choice(str("uncompute"), "--uncompute", ["unitary", "measured"] as const, "unitary"),
-    optimize: values["no-optimize"] !== true,
-    validatePasses: values["check-passes"] === true,
-  };
-}
 
 function describe(o: Oracle): string[] {
   const { kind, strategy, basis, uncompute } = o.options;
@@ -100,26 +83,6 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   }
   writeOracle(oracle, cnf, format, values.output, values.report);
   return 0;
-}
-
-/** Output formats of the circuit-writing commands. */
-export type Format = (typeof FORMATS)[number];
-
-/** Refuses, before anything is written, a circuit the format cannot express. */
-export function checkFormat(circuit: Circuit, format: Format): void {
-  const problem = format === "qasm2" ? qasm2Problem(circuit) : null;
-  if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}`);
-}
-
-/** Writes a circuit in a format to a file (atomically) or standard output. */
-export function writeCircuit(circuit: Circuit, format: Format, comments: readonly string[], output: string | undefined): void {
-  checkFormat(circuit, format);
-  const emit = (sink: (s: string) => void): void => {
-    if (format === "qasm3") emitQasm3(circuit, sink, comments);
-    else if (format === "qasm2") emitQasm2(circuit, sink, comments);
-    else emitJson(circuit, sink, comments);
-  };
-  writeAtomic(output ?? "-", emit, "the circuit");
 }
 
 /** Writes the circuit (and report) of an oracle. */

@@ -5,13 +5,11 @@ import {
   drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, reduceSearch, searchCosts,
   successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type Reduction, type ScheduleRound, type SearchPlan,
   type Solutions,
-} from "../index.js";
-import { checkCircuitSize, displayName, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
-import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP } from "./options.js";
-import { checkFormat, oracleOptions, writeCircuit } from "./oracle.js";
+} from "../internal.js";
+import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
+import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
+import { checkFormat, writeCircuit } from "./circuits.js";
 
-/** Exit code of `plan`, `search` and `draw --search` when the formula has no solution. */
-export const EXIT_UNSATISFIABLE = 3;
 
 /** Most Grover iterations `search` and `draw --search` build (2^20). */
 const MAX_ITERATIONS = 1 << 20;

@@ -1,0 +1,27 @@
+/** Writing circuits in the output formats, shared by the commands that make circuits. */
+import { emitJson, emitQasm2, emitQasm3, qasm2Problem, type Circuit } from "../internal.js";
+import { UserError, writeAtomic } from "./io.js";
+
+/** The output formats of the circuit-writing commands. */
+export const FORMATS = ["qasm3", "qasm2", "json"] as const;
+
+/** Output formats of the circuit-writing commands. */
+export type Format = (typeof FORMATS)[number];
+
+/** Refuses, before anything is written, a circuit the format cannot express. */
+export function checkFormat(circuit: Circuit, format: Format): void {
+  const problem = format === "qasm2" ? qasm2Problem(circuit) : null;
+  if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}; hint: write --format qasm3 or json, or choose --basis toffoli`);
+}
+
+/** Writes a circuit in a format to a file (atomically) or standard output. */
+export function writeCircuit(circuit: Circuit, format: Format, comments: readonly string[], output: string | undefined): void {
+  checkFormat(circuit, format);
+  const emit = (sink: (s: string) => void): void => {
+    if (format === "qasm3") emitQasm3(circuit, sink, comments);
+    else if (format === "qasm2") emitQasm2(circuit, sink, comments);
+    else emitJson(circuit, sink, comments);
+  };
+  writeAtomic(output ?? "-", emit, "the circuit");
+}
+
