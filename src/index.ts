@@ -17,6 +17,8 @@ export { writeDimacs } from "./cnf/writer.js";
 export { evaluate, evaluateWords } from "./cnf/evaluate.js";
 export type { CountOptions, CountResult } from "./cnf/count.js";
 export { countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "./cnf/count.js";
+export type { Structure, StructureOptions, StructureReport, Definition, DefinitionKind, Parity, Group } from "./structure/index.js";
+export { recoverStructure, extendAssignment, satisfiesStructure, evaluateStructured } from "./structure/index.js";
 
 export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";
 export type { GateKind } from "./ir/kinds.js";

@@ -17,17 +17,24 @@
  *
  * Order of the greedy choices (each step consumes clauses no earlier step consumed):
  *  1. (with prefer "groups" only) exactly-one and at-most-one groups;
- *  2. AND / OR definitions, clause by clause in input order, the first literal of a clause (by
- *     variable) that is a valid output wins: AND/OR outputs are unambiguous, so they go first;
- *  3. XOR / XNOR definitions (equivalence and negation are the 2-variable case) by peeling: a
- *     group with one undefined variable defines it; otherwise the next group in input order
- *     defines the undefined variable that occurs in the fewest pending groups (ties: the largest
- *     variable, which encoders usually give to gate outputs); a group that can define nothing is
- *     a standalone parity constraint;
- *  4. (by default) exactly-one groups (an all-positive clause over a clique of negative binary
+ *  2. candidate definitions ("structures"): every AND / OR pattern (one per long clause and
+ *     output literal) and every complete XOR group (equivalence and negation are its 2-variable
+ *     case); an AND / OR candidate can define only its output, an XOR group any of its variables;
+ *  3. peeling from the outputs: a variable that occurs in exactly one pending structure, which
+ *     can define it, is defined by it. On a Tseitin-encoded circuit the last gates' outputs occur
+ *     only in their own gates, so this defines the circuit gate by gate from the outputs back and
+ *     leaves exactly the inputs free; definitions made this way cannot form a cycle (a peeled
+ *     variable occurs in no structure still pending, so no later definition can read it);
+ *  4. when peeling is stuck (a core where every variable is shared): an XOR group with one unknown
+ *     variable defines it; else the next AND / OR candidate in clause order defines its output;
+ *     else the next XOR group defines its unknown variable that occurs in the fewest pending
+ *     structures (ties: the largest variable, which encoders usually give to gate outputs). Then
+ *     peeling resumes. An XOR group that can define nothing becomes a standalone parity
+ *     constraint; a candidate that lost a clause to another definition is dropped;
+ *  5. (by default) exactly-one groups (an all-positive clause over a clique of negative binary
  *     clauses), then at-most-one cliques of at least 3 variables among the negative binary clauses
  *     left. Definitions go first because they shrink the search space; a one-hot group's
- *     at-least-one clause with its pairwise clauses is also a NOR definition of its first variable.
+ *     at-least-one clause with its pairwise clauses is also a NOR definition of one member.
  * A definition is accepted only when its variable is not yet defined and no input depends on it
  * (checked by a depth-first search over the definitions so far, with a global budget; past the
  * budget a definition that would need the search is refused, so the result is always acyclic).
@@ -47,6 +54,8 @@ const MAX_XOR_WIDTH = 16;
 const CYCLE_BUDGET = 20_000_000;
 /** Neighbours considered when growing an at-most-one clique from one variable. */
 const CLIQUE_CANDIDATES = 256;
+/** Rounds of dropping AND / OR candidates that borrow another structure's binary clause. */
+const BORROW_ROUNDS = 8;
 /** Smallest at-most-one / exactly-one group reported (a 2-variable one is a single clause). */
 const MIN_GROUP = 3;
 
@@ -313,114 +322,267 @@ export function recoverRaw(variables: number, lits: Int32Array, clauseStart: Uin
 
   if (preferGroups) findGroups();
 
-  // ---- AND / OR: (o | x1 | ... | xk) with (~o | ~xi) for every i: o <-> AND(~xi) ----
-  const ins = new Int32Array(Math.max(1, maxWidth(start)));
+  // ---- candidate definitions ("structures") ----
+  // AND / OR: (o | x1 | ... | xk) with (~o | ~xi) for every i means o <-> AND(~xi).
+  const cClause = new IntList();
+  const cOut = new IntList();
+  const cBinStart = new IntList();
+  cBinStart.push(0);
+  const cBins = new IntList();
   for (let i = 0; i < m; i++) {
     const s = start[i]!;
     const e = start[i + 1]!;
     const w = e - s;
     if (w < 3 || consumed[i] !== KEPT) continue;
     for (let p = s; p < e; p++) {
-      const o = codes[p]!;
-      const no = o ^ 1;
-      if (binCount[no]! < w - 1 || defOf[o >>> 1]! >= 0) continue;
+      const no = codes[p]! ^ 1;
+      if (binCount[no]! < w - 1) continue;
       let ok = true;
       for (let q = s; q < e && ok; q++) if (q !== p) ok = freeBinary(no, codes[q]! ^ 1) >= 0;
       if (!ok) continue;
-      // o positive: y = AND(~xi); o negative: ~y = AND(~xi), so y = OR(xi).
-      const positive = (o & 1) === 0;
-      let n = 0;
-      for (let q = s; q < e; q++) if (q !== p) ins[n++] = positive ? codes[q]! ^ 1 : codes[q]!;
-      if (!canDefine(o >>> 1, ins, 0, n)) continue;
-      commit(o >>> 1, positive ? AND : OR, ins, 0, n);
-      consumed[i] = BY_DEFINITION;
-      for (let q = s; q < e; q++) if (q !== p) consumed[freeBinary(no, codes[q]! ^ 1)] = BY_DEFINITION;
-      break;
+      cClause.push(i);
+      cOut.push(codes[p]!);
+      for (let q = s; q < e; q++) if (q !== p) cBins.push(freeBinary(no, codes[q]! ^ 1));
+      cBinStart.push(cBins.length);
     }
   }
-
-  // ---- XOR groups: clauses over one variable set, all 2^(w-1) sign patterns of one parity ----
+  const A = cClause.length;
+  // XOR / XNOR (and equivalence / negation, their 2-variable case).
   const xor = findXorGroups(clean, consumed);
   const G = xor.count;
+  const S = A + G;
+  // Variables and clauses of every structure s (AND candidates first, then XOR groups).
+  const sVarStart = new Uint32Array(S + 1);
+  const sClauseStart = new Uint32Array(S + 1);
+  for (let s = 0; s < S; s++) {
+    if (s < A) {
+      const i = cClause.data[s]!;
+      sVarStart[s + 1] = sVarStart[s]! + start[i + 1]! - start[i]!;
+      sClauseStart[s + 1] = sClauseStart[s]! + 1 + cBinStart.data[s + 1]! - cBinStart.data[s]!;
+    } else {
+      const g = s - A;
+      sVarStart[s + 1] = sVarStart[s]! + xor.varStart[g + 1]! - xor.varStart[g]!;
+      sClauseStart[s + 1] = sClauseStart[s]! + xor.clauseStartG[g + 1]! - xor.clauseStartG[g]!;
+    }
+  }
+  const sVars = new Int32Array(sVarStart[S]!);
+  const sClauses = new Int32Array(sClauseStart[S]!);
+  for (let s = 0; s < S; s++) {
+    let pv = sVarStart[s]!;
+    let pcl = sClauseStart[s]!;
+    if (s < A) {
+      const i = cClause.data[s]!;
+      for (let k = start[i]!; k < start[i + 1]!; k++) sVars[pv++] = codes[k]! >>> 1;
+      sClauses[pcl++] = i;
+      for (let k = cBinStart.data[s]!; k < cBinStart.data[s + 1]!; k++) sClauses[pcl++] = cBins.data[k]!;
+    } else {
+      const g = s - A;
+      for (let k = xor.varStart[g]!; k < xor.varStart[g + 1]!; k++) sVars[pv++] = xor.vars[k]!;
+      for (let k = xor.clauseStartG[g]!; k < xor.clauseStartG[g + 1]!; k++) sClauses[pcl++] = xor.clausesG[k]!;
+    }
+  }
+  const varStructs = invert(sVarStart, sVars, u);
+  const clauseStructs = invert(sClauseStart, sClauses, m);
+  const pending = new Uint8Array(S).fill(1);
+  // A long clause can match several AND / OR candidates (say y = AND(~a, b) while another gate
+  // implies a -> b: then a = AND(~y, b) matches too). The gate the encoder wrote owns its binary
+  // clauses; a coincidental match borrows one from another structure. Where a clause has a
+  // candidate that borrows nothing, its borrowing candidates are dropped.
+  // Dropping a borrower can clear another candidate of borrowing, so this repeats (a few rounds).
+  const borrows = new Uint8Array(A);
+  for (let round = 0, changed = true; changed && round < BORROW_ROUNDS; round++) {
+    changed = false;
+    borrows.fill(0);
+    for (let s = 0; s < A; s++) {
+      if (!pending[s]) continue;
+      for (let k = sClauseStart[s]! + 1; k < sClauseStart[s + 1]! && !borrows[s]; k++) {
+        const c = sClauses[k]!;
+        for (let p = clauseStructs.start[c]!; p < clauseStructs.start[c + 1]!; p++) {
+          const t = clauseStructs.list[p]!;
+          if (pending[t] && (t >= A || cClause.data[t] !== cClause.data[s])) borrows[s] = 1;
+        }
+      }
+    }
+    for (let s = 0; s < A; ) {
+      let e = s;
+      let owner = false;
+      for (; e < A && cClause.data[e] === cClause.data[s]; e++) if (pending[e] && !borrows[e]) owner = true;
+      if (owner) {
+        for (let t = s; t < e; t++) {
+          if (pending[t] && borrows[t]) {
+            pending[t] = 0;
+            changed = true;
+          }
+        }
+      }
+      s = e;
+    }
+  }
+  const pc = new Int32Array(u);
+  for (let s = 0; s < S; s++) if (pending[s]) for (let k = sVarStart[s]!; k < sVarStart[s + 1]!; k++) pc[sVars[k]!]!++;
+  const undef = new Int32Array(G);
+  for (let g = 0; g < G; g++) undef[g] = xor.varStart[g + 1]! - xor.varStart[g]!;
+  const peel = new Int32Array(u + sVars.length + 1);
+  let ph = 0;
+  let pt = 0;
+  for (let x = 0; x < u; x++) if (pc[x] === 1) peel[pt++] = x;
+  const xorPeel = new Int32Array(u + sVars.length + 1);
+  let xh = 0;
+  let xt = 0;
+  const fwd = new Int32Array(G + sVars.length + 1);
+  let fh = 0;
+  let ft = 0;
   const pStart = new IntList();
   pStart.push(0);
   const pVars = new IntList();
   const pValue = new IntList();
-  if (G > 0) {
-    const { varStart, vars, clauseStartG, clausesG, value } = xor;
-    // Groups by variable.
-    const vg = new Uint32Array(u + 1);
-    for (let k = 0; k < vars.length; k++) vg[vars[k]! + 1]!++;
-    for (let x = 0; x < u; x++) vg[x + 1]! += vg[x]!;
-    const vgList = new Int32Array(vars.length);
-    const vgFill = vg.slice(0, u);
-    for (let g = 0; g < G; g++) for (let k = varStart[g]!; k < varStart[g + 1]!; k++) vgList[vgFill[vars[k]!]!++] = g;
-    const pending = new Uint8Array(G).fill(1);
-    const undef = new Int32Array(G);
-    const pc = new Int32Array(u);
-    for (let g = 0; g < G; g++) {
-      for (let k = varStart[g]!; k < varStart[g + 1]!; k++) {
-        if (defOf[vars[k]!]! < 0) undef[g]!++;
-        pc[vars[k]!]!++;
-      }
-    }
-    const queue = new Int32Array(G + vars.length + 1);
-    let qh = 0;
-    let qt = 0;
-    for (let g = 0; g < G; g++) if (undef[g]! <= 1) queue[qt++] = g;
-    const xin = new Int32Array(MAX_XOR_WIDTH);
-    const cand = new Int32Array(MAX_XOR_WIDTH);
 
-    const tryDefine = (g: number, v: number): boolean => {
-      let n = 0;
-      for (let k = varStart[g]!; k < varStart[g + 1]!; k++) if (vars[k] !== v) xin[n++] = vars[k]! << 1;
-      if (!canDefine(v, xin, 0, n)) return false;
-      commit(v, n === 1 ? (value[g] ? NOT : EQUIV) : value[g] ? XNOR : XOR, xin, 0, n);
-      for (let k = clauseStartG[g]!; k < clauseStartG[g + 1]!; k++) consumed[clausesG[k]!] = BY_DEFINITION;
-      for (let p = vg[v]!; p < vg[v + 1]!; p++) {
-        const h = vgList[p]!;
-        if (--undef[h]! <= 1 && pending[h]) queue[qt++] = h;
+  // Variables by number of pending structures (lazy bucket queue, for the core choices).
+  let maxPc = 0;
+  for (let x = 0; x < u; x++) maxPc = Math.max(maxPc, pc[x]!);
+  const bHead = new Int32Array(maxPc + 1).fill(-1);
+  const bNext = new Int32Array(u + sVars.length + 1);
+  const bVal = new Int32Array(u + sVars.length + 1);
+  let bn = 0;
+  let bMin = maxPc + 1;
+  const bPush = (x: number): void => {
+    const b = pc[x]!;
+    if (b < 2) return;
+    bVal[bn] = x;
+    bNext[bn] = bHead[b]!;
+    bHead[b] = bn++;
+    if (b < bMin) bMin = b;
+  };
+  for (let x = 0; x < u; x++) bPush(x);
+  const tried = new Uint8Array(u);
+  const refused = new Uint8Array(G);
+  /** The undefined, untried variable in the fewest pending structures (ties: last pushed), or -1. */
+  const popMin = (): number => {
+    while (bMin <= maxPc) {
+      const e = bHead[bMin]!;
+      if (e < 0) {
+        bMin++;
+        continue;
       }
-      return true;
-    };
-    const finish = (g: number, defined: boolean): void => {
-      pending[g] = 0;
-      for (let k = varStart[g]!; k < varStart[g + 1]!; k++) pc[vars[k]!]!--;
-      if (defined) return;
-      // A standalone parity constraint: the XOR of its variables equals value[g].
-      for (let k = varStart[g]!; k < varStart[g + 1]!; k++) pVars.push(vars[k]!);
-      pStart.push(pVars.length);
-      pValue.push(value[g]!);
-      for (let k = clauseStartG[g]!; k < clauseStartG[g + 1]!; k++) consumed[clausesG[k]!] = BY_PARITY;
-    };
-    let next = 0;
-    for (;;) {
-      while (qh < qt) {
-        const g = queue[qh++]!;
-        if (!pending[g]) continue;
-        let done = false;
-        if (undef[g] === 1) {
-          for (let k = varStart[g]!; k < varStart[g + 1]!; k++) {
-            if (defOf[vars[k]!]! < 0) {
-              done = tryDefine(g, vars[k]!);
-              break;
-            }
-          }
-        }
-        finish(g, done);
-      }
-      while (next < G && !pending[next]) next++;
-      if (next === G) break;
-      const g = next;
-      // Candidates: undefined variables, fewest pending groups first, then the largest variable.
-      let n = 0;
-      for (let k = varStart[g]!; k < varStart[g + 1]!; k++) if (defOf[vars[k]!]! < 0) cand[n++] = vars[k]!;
-      const sorted = Array.from(cand.subarray(0, n)).sort((a, b) => pc[a]! - pc[b]! || b - a);
-      let done = false;
-      for (const v of sorted) if ((done = tryDefine(g, v))) break;
-      finish(g, done);
+      bHead[bMin] = bNext[e]!;
+      const x = bVal[e]!;
+      if (pc[x] === bMin && defOf[x]! < 0 && !tried[x]) return x;
     }
+    return -1;
+  };
+  const remove = (s: number): void => {
+    pending[s] = 0;
+    for (let k = sVarStart[s]!; k < sVarStart[s + 1]!; k++) {
+      const x = sVars[k]!;
+      if (--pc[x]! === 1) peel[pt++] = x;
+      else bPush(x);
+    }
+  };
+  /** An XOR group that defines nothing: a standalone parity constraint. */
+  const asParity = (g: number): void => {
+    for (let k = xor.varStart[g]!; k < xor.varStart[g + 1]!; k++) pVars.push(xor.vars[k]!);
+    pStart.push(pVars.length);
+    pValue.push(xor.value[g]!);
+    for (let k = xor.clauseStartG[g]!; k < xor.clauseStartG[g + 1]!; k++) consumed[xor.clausesG[k]!] = BY_PARITY;
+    remove(A + g);
+  };
+  const ins = new Int32Array(Math.max(MAX_XOR_WIDTH, maxWidth(start)));
+  /** Defines v by structure s if that keeps the definitions acyclic; updates the bookkeeping. */
+  const define = (s: number, v: number): boolean => {
+    let n = 0;
+    let kind: number;
+    if (s < A) {
+      const o = cOut.data[s]!;
+      // o positive: v = AND(~xi); o negative: ~v = AND(~xi), so v = OR(xi).
+      const positive = (o & 1) === 0;
+      const i = cClause.data[s]!;
+      for (let k = start[i]!; k < start[i + 1]!; k++) if (codes[k] !== o) ins[n++] = positive ? codes[k]! ^ 1 : codes[k]!;
+      kind = positive ? AND : OR;
+    } else {
+      const g = s - A;
+      for (let k = xor.varStart[g]!; k < xor.varStart[g + 1]!; k++) if (xor.vars[k] !== v) ins[n++] = xor.vars[k]! << 1;
+      kind = n === 1 ? (xor.value[g] ? NOT : EQUIV) : xor.value[g] ? XNOR : XOR;
+    }
+    if (!canDefine(v, ins, 0, n)) return false;
+    commit(v, kind, ins, 0, n);
+    for (let k = sClauseStart[s]!; k < sClauseStart[s + 1]!; k++) consumed[sClauses[k]!] = BY_DEFINITION;
+    remove(s);
+    // Structures that shared a clause with s are gone (their clauses are no longer all there).
+    for (let k = sClauseStart[s]!; k < sClauseStart[s + 1]!; k++) {
+      const c = sClauses[k]!;
+      for (let p = clauseStructs.start[c]!; p < clauseStructs.start[c + 1]!; p++) if (pending[clauseStructs.list[p]!]) remove(clauseStructs.list[p]!);
+    }
+    // AND candidates for v can define nothing now; XOR groups with v have one fewer unknown.
+    for (let p = varStructs.start[v]!; p < varStructs.start[v + 1]!; p++) {
+      const t = varStructs.list[p]!;
+      if (!pending[t]) continue;
+      if (t < A) {
+        if (cOut.data[t]! >>> 1 === v) remove(t);
+      } else if (--undef[t - A]! <= 1) fwd[ft++] = t - A;
+    }
+    return true;
+  };
+
+  for (;;) {
+    // 1. Peel from the outputs: a variable in exactly one pending structure that can define it.
+    // AND / OR outputs first (they are unambiguous); an XOR group then defines its largest
+    // variable that occurs in no other pending structure (encoders number outputs last).
+    if (ph < pt) {
+      const x = peel[ph++]!;
+      if (pc[x] !== 1 || defOf[x]! >= 0) continue;
+      let s = -1;
+      for (let p = varStructs.start[x]!; p < varStructs.start[x + 1]! && s < 0; p++) if (pending[varStructs.list[p]!]) s = varStructs.list[p]!;
+      if (s < 0) continue;
+      if (s < A) {
+        if (cOut.data[s]! >>> 1 === x) define(s, x);
+      } else xorPeel[xt++] = s;
+      continue;
+    }
+    if (xh < xt) {
+      const s = xorPeel[xh++]!;
+      if (!pending[s]) continue;
+      let v = -1;
+      for (let k = sVarStart[s]!; k < sVarStart[s + 1]!; k++) {
+        const y = sVars[k]!;
+        if (pc[y] === 1 && defOf[y]! < 0 && y > v) v = y;
+      }
+      if (v >= 0) define(s, v);
+      continue;
+    }
+    // 2. An XOR group with at most one unknown variable: define it, or keep the group as a parity.
+    if (fh < ft) {
+      const g = fwd[fh++]!;
+      if (!pending[A + g]) continue;
+      let v = -1;
+      for (let k = xor.varStart[g]!; k < xor.varStart[g + 1]!; k++) if (defOf[xor.vars[k]!]! < 0) v = xor.vars[k]!;
+      if (v < 0 || !define(A + g, v)) asParity(g);
+      continue;
+    }
+    // 3. The core: the variable in the fewest pending structures, defined by an AND / OR
+    // candidate with that output if one can, else by an XOR group holding it.
+    const x = popMin();
+    if (x < 0) break;
+    tried[x] = 1;
+    let done = false;
+    for (let p = varStructs.start[x]!; p < varStructs.start[x + 1]! && !done; p++) {
+      const t = varStructs.list[p]!;
+      if (t < A && pending[t] && cOut.data[t]! >>> 1 === x && !(done = define(t, x))) remove(t);
+    }
+    // Among XOR groups, the one with the fewest unknown variables first: a wider choice is
+    // better left to groups that have more variables to give.
+    while (!done) {
+      let best = -1;
+      for (let p = varStructs.start[x]!; p < varStructs.start[x + 1]!; p++) {
+        const t = varStructs.list[p]!;
+        if (t >= A && pending[t] && !refused[t - A] && (best < 0 || undef[t - A]! < undef[best - A]!)) best = t;
+      }
+      if (best < 0) break;
+      if (!(done = define(best, x))) refused[best - A] = 1;
+    }
+    for (let p = varStructs.start[x]!; p < varStructs.start[x + 1]!; p++) if (varStructs.list[p]! >= A) refused[varStructs.list[p]! - A] = 0;
   }
+  // XOR groups that defined nothing are standalone parity constraints.
+  for (let g = 0; g < G; g++) if (pending[A + g]) asParity(g);
 
   if (!preferGroups) findGroups();
 
@@ -489,6 +651,17 @@ export function recoverRaw(variables: number, lits: Int32Array, clauseStart: Uin
     cyclesRefused,
     budgetExhausted,
   };
+}
+
+/** Inverts a CSR relation "s -> items" into "item -> s" over items 0..n-1. */
+function invert(rowStart: Uint32Array, items: Int32Array, n: number): { start: Uint32Array; list: Int32Array } {
+  const start = new Uint32Array(n + 1);
+  for (let k = 0; k < items.length; k++) start[items[k]! + 1]!++;
+  for (let x = 0; x < n; x++) start[x + 1]! += start[x]!;
+  const fill = start.slice(0, n);
+  const list = new Int32Array(items.length);
+  for (let s = 0; s + 1 < rowStart.length; s++) for (let k = rowStart[s]!; k < rowStart[s + 1]!; k++) list[fill[items[k]!]!++] = s;
+  return { start, list };
 }
 
 function maxWidth(start: Uint32Array): number {
