@@ -29,7 +29,7 @@ const DENSE_LIMIT = 1 << 22;
 
 export function cleanCnf(variables: number, lits: Int32Array, clauseStart: Uint32Array): CleanCnf {
   const m = clauseStart.length - 1;
-  const { u, varOf, index } = renumber(variables, lits);
+  const { u, varOf, map, compact } = renumber(variables, lits);
   const codes = new Int32Array(lits.length);
   const start = new Uint32Array(m + 1);
   let duplicateLiterals = 0;
@@ -46,10 +46,12 @@ export function cleanCnf(variables: number, lits: Int32Array, clauseStart: Uint3
     const s = clauseStart[i]!;
     const e = clauseStart[i + 1]!;
     const from = nl;
-    for (let k = s; k < e; k++) {
-      const l = lits[k]!;
-      codes[nl++] = (index(l < 0 ? -l : l) << 1) | (l < 0 ? 1 : 0);
-    }
+    if (map !== undefined) {
+      for (let k = s; k < e; k++) {
+        const l = lits[k]!;
+        codes[nl++] = l < 0 ? ((map[-l]! - 1) << 1) | 1 : (map[l]! - 1) << 1;
+      }
+    } else for (let k = s; k < e; k++) codes[nl++] = compact![k]!;
     sortRange(codes, from, nl);
     let w = from;
     let taut = false;
@@ -130,8 +132,12 @@ function sortRange(a: Int32Array, from: number, to: number): void {
   }
 }
 
-/** Dense, order-preserving numbering of the variables that occur in `lits`. */
-function renumber(variables: number, lits: Int32Array): { u: number; varOf: Int32Array; index: (v: number) => number } {
+/**
+ * Dense, order-preserving numbering of the variables that occur in `lits`: a map from DIMACS
+ * variable to index + 1 when the declaration is not too sparse, else each literal's code
+ * (index << 1) | negated.
+ */
+function renumber(variables: number, lits: Int32Array): { u: number; varOf: Int32Array; map?: Int32Array; compact?: Int32Array } {
   if (variables <= Math.max(DENSE_LIMIT, 4 * lits.length)) {
     const map = new Int32Array(variables + 1);
     for (let k = 0; k < lits.length; k++) {
@@ -142,7 +148,7 @@ function renumber(variables: number, lits: Int32Array): { u: number; varOf: Int3
     for (let v = 1; v <= variables; v++) if (map[v] !== 0) map[v] = ++u;
     const varOf = new Int32Array(u);
     for (let v = 1; v <= variables; v++) if (map[v] !== 0) varOf[map[v]! - 1] = v;
-    return { u, varOf, index: (v) => map[v]! - 1 };
+    return { u, varOf, map };
   }
   // Very sparse declarations (say 2^31 - 1 declared, a few used): sort the distinct variables.
   const all = new Int32Array(lits.length);
@@ -153,5 +159,10 @@ function renumber(variables: number, lits: Int32Array): { u: number; varOf: Int3
   const varOf = all.slice(0, u);
   const map = new Map<number, number>();
   for (let i = 0; i < u; i++) map.set(varOf[i]!, i);
-  return { u, varOf, index: (v) => map.get(v)! };
+  const compact = new Int32Array(lits.length);
+  for (let k = 0; k < lits.length; k++) {
+    const l = lits[k]!;
+    compact[k] = (map.get(Math.abs(l))! << 1) | (l < 0 ? 1 : 0);
+  }
+  return { u, varOf, compact };
 }

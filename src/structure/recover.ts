@@ -698,23 +698,21 @@ function findXorGroups(clean: CleanCnf, consumed: Uint8Array): XorGroups {
   }
   const empty: XorGroups = { count: 0, varStart: new Uint32Array(1), vars: new Int32Array(0), clauseStartG: new Uint32Array(1), clausesG: new Int32Array(0), value: new Uint8Array(0) };
   if (cands === 0) return empty;
-  const bits = Math.max(4, Math.ceil(Math.log2(2 * cands + 2)));
-  const mask = (1 << bits) - 1;
-  const head = new Int32Array(1 << bits).fill(-1);
-  const next = new Int32Array(m);
-  const hashOf = new Int32Array(m);
+  // Sort the candidate clauses by the hash of their variable set (LSD radix sort, two 16-bit
+  // digits): clauses over one set become neighbours, in clause order within equal hashes.
+  const keys = new Uint32Array(cands);
+  const order = new Int32Array(cands);
+  let n = 0;
   for (let i = 0; i < m; i++) {
     const s = start[i]!;
     const w = start[i + 1]! - s;
     if (w < 2 || w > MAX_XOR_WIDTH || consumed[i] !== KEPT) continue;
     let h = Math.imul(w, 0x27d4eb2f);
     for (let k = s; k < s + w; k++) h = Math.imul(h ^ (codes[k]! >>> 1), 0x9e3779b1) ^ (h >>> 15);
-    hashOf[i] = h;
-    const b = (h ^ (h >>> 16)) & mask;
-    next[i] = head[b]!;
-    head[b] = i;
+    keys[n] = h >>> 0;
+    order[n++] = i;
   }
-  const grouped = new Uint8Array(m);
+  const sorted = radixSort(keys, order);
   const members: number[] = [];
   const varStart = new IntList();
   varStart.push(0);
@@ -723,42 +721,88 @@ function findXorGroups(clean: CleanCnf, consumed: Uint8Array): XorGroups {
   clauseStartG.push(0);
   const clausesG = new IntList();
   const value = new IntList();
-  for (let i = 0; i < m; i++) {
-    const s = start[i]!;
-    const w = start[i + 1]! - s;
-    if (w < 2 || w > MAX_XOR_WIDTH || consumed[i] !== KEPT || grouped[i]) continue;
-    const h = hashOf[i]!;
-    members.length = 0;
-    for (let j = head[(h ^ (h >>> 16)) & mask]!; j >= 0; j = next[j]!) {
-      if (grouped[j] || hashOf[j] !== h || start[j + 1]! - start[j]! !== w) continue;
-      const t = start[j]!;
-      let same = true;
-      for (let k = 0; k < w && same; k++) same = codes[s + k]! >>> 1 === codes[t + k]! >>> 1;
-      if (!same) continue;
-      grouped[j] = 1;
-      members.push(j);
+  const done = new Uint8Array(cands);
+  for (let r = 0; r < cands; ) {
+    let e = r + 1;
+    while (e < cands && sorted.keys[e] === sorted.keys[r]) e++;
+    // Within a run of equal hashes, split by actual variable set (collisions are rare).
+    for (let a = r; e - r >= 2 && a < e; a++) {
+      if (done[a]) continue;
+      const i = sorted.order[a]!;
+      const s = start[i]!;
+      const w = start[i + 1]! - s;
+      members.length = 0;
+      for (let b = a; b < e; b++) {
+        if (done[b]) continue;
+        const j = sorted.order[b]!;
+        const t = start[j]!;
+        if (start[j + 1]! - t !== w) continue;
+        let same = true;
+        for (let k = 0; k < w && same; k++) same = codes[s + k]! >>> 1 === codes[t + k]! >>> 1;
+        if (!same) continue;
+        done[b] = 1;
+        members.push(j);
+      }
+      const half = 2 ** (w - 1);
+      if (members.length < half) continue;
+      let odd = 0;
+      for (const j of members) odd += parityOf(codes, start[j]!, w);
+      // Repeated clauses were removed, so the sign patterns of one parity are distinct.
+      const p = odd === half ? 1 : members.length - odd === half ? 0 : -1;
+      if (p < 0) continue;
+      for (let k = s; k < s + w; k++) vars.push(codes[k]! >>> 1);
+      varStart.push(vars.length);
+      for (const j of members) if (parityOf(codes, start[j]!, w) === p) clausesG.push(j);
+      clauseStartG.push(clausesG.length);
+      value.push(1 - p);
     }
-    const half = 2 ** (w - 1);
-    if (members.length < half) continue;
-    let odd = 0;
-    for (const j of members) odd += parityOf(codes, start[j]!, w);
-    // Repeated clauses were removed, so the sign patterns of one parity are distinct.
-    const p = odd === half ? 1 : members.length - odd === half ? 0 : -1;
-    if (p < 0) continue;
-    for (let k = s; k < s + w; k++) vars.push(codes[k]! >>> 1);
-    varStart.push(vars.length);
-    for (const j of members) if (parityOf(codes, start[j]!, w) === p) clausesG.push(j);
-    clauseStartG.push(clausesG.length);
-    value.push(1 - p);
+    r = e;
   }
-  return {
-    count: value.length,
-    varStart: Uint32Array.from(varStart.view()),
-    vars: vars.view(),
-    clauseStartG: Uint32Array.from(clauseStartG.view()),
-    clausesG: clausesG.view(),
-    value: Uint8Array.from(value.view()),
+  // Groups in the order of their first clause, independent of the hash.
+  const G = value.length;
+  const ids = Array.from({ length: G }, (_, g) => g).sort((x, y) => clausesG.data[clauseStartG.data[x]!]! - clausesG.data[clauseStartG.data[y]!]!);
+  const out: XorGroups = {
+    count: G,
+    varStart: new Uint32Array(G + 1),
+    vars: new Int32Array(vars.length),
+    clauseStartG: new Uint32Array(G + 1),
+    clausesG: new Int32Array(clausesG.length),
+    value: new Uint8Array(G),
   };
+  let nv = 0;
+  let nc = 0;
+  ids.forEach((g, r) => {
+    for (let k = varStart.data[g]!; k < varStart.data[g + 1]!; k++) out.vars[nv++] = vars.data[k]!;
+    for (let k = clauseStartG.data[g]!; k < clauseStartG.data[g + 1]!; k++) out.clausesG[nc++] = clausesG.data[k]!;
+    out.varStart[r + 1] = nv;
+    out.clauseStartG[r + 1] = nc;
+    out.value[r] = value.data[g]!;
+  });
+  return out;
+}
+
+/** Sorts (key, item) pairs by key, stably: two passes of 16-bit counting sort. */
+function radixSort(keys: Uint32Array, items: Int32Array): { keys: Uint32Array; order: Int32Array } {
+  const n = keys.length;
+  let k1: Uint32Array = keys;
+  let i1: Int32Array = items;
+  let k2: Uint32Array = new Uint32Array(n);
+  let i2: Int32Array = new Int32Array(n);
+  const count = new Uint32Array(65537);
+  for (let shift = 0; shift < 32; shift += 16) {
+    count.fill(0);
+    for (let i = 0; i < n; i++) count[((k1[i]! >>> shift) & 0xffff) + 1]!++;
+    for (let d = 0; d < 65536; d++) count[d + 1]! += count[d]!;
+    for (let i = 0; i < n; i++) {
+      const d = (k1[i]! >>> shift) & 0xffff;
+      const at = count[d]!++;
+      k2[at] = k1[i]!;
+      i2[at] = i1[i]!;
+    }
+    [k1, k2] = [k2, k1];
+    [i1, i2] = [i2, i1];
+  }
+  return { keys: k1, order: i1 };
 }
 
 /** Number of negated literals in a clause, mod 2. */
