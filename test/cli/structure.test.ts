@@ -82,3 +82,19 @@ describe("clausegate structure", () => {
     expect(cli(["--help"]).stdout).toMatch(/^ {2}structure +recover gate definitions/m);
   });
 });
+
+describe("clausegate count over the free variables", () => {
+  it("counts a 120-variable multiplier by its 10 inputs; --no-structure and --max-variables as documented", () => {
+    const r = cli(["count", "-", "--json"], mulText);
+    expect(r.code).toBe(0);
+    // 120 = a x b with a, b < 32: (4, 30), (5, 24), (6, 20), (8, 15), (10, 12) and their swaps.
+    expect(JSON.parse(r.stdout)).toEqual({ variables: 120, clauses: 375, models: 10 });
+    const plain = cli(["count", "-", "--no-structure"], mulText);
+    expect(plain.code).toBe(2);
+    expect(plain.stderr).toMatch(/refusing to enumerate 2\^120 assignments \(120 variables occur in clauses/);
+    const limited = cli(["count", "-", "--max-variables", "9"], mulText);
+    expect(limited.code).toBe(2);
+    expect(limited.stderr).toMatch(/^clausegate count: error: refusing to enumerate 2\^10 assignments \(10 free variables left by structure recovery, of 120 in clauses; the limit is 9\).*--max-variables N\)\n$/);
+    expect(cli(["count", "--help"]).stdout).toContain("--no-structure");
+  }, 30_000);
+});
