@@ -1,8 +1,9 @@
 /**
  * Exact model counting with structure recovery in front: when the formula's clauses encode gate
  * definitions (structure/), only the free variables are enumerated and the defined ones are
- * computed, 32 assignments per word (kernel.ts). When recovery leaves as many variables to
- * enumerate as the formula has, the clause-level counter (cnf/count.ts) counts as before.
+ * computed, 32 assignments per word (kernel.ts); a purely linear structure (XORs, parities,
+ * unit clauses) is solved by Gaussian elimination instead (linear.ts). When recovery does not
+ * shrink the enumeration, the clause-level counter (cnf/count.ts) counts as before.
  */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
@@ -19,6 +20,7 @@ import {
 } from "../cnf/count.js";
 import { recoverStructure } from "../structure/index.js";
 import { countStructuredBlocks, structuredBlocks, type StructuredPlan } from "./kernel.js";
+import { countLinear, isLinear } from "./linear.js";
 import { planStructuredCount } from "./plan.js";
 
 /** Options of {@link countModels}. */
@@ -57,6 +59,11 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
   if (s.definitions.length === 0 && s.parities.length === 0 && s.groups.length === 0) return countByClauses(cnf, options);
   const { plan, doubling, zero, cost } = planStructuredCount(s);
   if (zero) return { ok: true, models: 0n, enumerated: 0 };
+  if (isLinear(plan)) {
+    // Only XORs, parities and unit clauses: Gaussian elimination instead of enumeration.
+    const linear = countLinear(plan);
+    if (linear !== undefined && doubling <= MAX_DOUBLING_VARIABLES) return { ok: true, models: linear << BigInt(doubling), enumerated: 0 };
+  }
   const F = plan.enumerated;
   if (F >= occurring || !structureWins(F, cost, occurring, cnf.lits.length, limit)) return countByClauses(cnf, options);
   if (doubling > MAX_DOUBLING_VARIABLES) {

@@ -106,9 +106,26 @@ describe("parity systems (outside check: 2^(n - rank) models over GF(2), rank by
         fc.pre(k <= n);
         const rows = randomXorRows(n, m, k, seed);
         const { rank, consistent } = gf2(n, rows);
-        expect((await count(cnfOf(xorSystem(n, rows)))).models).toBe(consistent ? 2n ** BigInt(n - rank) : 0n);
+        const f = xorSystem(n, rows);
+        const r = await count(cnfOf(f));
+        expect(r.models).toBe(consistent ? 2n ** BigInt(n - rank) : 0n);
+        // Parities and XOR definitions alone are solved by elimination, not enumerated (width 1
+        // rows are plain unit clauses, and contradictory rows leave plain clauses).
+        if (k >= 2 && consistent) expect(r.enumerated).toBe(0);
+        if (n <= 14) expect(r.models).toBe(BigInt(bruteCount(n, f.clauses)));
       }),
       { numRuns: 150 },
+    );
+  });
+  it("the same systems with one non-linear clause, counted by enumeration (against a truth table)", async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.integer({ min: 0, max: 2 ** 31 - 1 }), fc.integer({ min: 3, max: 14 }), fc.integer({ min: 1, max: 10 }), fc.integer({ min: 1, max: 4 }), async (seed, n, m, k) => {
+        fc.pre(k <= n);
+        const f = xorSystem(n, randomXorRows(n, m, k, seed));
+        const clauses = [...f.clauses, [1, -n]];
+        expect((await count(cnfFromClauses(n, clauses))).models).toBe(BigInt(bruteCount(n, clauses)));
+      }),
+      { numRuns: 100 },
     );
   });
 });
