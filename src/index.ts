@@ -19,7 +19,7 @@ export type { CountResult } from "./cnf/count.js";
 export { DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "./cnf/count.js";
 export type { CountOptions } from "./count/index.js";
 export { countModels } from "./count/index.js";
-export type { Structure, StructureOptions, StructureReport, Definition, DefinitionKind, Parity, Group } from "./structure/index.js";
+export type { Structure, StructureOptions, StructureReport, StructuredEvaluation, Definition, DefinitionKind, Parity, Group } from "./structure/index.js";
 export { recoverStructure, extendAssignment, satisfiesStructure, evaluateStructured } from "./structure/index.js";
 
 export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";

@@ -16,20 +16,27 @@ export type DefinitionKind = "equiv" | "not" | "and" | "or" | "xor" | "xnor";
  * / its negation. Inputs of equiv, not, xor and xnor are positive (plain variables).
  */
 export interface Definition {
+  /** The defined DIMACS variable. */
   readonly variable: number;
+  /** The function it equals. */
   readonly kind: DefinitionKind;
+  /** The function's inputs as DIMACS literals (negative: negated). */
   readonly inputs: readonly number[];
 }
 
 /** The XOR of `variables` must equal `parity`. */
 export interface Parity {
+  /** DIMACS variables, ascending. */
   readonly variables: readonly number[];
+  /** The value their XOR must take. */
   readonly parity: 0 | 1;
 }
 
 /** At most one of `variables` is true; exactly one when `exactlyOne`. */
 export interface Group {
+  /** DIMACS variables, ascending. */
   readonly variables: readonly number[];
+  /** The group's at-least-one clause was present (and consumed). */
   readonly exactlyOne: boolean;
 }
 
@@ -39,12 +46,17 @@ export interface StructureReport {
   readonly clauses: number;
   /** Clauses after dropping repeated literals, tautologies and repeated clauses. */
   readonly cleanedClauses: number;
+  /** Literals that stood twice in one clause. */
   readonly duplicateLiterals: number;
+  /** Clauses holding a literal and its negation (always true), dropped. */
   readonly tautologies: number;
+  /** Clauses equal to an earlier one (as sets of literals), dropped. */
   readonly duplicateClauses: number;
-  /** Cleaned clauses consumed by definitions, by parity constraints and by groups. */
+  /** Cleaned clauses consumed by definitions. */
   readonly definitionClauses: number;
+  /** Cleaned clauses consumed by parity constraints. */
   readonly parityClauses: number;
+  /** Cleaned clauses consumed by groups. */
   readonly groupClauses: number;
   /** Definitions refused because they would have closed a cycle (a variable left free instead). */
   readonly cyclesRefused: number;
@@ -70,12 +82,15 @@ export interface Structure {
   readonly unused: number;
   /** Gate definitions in topological order: every input is free or defined earlier. */
   readonly definitions: readonly Definition[];
+  /** Standalone parity constraints: complete k-XOR clause sets that define no variable. */
   readonly parities: readonly Parity[];
+  /** At-most-one and exactly-one groups (3 or more variables each, disjoint). */
   readonly groups: readonly Group[];
   /** Every clause not consumed by the above, cleaned (literals sorted by variable). */
   readonly remaining: Cnf;
   /** Some clause is empty: nothing satisfies the formula (the empty clause is in `remaining`). */
   readonly unsat: boolean;
+  /** What was dropped, consumed and refused, in clauses. */
   readonly report: StructureReport;
 }
 
@@ -266,6 +281,14 @@ export function satisfiesStructure(structure: Structure, assignment: ArrayLike<b
   return true;
 }
 
+/** The result of {@link evaluateStructured}. */
+export interface StructuredEvaluation {
+  /** The completed assignment over all declared variables (0/1, index v - 1 for variable v). */
+  readonly assignment: Uint8Array;
+  /** It satisfies the parities, groups and remaining clauses: it is a model of the formula. */
+  readonly satisfied: boolean;
+}
+
 /**
  * Evaluates the formula through its structure: completes the free variables' values with
  * {@link extendAssignment} and checks the rest with {@link satisfiesStructure}. The result is
@@ -277,7 +300,7 @@ export function satisfiesStructure(structure: Structure, assignment: ArrayLike<b
  * evaluateStructured(s, [1, 0, 0]).satisfied; // false: 3 = 1 AND 0 = 0, but 3 is forced true
  * ```
  */
-export function evaluateStructured(structure: Structure, assignment: ArrayLike<boolean | number>): { assignment: Uint8Array; satisfied: boolean } {
+export function evaluateStructured(structure: Structure, assignment: ArrayLike<boolean | number>): StructuredEvaluation {
   const full = extendAssignment(structure, assignment);
   return { assignment: full, satisfied: satisfiesStructure(structure, full) };
 }
