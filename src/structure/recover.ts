@@ -110,21 +110,23 @@ class PairTable {
     return h & this.mask;
   }
   set(x: number, y: number, value: number): void {
-    if (x > y) [x, y] = [y, x];
-    let s = this.slot(x, y);
+    const lo = x < y ? x : y;
+    const hi = x < y ? y : x;
+    let s = this.slot(lo, hi);
     while (this.a[s] !== -1) s = (s + 1) & this.mask;
-    this.a[s] = x;
-    this.b[s] = y;
+    this.a[s] = lo;
+    this.b[s] = hi;
     this.v[s] = value;
   }
   /** The clause (x | y), or -1. */
   get(x: number, y: number): number {
-    if (x > y) [x, y] = [y, x];
-    let s = this.slot(x, y);
+    const lo = x < y ? x : y;
+    const hi = x < y ? y : x;
+    let s = this.slot(lo, hi);
     for (;;) {
       const k = this.a[s]!;
       if (k === -1) return -1;
-      if (k === x && this.b[s] === y) return this.v[s]!;
+      if (k === lo && this.b[s] === hi) return this.v[s]!;
       s = (s + 1) & this.mask;
     }
   }
