@@ -56,7 +56,7 @@ export async function structureCommand(argv: string[]): Promise<number> {
 
 /** Writes the JSON in chunks: a million remaining clauses never sit in one string. */
 function writeJson(s: Structure, clauses: number): void {
-  let buf = `{"variables":${s.variables},"clauses":${clauses},"free":[${Array.from(s.free).join(",")}],"unused":${s.unused},"definitions":[`;
+  let buf = `{"variables":${s.variables},"clauses":${clauses},"free":[${s.free.join(",")}],"unused":${s.unused},"definitions":[`;
   const flush = (force = false): void => {
     if (force || buf.length > 1 << 20) {
       writeStdout(buf);
@@ -80,7 +80,10 @@ function writeJson(s: Structure, clauses: number): void {
   buf += `],"remaining_clauses":[`;
   const { lits, clauseStart } = s.remaining;
   for (let i = 0; i + 1 < clauseStart.length; i++) {
-    buf += `${i ? "," : ""}[${lits.subarray(clauseStart[i]!, clauseStart[i + 1]!).join(",")}]`;
+    // Literal by literal: joining a typed-array view per clause is several times slower.
+    buf += i ? ",[" : "[";
+    for (let k = clauseStart[i]!; k < clauseStart[i + 1]!; k++) buf += k > clauseStart[i]! ? "," + lits[k]! : lits[k]!;
+    buf += "]";
     flush();
   }
   const r = s.report;

@@ -35,7 +35,11 @@ export type CountResult =
       readonly ok: true;
       /** Satisfying assignments over all declared variables. */
       readonly models: bigint;
-      /** Variables occurring in clauses (the ones that had to be enumerated). */
+      /**
+       * Variables that were enumerated: the free variables left by structure recovery, or every
+       * variable occurring in a clause when recovery did not help; 0 when the count came from
+       * Gaussian elimination (a purely linear structure).
+       */
       readonly enumerated: number;
     }
   | {
@@ -43,7 +47,7 @@ export type CountResult =
       readonly ok: false;
       /** Why, worded for a user, with what to do. */
       readonly reason: string;
-      /** Variables occurring in clauses. */
+      /** Variables that would have been enumerated (free ones, or all occurring in clauses). */
       readonly enumerated: number;
     };
 
