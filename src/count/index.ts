@@ -19,7 +19,7 @@ import {
   type CountResult,
 } from "../cnf/count.js";
 import { recoverStructure } from "../structure/index.js";
-import { countStructuredBlocks, structuredBlocks, type StructuredPlan } from "./kernel.js";
+import { countStructuredBlocks, newStructuredScratch, structuredBlocks, type StructuredPlan } from "./kernel.js";
 import { countLinear, isLinear } from "./linear.js";
 import { planStructuredCount } from "./plan.js";
 
@@ -84,8 +84,9 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
   if (threads === 1 || (2 ** F / 32) * cost < PARALLEL_WORK) {
     found = 0;
     const step = Math.max(1, Math.floor(blocks / 64));
+    const scratch = newStructuredScratch(plan);
     for (let b = 0; b < blocks; b += step) {
-      found += countStructuredBlocks(plan, b, Math.min(blocks, b + step));
+      found += countStructuredBlocks(plan, b, Math.min(blocks, b + step), scratch);
       options.onProgress?.(Math.min(blocks, b + step) / blocks);
     }
   } else {

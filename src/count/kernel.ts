@@ -40,8 +40,11 @@ export interface StructuredPlan {
   readonly inner: number;
 }
 
-/** Word-index bits per block: 2^14 words = 2^19 assignments per block. */
-export const STRUCTURED_INNER_BITS = 14;
+/**
+ * Word-index bits per block: 2^8 words = 2^13 assignments per block, so that many variables
+ * are block variables, whose values the per-block simplification uses.
+ */
+export const STRUCTURED_INNER_BITS = 8;
 
 const LANE = [0xaaaaaaaa | 0, 0xcccccccc | 0, 0xf0f0f0f0 | 0, 0xff00ff00 | 0, 0xffff0000 | 0];
 
@@ -57,29 +60,149 @@ function popcount(x: number): number {
   return Math.imul(x, 0x01010101) >>> 24;
 }
 
-/** Counts the satisfying assignments of the enumerated variables in blocks [from, to). */
-export function countStructuredBlocks(plan: StructuredPlan, from: number, to: number): number {
+/** Scratch space of the kernel, reused across blocks (and chunks, on one thread). */
+export interface StructuredScratch {
+  val: Int32Array;
+  known: Uint8Array;
+  activeDefs: Int32Array;
+  activeClauses: Int32Array;
+  activeParities: Int32Array;
+  activeGroups: Int32Array;
+}
+
+export function newStructuredScratch(plan: StructuredPlan): StructuredScratch {
+  const slots = plan.enumerated + plan.constWords.length + plan.defKind.length;
+  return {
+    val: new Int32Array(slots),
+    known: new Uint8Array(slots),
+    activeDefs: new Int32Array(plan.defKind.length),
+    activeClauses: new Int32Array(plan.clauseStart.length),
+    activeParities: new Int32Array(plan.parValue.length),
+    activeGroups: new Int32Array(plan.grpExactlyOne.length),
+  };
+}
+
+/**
+ * Counts the satisfying assignments of the enumerated variables in blocks [from, to).
+ *
+ * Each block first evaluates everything its fixed (block and constant) variables decide, in
+ * three-valued logic: a definition with a known-false AND input or a known-true OR input, or with
+ * all inputs known, is a constant word for the whole block; a clause with a known-true literal or
+ * a parity or group with all members known drops out; a clause with only known-false literals, a
+ * wrong known parity or a group with two known-true members rules out the block. The words of
+ * the block then evaluate only what is left. Exact: a dropped part holds for every assignment of
+ * the block, and a ruled-out block holds no model.
+ */
+export function countStructuredBlocks(plan: StructuredPlan, from: number, to: number, scratch = newStructuredScratch(plan)): number {
   const F = plan.enumerated;
   const C = plan.constWords.length;
   const D = plan.defKind.length;
   const { defKind, defInStart, defIn, parStart, parSlots, parValue, grpStart, grpSlots, grpExactlyOne, clauseStart, clauseLits } = plan;
-  const val = new Int32Array(F + C + D);
+  const { val, known, activeDefs, activeClauses, activeParities, activeGroups } = scratch;
+  known.fill(0);
   for (let k = 0; k < Math.min(5, F); k++) val[k] = LANE[k]!;
-  val.set(plan.constWords, F);
+  for (let k = 0; k < C; k++) {
+    val[F + k] = plan.constWords[k]!;
+    known[F + k] = 1;
+  }
   const lanes = F >= 5 ? -1 : (2 ** (2 ** F) - 1) | 0;
   const inner = plan.inner;
   const words = F <= 5 ? 1 : 2 ** inner;
-  const top = 5 + inner;
+  const top = Math.min(F, 5 + inner);
   const P = parValue.length;
   const Gn = grpExactlyOne.length;
   const M = clauseStart.length - 1;
   const base = F + C;
   let total = 0;
-  for (let b = from; b < to; b++) {
-    for (let j = top; j < F; j++) val[j] = -(Math.floor(b / 2 ** (j - top)) & 1);
+  blocks: for (let b = from; b < to; b++) {
+    for (let j = top; j < F; j++) {
+      val[j] = -(Math.floor(b / 2 ** (j - top)) & 1);
+      known[j] = 1;
+    }
+    // Definitions, three-valued under the block's fixed variables.
+    let nd = 0;
+    for (let d = 0; d < D; d++) {
+      const s = defInStart[d]!;
+      const e = defInStart[d + 1]!;
+      const kind = defKind[d]!;
+      let all = 1;
+      let x: number;
+      if (kind === K_AND || kind === K_OR) {
+        // AND: a known 0 input decides; OR: a known 1 input decides.
+        const decide = kind === K_AND ? 0 : -1;
+        x = ~decide;
+        for (let k = s; k < e; k++) {
+          const c = defIn[k]!;
+          const slot = c >>> 1;
+          if (!known[slot]) {
+            all = 0;
+            continue;
+          }
+          if ((val[slot]! ^ -(c & 1)) === decide) {
+            x = decide;
+            all = 2;
+            break;
+          }
+        }
+      } else {
+        x = kind === K_NOT || kind === K_XNOR ? -1 : 0;
+        for (let k = s; k < e && all; k++) {
+          const c = defIn[k]!;
+          if (known[c >>> 1]) x ^= val[c >>> 1]! ^ -(c & 1);
+          else all = 0;
+        }
+      }
+      if (all) {
+        val[base + d] = x;
+        known[base + d] = 1;
+      } else {
+        known[base + d] = 0;
+        activeDefs[nd++] = d;
+      }
+    }
+    let nc = 0;
+    for (let i = 0; i < M; i++) {
+      let open = 0;
+      let sat = false;
+      for (let k = clauseStart[i]!, e = clauseStart[i + 1]!; k < e; k++) {
+        const c = clauseLits[k]!;
+        if (!known[c >>> 1]) open++;
+        else if ((val[c >>> 1]! ^ -(c & 1)) !== 0) {
+          sat = true;
+          break;
+        }
+      }
+      if (sat) continue;
+      if (open === 0) continue blocks;
+      activeClauses[nc++] = i;
+    }
+    let np = 0;
+    for (let p = 0; p < P; p++) {
+      let x = 0;
+      let all = true;
+      for (let k = parStart[p]!, e = parStart[p + 1]!; k < e; k++) {
+        if (known[parSlots[k]!]) x ^= val[parSlots[k]!]!;
+        else all = false;
+      }
+      if (!all) activeParities[np++] = p;
+      else if ((x !== 0 ? 1 : 0) !== parValue[p]) continue blocks;
+    }
+    let ng = 0;
+    for (let g = 0; g < Gn; g++) {
+      let ones = 0;
+      let open = 0;
+      for (let k = grpStart[g]!, e = grpStart[g + 1]!; k < e; k++) {
+        const slot = grpSlots[k]!;
+        if (!known[slot]) open++;
+        else if (val[slot] !== 0) ones++;
+      }
+      if (ones > 1 || (grpExactlyOne[g] && ones === 0 && open === 0)) continue blocks;
+      if (open > 0) activeGroups[ng++] = g;
+    }
     for (let w = 0; w < words; w++) {
-      for (let j = 5; j < top && j < F; j++) val[j] = -((w >>> (j - 5)) & 1);
-      for (let d = 0; d < D; d++) {
+      for (let j = 5; j < top; j++) val[j] = -((w >>> (j - 5)) & 1);
+      for (let a = 0; a < nd; a++) {
+        const d = activeDefs[a]!;
         const s = defInStart[d]!;
         const e = defInStart[d + 1]!;
         const kind = defKind[d]!;
@@ -107,7 +230,8 @@ export function countStructuredBlocks(plan: StructuredPlan, from: number, to: nu
         val[base + d] = x;
       }
       let acc = lanes;
-      for (let i = 0; i < M && acc !== 0; i++) {
+      for (let a = 0; a < nc && acc !== 0; a++) {
+        const i = activeClauses[a]!;
         let m = 0;
         for (let k = clauseStart[i]!, e = clauseStart[i + 1]!; k < e; k++) {
           const c = clauseLits[k]!;
@@ -115,12 +239,14 @@ export function countStructuredBlocks(plan: StructuredPlan, from: number, to: nu
         }
         acc &= m;
       }
-      for (let p = 0; p < P && acc !== 0; p++) {
+      for (let a = 0; a < np && acc !== 0; a++) {
+        const p = activeParities[a]!;
         let x = 0;
         for (let k = parStart[p]!, e = parStart[p + 1]!; k < e; k++) x ^= val[parSlots[k]!]!;
         acc &= parValue[p] ? x : ~x;
       }
-      for (let g = 0; g < Gn && acc !== 0; g++) {
+      for (let a = 0; a < ng && acc !== 0; a++) {
+        const g = activeGroups[a]!;
         let one = 0;
         let two = 0;
         for (let k = grpStart[g]!, e = grpStart[g + 1]!; k < e; k++) {

@@ -56,8 +56,12 @@ export function planStructuredCount(s: Structure): StructuredCount {
   }
   // Slots: enumerated free variables, then fixed ones, then needed definitions.
   const slot = new Int32Array(occurring).fill(-1);
-  let F = 0;
-  for (let x = 0; x < s.free.length; x++) if (needed[x] && unit[x] === 0) slot[x] = F++;
+  const enumerated: number[] = [];
+  for (let x = 0; x < s.free.length; x++) if (needed[x] && unit[x] === 0) enumerated.push(x);
+  const F = enumerated.length;
+  // The kernel's block variables (the highest slots) are fixed per block, where they decide
+  // constraints early: give them the variables of the constraints that depend on fewest.
+  enumeratedOrder(s, at, enumerated, needed).forEach((x, i) => (slot[x] = i));
   const constWords: number[] = [];
   for (let x = 0; x < s.free.length; x++) {
     if (needed[x] && unit[x] !== 0) {
@@ -137,4 +141,59 @@ export function planStructuredCount(s: Structure): StructuredCount {
   };
   const cost = defIn.length + clauseLits.length + parSlots.length + grpSlots.length + defKind.length + kept.length + 1;
   return { plan, doubling, zero, cost };
+}
+
+/**
+ * The enumerated variables in slot order: the variables of the constraints with the smallest
+ * supports (free variables they depend on, through definitions) go last, to the block slots.
+ * Kept in plain variable order above 52 variables, where supports stop fitting a double's bits
+ * (such counts are refused anyway).
+ */
+function enumeratedOrder(s: Structure, at: (v: number) => number, enumerated: number[], needed: Uint8Array): number[] {
+  const F = enumerated.length;
+  if (F > 52 || F <= 5) return enumerated;
+  const bit = new Float64Array(needed.length);
+  enumerated.forEach((x, i) => (bit[x] = 2 ** i));
+  const or = (a: number, b: number): number => {
+    // Bitwise OR of two non-negative integers below 2^52, as doubles.
+    const hi = Math.floor(a / 2 ** 26) | Math.floor(b / 2 ** 26);
+    return hi * 2 ** 26 + ((a % 2 ** 26) | (b % 2 ** 26));
+  };
+  const support = new Float64Array(needed.length);
+  for (let x = 0; x < s.free.length; x++) support[x] = bit[x]!;
+  s.definitions.forEach((d, i) => {
+    const y = s.free.length + i;
+    if (!needed[y]) return;
+    let m = 0;
+    for (const l of d.inputs) m = or(m, support[at(Math.abs(l))]!);
+    support[y] = m;
+  });
+  const constraints: number[] = [];
+  const { lits, clauseStart } = s.remaining;
+  for (let i = 0; i + 1 < clauseStart.length; i++) {
+    let m = 0;
+    for (let k = clauseStart[i]!; k < clauseStart[i + 1]!; k++) m = or(m, support[at(Math.abs(lits[k]!))]!);
+    constraints.push(m);
+  }
+  for (const p of s.parities) constraints.push(p.variables.reduce((m, v) => or(m, support[at(v)]!), 0));
+  for (const g of s.groups) constraints.push(g.variables.reduce((m, v) => or(m, support[at(v)]!), 0));
+  const size = (m: number): number => {
+    let n = 0;
+    for (let i = 0; i < F; i++) if (Math.floor(m / 2 ** i) % 2 === 1) n++;
+    return n;
+  };
+  const order = constraints.map((m, i) => ({ m, n: size(m), i })).filter((c) => c.n > 0).sort((a, b) => a.n - b.n || a.i - b.i);
+  const picked: number[] = [];
+  const taken = new Uint8Array(F);
+  for (const c of order) {
+    for (let i = 0; i < F; i++) {
+      if (!taken[i] && Math.floor(c.m / 2 ** i) % 2 === 1) {
+        taken[i] = 1;
+        picked.push(i);
+      }
+    }
+  }
+  for (let i = 0; i < F; i++) if (!taken[i]) picked.push(i);
+  // picked[0] takes the highest slot.
+  return picked.reverse().map((i) => enumerated[i]!);
 }

@@ -1,6 +1,6 @@
 /** Worker entry for parallel structured counting: counts the blocks it is sent, reporting each. */
 import { parentPort, workerData } from "node:worker_threads";
-import { countStructuredBlocks, type StructuredPlan } from "./kernel.js";
+import { countStructuredBlocks, newStructuredScratch, type StructuredPlan } from "./kernel.js";
 
 /** Chunks of `chunk` blocks starting at `first`, then every `stride` blocks, below `blocks`. */
 interface Job {
@@ -12,10 +12,11 @@ interface Job {
 }
 
 const { plan, first, chunk, stride, blocks } = workerData as Job;
+const scratch = newStructuredScratch(plan);
 let total = 0;
 for (let b = first; b < blocks; b += stride) {
   const e = Math.min(blocks, b + chunk);
-  total += countStructuredBlocks(plan, b, e);
+  total += countStructuredBlocks(plan, b, e, scratch);
   parentPort!.postMessage({ done: e - b });
 }
 parentPort!.postMessage({ total });
