@@ -18,6 +18,8 @@ const mayImport = {
   util: [],
   cnf: [],
   ir: [],
+  structure: ["cnf"],
+  count: ["cnf", "structure"],
   synth: ["cnf", "ir"],
   passes: ["ir"],
   emit: ["ir"],

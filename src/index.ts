@@ -22,8 +22,13 @@ export type { DimacsInput } from "./cnf/source.js";
 export { readDimacs, readDimacsFile } from "./cnf/source.js";
 export { readDimacsWithGrammar } from "./cnf/grammarReader.js";
 export { writeDimacs } from "./cnf/writer.js";
-export type { CountOptions, CountResult } from "./cnf/count.js";
-export { countModels } from "./cnf/count.js";
+export type { CountResult } from "./cnf/count.js";
+export type { CountOptions } from "./count/index.js";
+export { countModels } from "./count/index.js";
+
+// Recovering structure (gates, parities, one-hot groups).
+export type { Structure, StructureOptions, StructureReport, StructuredEvaluation, Definition, DefinitionKind, Parity, Group } from "./structure/index.js";
+export { recoverStructure, extendAssignment, satisfiesStructure, evaluateStructured } from "./structure/index.js";
 
 // Compiling.
 export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";

@@ -12,8 +12,12 @@ export type { DimacsInput } from "./cnf/source.js";
 export { readDimacs, readDimacsFile } from "./cnf/source.js";
 export { writeDimacs } from "./cnf/writer.js";
 export { evaluate, evaluateWords } from "./cnf/evaluate.js";
-export type { CountOptions, CountResult } from "./cnf/count.js";
-export { countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "./cnf/count.js";
+export type { CountResult } from "./cnf/count.js";
+export { DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "./cnf/count.js";
+export type { CountOptions } from "./count/index.js";
+export { countModels } from "./count/index.js";
+export type { Structure, StructureOptions, StructureReport, StructuredEvaluation, Definition, DefinitionKind, Parity, Group } from "./structure/index.js";
+export { recoverStructure, extendAssignment, satisfiesStructure, evaluateStructured } from "./structure/index.js";
 
 export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";
 export type { GateKind } from "./ir/kinds.js";

@@ -18,6 +18,8 @@ const PUBLIC = [
   "planSearch", "bbhtRounds", "bbhtExpectedCalls", "EXACT_BITS",
   // forecast
   "forecastSearch", "DEFAULT_MACHINE", "LOGICAL_ERROR_MODELS",
+  // structure
+  "recoverStructure", "extendAssignment", "satisfiesStructure", "evaluateStructured",
 ];
 
 describe("public API", () => {

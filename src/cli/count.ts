@@ -10,9 +10,17 @@ Reads a DIMACS CNF file ("-" for standard input) and prints its number of variab
 satisfying assignments (models), counted exactly by exhaustive enumeration. Declared variables
 that occur in no clause double the count without costing time.
 
+Gate definitions that the clauses encode (AND, OR, XOR, NOT, equivalence: see clausegate
+structure) are computed rather than enumerated: only the free variables they leave are
+enumerated, so a Tseitin-encoded circuit costs 2^inputs, not 2^variables. When recovery does
+not shrink the enumeration, every variable occurring in a clause is enumerated (above 30 of
+them, with splitting and unit propagation).
+
 Options:
   --json                 print {"variables":..,"clauses":..,"models":..}
-  --max-variables N      refuse above N variables occurring in clauses (default ${DEFAULT_COUNT_LIMIT}, at most ${MAX_COUNT_LIMIT})
+  --max-variables N      refuse to enumerate more than N variables: the free variables left by
+                         structure recovery, else those occurring in clauses (default ${DEFAULT_COUNT_LIMIT}, at most ${MAX_COUNT_LIMIT})
+  --no-structure         skip structure recovery: enumerate every variable occurring in a clause
   --threads N            worker threads (default: number of cores)
   -h, --help             show this help
 `;
@@ -24,6 +32,7 @@ export async function countCommand(argv: string[]): Promise<number> {
     options: {
       json: { type: "boolean" },
       "max-variables": { type: "string" },
+      "no-structure": { type: "boolean" },
       threads: { type: "string" },
       help: { type: "boolean", short: "h" },
     },
@@ -37,7 +46,12 @@ export async function countCommand(argv: string[]): Promise<number> {
   const threads = intOption(values.threads, "--threads", 1, 256);
   const cnf = await loadCnf(file);
   const bar = progress("counting");
-  const r = await countModels(cnf, { maxVariables, ...(threads === undefined ? {} : { threads }), onProgress: bar.update });
+  const r = await countModels(cnf, {
+    maxVariables,
+    structure: values["no-structure"] !== true,
+    ...(threads === undefined ? {} : { threads }),
+    onProgress: bar.update,
+  });
   bar.stop();
   if (!r.ok) throw new UserError(`clausegate count: error: ${r.reason}`);
   const clauses = clauseCount(cnf);

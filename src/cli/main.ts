@@ -1,6 +1,7 @@
 /** The clausegate command line: dispatches to one command, maps errors to one line and an exit code. */
 import { readFileSync } from "node:fs";
 import { countCommand, countHelp } from "./count.js";
+import { structureCommand, structureHelp } from "./structure.js";
 import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
 import { verifyCommand, verifyHelp } from "./verify.js";
 import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp } from "./search.js";
@@ -18,6 +19,7 @@ const commands: Record<string, { run: (argv: string[]) => Promise<number>; summa
   draw: { run: drawCommand, summary: "draw an oracle or search circuit as SVG", help: drawHelp },
   forecast: { run: forecastCommand, summary: "estimate a fault-tolerant run (qubits, time) beside the classical time: a model", help: forecastHelp },
   count: { run: countCommand, summary: "count the models of a DIMACS CNF formula exactly", help: countHelp },
+  structure: { run: structureCommand, summary: "recover gate definitions, parities and one-hot groups; the free variables", help: structureHelp },
 };
 
 function version(): string {

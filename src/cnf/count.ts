@@ -1,6 +1,9 @@
 /**
- * Exact model counting: exhaustive bit-parallel enumeration (see countKernel.ts), split over all
- * cores with worker_threads when the work is large enough to pay for starting them.
+ * Exact model counting at the clause level: exhaustive bit-parallel enumeration of every
+ * variable that occurs in a clause (see countKernel.ts), split over all cores with
+ * worker_threads when the work is large enough to pay for starting them. The public
+ * `countModels` (src/count/) puts structure recovery in front of this and falls back to it when
+ * recovery does not shrink the enumeration.
  */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
@@ -11,10 +14,12 @@ import { countBySplitting } from "./countSplit.js";
 /** Options of {@link countModels}. */
 export interface CountOptions {
   /**
-   * Refuse formulas with more variables than this occurring in clauses (declared variables that
-   * occur in no clause only double the count and cost nothing). Default 34; at most 1000. Above
-   * 30 variables the counter splits on variables with unit propagation before enumerating, which
-   * is fast on structured formulas and may still take exponential time on random ones.
+   * Refuse to enumerate more variables than this: the free variables that structure recovery
+   * leaves when it helps (`countModels`), else the variables occurring in clauses (declared
+   * variables in no clause only double the count and cost nothing). Default 34; at most 1000.
+   * Above 30 occurring variables the clause-level counter splits on variables with unit
+   * propagation before enumerating, which is fast on structured formulas and may still take
+   * exponential time on random ones.
    */
   readonly maxVariables?: number;
   /** Worker threads to use; default: the number of cores. 1 counts on the calling thread. */
@@ -30,7 +35,11 @@ export type CountResult =
       readonly ok: true;
       /** Satisfying assignments over all declared variables. */
       readonly models: bigint;
-      /** Variables occurring in clauses (the ones that had to be enumerated). */
+      /**
+       * Variables that were enumerated: the free variables left by structure recovery, or every
+       * variable occurring in a clause when recovery did not help; 0 when the count came from
+       * Gaussian elimination (a purely linear structure).
+       */
       readonly enumerated: number;
     }
   | {
@@ -38,23 +47,24 @@ export type CountResult =
       readonly ok: false;
       /** Why, worded for a user, with what to do. */
       readonly reason: string;
-      /** Variables occurring in clauses. */
+      /** Variables that would have been enumerated (free ones, or all occurring in clauses). */
       readonly enumerated: number;
     };
 
 /** Default limit on enumerated variables: 2^34 assignments take about a minute on two cores. */
 export const DEFAULT_COUNT_LIMIT = 34;
-/** Variables in no clause beyond which the count (times 2^free) is too large to write out. */
-const MAX_FREE_VARIABLES = 1_000_000;
+/** Variables that only double the count beyond which the count is too large to write out. */
+export const MAX_DOUBLING_VARIABLES = 1_000_000;
 /** Hard ceiling for the limit. */
 export const MAX_COUNT_LIMIT = 1000;
 /** Above this many variables, split with propagation instead of enumerating everything. */
-const SPLIT_ABOVE = 30;
+export const SPLIT_ABOVE = 30;
 /** Below this many enumerated variables, counting on the calling thread is faster than workers. */
 const PARALLEL_FROM = 27;
 
 /**
- * Counts the satisfying assignments of `cnf` over all its declared variables, exactly.
+ * Counts the satisfying assignments of `cnf` over all its declared variables, exactly, by
+ * enumerating every variable that occurs in a clause.
  *
  * @example
  * ```ts
@@ -69,7 +79,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
     return { ok: false, reason: `the variable limit must be a whole number in 0..${MAX_COUNT_LIMIT}, got ${limit}`, enumerated: plan.used };
   }
   if (plan.unsat) return { ok: true, models: 0n, enumerated: 0 };
-  if (plan.free > MAX_FREE_VARIABLES) {
+  if (plan.free > MAX_DOUBLING_VARIABLES) {
     return { ok: false, enumerated: plan.used, reason: `the count is a multiple of 2^${plan.free} (${plan.free} declared variables occur in no clause), a number of over 300,000 digits; declare only the variables the formula uses` };
   }
   if (plan.used > limit) {
@@ -126,7 +136,8 @@ function countInWorkers(plan: CountPlan, blocks: number, threads: number, onProg
   return Promise.all(jobs).then((parts) => parts.reduce((a, b) => a + b, 0));
 }
 
-function humanTime(seconds: number): string {
+/** "12 seconds", "3 minutes", ...: a duration for messages. */
+export function humanTime(seconds: number): string {
   if (seconds < 120) return `${Math.ceil(seconds)} seconds`;
   if (seconds < 7200) return `${Math.round(seconds / 60)} minutes`;
   if (seconds < 172800) return `${Math.round(seconds / 3600)} hours`;

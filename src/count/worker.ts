@@ -1,0 +1,22 @@
+/** Worker entry for parallel structured counting: counts the blocks it is sent, reporting each. */
+import { parentPort, workerData } from "node:worker_threads";
+import { countStructuredBlocks, newStructuredScratch, type StructuredPlan } from "./kernel.js";
+
+/** Chunks of `chunk` blocks starting at `first`, then every `stride` blocks, below `blocks`. */
+interface Job {
+  plan: StructuredPlan;
+  first: number;
+  chunk: number;
+  stride: number;
+  blocks: number;
+}
+
+const { plan, first, chunk, stride, blocks } = workerData as Job;
+const scratch = newStructuredScratch(plan);
+let total = 0;
+for (let b = first; b < blocks; b += stride) {
+  const e = Math.min(blocks, b + chunk);
+  total += countStructuredBlocks(plan, b, e, scratch);
+  parentPort!.postMessage({ done: e - b });
+}
+parentPort!.postMessage({ total });
