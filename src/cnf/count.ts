@@ -142,5 +142,8 @@ export function humanTime(seconds: number): string {
   if (seconds < 7200) return `${Math.round(seconds / 60)} minutes`;
   if (seconds < 172800) return `${Math.round(seconds / 3600)} hours`;
   if (seconds < 63072000) return `${Math.round(seconds / 86400)} days`;
-  return `${Math.round(seconds / 31557600)} years`;
+  const years = seconds / 31557600;
+  // 2^n / rate overflows a double above n = 1024 or so: say it by its power of ten instead.
+  if (!Number.isFinite(years) || years >= 1e15) return `10^${Number.isFinite(years) ? Math.floor(Math.log10(years)) : "300+"} years or more`;
+  return `${Math.round(years).toLocaleString("en-US")} years`;
 }
