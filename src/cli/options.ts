@@ -6,7 +6,7 @@ import { UserError } from "./io.js";
 export function oneInput(positionals: string[], command: string): string {
   if (positionals.length !== 1) {
     throw new UserError(
-      `clausegate ${command}: error: expected one input file (or - for standard input) but got ${positionals.length}; see clausegate ${command} --help`,
+      `clausegate ${command}: error: expected one input file (or - for standard input) but got ${positionals.length}; hint: see clausegate ${command} --help`,
     );
   }
   return positionals[0]!;
@@ -17,7 +17,7 @@ export function intOption(raw: string | undefined, name: string, min: number, ma
   if (raw === undefined) return undefined;
   const v = /^\d+$/.test(raw) ? Number(raw) : NaN;
   if (!Number.isSafeInteger(v) || v < min || v > max) {
-    throw new UserError(`clausegate: error: ${name} expects a whole number in ${min}..${max} but got '${raw}'`);
+    throw new UserError(`clausegate: error: ${name} expects a whole number in ${min}..${max} but got '${raw}'; hint: give a value in that range`);
   }
   return v;
 }
@@ -26,7 +26,7 @@ export function intOption(raw: string | undefined, name: string, min: number, ma
 export function choice<T extends string>(raw: string | undefined, name: string, values: readonly T[], fallback: T): T {
   if (raw === undefined) return fallback;
   if ((values as readonly string[]).includes(raw)) return raw as T;
-  throw new UserError(`clausegate: error: ${name} expects one of ${values.join(", ")} but got '${raw}'`);
+  throw new UserError(`clausegate: error: ${name} expects one of ${values.join(", ")} but got '${raw}'; hint: pick one of those`);
 }
 
 /** The oracle options every circuit-making command shares, for parseArgs. */

@@ -160,7 +160,7 @@ function problemOf(cnf: Cnf, reduce: boolean): { cnf: Cnf; reduction: Reduction 
 
 /** Parses --solutions M for a register of n qubits (any size: M is read as a BigInt). */
 function givenSolutions(raw: string, n: number, command: string): bigint {
-  if (!/^\d+$/.test(raw)) throw new UserError(`clausegate ${command}: error: --solutions expects a whole number or 'unknown' but got '${raw}'`);
+  if (!/^\d+$/.test(raw)) throw new UserError(`clausegate ${command}: error: --solutions expects a whole number or 'unknown' but got '${raw}'; hint: give the number of models, or unknown`);
   const M = BigInt(raw);
   const digits = M === 0n ? 0 : M.toString(2).length;
   if (digits > n + 1 || (digits === n + 1 && M !== 1n << BigInt(n))) {
@@ -613,7 +613,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
     return 0;
   }
   const file = oneInput(positionals, "draw");
-  if (values.output === undefined) throw new UserError("clausegate draw: error: expected -o FILE.svg; see clausegate draw --help");
+  if (values.output === undefined) throw new UserError("clausegate draw: error: expected -o FILE.svg; hint: name the drawing's file, e.g. -o oracle.svg");
   if (values.iterations !== undefined && values.search !== true) throw new UserError("clausegate draw: error: --iterations sets the iterations of a search; hint: add --search, or leave out --iterations to draw the oracle");
   const o = oracleOptions(values);
   if (values.search && o.kind === "flag") throw new UserError("clausegate draw: error: a search uses the phase oracle; hint: leave out --kind flag, or leave out --search to draw the flag oracle");

@@ -76,11 +76,11 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
   const limit = options.maxVariables ?? DEFAULT_COUNT_LIMIT;
   const plan = planCount(cnf.variables, cnf.lits, cnf.clauseStart);
   if (!Number.isInteger(limit) || limit < 0 || limit > MAX_COUNT_LIMIT) {
-    return { ok: false, reason: `the variable limit must be a whole number in 0..${MAX_COUNT_LIMIT}, got ${limit}`, enumerated: plan.used };
+    return { ok: false, reason: `the variable limit must be a whole number in 0..${MAX_COUNT_LIMIT}, got ${limit}; hint: pass a limit in that range`, enumerated: plan.used };
   }
   if (plan.unsat) return { ok: true, models: 0n, enumerated: 0 };
   if (plan.free > MAX_DOUBLING_VARIABLES) {
-    return { ok: false, enumerated: plan.used, reason: `the count is a multiple of 2^${plan.free} (${plan.free} declared variables occur in no clause), a number of over 300,000 digits; declare only the variables the formula uses` };
+    return { ok: false, enumerated: plan.used, reason: `the count is a multiple of 2^${plan.free} (${plan.free} declared variables occur in no clause), a number of over 300,000 digits; hint: declare only the variables the formula uses` };
   }
   if (plan.used > limit) {
     const seconds = 2 ** plan.used / 2e9;
@@ -88,7 +88,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
       ok: false,
       enumerated: plan.used,
       reason: `refusing to enumerate 2^${plan.used} assignments (${plan.used} variables occur in clauses; the limit is ${limit}): ` +
-        `that would take about ${humanTime(seconds)} on two cores; raise the limit to try anyway (--max-variables N)`,
+        `that would take about ${humanTime(seconds)} on two cores; hint: raise the limit to try anyway (--max-variables N)`,
     };
   }
   if (plan.used > SPLIT_ABOVE) {

@@ -67,7 +67,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
   const F = plan.enumerated;
   if (F >= occurring || !structureWins(F, cost, occurring, cnf.lits.length, limit)) return countByClauses(cnf, options);
   if (doubling > MAX_DOUBLING_VARIABLES) {
-    return { ok: false, enumerated: F, reason: `the count is a multiple of 2^${doubling} (${doubling} variables are free and constrain nothing, ${s.unused} of them in no clause), a number of over 300,000 digits; declare only the variables the formula uses` };
+    return { ok: false, enumerated: F, reason: `the count is a multiple of 2^${doubling} (${doubling} variables are free and constrain nothing, ${s.unused} of them in no clause), a number of over 300,000 digits; hint: declare only the variables the formula uses` };
   }
   if (F > limit) {
     const seconds = (2 ** F / 32) * cost / (2 * OPS_PER_SECOND);
@@ -75,7 +75,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
       ok: false,
       enumerated: F,
       reason: `refusing to enumerate 2^${F} assignments (${F} free variables left by structure recovery, of ${occurring} in clauses; the limit is ${limit}): ` +
-        `that would take about ${humanTime(seconds)} on two cores; raise the limit to try anyway (--max-variables N)`,
+        `that would take about ${humanTime(seconds)} on two cores; hint: raise the limit to try anyway (--max-variables N)`,
     };
   }
   const blocks = structuredBlocks(plan);

@@ -1,0 +1,63 @@
+// One shape for every user-caused failure: exit 2, nothing on standard output, and one line on
+// standard error, "WHERE: error: WHAT; hint: WHAT TO DO" (notes and warnings may precede it).
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const dir = mkdtempSync(join(tmpdir(), "cg-err-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+const bad = join(dir, "bad.cnf");
+writeFileSync(bad, "p cnf 2 1\n1 3 0\n");
+const circuit = join(dir, "c.json");
+writeFileSync(circuit, '{"format":"clausegate-circuit","version":1,"comments":[],"qubits":2,"clbits":0,"registers":[{"name":"vars","role":"search","start":0,"size":2}],"gates":[{"op":"gphase","qubits":[],"angle":"x"}]}\n');
+const EX = "examples/allotment-pair.cnf";
+
+const cases: [string, string[], string?][] = [
+  ["no command", []],
+  ["unknown command", ["frobnicate"]],
+  ["unknown option", ["oracle", EX, "--frobnicate"]],
+  ["option without its value", ["oracle", EX, "-o"]],
+  ["value for a flag", ["oracle", EX, "--verify=yes"]],
+  ["two inputs", ["count", EX, EX]],
+  ["no input", ["plan"]],
+  ["missing file", ["count", join(dir, "missing.cnf")]],
+  ["malformed formula", ["oracle", bad]],
+  ["malformed formula on stdin", ["cost", "-"], "p cnf 1 1\nx 0\n"],
+  ["bad choice", ["oracle", EX, "--basis", "cliffordt"]],
+  ["bad number", ["count", EX, "--max-variables", "many"]],
+  ["bad solutions", ["plan", EX, "--solutions", "lots"]],
+  ["draw without -o", ["draw", EX]],
+  ["draw --iterations without --search", ["draw", EX, "--iterations", "2", "-o", join(dir, "d.svg")]],
+  ["search with --kind", ["search", EX, "--kind", "flag"]],
+  ["verify --circuit with a compile option", ["verify", EX, "--circuit", circuit, "--basis", "mcx"]],
+  ["malformed circuit", ["verify", EX, "--circuit", circuit]],
+  ["output into a missing folder", ["oracle", EX, "-o", join(dir, "no/such/folder.qasm")]],
+  ["output onto the input", ["oracle", EX, "-o", EX]],
+  ["output onto a folder", ["oracle", EX, "-o", dir]],
+  ["qasm2 of a multi-controlled gate", ["oracle", EX, "--format", "qasm2", "--basis", "mcx"]],
+  ["too many iterations", ["search", EX, "--iterations", "99999999"]],
+  ["count refused", ["count", "-", "--max-variables", "2"], "p cnf 4 2\n1 2 0\n3 4 0\n"],
+  ["help for an unknown command", ["help", "frobnicate"]],
+  ["structure of a malformed formula", ["structure", bad]],
+  ["forecast with a bad error rate", ["forecast", EX, "--error-rate", "lots"]],
+];
+
+describe("error shape", () => {
+  for (const [name, args, input] of cases) {
+    it(name, () => {
+      const r = cli(args, input);
+      expect(r.code, r.stderr).toBe(2);
+      expect(r.stdout).toBe("");
+      if (args.length === 0) {
+        expect(r.stderr).toMatch(/^clausegate \S+: compile DIMACS CNF/); // no command: the usage, on stderr
+        return;
+      }
+      const lines = r.stderr.split("\n").filter((l) => l !== "" && !/: (note|warning): /.test(l));
+      expect(lines, r.stderr).toHaveLength(1);
+      expect(lines[0]).toMatch(/^\S.*?: error: .+; hint: .+$/);
+      expect(r.stderr).not.toMatch(/\n\s+at |internal error/);
+    });
+  }
+});
