@@ -13,7 +13,7 @@
  * angle in units of pi/4 (0..7); "clbit": the bit a measure writes; "if": the classical bit that
  * must be 1 for the gate to act.
  */
-import { GATE_KINDS } from "../ir/kinds.js";
+import { GATE_KINDS, OPERAND_LAYOUT } from "../ir/kinds.js";
 import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
 import { batched, type Sink } from "./sink.js";
 
@@ -43,8 +43,9 @@ function gateJson(c: Circuit, g: number): string {
   const kind = GATE_KINDS[c.kind[g]!]!;
   const ops = operands(c, g);
   let s = `{"op":"${kind}"`;
-  if (kind === "gphase") s += `,"qubits":[],"angle":${ops[0]}`;
-  else if (kind === "measure") s += `,"qubits":[${qubitOf(ops[0]!)}],"clbit":${ops[1]}`;
+  const layout = OPERAND_LAYOUT[kind];
+  if (layout === "angle") s += `,"qubits":[],"angle":${ops[0]}`;
+  else if (layout === "qubit-clbit") s += `,"qubits":[${qubitOf(ops[0]!)}],"clbit":${ops[1]}`;
   else {
     s += `,"qubits":[${Array.from(ops, qubitOf).join(",")}]`;
     const neg: number[] = [];

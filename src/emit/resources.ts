@@ -1,5 +1,5 @@
 /** Counting a circuit's resources: gates by emitted name, T-count and T-depth, CNOTs, depth. */
-import { GATE_KINDS, IS_T } from "../ir/kinds.js";
+import { GATE_KINDS, IS_CNOT, IS_T, OPERAND_LAYOUT, TOFFOLI_AT_THREE } from "../ir/kinds.js";
 import { operands, qubitOf, type Circuit } from "../ir/circuit.js";
 import { forEachStatement } from "./qasm3/lower.js";
 import { gateName } from "./qasm3/print.js";
@@ -58,12 +58,13 @@ export function countCircuit(c: Circuit): CircuitCounts {
   for (let g = 0; g < c.gates; g++) {
     const kind = GATE_KINDS[c.kind[g]!]!;
     const ops = operands(c, g);
-    if (kind === "gphase") continue;
-    const nq = kind === "measure" ? 1 : ops.length;
+    const layout = OPERAND_LAYOUT[kind];
+    if (layout === "angle") continue;
+    const nq = layout === "qubit-clbit" ? 1 : ops.length;
     if (kind === "t" || kind === "tdg") tCount++;
-    if (kind === "cx" || kind === "cz") cnotCount++;
-    if (kind === "ccx" || ((kind === "mcx" || kind === "and" || kind === "unand") && ops.length === 3)) toffoliCount++;
-    if (kind === "measure") measurements++;
+    if (IS_CNOT[kind]) cnotCount++;
+    if (TOFFOLI_AT_THREE[kind] && nq === 3) toffoliCount++;
+    if (layout === "qubit-clbit") measurements++;
     const cond = c.cond[g]!;
     let l = cond >= 0 ? bitLevel[cond]! : 0;
     let tl = cond >= 0 ? bitTLevel[cond]! : 0;
@@ -79,7 +80,7 @@ export function countCircuit(c: Circuit): CircuitCounts {
       level[q] = l;
       tLevel[q] = tl;
     }
-    if (kind === "measure") {
+    if (layout === "qubit-clbit") {
       bitLevel[ops[1]!] = l;
       bitTLevel[ops[1]!] = tl;
     }

@@ -3,7 +3,7 @@
  * `ops[opStart[g] .. opStart[g+1])` (encoding in kinds.ts) and condition `cond[g]` (a classical
  * bit that must be 1 for the gate to act, or -1).
  */
-import { GATE_KINDS, K, type GateKind } from "./kinds.js";
+import { encodeQubit, GATE_KINDS, K, type GateKind } from "./kinds.js";
 
 /** What a register is for. */
 export type RegisterRole = "search" | "work" | "target";
@@ -42,8 +42,8 @@ export interface Circuit {
 
 export const qubitOf = (op: number): number => op >>> 1;
 export const negated = (op: number): boolean => (op & 1) === 1;
-export const pos = (q: number): number => q << 1;
-export const neg = (q: number): number => (q << 1) | 1;
+export const pos = (q: number): number => encodeQubit(q);
+export const neg = (q: number): number => encodeQubit(q, true);
 /** An encoded control that fires when qubit q equals `value`. */
 export const onValue = (q: number, value: 0 | 1): number => (q << 1) | (value ^ 1);
 

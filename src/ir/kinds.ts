@@ -25,6 +25,23 @@ export type GateKind = (typeof GATE_KINDS)[number];
 /** Kind name -> small integer stored in Circuit.kind. */
 export const K = Object.fromEntries(GATE_KINDS.map((k, i) => [k, i])) as { readonly [P in GateKind]: number };
 
+/**
+ * What a kind's operands are, in order: `qubits` (each encoded `(qubit << 1) | negated`),
+ * `controls-target` (the same, target last), `angle` (one raw number, units of pi/4) or
+ * `qubit-clbit` (one encoded qubit, then a raw classical-bit index). Readers, writers, counters
+ * and simulators take the operand layout from here.
+ */
+export type OperandLayout = "qubits" | "controls-target" | "angle" | "qubit-clbit";
+export const OPERAND_LAYOUT: Record<GateKind, OperandLayout> = {
+  x: "qubits", y: "qubits", z: "qubits", h: "qubits", s: "qubits", sdg: "qubits", t: "qubits", tdg: "qubits",
+  cx: "controls-target", cz: "qubits", ccx: "controls-target",
+  mcx: "controls-target", mcz: "qubits", and: "controls-target", unand: "controls-target",
+  gphase: "angle", measure: "qubit-clbit", reset: "qubits",
+};
+
+/** Encodes qubit q as an operand; `negated` marks a control that fires on |0>. */
+export const encodeQubit = (q: number, negated = false): number => (q << 1) | (negated ? 1 : 0);
+
 /** How many qubit operands a kind has; -1 when variable. */
 export const QUBIT_ARITY: Record<GateKind, number> = {
   x: 1, y: 1, z: 1, h: 1, s: 1, sdg: 1, t: 1, tdg: 1,
@@ -75,6 +92,14 @@ export function roleOf(kind: GateKind, i: number, n: number): Role {
 
 /** Phase exponent (units of pi/4) of single-qubit diagonal gates, for merging runs of them. */
 export const PHASE_EIGHTHS: Partial<Record<GateKind, number>> = { t: 1, s: 2, z: 4, sdg: 6, tdg: 7 };
+
+/** Two-qubit gates that count as one CNOT in cost reports (a CZ is one CNOT between Hadamards). */
+export const IS_CNOT: Record<GateKind, boolean> = Object.fromEntries(GATE_KINDS.map((k) => [k, k === "cx" || k === "cz"])) as Record<GateKind, boolean>;
+
+/** Kinds that are a Toffoli when they have exactly three qubit operands (ccx always has). */
+export const TOFFOLI_AT_THREE: Record<GateKind, boolean> = Object.fromEntries(
+  GATE_KINDS.map((k) => [k, k === "ccx" || k === "mcx" || k === "and" || k === "unand"]),
+) as Record<GateKind, boolean>;
 
 /** T-type gates (non-Clifford). */
 export const IS_T: Record<GateKind, boolean> = Object.fromEntries(GATE_KINDS.map((k) => [k, k === "t" || k === "tdg"])) as Record<GateKind, boolean>;

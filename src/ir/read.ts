@@ -11,7 +11,7 @@
 import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
 import { CircuitBuilder, SEARCH_REGISTER, type Circuit } from "./circuit.js";
 import { firstInvalidUtf8, JsonScanner, JsonSyntaxError, shownByte, shownValue, type JsonNode } from "./json.js";
-import { GATE_KINDS, K, type GateKind } from "./kinds.js";
+import { encodeQubit, GATE_KINDS, K, type GateKind } from "./kinds.js";
 import {
   checkRegisters, GateChecker, MAX_CIRCUIT_CLBITS, MAX_CIRCUIT_QUBITS, REGISTER_ORDER, validateCircuit, type GateFault, type GateFields,
   type RegisterFields,
@@ -211,7 +211,7 @@ class JsonCircuitReader {
       const fault = checker.check(g);
       if (fault !== null) throw stop(g.faultAt(fault), `${fault.message} ${where}`);
       ops.length = 0;
-      for (let k = 0; k < g.qubits.length; k++) ops.push(g.qubits[k]! << 1);
+      for (let k = 0; k < g.qubits.length; k++) ops.push(encodeQubit(g.qubits[k]!));
       for (const p of g.negated) ops[p]! |= 1;
       if (g.angle !== undefined) ops.push(g.angle);
       if (g.clbit !== undefined) ops.push(g.clbit);
@@ -518,7 +518,7 @@ class Qasm3Reader {
       angle: kind === "gphase" ? extra : undefined, clbit: kind === "measure" ? extra : undefined, cond: cond < 0 ? undefined : cond,
     });
     if (fault !== null) throw qstop(fault.field === "qubits" && fault.index >= 0 ? offsets[fault.index]! : at, fault.message);
-    const ops = qubits.map((q) => q << 1);
+    const ops = qubits.map((q) => encodeQubit(q));
     for (const p of negatedAt) ops[p]! |= 1;
     if (extra !== undefined) ops.push(extra);
     b.addN(K[kind], ops, cond);

@@ -205,7 +205,7 @@ class Lowering {
     const b = c.ops[s + 1]!;
     const t = qubitOf(c.ops[s + n]!);
     const d = n === 3 ? c.ops[s + 2]! : -1;
-    if (a >>> 1 === b >>> 1 || (n === 3 && (a >>> 1 === d >>> 1 || b >>> 1 === d >>> 1))) return false;
+    if (qubitOf(a) === qubitOf(b) || (n === 3 && (qubitOf(a) === qubitOf(d) || qubitOf(b) === qubitOf(d)))) return false;
     this.growRecords(t);
     this.recordAt[t] = this.records.length;
     if (n === 2) {
@@ -354,7 +354,7 @@ export function normalizeControls(ops: readonly number[]): number[] | null {
     const out: number[] = [];
     next: for (const op of ops) {
       for (const o of out) {
-        if (o >>> 1 !== op >>> 1) continue;
+        if (qubitOf(o) !== qubitOf(op)) continue;
         if (o !== op) return null;
         continue next;
       }
