@@ -25,7 +25,7 @@ const mayImport = {
   emit: ["ir"],
   cost: ["ir", "synth", "passes", "emit", "cnf"],
   sim: ["ir", "cnf"],
-  search: ["cnf", "ir", "synth"],
+  search: ["cnf", "ir", "synth", "count"],
   draw: ["ir", "search"],
   // The physical model takes plain numbers; cnf only for the classical evaluator's rate.
   forecast: ["cnf"],

@@ -12,7 +12,7 @@ import { existsSync, mkdirSync, statSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { cnfFromClauses } from "../src/cnf/cnf.js";
-import { countModels } from "../src/cnf/count.js";
+import { countModels } from "../src/count/clauses.js";
 import { scanDimacs } from "../src/cnf/scanner.js";
 import { compileOracle, costTable } from "../src/compile.js";
 import { emitQasm3 } from "../src/emit/qasm3/index.js";

@@ -22,7 +22,7 @@ export type { DimacsInput } from "./cnf/source.js";
 export { readDimacs, readDimacsFile } from "./cnf/source.js";
 export { readDimacsWithGrammar } from "./cnf/grammarReader.js";
 export { writeDimacs } from "./cnf/writer.js";
-export type { CountResult } from "./cnf/count.js";
+export type { CountResult } from "./count/clauses.js";
 export type { CountOptions } from "./count/index.js";
 export { countModels } from "./count/index.js";
 

@@ -3,7 +3,7 @@
  * definitions (structure/), only the free variables are enumerated and the defined ones are
  * computed, 32 assignments per word (kernel.ts); a purely linear structure (XORs, parities,
  * unit clauses) is solved by Gaussian elimination instead (linear.ts). When recovery does not
- * shrink the enumeration, the clause-level counter (cnf/count.ts) counts as before.
+ * shrink the enumeration, the clause-level counter (clauses.ts) counts as before.
  */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
@@ -17,7 +17,7 @@ import {
   SPLIT_ABOVE,
   type CountOptions as ClauseCountOptions,
   type CountResult,
-} from "../cnf/count.js";
+} from "./clauses.js";
 import { recoverStructure } from "../structure/index.js";
 import { countStructuredBlocks, newStructuredScratch, structuredBlocks, type StructuredPlan } from "./kernel.js";
 import { countLinear, isLinear } from "./linear.js";

@@ -4,7 +4,7 @@
  * header declaring 2^31 - 1 variables costs nothing.
  */
 import type { Cnf } from "../cnf/cnf.js";
-import { countModels, type CountOptions } from "../cnf/count.js";
+import { countModels, type CountOptions } from "../count/index.js";
 import type { ScaledCount } from "./plan.js";
 import { occurringVariables } from "./reduce.js";
 

@@ -1,15 +1,15 @@
 /**
  * Exact model counting at the clause level: exhaustive bit-parallel enumeration of every
- * variable that occurs in a clause (see countKernel.ts), split over all cores with
+ * variable that occurs in a clause (see clauseKernel.ts), split over all cores with
  * worker_threads when the work is large enough to pay for starting them. The public
  * `countModels` (src/count/) puts structure recovery in front of this and falls back to it when
  * recovery does not shrink the enumeration.
  */
 import { availableParallelism } from "node:os";
 import { Worker } from "node:worker_threads";
-import type { Cnf } from "./cnf.js";
-import { blockCount, countBlocks, planCount, type CountPlan } from "./countKernel.js";
-import { countBySplitting } from "./countSplit.js";
+import type { Cnf } from "../cnf/cnf.js";
+import { blockCount, countBlocks, planCount, type CountPlan } from "./clauseKernel.js";
+import { countBySplitting } from "./clauseSplit.js";
 
 /** Options of {@link countModels}. */
 export interface CountOptions {
@@ -112,7 +112,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
 }
 
 function countInWorkers(plan: CountPlan, blocks: number, threads: number, onProgress?: (f: number) => void): Promise<number> {
-  const url = new URL("./countWorker.js", import.meta.url);
+  const url = new URL("./clauseWorker.js", import.meta.url);
   let done = 0;
   // Interleaved chunks balance the load: pruned blocks cluster, so contiguous halves would not.
   const chunk = Math.max(1, Math.floor(blocks / (64 * threads)));

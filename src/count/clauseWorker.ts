@@ -1,6 +1,6 @@
 /** Worker entry for parallel model counting: counts the blocks it is sent, reporting each. */
 import { parentPort, workerData } from "node:worker_threads";
-import { countBlocks, newScratch, type CountPlan } from "./countKernel.js";
+import { countBlocks, newScratch, type CountPlan } from "./clauseKernel.js";
 
 /** Chunks of `chunk` blocks starting at `first`, then every `stride` blocks, below `blocks`. */
 interface Job {

@@ -1,12 +1,12 @@
 /**
  * Counting formulas with more variables than plain enumeration can take: branch on a variable,
  * propagate unit clauses, and hand each residual formula that is small enough to the
- * bit-parallel enumerator (countKernel.ts). Exact: the two branches of a split partition the
+ * bit-parallel enumerator (clauseKernel.ts). Exact: the two branches of a split partition the
  * assignments, propagation only removes assignments that falsify a clause, and a variable that
  * occurs in no open clause doubles the count. Structured formulas (one-hot encodings, n-queens)
  * collapse quickly under propagation; random formulas are better served by enumeration alone.
  */
-import { countBlocks, type CountPlan } from "./countKernel.js";
+import { countBlocks, type CountPlan } from "./clauseKernel.js";
 
 /** Residual formulas with at most this many open variables are enumerated. */
 const LEAF_VARIABLES = 22;
