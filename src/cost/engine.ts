@@ -1,0 +1,607 @@
+/**
+ * The counting engine: takes the lowered circuit as a stream of template instances (see
+ * lowering.ts) and counts what the emitted circuit holds after work-qubit reuse and the default
+ * optimizer passes, without storing the circuit.
+ *
+ * 1. Work-qubit reuse (passes/reuseWork.ts): a work qubit takes a wire at its first gate (the
+ *    most recently freed wire, else a new one) and frees it after its last gate.
+ * 2. cancel-inverses (passes/cancelInverses.ts), replayed exactly: the same walk back along the
+ *    target's gates (at most WINDOW live ones), the same inverse, commutation and clear-between
+ *    tests, over instances instead of gates. Only the gates whose walk can leave their own
+ *    instance are walked (templates.ts's exitingGates); the others stop inside it, unchanged.
+ * 3. The second cancel-inverses of the pipeline runs on merge-phases' output. It is replayed on
+ *    the first one's output (in detection mode: any pair it would find makes the result a bound)
+ *    after each instance is final; merge-phases only moves a phase gate later past gates that are
+ *    diagonal on its qubit, and merges a run of them into at most two, which changes no walk of
+ *    cancel-inverses unless a run of phase gates alone vanishes (also detected) or a walk hits
+ *    the window (detected).
+ * 4. merge-phases (passes/mergePhases.ts), replayed exactly per qubit, then the ASAP tally of
+ *    emit/resources.ts (depth, T-depth, counts) with one level per wire.
+ * drop-identities only merges global phases here (no multi-controlled gates are left), and
+ * fold-x-polarity finds no polarity in the toffoli and clifford+t bases: neither changes a figure.
+ *
+ * An instance is final once LAG later instances have been replayed; a cancellation reaching an
+ * instance already counted, or a walk needing an instance no longer kept, makes the result
+ * inexact (reported, never silent). Then figures are not exact: see {@link EngineResult.exact}.
+ */
+import { K, GATE_KINDS, INVERSE_KIND, PHASE_EIGHTHS } from "../ir/kinds.js";
+import {
+  FIRST_TOUCH, G_COND, G_IS_T, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
+  exitingGates, gatesOf, ROLE_OTHER, ROLE_Z, TEMPLATE_COUNT,
+} from "./templates.js";
+import type { InstanceSink } from "./lowering.js";
+
+/** What the engine counts. */
+export interface EngineOptions {
+  /** search + target qubits: wires below this are the qubits themselves. */
+  readonly base: number;
+  /** Replay the optimizer passes (the pipeline's default); false: the lowered, reused circuit. */
+  readonly optimize: boolean;
+  /** Depth, T-depth and the phase merging; false counts Toffolis, T and CNOTs only (faster). */
+  readonly levels: boolean;
+  /** Instances replayed before one is final (a power of two); default 65536. */
+  readonly lag?: number;
+}
+
+/** Figures of one circuit. */
+export interface EngineResult {
+  /** All qubits (search, target, work wires). */
+  readonly qubits: number;
+  /** T and Tdg gates. */
+  readonly tCount: number;
+  /** ASAP T-depth (0 when levels were not asked for). */
+  readonly tDepth: number;
+  /** CX and CZ gates. */
+  readonly cnotCount: number;
+  /** CCX gates. */
+  readonly toffoliCount: number;
+  /** ASAP depth, global phase excluded (0 when levels were not asked for). */
+  readonly depth: number;
+  /** Measurements. */
+  readonly measurements: number;
+  /** Template instances replayed. */
+  readonly instances: number;
+  /**
+   * True when every figure is that of the emitted circuit. False only when the engine found a
+   * case its replay does not cover (see `reason`): then the counts and depths are upper bounds
+   * when `upperBound` is true, else unknown.
+   */
+  readonly exact: boolean;
+  /** With exact false: the figures are upper bounds. */
+  readonly upperBound: boolean;
+  /** Why the figures are not exact. */
+  readonly reason: string | null;
+}
+
+/** Shortest sequence for a phase of k eighths (merge-phases' table): gate kinds. */
+const SEQUENCE: readonly (readonly number[])[] = [
+  [], [K.t], [K.s], [K.s, K.t], [K.z], [K.z, K.t], [K.sdg], [K.tdg],
+];
+const HAS_PHASE = 8;
+const HAS_Z = 16;
+
+const KIND_T = K.t;
+const KIND_TDG = K.tdg;
+const KIND_CX = K.cx;
+const KIND_CZ = K.cz;
+const KIND_CCX = K.ccx;
+const KIND_MEASURE = K.measure;
+const KIND_RESET = K.reset;
+const KIND_GPHASE = K.gphase;
+
+/** Exiting gates with nothing dead, per template. */
+const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
+/** Index of gate e in its slot's list, per slot: GATE_SLOT_INDEX[e * 3 + s]. */
+const GATE_SLOT_INDEX = new Int8Array(GATE_START[TEMPLATE_COUNT]! * 3).fill(-1);
+for (let t = 0; t < TEMPLATE_COUNT; t++) {
+  for (let s = 0; s < 3; s++) {
+    const list = SLOT_GATES[t * 3 + s]!;
+    for (let i = 0; i < list.length; i++) GATE_SLOT_INDEX[(GATE_START[t]! + list[i]!) * 3 + s] = i;
+  }
+}
+
+export class CountingEngine implements InstanceSink {
+  private readonly base: number;
+  private readonly optimize: boolean;
+  private readonly levels: boolean;
+  private readonly lag: number;
+  private readonly ringSize: number;
+  private readonly ringMask: number;
+
+  // Instances, in a ring.
+  private readonly rT: Uint8Array;
+  private readonly rW: Int32Array;
+  private readonly rDead: Int32Array;
+  private readonly rPrev: Int32Array;
+  private readonly rPrevSlot: Int8Array;
+  private readonly rNext: Int32Array;
+  private nextId = 0;
+  /** Instances below this have been through stage 2 and the tally. */
+  private done = 0;
+
+  // Wires.
+  private lastInst: Int32Array;
+  private lastSlot: Int8Array;
+  private sId: Int32Array;
+  private sT: Uint8Array;
+  private sW: Int32Array;
+  private sDead: Int32Array;
+  private level: Float64Array;
+  private tLevel: Float64Array;
+  private pend: Uint8Array;
+  private wireCap = 0;
+
+  // Virtual ids -> wires.
+  private wireOf: Int32Array = new Int32Array(1024).fill(-1);
+  private freeWires: number[] = [];
+  private workWires = 0;
+
+  // Figures.
+  private tCount = 0;
+  private cnotCount = 0;
+  private toffoliCount = 0;
+  private measurements = 0;
+  private depth = 0;
+  private tDepth = 0;
+  private bitL = 0;
+  private bitTL = 0;
+  private phaseGates = 0;
+  private flagHard: string | null = null;
+  private flagBound: string | null = null;
+  /** Set when the second cancel-inverses might change something (irrelevant if it never runs). */
+  private flagSecond: string | null = null;
+
+  constructor(opts: EngineOptions) {
+    this.base = opts.base;
+    this.optimize = opts.optimize;
+    this.levels = opts.levels;
+    this.lag = opts.lag ?? 65536;
+    let r = 4;
+    while (r < this.lag * 2 + 64) r *= 2;
+    this.ringSize = r;
+    this.ringMask = r - 1;
+    this.rT = new Uint8Array(r);
+    this.rW = new Int32Array(r * 3);
+    this.rDead = new Int32Array(r);
+    this.rPrev = new Int32Array(r * 3);
+    this.rPrevSlot = new Int8Array(r * 3);
+    this.rNext = new Int32Array(r * 3);
+    this.lastInst = new Int32Array(0);
+    this.lastSlot = new Int8Array(0);
+    this.sId = new Int32Array(0);
+    this.sT = new Uint8Array(0);
+    this.sW = new Int32Array(0);
+    this.sDead = new Int32Array(0);
+    this.level = new Float64Array(0);
+    this.tLevel = new Float64Array(0);
+    this.pend = new Uint8Array(0);
+    this.growWires(Math.max(64, this.base + 64));
+  }
+
+  private growWires(n: number): void {
+    if (n <= this.wireCap) return;
+    const cap = Math.max(n, this.wireCap * 2);
+    const i32 = (a: Int32Array, fill: number): Int32Array => {
+      const b = new Int32Array(cap).fill(fill);
+      b.set(a);
+      return b;
+    };
+    this.lastInst = i32(this.lastInst, -1);
+    const ls = new Int8Array(cap);
+    ls.set(this.lastSlot);
+    this.lastSlot = ls;
+    this.sId = i32(this.sId, -1);
+    const st = new Uint8Array(cap);
+    st.set(this.sT);
+    this.sT = st;
+    const sw = new Int32Array(cap * 3);
+    sw.set(this.sW);
+    this.sW = sw;
+    this.sDead = i32(this.sDead, 0);
+    const l = new Float64Array(cap);
+    l.set(this.level);
+    this.level = l;
+    const tl = new Float64Array(cap);
+    tl.set(this.tLevel);
+    this.tLevel = tl;
+    const p = new Uint8Array(cap);
+    p.set(this.pend);
+    this.pend = p;
+    this.wireCap = cap;
+  }
+
+  private wireFor(v: number): number {
+    if (v < this.base) return v;
+    if (v >= this.wireOf.length) {
+      const w = new Int32Array(Math.max(v + 1, this.wireOf.length * 2)).fill(-1);
+      w.set(this.wireOf);
+      this.wireOf = w;
+    }
+    let w = this.wireOf[v]!;
+    if (w < 0) {
+      w = this.freeWires.length > 0 ? this.freeWires.pop()! : this.base + this.workWires++;
+      if (w >= this.wireCap) this.growWires(w + 1);
+      this.wireOf[v] = w;
+    }
+    return w;
+  }
+
+  // ---- input -----------------------------------------------------------------------------
+
+  put(t: number, a: number, b: number, c: number, dies: number): void {
+    const id = this.nextId++;
+    if (id > 0x7ffffff0) throw new Error("counting: more than 2^31 template instances");
+    const x = id & this.ringMask;
+    if (id >= this.ringSize) this.evict(id - this.ringSize);
+    // Wires in the order of first use (reuse takes them in that order).
+    const vids = [a, b, c];
+    const touch = FIRST_TOUCH[t]!;
+    for (let i = 0; i < touch.length; i++) {
+      const s = touch[i]!;
+      this.rW[x * 3 + s] = this.wireFor(vids[s]!);
+    }
+    this.rT[x] = t;
+    this.rDead[x] = 0;
+    const slots = SLOTS[t]!;
+    for (let s = 0; s < slots; s++) {
+      const w = this.rW[x * 3 + s]!;
+      const p = this.lastInst[w]!;
+      this.rPrev[x * 3 + s] = p;
+      this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
+      this.rNext[x * 3 + s] = -1;
+      if (p >= 0 && p > id - this.ringSize) this.rNext[(p & this.ringMask) * 3 + this.lastSlot[w]!] = id;
+      this.lastInst[w] = id;
+      this.lastSlot[w] = s;
+    }
+    if (this.optimize) this.cancel(id, x);
+    if (dies >= 0) {
+      const v = vids[dies]!;
+      this.freeWires.push(this.wireOf[v]!);
+      this.wireOf[v] = -1;
+    }
+    if (id - this.lag >= 0) this.settle(id - this.lag);
+  }
+
+  /** Flushes everything; call once after the last instance. */
+  finish(): EngineResult {
+    while (this.done < this.nextId) this.settle(this.done);
+    if (this.levels) for (let w = 0; w < this.base + this.workWires; w++) this.flush(w);
+    // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
+    // phase gates); otherwise the runner skips it.
+    if (this.phaseGates >= 2 && this.flagSecond !== null && this.flagBound === null) this.flagBound = this.flagSecond;
+    const exact = this.flagHard === null && this.flagBound === null;
+    return {
+      qubits: this.base + this.workWires,
+      tCount: this.tCount,
+      tDepth: this.tDepth,
+      cnotCount: this.cnotCount,
+      toffoliCount: this.toffoliCount,
+      depth: this.depth,
+      measurements: this.measurements,
+      instances: this.nextId,
+      exact,
+      upperBound: !exact && this.flagHard === null,
+      reason: this.flagHard ?? this.flagBound,
+    };
+  }
+
+  /** Instances replayed so far. */
+  get instances(): number {
+    return this.nextId;
+  }
+
+  // ---- the instance store ----------------------------------------------------------------
+
+  /**
+   * Keeps a copy of an instance leaving the ring on each wire that may still walk into it: where
+   * it is the wire's last instance, or the one before an instance not yet through stage 2.
+   */
+  private evict(old: number): void {
+    const x = old & this.ringMask;
+    const t = this.rT[x]!;
+    for (let s = 0; s < SLOTS[t]!; s++) {
+      const w = this.rW[x * 3 + s]!;
+      const next = this.rNext[x * 3 + s]!;
+      if (next === -1 ? this.lastInst[w] === old : next >= this.done) {
+        this.sId[w] = old;
+        this.sT[w] = t;
+        this.sW[w * 3] = this.rW[x * 3]!;
+        this.sW[w * 3 + 1] = this.rW[x * 3 + 1]!;
+        this.sW[w * 3 + 2] = this.rW[x * 3 + 2]!;
+        this.sDead[w] = this.rDead[x]!;
+      }
+    }
+  }
+
+  /** Where instance `id` is kept, seen from wire w: ring index, -2 - w for the wire's copy, or -1. */
+  private locate(id: number, w: number): number {
+    if (id > this.nextId - 1 - this.ringSize) return id & this.ringMask;
+    if (this.sId[w] === id) return -2 - w;
+    return -1;
+  }
+
+  private tOf(loc: number): number {
+    return loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+  }
+
+  private wOf(loc: number, s: number): number {
+    return loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!;
+  }
+
+  private deadOf(loc: number): number {
+    return loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
+  }
+
+  // ---- cancel-inverses -------------------------------------------------------------------
+
+  /** Stage 1: the first cancel-inverses for the new instance. */
+  private cancel(id: number, x: number): void {
+    const t = this.rT[x]!;
+    const n = gatesOf(t);
+    const exits = EXIT0[t]!;
+    const base = GATE_START[t]!;
+    for (let p = 0; p < n; p++) {
+      // While no gate of this instance has gone, a gate whose walk stops inside stays.
+      if (this.rDead[x] === 0 && ((exits >>> p) & 1) === 0) continue;
+      if ((this.rDead[x]! >>> p) & 1) continue;
+      const e = base + p;
+      const kind = G_KIND[e]!;
+      if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+      const partner = this.findPartner(id, x, p, false);
+      if (partner >= 0) {
+        const hid = Math.floor(partner / 32);
+        const hp = partner % 32;
+        const hw = this.rW[x * 3 + G_OP[e * 3 + G_NQ[e]! - 1]!]!;
+        const loc = this.locate(hid, hw);
+        if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
+        else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
+        this.rDead[x] = this.rDead[x]! | (1 << p);
+        if (hid < this.done && this.flagHard === null) this.flagHard = "a cancellation reached a part already counted (raise the lag)";
+      }
+    }
+  }
+
+  /**
+   * cancelInverses.ts's findPartner for gate p of instance `id` (at ring index x): the most
+   * recent live gate that undoes it with only commuting gates between, as id * 32 + position,
+   * or -1. `detect` (stage 2): the instance's gates are final; report window exhaustion.
+   */
+  private findPartner(id: number, x: number, p: number, detect: boolean): number {
+    const t = this.rT[x]!;
+    const e = GATE_START[t]! + p;
+    const nq = G_NQ[e]!;
+    const ts = G_OP[e * 3 + nq - 1]!;
+    const w = this.rW[x * 3 + ts]!;
+    let steps = 0;
+    let loc = x;
+    let cur = id;
+    let slot = ts;
+    let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
+    for (;;) {
+      const ct = this.tOf(loc);
+      const list = SLOT_GATES[ct * 3 + slot]!;
+      const dead = this.deadOf(loc);
+      for (; k >= 0; k--) {
+        const hp = list[k]!;
+        if ((dead >>> hp) & 1) continue;
+        if (steps >= WINDOW) {
+          if (detect && this.flagSecond === null) this.flagSecond = "the second cancel-inverses reaches its window";
+          return -1;
+        }
+        steps++;
+        const f = GATE_START[ct]! + hp;
+        if (this.inversePair(x, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
+        if (!this.commute(x, e, loc, f)) return -1;
+      }
+      // The previous instance on this wire.
+      if (loc < 0) {
+        this.unavailable();
+        return -1;
+      }
+      const prev = this.rPrev[loc * 3 + slot]!;
+      if (prev < 0) return -1;
+      const ps = this.rPrevSlot[loc * 3 + slot]!;
+      const pl = this.locate(prev, w);
+      if (pl === -1) {
+        this.unavailable();
+        return -1;
+      }
+      loc = pl;
+      cur = prev;
+      slot = ps;
+      k = SLOT_GATES[this.tOf(loc) * 3 + slot]!.length - 1;
+    }
+  }
+
+  private unavailable(): void {
+    if (this.flagHard === null) this.flagHard = "a cancel-inverses walk needed a part no longer kept";
+  }
+
+  /** commute.ts's inversePair for gate e of the instance at ring index x and gate f at loc. */
+  private inversePair(x: number, e: number, loc: number, f: number): boolean {
+    if (G_COND[e] || G_COND[f]) return false;
+    if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f]) return false;
+    const nq = G_NQ[e]!;
+    if (G_NQ[f] !== nq) return false;
+    for (let i = 0; i < nq; i++) {
+      if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== this.wOf(loc, G_OP[f * 3 + i]!)) return false;
+    }
+    return true;
+  }
+
+  /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
+  private commute(x: number, e: number, loc: number, f: number): boolean {
+    const nq = G_NQ[e]!;
+    for (let i = 0; i < nq; i++) {
+      const s = G_OP[e * 3 + i]!;
+      const w = this.rW[x * 3 + s]!;
+      // The role of f on wire w: find the slot of loc holding w.
+      let rh = -1;
+      for (let j = 0; j < 3; j++) {
+        if (this.wOf(loc, j) === w) {
+          rh = G_ROLE[f * 3 + j]!;
+          if (rh >= 0) break;
+        }
+      }
+      if (rh < 0) continue;
+      const rg = G_ROLE[e * 3 + s]!;
+      if (rg === ROLE_OTHER || rg !== rh) return false;
+    }
+    return true;
+  }
+
+  /**
+   * cancelInverses.ts's clearBetween: every live gate after gate hp of instance hid on the other
+   * qubits of gate p of instance id commutes with it (at most WINDOW of them per qubit).
+   */
+  private clearBetween(id: number, x: number, p: number, hid: number, hp: number): boolean {
+    const t = this.rT[x]!;
+    const e = GATE_START[t]! + p;
+    const nq = G_NQ[e]!;
+    for (let i = 0; i + 1 < nq; i++) {
+      const s0 = G_OP[e * 3 + i]!;
+      const w = this.rW[x * 3 + s0]!;
+      let steps = 0;
+      let loc = x;
+      let cur = id;
+      let slot = s0;
+      let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
+      for (;;) {
+        const ct = this.tOf(loc);
+        const list = SLOT_GATES[ct * 3 + slot]!;
+        const dead = this.deadOf(loc);
+        let stop = false;
+        for (; k >= 0; k--) {
+          const xp = list[k]!;
+          if (cur < hid || (cur === hid && xp <= hp)) {
+            stop = true;
+            break;
+          }
+          if ((dead >>> xp) & 1) continue;
+          if (++steps > WINDOW) return false;
+          if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
+        }
+        if (stop || cur <= hid) break;
+        if (loc < 0) {
+          this.unavailable();
+          return false;
+        }
+        const prev = this.rPrev[loc * 3 + slot]!;
+        if (prev < 0) break;
+        const ps = this.rPrevSlot[loc * 3 + slot]!;
+        const pl = this.locate(prev, w);
+        if (pl === -1) {
+          this.unavailable();
+          return false;
+        }
+        loc = pl;
+        cur = prev;
+        slot = ps;
+        k = SLOT_GATES[this.tOf(loc) * 3 + slot]!.length - 1;
+      }
+    }
+    return true;
+  }
+
+  // ---- final instances: second cancel-inverses (detection), merge-phases, tally ----------
+
+  private settle(id: number): void {
+    const x = id & this.ringMask;
+    const t = this.rT[x]!;
+    const dead = this.rDead[x]!;
+    this.done = id + 1;
+    if (this.optimize && this.flagSecond === null) {
+      const exits = dead === 0 ? EXIT0[t]! : exitingGates(t, dead);
+      for (let m = exits; m !== 0; m &= m - 1) {
+        const p = 31 - Math.clz32(m & -m);
+        const e = GATE_START[t]! + p;
+        const kind = G_KIND[e]!;
+        if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+        if (this.findPartner(id, x, p, true) >= 0) {
+          this.flagSecond = "the second cancel-inverses would cancel more";
+          break;
+        }
+      }
+    }
+    const base = GATE_START[t]!;
+    const n = gatesOf(t);
+    if (!this.levels) {
+      for (let p = 0; p < n; p++) {
+        if ((dead >>> p) & 1) continue;
+        const k = G_KIND[base + p]!;
+        if (k === KIND_T || k === KIND_TDG) this.tCount++;
+        else if (k === KIND_CX || k === KIND_CZ) this.cnotCount++;
+        else if (k === KIND_CCX) this.toffoliCount++;
+        else if (k === KIND_MEASURE) this.measurements++;
+        if (G_PHASE[base + p]! >= 0) this.phaseGates++;
+      }
+      return;
+    }
+    for (let p = 0; p < n; p++) {
+      if ((dead >>> p) & 1) continue;
+      const e = base + p;
+      const kind = G_KIND[e]!;
+      if (kind === KIND_GPHASE) continue;
+      if (this.optimize && G_PHASE[e]! >= 0) {
+        // merge-phases: collect the run's phase on this qubit.
+        const w = this.rW[x * 3 + G_OP[e * 3]!]!;
+        const st = this.pend[w]!;
+        this.pend[w] = (((st & 7) + G_PHASE[e]!) & 7) | HAS_PHASE | (st & HAS_Z);
+        this.phaseGates++;
+        continue;
+      }
+      const nq = G_NQ[e]!;
+      let l = G_COND[e] ? this.bitL : 0;
+      let tl = G_COND[e] ? this.bitTL : 0;
+      for (let i = 0; i < nq; i++) {
+        const s = G_OP[e * 3 + i]!;
+        const w = this.rW[x * 3 + s]!;
+        if (this.optimize) {
+          if (G_ROLE[e * 3 + s] !== ROLE_Z) this.flush(w);
+          else this.pend[w] = this.pend[w]! | HAS_Z;
+        }
+        if (this.level[w]! > l) l = this.level[w]!;
+        if (this.tLevel[w]! > tl) tl = this.tLevel[w]!;
+      }
+      l++;
+      if (G_IS_T[e]) tl++;
+      for (let i = 0; i < nq; i++) {
+        const w = this.rW[x * 3 + G_OP[e * 3 + i]!]!;
+        this.level[w] = l;
+        this.tLevel[w] = tl;
+      }
+      if (l > this.depth) this.depth = l;
+      if (tl > this.tDepth) this.tDepth = tl;
+      if (kind === KIND_T || kind === KIND_TDG) this.tCount++;
+      else if (kind === KIND_CX || kind === KIND_CZ) this.cnotCount++;
+      else if (kind === KIND_CCX) this.toffoliCount++;
+      else if (kind === KIND_MEASURE) {
+        this.measurements++;
+        this.bitL = l;
+        this.bitTL = tl;
+      }
+      if (!this.optimize && PHASE_EIGHTHS[GATE_KINDS[kind]!] !== undefined) this.phaseGates++;
+    }
+  }
+
+  /** merge-phases' flush: the run's phase as the shortest sequence, placed here on wire w. */
+  private flush(w: number): void {
+    const st = this.pend[w]!;
+    if (st === 0) return;
+    this.pend[w] = 0;
+    if ((st & HAS_PHASE) === 0) return;
+    const k = st & 7;
+    if (k === 0 && (st & HAS_Z) === 0 && this.flagSecond === null) this.flagSecond = "merge-phases removed a run of phase gates alone";
+    const seq = SEQUENCE[k]!;
+    for (let i = 0; i < seq.length; i++) {
+      const isT = seq[i] === KIND_T || seq[i] === KIND_TDG;
+      const l = this.level[w]! + 1;
+      const tl = this.tLevel[w]! + (isT ? 1 : 0);
+      this.level[w] = l;
+      this.tLevel[w] = tl;
+      if (l > this.depth) this.depth = l;
+      if (tl > this.tDepth) this.tDepth = tl;
+      if (isT) this.tCount++;
+    }
+  }
+}

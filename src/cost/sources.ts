@@ -1,0 +1,226 @@
+/**
+ * The logical operations of each construction, streamed into a {@link LogicalSink}: a synthesized
+ * logical circuit replayed gate by gate (wide and textbook oracles, whose logical circuits are
+ * small: one AND per clause), the lean oracle generated clause by clause (its logical circuit has
+ * some 6 log2(m) operations per clause, too many to hold for large m), the diffusion, and the
+ * whole search circuit. A test holds each stream equal to the logical circuit synthesis builds.
+ */
+import { K, type Circuit } from "../ir/circuit.js";
+import type { OracleKind, SimplifiedCnf, Strategy } from "../synth/index.js";
+import { violatedBy } from "../synth/common.js";
+import type { LogicalSink, VirtualIds } from "./lowering.js";
+import { T_H, T_X } from "./templates.js";
+
+const pos = (q: number): number => q << 1;
+
+/** Reports progress as a fraction in [0, 1]. */
+export type Fraction = (done: number) => void;
+
+/**
+ * Replays a logical circuit. Work qubits (from `base` up) get fresh virtual ids on first use
+ * and give them back after their last use, which the lowering is told so that the engine frees
+ * their wire where work-qubit reuse would.
+ */
+export function replayLogical(c: Circuit, base: number, sink: LogicalSink, ids: VirtualIds, lastUse: Int32Array, progress?: Fraction): void {
+  const vid = new Int32Array(c.qubits).fill(-1);
+  const buf: number[] = [];
+  const step = Math.max(1, Math.floor(c.gates / 100));
+  for (let g = 0; g < c.gates; g++) {
+    if (progress && g % step === 0) progress(g / c.gates);
+    const kind = c.kind[g]!;
+    const s = c.opStart[g]!;
+    const e = c.opStart[g + 1]!;
+    if (kind === K.gphase) {
+      sink.gphase();
+      continue;
+    }
+    const nq = kind === K.measure ? 1 : e - s;
+    buf.length = 0;
+    for (let p = s; p < s + nq; p++) {
+      const op = c.ops[p]!;
+      const q = op >>> 1;
+      if (q < base) {
+        buf.push(op);
+        continue;
+      }
+      if (vid[q] === -1) vid[q] = ids.take();
+      buf.push((vid[q]! << 1) | (op & 1));
+    }
+    const last = buf.length - 1;
+    const dies = (i: number): boolean => {
+      const q = c.ops[s + i]! >>> 1;
+      return q >= base && lastUse[q] === g;
+    };
+    switch (kind) {
+      case K.and:
+        sink.and(buf.slice(0, last), buf[last]! >>> 1);
+        break;
+      case K.unand:
+        sink.unand(buf[last]! >>> 1, dies(last));
+        break;
+      case K.mcx:
+        sink.mcx(buf.slice(0, last), buf[last]! >>> 1, dies(last));
+        break;
+      case K.mcz:
+        sink.mcz(buf);
+        break;
+      case K.x:
+        sink.single(T_X, buf[0]! >>> 1, dies(0));
+        break;
+      case K.h:
+        sink.single(T_H, buf[0]! >>> 1, dies(0));
+        break;
+      case K.measure:
+        sink.measure(buf[0]! >>> 1);
+        break;
+      default:
+        throw new Error(`counting: logical gate kind ${kind} is not produced by synthesis`);
+    }
+    // Give back the ids of work qubits used for the last time (their wires were freed by the
+    // lowering's last instance on them). A work qubit ending as a mere control would keep its wire.
+    for (let p = s; p < s + nq; p++) {
+      const q = c.ops[p]! >>> 1;
+      if (q < base || lastUse[q] !== g || vid[q] === -1) continue;
+      const isTarget = p === s + last && (kind === K.unand || kind === K.mcx || kind === K.x || kind === K.h);
+      if (!isTarget) throw new Error("counting: a work qubit ends its span as a control");
+      ids.give(vid[q]!);
+      vid[q] = -1;
+    }
+  }
+}
+
+/** The index of the last gate using each qubit of a logical circuit (-1: unused). */
+export function lastUses(c: Circuit): Int32Array {
+  const last = new Int32Array(c.qubits).fill(-1);
+  for (let g = 0; g < c.gates; g++) {
+    const kind = c.kind[g]!;
+    if (kind === K.gphase) continue;
+    const s = c.opStart[g]!;
+    const nq = kind === K.measure ? 1 : c.opStart[g + 1]! - s;
+    for (let p = s; p < s + nq; p++) last[c.ops[p]! >>> 1] = g;
+  }
+  return last;
+}
+
+/**
+ * synth/lean.ts, one clause at a time: for each clause its violated bit (an AND into a fresh
+ * qubit, or the literal itself), a controlled increment of the w-bit counter through w - 1 fresh
+ * carries, the clause uncomputed; the mark on counter = 0; then the whole forward part inverted
+ * (reverse order, and <-> unand) on fresh work qubits.
+ */
+export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink, ids: VirtualIds, target: number, progress?: Fraction): void {
+  const m = f.clauseStart.length - 1;
+  if (f.unsat) return;
+  if (m === 0) {
+    if (kind === "phase") sink.gphase();
+    else sink.single(T_X, target, false);
+    return;
+  }
+  const w = Math.ceil(Math.log2(m + 1));
+  const counter = new Int32Array(w);
+  for (let j = 0; j < w; j++) counter[j] = ids.take();
+  const carries = new Int32Array(Math.max(0, w - 1));
+  let maxK = 0;
+  for (let i = 0; i < m; i++) maxK = Math.max(maxK, f.clauseStart[i + 1]! - f.clauseStart[i]!);
+  const ctrls = new Int32Array(maxK);
+  const step = Math.max(1, Math.floor(m / 50));
+  const clause = (i: number): { k: number; lits: Int32Array } => {
+    const s = f.clauseStart[i]!;
+    const k = f.clauseStart[i + 1]! - s;
+    for (let j = 0; j < k; j++) ctrls[j] = violatedBy(f.lits[s + j]!);
+    return { k, lits: ctrls.subarray(0, k) };
+  };
+  for (let i = 0; i < m; i++) {
+    if (progress && i % step === 0) progress(i / (2 * m));
+    const { k, lits } = clause(i);
+    let t = -1;
+    let bit: number;
+    if (k === 1) bit = lits[0]!;
+    else {
+      t = ids.take();
+      sink.and(lits, t);
+      bit = pos(t);
+    }
+    for (let j = 0; j + 1 < w; j++) carries[j] = ids.take();
+    // The increment (synth/lean.ts's increment).
+    let prev = bit;
+    for (let j = 0; j + 1 < w; j++) {
+      sink.andPair(prev, pos(counter[j]!), carries[j]!);
+      prev = pos(carries[j]!);
+    }
+    for (let j = w - 1; j >= 1; j--) {
+      sink.mcx1(pos(carries[j - 1]!), counter[j]!, false);
+      sink.unand(carries[j - 1]!, true);
+      ids.give(carries[j - 1]!);
+    }
+    sink.mcx1(bit, counter[0]!, false);
+    if (t >= 0) {
+      sink.unand(t, true);
+      ids.give(t);
+    }
+  }
+  const ok = Array.from(counter, (q) => pos(q) | 1); // fires when the counter is 0
+  if (kind === "phase") sink.mcz(ok);
+  else sink.mcx(ok, target, false);
+  // The forward part inverted: clause by clause from the last, each clause's operations reversed.
+  for (let i = m - 1; i >= 0; i--) {
+    if (progress && i % step === 0) progress(1 - i / (2 * m));
+    const { k, lits } = clause(i);
+    let t = -1;
+    let bit: number;
+    if (k === 1) bit = lits[0]!;
+    else {
+      t = ids.take();
+      sink.and(lits, t);
+      bit = pos(t);
+    }
+    for (let j = 0; j + 1 < w; j++) carries[j] = ids.take();
+    sink.mcx1(bit, counter[0]!, false);
+    for (let j = 1; j < w; j++) {
+      sink.andPair(j === 1 ? bit : pos(carries[j - 2]!), pos(counter[j - 1]!), carries[j - 1]!);
+      sink.mcx1(pos(carries[j - 1]!), counter[j]!, false);
+    }
+    for (let j = w - 2; j >= 0; j--) {
+      sink.unand(carries[j]!, true);
+      ids.give(carries[j]!);
+    }
+    if (t >= 0) {
+      sink.unand(t, true);
+      ids.give(t);
+    }
+  }
+}
+
+/** search/build.ts's diffusion over qubits 0..n-1. */
+export function diffusionOps(n: number, sink: LogicalSink): void {
+  if (n === 0) return;
+  for (let q = 0; q < n; q++) sink.single(T_H, q, false);
+  sink.mcz(Array.from({ length: n }, (_, q) => pos(q) | 1));
+  for (let q = 0; q < n; q++) sink.single(T_H, q, false);
+  sink.gphase();
+}
+
+/** One phase oracle of a search, on fresh work qubits. */
+export type OracleOps = (sink: LogicalSink, ids: VirtualIds, progress?: Fraction) => void;
+
+/** The phase oracle of a strategy as a stream (lean generated, wide replayed from synthesis). */
+export function phaseOracleOps(f: SimplifiedCnf, strategy: Strategy, wide: () => Circuit): OracleOps {
+  if (strategy === "lean") return (sink, ids, progress) => leanOracle(f, "phase", sink, ids, -1, progress);
+  let logical: Circuit | undefined;
+  let last: Int32Array | undefined;
+  return (sink, ids, progress) => {
+    logical ??= wide();
+    last ??= lastUses(logical);
+    replayLogical(logical, f.variables, sink, ids, last, progress);
+  };
+}
+
+/** search/build.ts's search circuit: H on all, K times (oracle, diffusion), then the measurements. */
+export function searchOps(n: number, oracle: OracleOps, iterations: number, measure: boolean, sink: LogicalSink, ids: VirtualIds, progress?: Fraction): void {
+  for (let q = 0; q < n; q++) sink.single(T_H, q, false);
+  for (let i = 0; i < iterations; i++) {
+    oracle(sink, ids, progress ? (x) => progress((i + x) / iterations) : undefined);
+    diffusionOps(n, sink);
+  }
+  if (measure) for (let q = 0; q < n; q++) sink.measure(q);
+}
