@@ -24,12 +24,13 @@
  * instance already counted, or a walk needing an instance no longer kept, makes the result
  * inexact (reported, never silent). Then figures are not exact: see {@link EngineResult.exact}.
  */
-import { K, GATE_KINDS, INVERSE_KIND, PHASE_EIGHTHS } from "../ir/kinds.js";
+import { K, INVERSE_KIND } from "../ir/kinds.js";
 import {
-  FIRST_TOUCH, G_COND, G_IS_T, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
+  FIRST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
   exitingGates, gatesOf, ROLE_OTHER, ROLE_Z, TEMPLATE_COUNT,
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
+import { finalRun, NONE, transferOf } from "./transfer.js";
 
 /** What the engine counts. */
 export interface EngineOptions {
@@ -73,21 +74,13 @@ export interface EngineResult {
   readonly reason: string | null;
 }
 
-/** Shortest sequence for a phase of k eighths (merge-phases' table): gate kinds. */
-const SEQUENCE: readonly (readonly number[])[] = [
-  [], [K.t], [K.s], [K.s, K.t], [K.z], [K.z, K.t], [K.sdg], [K.tdg],
-];
-const HAS_PHASE = 8;
-const HAS_Z = 16;
-
-const KIND_T = K.t;
-const KIND_TDG = K.tdg;
 const KIND_CX = K.cx;
 const KIND_CZ = K.cz;
 const KIND_CCX = K.ccx;
+const KIND_T = K.t;
+const KIND_TDG = K.tdg;
 const KIND_MEASURE = K.measure;
 const KIND_RESET = K.reset;
-const KIND_GPHASE = K.gphase;
 
 /** Exiting gates with nothing dead, per template. */
 const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
@@ -115,6 +108,10 @@ export class CountingEngine implements InstanceSink {
   private readonly rPrev: Int32Array;
   private readonly rPrevSlot: Int8Array;
   private readonly rNext: Int32Array;
+  /** Cancelled gates of each instance right after its own stage 1. */
+  private readonly rMask1: Int32Array;
+  /** 1: a gate on its wires before it went after its stage 1 (stage 2 walks again). */
+  private readonly rRecheck: Uint8Array;
   private nextId = 0;
   /** Instances below this have been through stage 2 and the tally. */
   private done = 0;
@@ -141,8 +138,6 @@ export class CountingEngine implements InstanceSink {
   private cnotCount = 0;
   private toffoliCount = 0;
   private measurements = 0;
-  private depth = 0;
-  private tDepth = 0;
   private bitL = 0;
   private bitTL = 0;
   private phaseGates = 0;
@@ -166,6 +161,8 @@ export class CountingEngine implements InstanceSink {
     this.rPrev = new Int32Array(r * 3);
     this.rPrevSlot = new Int8Array(r * 3);
     this.rNext = new Int32Array(r * 3);
+    this.rMask1 = new Int32Array(r);
+    this.rRecheck = new Uint8Array(r);
     this.lastInst = new Int32Array(0);
     this.lastSlot = new Int8Array(0);
     this.sId = new Int32Array(0);
@@ -234,14 +231,14 @@ export class CountingEngine implements InstanceSink {
     const x = id & this.ringMask;
     if (id >= this.ringSize) this.evict(id - this.ringSize);
     // Wires in the order of first use (reuse takes them in that order).
-    const vids = [a, b, c];
     const touch = FIRST_TOUCH[t]!;
     for (let i = 0; i < touch.length; i++) {
       const s = touch[i]!;
-      this.rW[x * 3 + s] = this.wireFor(vids[s]!);
+      this.rW[x * 3 + s] = this.wireFor(s === 0 ? a : s === 1 ? b : c);
     }
     this.rT[x] = t;
     this.rDead[x] = 0;
+    this.rRecheck[x] = 0;
     const slots = SLOTS[t]!;
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
@@ -254,8 +251,9 @@ export class CountingEngine implements InstanceSink {
       this.lastSlot[w] = s;
     }
     if (this.optimize) this.cancel(id, x);
+    this.rMask1[x] = this.rDead[x]!;
     if (dies >= 0) {
-      const v = vids[dies]!;
+      const v = dies === 0 ? a : dies === 1 ? b : c;
       this.freeWires.push(this.wireOf[v]!);
       this.wireOf[v] = -1;
     }
@@ -265,18 +263,32 @@ export class CountingEngine implements InstanceSink {
   /** Flushes everything; call once after the last instance. */
   finish(): EngineResult {
     while (this.done < this.nextId) this.settle(this.done);
-    if (this.levels) for (let w = 0; w < this.base + this.workWires; w++) this.flush(w);
+    const wires = this.base + this.workWires;
+    let depth = 0;
+    let tDepth = 0;
+    for (let w = 0; w < wires; w++) {
+      if (this.levels && this.optimize) {
+        // merge-phases' last flush, in qubit order.
+        const run = finalRun(this.pend[w]!);
+        this.level[w]! += run.gates;
+        this.tLevel[w]! += run.tGates;
+        this.tCount += run.tGates;
+        this.pend[w] = 0;
+      }
+      depth = Math.max(depth, this.level[w]!);
+      tDepth = Math.max(tDepth, this.tLevel[w]!);
+    }
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
     if (this.phaseGates >= 2 && this.flagSecond !== null && this.flagBound === null) this.flagBound = this.flagSecond;
     const exact = this.flagHard === null && this.flagBound === null;
     return {
-      qubits: this.base + this.workWires,
+      qubits: wires,
       tCount: this.tCount,
-      tDepth: this.tDepth,
+      tDepth: this.levels ? tDepth : 0,
       cnotCount: this.cnotCount,
       toffoliCount: this.toffoliCount,
-      depth: this.depth,
+      depth: this.levels ? depth : 0,
       measurements: this.measurements,
       instances: this.nextId,
       exact,
@@ -338,16 +350,22 @@ export class CountingEngine implements InstanceSink {
   private cancel(id: number, x: number): void {
     const t = this.rT[x]!;
     const n = gatesOf(t);
-    const exits = EXIT0[t]!;
+    let exits = EXIT0[t]!;
+    let known = 0;
     const base = GATE_START[t]!;
     for (let p = 0; p < n; p++) {
-      // While no gate of this instance has gone, a gate whose walk stops inside stays.
-      if (this.rDead[x] === 0 && ((exits >>> p) & 1) === 0) continue;
-      if ((this.rDead[x]! >>> p) & 1) continue;
+      const dead = this.rDead[x]!;
+      if ((dead >>> p) & 1) continue;
+      // A gate whose walk stops inside the instance (given the gates gone so far) stays.
+      if (dead !== known) {
+        known = dead;
+        exits = exitingGates(t, dead);
+      }
+      if (((exits >>> p) & 1) === 0) continue;
       const e = base + p;
       const kind = G_KIND[e]!;
       if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
-      const partner = this.findPartner(id, x, p, false);
+      const partner = this.findPartner(id, x, p);
       if (partner >= 0) {
         const hid = Math.floor(partner / 32);
         const hp = partner % 32;
@@ -357,16 +375,33 @@ export class CountingEngine implements InstanceSink {
         else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
         this.rDead[x] = this.rDead[x]! | (1 << p);
         if (hid < this.done && this.flagHard === null) this.flagHard = "a cancellation reached a part already counted (raise the lag)";
+        // Walks that passed over the partner before it went may go further now: stage 2
+        // repeats the walks of the instances from it up to here, on its wires (see settle).
+        for (let i = 0; i < G_NQ[e]!; i++) this.markRecheck(x, G_OP[e * 3 + i]!, hid);
       }
+    }
+  }
+
+  /** Marks the instances on the wire of slot s of instance x (exclusive) back to instance `from`. */
+  private markRecheck(x: number, s: number, from: number): void {
+    let loc = x;
+    let slot = s;
+    for (;;) {
+      const prev = this.rPrev[loc * 3 + slot]!;
+      if (prev < from || prev <= this.nextId - 1 - this.ringSize) return;
+      const pl = prev & this.ringMask;
+      this.rRecheck[pl] = 1;
+      slot = this.rPrevSlot[loc * 3 + slot]!;
+      loc = pl;
     }
   }
 
   /**
    * cancelInverses.ts's findPartner for gate p of instance `id` (at ring index x): the most
    * recent live gate that undoes it with only commuting gates between, as id * 32 + position,
-   * or -1. `detect` (stage 2): the instance's gates are final; report window exhaustion.
+   * or -1.
    */
-  private findPartner(id: number, x: number, p: number, detect: boolean): number {
+  private findPartner(id: number, x: number, p: number): number {
     const t = this.rT[x]!;
     const e = GATE_START[t]! + p;
     const nq = G_NQ[e]!;
@@ -385,7 +420,11 @@ export class CountingEngine implements InstanceSink {
         const hp = list[k]!;
         if ((dead >>> hp) & 1) continue;
         if (steps >= WINDOW) {
-          if (detect && this.flagSecond === null) this.flagSecond = "the second cancel-inverses reaches its window";
+          // merge-phases changes how many phase gates a walk diagonal on its qubit passes (never
+          // those an X-like or other walk passes: it stops at the first phase gate): only such a
+          // walk could reach further in the second cancel-inverses.
+          // Stage 1 notes it too: stage 2 repeats only the walks that something changed (settle).
+          if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
           return -1;
         }
         steps++;
@@ -411,6 +450,10 @@ export class CountingEngine implements InstanceSink {
       slot = ps;
       k = SLOT_GATES[this.tOf(loc) * 3 + slot]!.length - 1;
     }
+  }
+
+  private noteSecond(reason: string): void {
+    if (this.flagSecond === null) this.flagSecond = reason;
   }
 
   private unavailable(): void {
@@ -478,7 +521,11 @@ export class CountingEngine implements InstanceSink {
             break;
           }
           if ((dead >>> xp) & 1) continue;
-          if (++steps > WINDOW) return false;
+          if (++steps > WINDOW) {
+            // The gates passed here are diagonal on this qubit (controls), phase gates among them.
+            this.noteSecond("the second cancel-inverses reaches its window");
+            return false;
+          }
           if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
         }
         if (stop || cur <= hid) break;
@@ -509,23 +556,30 @@ export class CountingEngine implements InstanceSink {
     const x = id & this.ringMask;
     const t = this.rT[x]!;
     const dead = this.rDead[x]!;
+    const slots = SLOTS[t]!;
     this.done = id + 1;
     if (this.optimize && this.flagSecond === null) {
-      const exits = dead === 0 ? EXIT0[t]! : exitingGates(t, dead);
-      for (let m = exits; m !== 0; m &= m - 1) {
-        const p = 31 - Math.clz32(m & -m);
-        const e = GATE_START[t]! + p;
-        const kind = G_KIND[e]!;
-        if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
-        if (this.findPartner(id, x, p, true) >= 0) {
-          this.flagSecond = "the second cancel-inverses would cancel more";
-          break;
+      // Stage 2 (the second cancel-inverses, detecting only). A walk from this instance is the
+      // one of stage 1 unless a gate it passes went after that: then it is repeated.
+      const later = dead ^ this.rMask1[x]!;
+      if (this.rRecheck[x] || later !== 0) {
+        const exits = exitingGates(t, dead);
+        for (let m = exits; m !== 0; m &= m - 1) {
+          const p = 31 - Math.clz32(m & -m);
+          if (!this.rRecheck[x] && (later & ((1 << p) - 1)) === 0) continue;
+          const e = GATE_START[t]! + p;
+          const kind = G_KIND[e]!;
+          if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+          if (this.findPartner(id, x, p) >= 0) {
+            this.noteSecond("the second cancel-inverses would cancel more");
+            break;
+          }
         }
       }
     }
-    const base = GATE_START[t]!;
-    const n = gatesOf(t);
     if (!this.levels) {
+      const base = GATE_START[t]!;
+      const n = gatesOf(t);
       for (let p = 0; p < n; p++) {
         if ((dead >>> p) & 1) continue;
         const k = G_KIND[base + p]!;
@@ -537,71 +591,53 @@ export class CountingEngine implements InstanceSink {
       }
       return;
     }
-    for (let p = 0; p < n; p++) {
-      if ((dead >>> p) & 1) continue;
-      const e = base + p;
-      const kind = G_KIND[e]!;
-      if (kind === KIND_GPHASE) continue;
-      if (this.optimize && G_PHASE[e]! >= 0) {
-        // merge-phases: collect the run's phase on this qubit.
-        const w = this.rW[x * 3 + G_OP[e * 3]!]!;
-        const st = this.pend[w]!;
-        this.pend[w] = (((st & 7) + G_PHASE[e]!) & 7) | HAS_PHASE | (st & HAS_Z);
-        this.phaseGates++;
-        continue;
-      }
-      const nq = G_NQ[e]!;
-      let l = G_COND[e] ? this.bitL : 0;
-      let tl = G_COND[e] ? this.bitTL : 0;
-      for (let i = 0; i < nq; i++) {
-        const s = G_OP[e * 3 + i]!;
-        const w = this.rW[x * 3 + s]!;
-        if (this.optimize) {
-          if (G_ROLE[e * 3 + s] !== ROLE_Z) this.flush(w);
-          else this.pend[w] = this.pend[w]! | HAS_Z;
-        }
-        if (this.level[w]! > l) l = this.level[w]!;
-        if (this.tLevel[w]! > tl) tl = this.tLevel[w]!;
-      }
-      l++;
-      if (G_IS_T[e]) tl++;
-      for (let i = 0; i < nq; i++) {
-        const w = this.rW[x * 3 + G_OP[e * 3 + i]!]!;
-        this.level[w] = l;
-        this.tLevel[w] = tl;
-      }
-      if (l > this.depth) this.depth = l;
-      if (tl > this.tDepth) this.tDepth = tl;
-      if (kind === KIND_T || kind === KIND_TDG) this.tCount++;
-      else if (kind === KIND_CX || kind === KIND_CZ) this.cnotCount++;
-      else if (kind === KIND_CCX) this.toffoliCount++;
-      else if (kind === KIND_MEASURE) {
-        this.measurements++;
-        this.bitL = l;
-        this.bitTL = tl;
-      }
-      if (!this.optimize && PHASE_EIGHTHS[GATE_KINDS[kind]!] !== undefined) this.phaseGates++;
+    const w0 = this.rW[x * 3]!;
+    const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
+    const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
+    const tr = transferOf(t, dead, slots > 0 ? this.pend[w0]! : 0, w1 >= 0 ? this.pend[w1]! : 0, w2 >= 0 ? this.pend[w2]! : 0, this.optimize);
+    this.tCount += tr.tCount;
+    this.cnotCount += tr.cnotCount;
+    this.toffoliCount += tr.toffoliCount;
+    this.measurements += tr.measurements;
+    this.phaseGates += tr.phaseGates;
+    if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
+    if (slots === 0) return;
+    const lv = this.level;
+    const tv = this.tLevel;
+    const l0 = lv[w0]!;
+    const l1 = w1 >= 0 ? lv[w1]! : 0;
+    const l2 = w2 >= 0 ? lv[w2]! : 0;
+    const t0 = tv[w0]!;
+    const t1 = w1 >= 0 ? tv[w1]! : 0;
+    const t2 = w2 >= 0 ? tv[w2]! : 0;
+    const lb = this.bitL;
+    const tb = this.bitTL;
+    const d = tr.d;
+    const dt = tr.dt;
+    const apply = (o: Int32Array, k: number, a: number, b: number, c: number, bit: number): number => {
+      let r = -Infinity;
+      if (o[k]! !== NONE) r = a + o[k]!;
+      if (o[k + 1]! !== NONE && b + o[k + 1]! > r) r = b + o[k + 1]!;
+      if (o[k + 2]! !== NONE && c + o[k + 2]! > r) r = c + o[k + 2]!;
+      if (o[k + 3]! !== NONE && bit + o[k + 3]! > r) r = bit + o[k + 3]!;
+      return r;
+    };
+    if (tr.bit !== null) {
+      this.bitL = apply(tr.bit, 0, l0, l1, l2, lb);
+      this.bitTL = apply(tr.bitT!, 0, t0, t1, t2, tb);
     }
-  }
-
-  /** merge-phases' flush: the run's phase as the shortest sequence, placed here on wire w. */
-  private flush(w: number): void {
-    const st = this.pend[w]!;
-    if (st === 0) return;
-    this.pend[w] = 0;
-    if ((st & HAS_PHASE) === 0) return;
-    const k = st & 7;
-    if (k === 0 && (st & HAS_Z) === 0 && this.flagSecond === null) this.flagSecond = "merge-phases removed a run of phase gates alone";
-    const seq = SEQUENCE[k]!;
-    for (let i = 0; i < seq.length; i++) {
-      const isT = seq[i] === KIND_T || seq[i] === KIND_TDG;
-      const l = this.level[w]! + 1;
-      const tl = this.tLevel[w]! + (isT ? 1 : 0);
-      this.level[w] = l;
-      this.tLevel[w] = tl;
-      if (l > this.depth) this.depth = l;
-      if (tl > this.tDepth) this.tDepth = tl;
-      if (isT) this.tCount++;
+    lv[w0] = apply(d, 0, l0, l1, l2, lb);
+    tv[w0] = apply(dt, 0, t0, t1, t2, tb);
+    this.pend[w0] = tr.pendOut[0]!;
+    if (w1 >= 0) {
+      lv[w1] = apply(d, 4, l0, l1, l2, lb);
+      tv[w1] = apply(dt, 4, t0, t1, t2, tb);
+      this.pend[w1] = tr.pendOut[1]!;
+    }
+    if (w2 >= 0) {
+      lv[w2] = apply(d, 8, l0, l1, l2, lb);
+      tv[w2] = apply(dt, 8, t0, t1, t2, tb);
+      this.pend[w2] = tr.pendOut[2]!;
     }
   }
 }
