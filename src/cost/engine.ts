@@ -26,7 +26,7 @@
  */
 import { K, INVERSE_KIND } from "../ir/kinds.js";
 import {
-  FIRST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
+  FIRST_TOUCH, LAST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
   exitingGates, gatesOf, ROLE_OTHER, ROLE_Z, TEMPLATE_COUNT,
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
@@ -40,8 +40,13 @@ export interface EngineOptions {
   readonly optimize: boolean;
   /** Depth, T-depth and the phase merging; false counts Toffolis, T and CNOTs only (faster). */
   readonly levels: boolean;
-  /** Instances replayed before one is final (a power of two); default 65536. */
+  /**
+   * Instances replayed before one is final (a power of two); default 65536. Infinity keeps every
+   * instance until the end (memory grows with the circuit; nothing can fall short).
+   */
   readonly lag?: number;
+  /** Copies kept per wire of instances that left the window (default 1). */
+  readonly history?: number;
 }
 
 /** Figures of one circuit. */
@@ -72,6 +77,10 @@ export interface EngineResult {
   readonly upperBound: boolean;
   /** Why the figures are not exact. */
   readonly reason: string | null;
+  /** A walk needed an instance that was no longer kept: a run with more `history` can be exact. */
+  readonly historyShort: boolean;
+  /** A cancellation reached an instance already counted: a run with a longer `lag` can be exact. */
+  readonly lagShort: boolean;
 }
 
 const KIND_CX = K.cx;
@@ -97,21 +106,25 @@ export class CountingEngine implements InstanceSink {
   private readonly base: number;
   private readonly optimize: boolean;
   private readonly levels: boolean;
-  private readonly lag: number;
-  private readonly ringSize: number;
-  private readonly ringMask: number;
+  /** Instances replayed before one is final; grows with the stream up to maxLag. */
+  private lag = 64;
+  private readonly maxLag: number;
+  private ringSize: number;
+  private ringMask: number;
+  /** The oldest instance still in the ring (older ones survive only as a wire's copy). */
+  private ringLow = 0;
 
   // Instances, in a ring.
-  private readonly rT: Uint8Array;
-  private readonly rW: Int32Array;
-  private readonly rDead: Int32Array;
-  private readonly rPrev: Int32Array;
-  private readonly rPrevSlot: Int8Array;
-  private readonly rNext: Int32Array;
+  private rT: Uint8Array;
+  private rW: Int32Array;
+  private rDead: Int32Array;
+  private rPrev: Int32Array;
+  private rPrevSlot: Int8Array;
+  private rNext: Int32Array;
   /** Cancelled gates of each instance right after its own stage 1. */
-  private readonly rMask1: Int32Array;
-  /** 1: a gate on its wires before it went after its stage 1 (stage 2 walks again). */
-  private readonly rRecheck: Uint8Array;
+  private rMask1: Int32Array;
+  /** Gates whose walk stage 2 repeats: a gate they passed went after their stage 1 (-1: all). */
+  private rRecheck: Int32Array;
   private nextId = 0;
   /** Instances below this have been through stage 2 and the tally. */
   private done = 0;
@@ -119,10 +132,17 @@ export class CountingEngine implements InstanceSink {
   // Wires.
   private lastInst: Int32Array;
   private lastSlot: Int8Array;
+  /**
+   * Copies of instances that left the ring, per wire: entry w * depth + i, newest first. A walk
+   * along a wire seldom used may need the last few instances on it long after they left.
+   */
+  private readonly depth: number;
   private sId: Int32Array;
   private sT: Uint8Array;
   private sW: Int32Array;
   private sDead: Int32Array;
+  private sPrev: Int32Array;
+  private sPrevSlot: Int8Array;
   private level: Float64Array;
   private tLevel: Float64Array;
   private pend: Uint8Array;
@@ -142,6 +162,8 @@ export class CountingEngine implements InstanceSink {
   private bitTL = 0;
   private phaseGates = 0;
   private flagHard: string | null = null;
+  private historyShort = false;
+  private lagShort = false;
   private flagBound: string | null = null;
   /** Set when the second cancel-inverses might change something (irrelevant if it never runs). */
   private flagSecond: string | null = null;
@@ -150,9 +172,41 @@ export class CountingEngine implements InstanceSink {
     this.base = opts.base;
     this.optimize = opts.optimize;
     this.levels = opts.levels;
-    this.lag = opts.lag ?? 65536;
-    let r = 4;
-    while (r < this.lag * 2 + 64) r *= 2;
+    this.maxLag = opts.lag ?? 65536;
+    this.lag = this.maxLag === Infinity ? Infinity : Math.min(1024, this.maxLag);
+    this.ringSize = 0;
+    this.ringMask = 0;
+    this.rT = new Uint8Array(0);
+    this.rW = new Int32Array(0);
+    this.rDead = new Int32Array(0);
+    this.rPrev = new Int32Array(0);
+    this.rPrevSlot = new Int8Array(0);
+    this.rNext = new Int32Array(0);
+    this.rMask1 = new Int32Array(0);
+    this.rRecheck = new Int32Array(0);
+    this.growRing(this.maxLag === Infinity ? 4096 : 0);
+    this.lastInst = new Int32Array(0);
+    this.lastSlot = new Int8Array(0);
+    this.depth = opts.history ?? 1;
+    this.sId = new Int32Array(0);
+    this.sT = new Uint8Array(0);
+    this.sW = new Int32Array(0);
+    this.sDead = new Int32Array(0);
+    this.sPrev = new Int32Array(0);
+    this.sPrevSlot = new Int8Array(0);
+    this.level = new Float64Array(0);
+    this.tLevel = new Float64Array(0);
+    this.pend = new Uint8Array(0);
+    this.growWires(Math.max(64, this.base + 64));
+  }
+
+  /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
+  private growRing(atLeast = 0): void {
+    let r = Math.max(256, this.ringSize);
+    const want = Number.isFinite(this.lag) ? this.lag * 2 + 64 : 0;
+    while (r < Math.max(atLeast, want)) r *= 2;
+    if (r === this.ringSize) return;
+    const old = { size: this.ringSize, mask: this.ringMask, rT: this.rT, rW: this.rW, rDead: this.rDead, rPrev: this.rPrev, rPrevSlot: this.rPrevSlot, rNext: this.rNext, rMask1: this.rMask1, rRecheck: this.rRecheck };
     this.ringSize = r;
     this.ringMask = r - 1;
     this.rT = new Uint8Array(r);
@@ -162,17 +216,21 @@ export class CountingEngine implements InstanceSink {
     this.rPrevSlot = new Int8Array(r * 3);
     this.rNext = new Int32Array(r * 3);
     this.rMask1 = new Int32Array(r);
-    this.rRecheck = new Uint8Array(r);
-    this.lastInst = new Int32Array(0);
-    this.lastSlot = new Int8Array(0);
-    this.sId = new Int32Array(0);
-    this.sT = new Uint8Array(0);
-    this.sW = new Int32Array(0);
-    this.sDead = new Int32Array(0);
-    this.level = new Float64Array(0);
-    this.tLevel = new Float64Array(0);
-    this.pend = new Uint8Array(0);
-    this.growWires(Math.max(64, this.base + 64));
+    this.rRecheck = new Int32Array(r);
+    for (let id = this.ringLow; id < this.nextId; id++) {
+      const a = id & old.mask;
+      const b = id & this.ringMask;
+      this.rT[b] = old.rT[a]!;
+      this.rDead[b] = old.rDead[a]!;
+      this.rMask1[b] = old.rMask1[a]!;
+      this.rRecheck[b] = old.rRecheck[a]!;
+      for (let s = 0; s < 3; s++) {
+        this.rW[b * 3 + s] = old.rW[a * 3 + s]!;
+        this.rPrev[b * 3 + s] = old.rPrev[a * 3 + s]!;
+        this.rPrevSlot[b * 3 + s] = old.rPrevSlot[a * 3 + s]!;
+        this.rNext[b * 3 + s] = old.rNext[a * 3 + s]!;
+      }
+    }
   }
 
   private growWires(n: number): void {
@@ -187,14 +245,25 @@ export class CountingEngine implements InstanceSink {
     const ls = new Int8Array(cap);
     ls.set(this.lastSlot);
     this.lastSlot = ls;
-    this.sId = i32(this.sId, -1);
-    const st = new Uint8Array(cap);
+    const d = this.depth;
+    const sid = new Int32Array(cap * d).fill(-1);
+    sid.set(this.sId);
+    this.sId = sid;
+    const st = new Uint8Array(cap * d);
     st.set(this.sT);
     this.sT = st;
-    const sw = new Int32Array(cap * 3);
+    const sw = new Int32Array(cap * d * 3);
     sw.set(this.sW);
     this.sW = sw;
-    this.sDead = i32(this.sDead, 0);
+    const sd = new Int32Array(cap * d);
+    sd.set(this.sDead);
+    this.sDead = sd;
+    const sp = new Int32Array(cap * d);
+    sp.set(this.sPrev);
+    this.sPrev = sp;
+    const sps = new Int8Array(cap * d);
+    sps.set(this.sPrevSlot);
+    this.sPrevSlot = sps;
     const l = new Float64Array(cap);
     l.set(this.level);
     this.level = l;
@@ -226,10 +295,22 @@ export class CountingEngine implements InstanceSink {
   // ---- input -----------------------------------------------------------------------------
 
   put(t: number, a: number, b: number, c: number, dies: number): void {
-    const id = this.nextId++;
+    const id = this.nextId;
     if (id > 0x7ffffff0) throw new Error("counting: more than 2^31 template instances");
+    if (this.maxLag === Infinity) {
+      // Everything is kept until the end.
+      if (id >= this.ringSize) this.growRing(this.ringSize * 2);
+    } else if (id > 8 * this.lag && this.lag < this.maxLag) {
+      // A longer stream: a longer window before instances are final (small circuits stay cheap).
+      this.lag = Math.min(this.maxLag, this.lag * 2);
+      this.growRing();
+    }
+    this.nextId++;
     const x = id & this.ringMask;
-    if (id >= this.ringSize) this.evict(id - this.ringSize);
+    if (id - this.ringSize >= this.ringLow) {
+      this.evict(id - this.ringSize);
+      this.ringLow = id - this.ringSize + 1;
+    }
     // Wires in the order of first use (reuse takes them in that order).
     const touch = FIRST_TOUCH[t]!;
     for (let i = 0; i < touch.length; i++) {
@@ -246,18 +327,24 @@ export class CountingEngine implements InstanceSink {
       this.rPrev[x * 3 + s] = p;
       this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
       this.rNext[x * 3 + s] = -1;
-      if (p >= 0 && p > id - this.ringSize) this.rNext[(p & this.ringMask) * 3 + this.lastSlot[w]!] = id;
+      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.lastSlot[w]!] = id;
       this.lastInst[w] = id;
       this.lastSlot[w] = s;
     }
     if (this.optimize) this.cancel(id, x);
     this.rMask1[x] = this.rDead[x]!;
-    if (dies >= 0) {
-      const v = dies === 0 ? a : dies === 1 ? b : c;
-      this.freeWires.push(this.wireOf[v]!);
-      this.wireOf[v] = -1;
+    if (dies !== 0) {
+      // Freed in the order of their last gate, as reuseWork frees them.
+      const order = LAST_TOUCH[t]!;
+      for (let i = 0; i < order.length; i++) {
+        const s = order[i]!;
+        if (((dies >>> s) & 1) === 0) continue;
+        const v = s === 0 ? a : s === 1 ? b : c;
+        this.freeWires.push(this.wireOf[v]!);
+        this.wireOf[v] = -1;
+      }
     }
-    if (id - this.lag >= 0) this.settle(id - this.lag);
+    while (this.done <= id - this.lag) this.settle(this.done);
   }
 
   /** Flushes everything; call once after the last instance. */
@@ -294,6 +381,8 @@ export class CountingEngine implements InstanceSink {
       exact,
       upperBound: !exact && this.flagHard === null,
       reason: this.flagHard ?? this.flagBound,
+      historyShort: this.historyShort,
+      lagShort: this.lagShort,
     };
   }
 
@@ -306,42 +395,69 @@ export class CountingEngine implements InstanceSink {
 
   /**
    * Keeps a copy of an instance leaving the ring on each wire that may still walk into it: where
-   * it is the wire's last instance, or the one before an instance not yet through stage 2.
+   * it is among the wire's last `depth` instances, or the one before an instance not yet through
+   * stage 2.
    */
   private evict(old: number): void {
     const x = old & this.ringMask;
     const t = this.rT[x]!;
+    const d = this.depth;
     for (let s = 0; s < SLOTS[t]!; s++) {
       const w = this.rW[x * 3 + s]!;
       const next = this.rNext[x * 3 + s]!;
-      if (next === -1 ? this.lastInst[w] === old : next >= this.done) {
-        this.sId[w] = old;
-        this.sT[w] = t;
-        this.sW[w * 3] = this.rW[x * 3]!;
-        this.sW[w * 3 + 1] = this.rW[x * 3 + 1]!;
-        this.sW[w * 3 + 2] = this.rW[x * 3 + 2]!;
-        this.sDead[w] = this.rDead[x]!;
+      let keep = next === -1 || next >= this.done;
+      if (!keep) {
+        // Instances on w after this one (all still in the ring): keep it if fewer than depth.
+        let n = 1;
+        let cur = next;
+        let cs = this.slotOf(cur, w);
+        while (n < d && cur !== -1) {
+          const nx = this.rNext[(cur & this.ringMask) * 3 + cs]!;
+          if (nx === -1) break;
+          cur = nx;
+          cs = this.slotOf(cur, w);
+          n++;
+        }
+        keep = n < d;
       }
+      if (!keep) continue;
+      // Newest first: shift the older copies of this wire down.
+      const b = w * d;
+      for (let i = d - 1; i > 0; i--) {
+        const from = b + i - 1;
+        const to = b + i;
+        this.sId[to] = this.sId[from]!;
+        this.sT[to] = this.sT[from]!;
+        this.sW[to * 3] = this.sW[from * 3]!;
+        this.sW[to * 3 + 1] = this.sW[from * 3 + 1]!;
+        this.sW[to * 3 + 2] = this.sW[from * 3 + 2]!;
+        this.sDead[to] = this.sDead[from]!;
+        this.sPrev[to] = this.sPrev[from]!;
+        this.sPrevSlot[to] = this.sPrevSlot[from]!;
+      }
+      this.sId[b] = old;
+      this.sT[b] = t;
+      this.sW[b * 3] = this.rW[x * 3]!;
+      this.sW[b * 3 + 1] = this.rW[x * 3 + 1]!;
+      this.sW[b * 3 + 2] = this.rW[x * 3 + 2]!;
+      this.sDead[b] = this.rDead[x]!;
+      this.sPrev[b] = this.rPrev[x * 3 + s]!;
+      this.sPrevSlot[b] = this.rPrevSlot[x * 3 + s]!;
     }
   }
 
-  /** Where instance `id` is kept, seen from wire w: ring index, -2 - w for the wire's copy, or -1. */
+  /** The slot of instance id (in the ring) on wire w. */
+  private slotOf(id: number, w: number): number {
+    const x = (id & this.ringMask) * 3;
+    return this.rW[x] === w ? 0 : this.rW[x + 1] === w ? 1 : 2;
+  }
+
+  /** Where instance `id` is kept, seen from wire w: ring index, -2 - copy index, or -1. */
   private locate(id: number, w: number): number {
-    if (id > this.nextId - 1 - this.ringSize) return id & this.ringMask;
-    if (this.sId[w] === id) return -2 - w;
+    if (id >= this.ringLow) return id & this.ringMask;
+    const b = w * this.depth;
+    for (let i = 0; i < this.depth; i++) if (this.sId[b + i] === id) return -2 - (b + i);
     return -1;
-  }
-
-  private tOf(loc: number): number {
-    return loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
-  }
-
-  private wOf(loc: number, s: number): number {
-    return loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!;
-  }
-
-  private deadOf(loc: number): number {
-    return loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
   }
 
   // ---- cancel-inverses -------------------------------------------------------------------
@@ -352,6 +468,7 @@ export class CountingEngine implements InstanceSink {
     const n = gatesOf(t);
     let exits = EXIT0[t]!;
     let known = 0;
+    let walked = 0;
     const base = GATE_START[t]!;
     for (let p = 0; p < n; p++) {
       const dead = this.rDead[x]!;
@@ -374,23 +491,28 @@ export class CountingEngine implements InstanceSink {
         if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
         else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
         this.rDead[x] = this.rDead[x]! | (1 << p);
-        if (hid < this.done && this.flagHard === null) this.flagHard = "a cancellation reached a part already counted (raise the lag)";
+        if (hid < this.done) {
+          this.lagShort = true;
+          this.flagHard ??= "a cancellation reached a part already counted";
+        }
         // Walks that passed over the partner before it went may go further now: stage 2
-        // repeats the walks of the instances from it up to here, on its wires (see settle).
+        // repeats them (see settle): of the instances after it on its wires, and of this
+        // instance's gates walked before. The partner's own later gates see it in its mask.
         for (let i = 0; i < G_NQ[e]!; i++) this.markRecheck(x, G_OP[e * 3 + i]!, hid);
-      }
+        this.rRecheck[x] = this.rRecheck[x]! | walked;
+      } else walked |= 1 << p;
     }
   }
 
-  /** Marks the instances on the wire of slot s of instance x (exclusive) back to instance `from`. */
+  /** Marks the instances on the wire of slot s between instance `from` and instance x (both exclusive). */
   private markRecheck(x: number, s: number, from: number): void {
     let loc = x;
     let slot = s;
     for (;;) {
       const prev = this.rPrev[loc * 3 + slot]!;
-      if (prev < from || prev <= this.nextId - 1 - this.ringSize) return;
+      if (prev <= from || prev < this.ringLow) return;
       const pl = prev & this.ringMask;
-      this.rRecheck[pl] = 1;
+      this.rRecheck[pl] = -1;
       slot = this.rPrevSlot[loc * 3 + slot]!;
       loc = pl;
     }
@@ -413,9 +535,9 @@ export class CountingEngine implements InstanceSink {
     let slot = ts;
     let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
     for (;;) {
-      const ct = this.tOf(loc);
+      const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
       const list = SLOT_GATES[ct * 3 + slot]!;
-      const dead = this.deadOf(loc);
+      const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
       for (; k >= 0; k--) {
         const hp = list[k]!;
         if ((dead >>> hp) & 1) continue;
@@ -433,14 +555,10 @@ export class CountingEngine implements InstanceSink {
         if (!this.commute(x, e, loc, f)) return -1;
       }
       // The previous instance on this wire.
-      if (loc < 0) {
-        this.unavailable();
-        return -1;
-      }
-      const prev = this.rPrev[loc * 3 + slot]!;
+      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
       if (prev < 0) return -1;
-      const ps = this.rPrevSlot[loc * 3 + slot]!;
-      const pl = this.locate(prev, w);
+      const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+      const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
       if (pl === -1) {
         this.unavailable();
         return -1;
@@ -448,7 +566,7 @@ export class CountingEngine implements InstanceSink {
       loc = pl;
       cur = prev;
       slot = ps;
-      k = SLOT_GATES[this.tOf(loc) * 3 + slot]!.length - 1;
+      k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
     }
   }
 
@@ -457,17 +575,19 @@ export class CountingEngine implements InstanceSink {
   }
 
   private unavailable(): void {
+    this.historyShort = true;
     if (this.flagHard === null) this.flagHard = "a cancel-inverses walk needed a part no longer kept";
   }
 
   /** commute.ts's inversePair for gate e of the instance at ring index x and gate f at loc. */
   private inversePair(x: number, e: number, loc: number, f: number): boolean {
-    if (G_COND[e] || G_COND[f]) return false;
-    if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f]) return false;
+    if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
     const nq = G_NQ[e]!;
     if (G_NQ[f] !== nq) return false;
+    const wa = loc >= 0 ? this.rW : this.sW;
+    const xb = (loc >= 0 ? loc : -2 - loc) * 3;
     for (let i = 0; i < nq; i++) {
-      if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== this.wOf(loc, G_OP[f * 3 + i]!)) return false;
+      if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
     }
     return true;
   }
@@ -475,17 +595,16 @@ export class CountingEngine implements InstanceSink {
   /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
   private commute(x: number, e: number, loc: number, f: number): boolean {
     const nq = G_NQ[e]!;
+    const wa = loc >= 0 ? this.rW : this.sW;
+    const xb = (loc >= 0 ? loc : -2 - loc) * 3;
     for (let i = 0; i < nq; i++) {
       const s = G_OP[e * 3 + i]!;
       const w = this.rW[x * 3 + s]!;
-      // The role of f on wire w: find the slot of loc holding w.
+      // The role of f on wire w (slots of an instance are distinct wires; unused ones are stale).
       let rh = -1;
-      for (let j = 0; j < 3; j++) {
-        if (this.wOf(loc, j) === w) {
-          rh = G_ROLE[f * 3 + j]!;
-          if (rh >= 0) break;
-        }
-      }
+      if (wa[xb] === w) rh = G_ROLE[f * 3]!;
+      if (rh < 0 && wa[xb + 1] === w) rh = G_ROLE[f * 3 + 1]!;
+      if (rh < 0 && wa[xb + 2] === w) rh = G_ROLE[f * 3 + 2]!;
       if (rh < 0) continue;
       const rg = G_ROLE[e * 3 + s]!;
       if (rg === ROLE_OTHER || rg !== rh) return false;
@@ -510,9 +629,9 @@ export class CountingEngine implements InstanceSink {
       let slot = s0;
       let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
       for (;;) {
-        const ct = this.tOf(loc);
+        const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
         const list = SLOT_GATES[ct * 3 + slot]!;
-        const dead = this.deadOf(loc);
+        const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
         let stop = false;
         for (; k >= 0; k--) {
           const xp = list[k]!;
@@ -529,14 +648,10 @@ export class CountingEngine implements InstanceSink {
           if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
         }
         if (stop || cur <= hid) break;
-        if (loc < 0) {
-          this.unavailable();
-          return false;
-        }
-        const prev = this.rPrev[loc * 3 + slot]!;
+        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
         if (prev < 0) break;
-        const ps = this.rPrevSlot[loc * 3 + slot]!;
-        const pl = this.locate(prev, w);
+        const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+        const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
         if (pl === -1) {
           this.unavailable();
           return false;
@@ -544,7 +659,7 @@ export class CountingEngine implements InstanceSink {
         loc = pl;
         cur = prev;
         slot = ps;
-        k = SLOT_GATES[this.tOf(loc) * 3 + slot]!.length - 1;
+        k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
       }
     }
     return true;
@@ -562,11 +677,12 @@ export class CountingEngine implements InstanceSink {
       // Stage 2 (the second cancel-inverses, detecting only). A walk from this instance is the
       // one of stage 1 unless a gate it passes went after that: then it is repeated.
       const later = dead ^ this.rMask1[x]!;
-      if (this.rRecheck[x] || later !== 0) {
+      const again = this.rRecheck[x]!;
+      if (again !== 0 || later !== 0) {
         const exits = exitingGates(t, dead);
         for (let m = exits; m !== 0; m &= m - 1) {
           const p = 31 - Math.clz32(m & -m);
-          if (!this.rRecheck[x] && (later & ((1 << p) - 1)) === 0) continue;
+          if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
           const e = GATE_START[t]! + p;
           const kind = G_KIND[e]!;
           if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
@@ -612,32 +728,38 @@ export class CountingEngine implements InstanceSink {
     const t2 = w2 >= 0 ? tv[w2]! : 0;
     const lb = this.bitL;
     const tb = this.bitTL;
+    if (tr.bit !== null) {
+      this.bitL = maxPlus(tr.bit, 0, l0, l1, l2, lb);
+      this.bitTL = maxPlus(tr.bitT!, 0, t0, t1, t2, tb);
+    }
     const d = tr.d;
     const dt = tr.dt;
-    const apply = (o: Int32Array, k: number, a: number, b: number, c: number, bit: number): number => {
-      let r = -Infinity;
-      if (o[k]! !== NONE) r = a + o[k]!;
-      if (o[k + 1]! !== NONE && b + o[k + 1]! > r) r = b + o[k + 1]!;
-      if (o[k + 2]! !== NONE && c + o[k + 2]! > r) r = c + o[k + 2]!;
-      if (o[k + 3]! !== NONE && bit + o[k + 3]! > r) r = bit + o[k + 3]!;
-      return r;
-    };
-    if (tr.bit !== null) {
-      this.bitL = apply(tr.bit, 0, l0, l1, l2, lb);
-      this.bitTL = apply(tr.bitT!, 0, t0, t1, t2, tb);
-    }
-    lv[w0] = apply(d, 0, l0, l1, l2, lb);
-    tv[w0] = apply(dt, 0, t0, t1, t2, tb);
+    lv[w0] = maxPlus(d, 0, l0, l1, l2, lb);
+    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
     this.pend[w0] = tr.pendOut[0]!;
     if (w1 >= 0) {
-      lv[w1] = apply(d, 4, l0, l1, l2, lb);
-      tv[w1] = apply(dt, 4, t0, t1, t2, tb);
+      lv[w1] = maxPlus(d, 4, l0, l1, l2, lb);
+      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
       this.pend[w1] = tr.pendOut[1]!;
     }
     if (w2 >= 0) {
-      lv[w2] = apply(d, 8, l0, l1, l2, lb);
-      tv[w2] = apply(dt, 8, t0, t1, t2, tb);
+      lv[w2] = maxPlus(d, 8, l0, l1, l2, lb);
+      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
       this.pend[w2] = tr.pendOut[2]!;
     }
   }
+}
+
+/** max over inputs j of in_j + o[k + j] (NONE: no path from that input). */
+function maxPlus(o: Int32Array, k: number, a: number, b: number, c: number, bit: number): number {
+  let r = -Infinity;
+  const da = o[k]!;
+  const db = o[k + 1]!;
+  const dc = o[k + 2]!;
+  const dd = o[k + 3]!;
+  if (da !== NONE) r = a + da;
+  if (db !== NONE && b + db > r) r = b + db;
+  if (dc !== NONE && c + dc > r) r = c + dc;
+  if (dd !== NONE && bit + dd > r) r = bit + dd;
+  return r;
 }

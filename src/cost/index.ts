@@ -210,29 +210,55 @@ class Logicals {
   }
 }
 
+/**
+ * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
+ * or a cancellation across a long stretch), runs it again keeping more, up to a limit. The
+ * figures of a run that still falls short say so (exact false, upperBound false).
+ */
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number }): EngineResult {
+  let { lag, history } = sizing;
+  for (let attempt = 0; ; attempt++) {
+    const engine = new CountingEngine({ base, optimize, levels, lag, history });
+    const ids = new VirtualIds(base);
+    const low = new LoweringStream(engine, ids, mode);
+    emit(low, ids);
+    low.finish();
+    const r = engine.finish();
+    if (!r.historyShort && !r.lagShort) return r;
+    // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
+    // nothing can fall short.
+    if (attempt === 0) {
+      if (r.historyShort) history = Math.max(1, Math.min(16 * history, Math.floor(HISTORY_BYTES / 40 / r.qubits)));
+      if (r.lagShort) lag *= 16;
+    } else lag = Infinity;
+  }
+}
+
+const DEFAULT_LAG = 1 << 16;
+const MAX_LAG = 1 << 22;
+/** Memory for the copies kept per wire on a second run. */
+const HISTORY_BYTES = 256 << 20;
+
 /** Counts one oracle construction with the engine. */
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
-  const engine = new CountingEngine({ base, optimize: s.optimize, levels: s.levels });
-  const ids = new VirtualIds(base);
-  const low = new LoweringStream(engine, ids, { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" });
-  if (s.strategy === "lean") leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
-  else {
-    const { c, last } = logicals.get(s.kind, s.strategy);
-    replayLogical(c, base, low, ids, last, progress);
-  }
-  low.finish();
-  return engine.finish();
+  const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
+  // The lean oracle reuses few wires, some of them seldom (a work qubit of a longer clause):
+  // keeping a few instances per wire costs little there. Wide and textbook oracles have a wire
+  // per clause.
+  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1 };
+  return run(base, s.optimize, s.levels, mode, (low, ids) => {
+    if (s.strategy === "lean") leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
+    else {
+      const { c, last } = logicals.get(s.kind, s.strategy);
+      replayLogical(c, base, low, ids, last, progress);
+    }
+  }, sizing);
 }
 
 /** Counts a circuit given as logical operations (search parts). */
-function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag?: number): EngineResult {
-  const engine = new CountingEngine({ base, optimize: true, levels, ...(lag !== undefined ? { lag } : {}) });
-  const ids = new VirtualIds(base);
-  const low = new LoweringStream(engine, ids, { basis, uncompute, toffoliAnds: false });
-  emit(low, ids);
-  low.finish();
-  return engine.finish();
+function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG): EngineResult {
+  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4 });
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -433,7 +459,7 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
     const [dct, dtof] = both((low) => diffusionOps(n, low), 1);
     // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
     // templates, so that the cancellations at those seams stay inside the window.
-    const lag = Math.min(1 << 24, 2 ** Math.ceil(Math.log2(2 * (oct.instances + dct.instances) + 65536)));
+    const lag = Math.min(MAX_LAG, 2 ** Math.ceil(Math.log2(2 * (oct.instances + dct.instances) + DEFAULT_LAG)));
     const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight(strategy), lag);
     let oracle = part(oct, otof);
     let diffusion = part(dct, dtof);

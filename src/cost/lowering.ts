@@ -14,7 +14,7 @@ import {
   T_AND, T_CCX, T_CX, T_CZ, T_ERASE_HEAD, T_ERASE_TAIL, T_GPHASE, T_MEASURE, T_TOF7, T_UNAND, T_X, T_Z,
 } from "./templates.js";
 
-/** Receives template instances. `dies` is the slot whose qubit is never used again, or -1. */
+/** Receives template instances. `dies`: a bit per slot whose qubit is never used again. */
 export interface InstanceSink {
   put(template: number, a: number, b: number, c: number, dies: number): void;
 }
@@ -28,8 +28,11 @@ export interface LogicalSink {
   and(ctrls: ArrayLike<number>, t: number): void;
   /** The AND of two controls into t (no list). */
   andPair(a: number, b: number, t: number): void;
-  /** Uncomputes the AND into t. */
-  unand(t: number, dies: boolean): void;
+  /**
+   * Uncomputes the AND into t. `controlsDie` (a 2-input AND only): bit 0, its first control, bit
+   * 1, its second, are never used again either.
+   */
+  unand(t: number, dies: boolean, controlsDie?: number): void;
   /** A multi-controlled X onto t. */
   mcx(ctrls: ArrayLike<number>, t: number, dies: boolean): void;
   /** A singly controlled X onto t (no list). */
@@ -165,11 +168,11 @@ export class LoweringStream implements LogicalSink {
     this.room(t);
     this.plain(t);
     const qa = this.control(ctrl);
-    this.out.put(T_CX, qa, t, -1, dies ? 1 : -1);
+    this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
   }
 
   /** Uncomputes the AND into t; `dies`: t is never used again. */
-  unand(t: number, dies: boolean): void {
+  unand(t: number, dies: boolean, controlsDie = 0): void {
     const at = this.recordAt[t]!;
     if (at < 0) throw new Error(`counting: uncompute of work qubit ${t} without its AND`);
     this.recordAt[t] = -1;
@@ -179,7 +182,7 @@ export class LoweringStream implements LogicalSink {
     if (count > 0) {
       for (let i = count - 1; i >= 0; i--) {
         const w = r[at + 4 + 3 * i]!;
-        this.unand2(r[at + 2 + 3 * i]!, r[at + 3 + 3 * i]!, w, w === t ? dies : true);
+        this.unand2(r[at + 2 + 3 * i]!, r[at + 3 + 3 * i]!, w, (w === t ? (dies ? 4 : 0) | controlsDie : 4));
         if (w !== t) this.ids.give(w);
       }
     } else if (copied >= 0) this.copy(copied, t, dies);
@@ -193,24 +196,24 @@ export class LoweringStream implements LogicalSink {
     if (c === null) return;
     this.plain(t);
     if (c.length === 0) {
-      this.out.put(T_X, t, -1, -1, dies ? 0 : -1);
+      this.out.put(T_X, t, -1, -1, dies ? 1 : 0);
       return;
     }
     if (c.length === 1) {
       const qa = this.control(c[0]!);
-      this.out.put(T_CX, qa, t, -1, dies ? 1 : -1);
+      this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
       return;
     }
     const record: number[] = [];
     if (this.cliffordT && this.measured && !this.toffoliAnds) {
       const [a] = this.tree(c, 1, record);
       const qa = this.control(a!);
-      this.out.put(T_CX, qa, t, -1, dies ? 1 : -1);
+      this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
     } else {
       const [a, b] = this.tree(c, 2, record);
       const qa = this.control(a!);
       const qb = this.control(b!);
-      this.ccx(qa, qb, t, dies ? 2 : -1);
+      this.ccx(qa, qb, t, dies ? 4 : 0);
     }
     this.undoTree(record);
   }
@@ -220,16 +223,16 @@ export class LoweringStream implements LogicalSink {
     const c = this.normalize(qs);
     if (c === null) return;
     if (c.length === 0) {
-      this.out.put(T_GPHASE, -1, -1, -1, -1);
+      this.out.put(T_GPHASE, -1, -1, -1, 0);
       return;
     }
     const record: number[] = [];
     const [a, b] = this.tree(c, 2, record);
-    if (b === undefined) this.out.put(T_Z, this.control(a!), -1, -1, -1);
+    if (b === undefined) this.out.put(T_Z, this.control(a!), -1, -1, 0);
     else {
       const qa = this.control(a!);
       const qb = this.control(b);
-      this.out.put(T_CZ, qa, qb, -1, -1);
+      this.out.put(T_CZ, qa, qb, -1, 0);
     }
     this.undoTree(record);
   }
@@ -238,19 +241,19 @@ export class LoweringStream implements LogicalSink {
   single(template: number, q: number, dies: boolean): void {
     this.room(q);
     this.plain(q);
-    this.out.put(template, q, -1, -1, dies ? 0 : -1);
+    this.out.put(template, q, -1, -1, dies ? 1 : 0);
   }
 
   /** A measurement of q (into a fresh bit). */
   measure(q: number): void {
     this.room(q);
     this.plain(q);
-    this.out.put(T_MEASURE, q, -1, -1, -1);
+    this.out.put(T_MEASURE, q, -1, -1, 0);
   }
 
   /** A global phase. */
   gphase(): void {
-    this.out.put(T_GPHASE, -1, -1, -1, -1);
+    this.out.put(T_GPHASE, -1, -1, -1, 0);
   }
 
   /** The end of the circuit: every qubit still flipped is restored (lower.ts does it in qubit order). */
@@ -280,7 +283,7 @@ export class LoweringStream implements LogicalSink {
     const want = op & 1;
     this.room(q);
     if (this.flipped[q] !== want) {
-      this.out.put(T_X, q, -1, -1, -1);
+      this.out.put(T_X, q, -1, -1, 0);
       this.flipped[q] = want;
     }
     return q;
@@ -288,7 +291,7 @@ export class LoweringStream implements LogicalSink {
 
   private plain(q: number): void {
     if (this.flipped[q]) {
-      this.out.put(T_X, q, -1, -1, -1);
+      this.out.put(T_X, q, -1, -1, 0);
       this.flipped[q] = 0;
     }
   }
@@ -297,32 +300,33 @@ export class LoweringStream implements LogicalSink {
     this.plain(t);
     const qc = this.control(ctrl & ~1);
     const neg = (ctrl & 1) === 1;
-    this.out.put(T_CX, qc, t, -1, dies && !neg ? 1 : -1);
-    if (neg) this.out.put(T_X, t, -1, -1, dies ? 0 : -1);
+    this.out.put(T_CX, qc, t, -1, dies && !neg ? 2 : 0);
+    if (neg) this.out.put(T_X, t, -1, -1, dies ? 1 : 0);
   }
 
   private and2(a: number, b: number, t: number): void {
     const qa = this.control(a);
     const qb = this.control(b);
     this.plain(t);
-    if (!this.cliffordT || this.toffoliAnds) this.ccx(qa, qb, t, -1);
-    else this.out.put(T_AND, qa, qb, t, -1);
+    if (!this.cliffordT || this.toffoliAnds) this.ccx(qa, qb, t, 0);
+    else this.out.put(T_AND, qa, qb, t, 0);
   }
 
-  private unand2(a: number, b: number, t: number, dies: boolean): void {
+  /** `dies`: bits of a, b, t never used again (slots 0, 1, 2 of every uncompute template). */
+  private unand2(a: number, b: number, t: number, dies: number): void {
     if (this.measured && !this.toffoliAnds) {
       this.plain(t);
-      this.out.put(T_ERASE_HEAD, t, -1, -1, -1);
+      this.out.put(T_ERASE_HEAD, t, -1, -1, 0);
       const qa = this.control(a);
       const qb = this.control(b);
-      this.out.put(T_ERASE_TAIL, qa, qb, t, dies ? 2 : -1);
+      this.out.put(T_ERASE_TAIL, qa, qb, t, dies);
       return;
     }
     const qa = this.control(a);
     const qb = this.control(b);
     this.plain(t);
-    if (!this.cliffordT || this.toffoliAnds) this.ccx(qa, qb, t, dies ? 2 : -1);
-    else this.out.put(T_UNAND, qa, qb, t, dies ? 2 : -1);
+    if (!this.cliffordT || this.toffoliAnds) this.ccx(qa, qb, t, dies);
+    else this.out.put(T_UNAND, qa, qb, t, dies);
   }
 
   private ccx(a: number, b: number, t: number, dies: number): void {
@@ -359,7 +363,7 @@ export class LoweringStream implements LogicalSink {
 
   private undoTree(record: readonly number[]): void {
     for (let i = record.length - 3; i >= 0; i -= 3) {
-      this.unand2(record[i]!, record[i + 1]!, record[i + 2]!, true);
+      this.unand2(record[i]!, record[i + 1]!, record[i + 2]!, 4);
       this.ids.give(record[i + 2]!);
     }
   }

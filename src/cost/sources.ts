@@ -175,13 +175,16 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
       bit = pos(t);
     }
     for (let j = 0; j + 1 < w; j++) carries[j] = ids.take();
-    sink.mcx1(bit, counter[0]!, false);
+    // Clause 0 comes last: there each counter qubit is used for the last time (its wire is then
+    // free for what follows, e.g. the next iteration of a search).
+    const last = i === 0;
+    sink.mcx1(bit, counter[0]!, last && w === 1);
     for (let j = 1; j < w; j++) {
       sink.andPair(j === 1 ? bit : pos(carries[j - 2]!), pos(counter[j - 1]!), carries[j - 1]!);
-      sink.mcx1(pos(carries[j - 1]!), counter[j]!, false);
+      sink.mcx1(pos(carries[j - 1]!), counter[j]!, last && j === w - 1);
     }
     for (let j = w - 2; j >= 0; j--) {
-      sink.unand(carries[j]!, true);
+      sink.unand(carries[j]!, true, last ? 2 : 0);
       ids.give(carries[j]!);
     }
     if (t >= 0) {
@@ -189,6 +192,7 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
       ids.give(t);
     }
   }
+  for (let j = 0; j < w; j++) ids.give(counter[j]!);
 }
 
 /** search/build.ts's diffusion over qubits 0..n-1. */

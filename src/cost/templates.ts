@@ -60,6 +60,8 @@ export const SLOTS = new Uint8Array(TEMPLATE_COUNT);
 export const SLOT_GATES: Uint8Array[] = [];
 /** Slots in the order of their first use (the order in which work-qubit reuse takes wires). */
 export const FIRST_TOUCH: Uint8Array[] = [];
+/** Slots in the order of their last use (the order in which work-qubit reuse frees wires). */
+export const LAST_TOUCH: Uint8Array[] = [];
 /** Whether the gate is a phase gate, CX/CZ, CCX, T: per-template totals for quick counting. */
 export const NAMES: readonly string[] = ["x", "h", "z", "cx", "cz", "ccx", "measure", "gphase", "and", "unand", "toffoli7", "erase-head", "erase-tail"];
 
@@ -136,6 +138,15 @@ function build(): void {
     });
     SLOTS[t] = slots;
     FIRST_TOUCH[t] = Uint8Array.from(touch);
+    // reuseWork frees a qubit after its last gate, the qubits of one gate in operand order.
+    const lastAt: [number, number, number][] = [];
+    raw[t]!.forEach((r, i) => r.slots.forEach((sl, j) => {
+      const k = lastAt.findIndex((x) => x[0] === sl);
+      if (k >= 0) lastAt.splice(k, 1);
+      lastAt.push([sl, i, j]);
+    }));
+    lastAt.sort((x, y) => x[1] - y[1] || x[2] - y[2]);
+    LAST_TOUCH[t] = Uint8Array.from(lastAt.map((x) => x[0]));
     for (let s = 0; s < 3; s++) SLOT_GATES[t * 3 + s] = Uint8Array.from(onSlot[s]!);
   }
 }
@@ -158,14 +169,21 @@ export const inverseKinds = (a: number, b: number): boolean => INVERSE_KIND[a] =
  */
 export function exitingGates(t: number, dead: number): number {
   const key = t * 4294967296 + (dead >>> 0);
+  const h = (Math.imul(dead, 0x9e3779b1) ^ Math.imul(t + 1, 0x85ebca6b)) >>> (32 - EXIT_BITS);
+  if (exitKey[h] === key) return exitVal[h]!;
   let m = exitCache.get(key);
   if (m === undefined) {
     m = computeExiting(t, dead);
     exitCache.set(key, m);
   }
+  exitKey[h] = key;
+  exitVal[h] = m;
   return m;
 }
 const exitCache = new Map<number, number>();
+const EXIT_BITS = 12;
+const exitKey = new Float64Array(1 << EXIT_BITS).fill(-1);
+const exitVal = new Int32Array(1 << EXIT_BITS);
 
 function computeExiting(t: number, dead: number): number {
   const base = GATE_START[t]!;

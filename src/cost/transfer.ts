@@ -48,15 +48,25 @@ export interface Transfer {
 }
 
 const cache = new Map<number, Transfer>();
+/** A direct-mapped cache in front of the map (this runs once per template instance). */
+const FRONT_BITS = 13;
+const frontKey = new Float64Array(1 << FRONT_BITS).fill(-1);
+const frontVal: Transfer[] = new Array<Transfer>(1 << FRONT_BITS);
 
 /** The transfer of template t with cancelled gates `dead`, pending runs p0..p2 on its slots. */
 export function transferOf(t: number, dead: number, p0: number, p1: number, p2: number, optimize: boolean): Transfer {
-  const key = ((((optimize ? 1 : 0) * 16 + t) * 2 ** 20 + (dead >>> 0)) * 32768) + (p0 | (p1 << 5) | (p2 << 10));
+  const hi = ((optimize ? 16 : 0) + t) * 32 + (dead >>> 27);
+  const lo = ((dead & 0x7ffffff) * 32768 + (p0 | (p1 << 5) | (p2 << 10)));
+  const key = hi * 2 ** 42 + lo;
+  const h = (Math.imul(lo | 0, 0x9e3779b1) ^ Math.imul((lo / 4294967296) | 0 ^ hi, 0x85ebca6b)) >>> (32 - FRONT_BITS);
+  if (frontKey[h] === key) return frontVal[h]!;
   let tr = cache.get(key);
   if (tr === undefined) {
     tr = compute(t, dead, [p0, p1, p2], optimize);
     cache.set(key, tr);
   }
+  frontKey[h] = key;
+  frontVal[h] = tr;
   return tr;
 }
 
