@@ -15,12 +15,11 @@ import type { Cnf } from "../cnf/cnf.js";
 import type { Circuit } from "../ir/circuit.js";
 import { countCircuit } from "../emit/resources.js";
 import type { Basis, Uncompute } from "../passes/lower.js";
-import { diffusionCircuit, searchCircuit } from "../search/build.js";
 import { simplify, synthesize, type AnyStrategy, type OracleKind, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
 import { builtCounts } from "./built.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
-import { diffusionOps, lastUses, leanOracle, phaseOracleOps, replayLogical, searchOps, type Fraction } from "./sources.js";
+import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction } from "./sources.js";
 
 /** Options of the cost functions. */
 export interface CostOptions {
@@ -465,8 +464,13 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
     let diffusion = part(dct, dtof);
     let whole = part(wct, wtof);
     if (!oracle.exact && oct.instances <= BUILD_LIMIT) oracle = builtPart(synthesize(f, "phase", strategy), uncompute);
-    if (!diffusion.exact && dct.instances <= BUILD_LIMIT) diffusion = builtPart(diffusionCircuit(n), uncompute);
-    if (!whole.exact && wct.instances <= BUILD_LIMIT) whole = builtPart(searchCircuit(f, strategy, iterations), uncompute);
+    const recorded = (emit: (sink: LogicalRecorder, ids: VirtualIds) => void): Circuit => {
+      const rec = new LogicalRecorder(n, n, 0);
+      emit(rec, new VirtualIds(n));
+      return rec.finish();
+    };
+    if (!diffusion.exact && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
+    if (!whole.exact && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
     return {
       strategy, uncompute, iterations, oracle, diffusion, circuit: whole, expected_runs: runs,
       expected_t_count: whole.t_count * runs, expected_toffoli_count: whole.toffoli_count * runs, expected_depth: whole.depth * runs,

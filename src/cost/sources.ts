@@ -5,7 +5,7 @@
  * some 6 log2(m) operations per clause, too many to hold for large m), the diffusion, and the
  * whole search circuit. A test holds each stream equal to the logical circuit synthesis builds.
  */
-import { K, type Circuit } from "../ir/circuit.js";
+import { CircuitBuilder, K, type Circuit } from "../ir/circuit.js";
 import type { OracleKind, SimplifiedCnf, Strategy } from "../synth/index.js";
 import { violatedBy } from "../synth/common.js";
 import type { LogicalSink, VirtualIds } from "./lowering.js";
@@ -227,4 +227,80 @@ export function searchOps(n: number, oracle: OracleOps, iterations: number, meas
     diffusionOps(n, sink);
   }
   if (measure) for (let q = 0; q < n; q++) sink.measure(q);
+}
+
+/**
+ * Builds the logical circuit of a stream (for the costs built instead of counted): a fresh qubit
+ * for every span of a recycled id, as synthesis gives.
+ */
+export class LogicalRecorder implements LogicalSink {
+  private readonly b: CircuitBuilder;
+  private readonly qubit = new Map<number, number>();
+  private readonly andOps = new Map<number, number[]>();
+
+  constructor(private readonly base: number, search: number, target: number) {
+    this.b = new CircuitBuilder({ search, target, clbits: 0 });
+  }
+
+  private q(id: number): number {
+    if (id < this.base) return id;
+    let q = this.qubit.get(id);
+    if (q === undefined) this.qubit.set(id, (q = this.b.newWork()));
+    return q;
+  }
+
+  private op(o: number): number {
+    return (this.q(o >>> 1) << 1) | (o & 1);
+  }
+
+  private end(id: number): void {
+    this.qubit.delete(id);
+  }
+
+  and(ctrls: ArrayLike<number>, t: number): void {
+    const ops = [...Array.from(ctrls, (o) => this.op(o)), pos(this.q(t))];
+    this.andOps.set(t, Array.from(ctrls));
+    this.b.addN(K.and, ops);
+  }
+
+  andPair(a: number, b: number, t: number): void {
+    this.and([a, b], t);
+  }
+
+  unand(t: number, dies: boolean, controlsDie = 0): void {
+    const ctrls = this.andOps.get(t)!;
+    this.b.addN(K.unand, [...ctrls.map((o) => this.op(o)), pos(this.q(t))]);
+    if (dies) this.end(t);
+    for (let i = 0; i < 2; i++) if ((controlsDie >>> i) & 1) this.end(ctrls[i]! >>> 1);
+  }
+
+  mcx(ctrls: ArrayLike<number>, t: number, dies: boolean): void {
+    this.b.addN(K.mcx, [...Array.from(ctrls, (o) => this.op(o)), pos(this.q(t))]);
+    if (dies) this.end(t);
+  }
+
+  mcx1(ctrl: number, t: number, dies: boolean): void {
+    this.mcx([ctrl], t, dies);
+  }
+
+  mcz(qs: ArrayLike<number>): void {
+    this.b.addN(K.mcz, Array.from(qs, (o) => this.op(o)));
+  }
+
+  single(template: number, q: number, dies: boolean): void {
+    this.b.add(template === T_X ? K.x : K.h, pos(this.q(q)));
+    if (dies) this.end(q);
+  }
+
+  measure(q: number): void {
+    this.b.add(K.measure, pos(this.q(q)), this.b.newClbit());
+  }
+
+  gphase(): void {
+    this.b.add(K.gphase, 4);
+  }
+
+  finish(): Circuit {
+    return this.b.finish();
+  }
 }

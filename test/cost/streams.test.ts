@@ -11,7 +11,7 @@ import { searchCircuit } from "../../dist/src/search/build.js";
 import { lower } from "../../dist/src/passes/lower.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
 import { LoweringStream, VirtualIds, type InstanceSink, type LogicalSink } from "../../dist/src/cost/lowering.js";
-import { lastUses, leanOracle, phaseOracleOps, replayLogical, searchOps } from "../../dist/src/cost/sources.js";
+import { lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps } from "../../dist/src/cost/sources.js";
 import { G_COND, G_KIND, G_NQ, G_OP, GATE_START, gatesOf, T_H, T_X } from "../../dist/src/cost/templates.js";
 import { GATE_KINDS } from "../../dist/src/ir/kinds.js";
 
@@ -156,6 +156,21 @@ describe("the streams are the pipeline's", () => {
         expect(sink.out).toEqual(logicalLines(searchCircuit(f, strategy, k), n));
       }),
       { numRuns: 80 },
+    );
+  });
+
+  it("the recorder (costs built instead of counted) builds search/build.ts's circuit from the stream", () => {
+    fc.assert(
+      fc.property(formula, fc.integer({ min: 0, max: 2 }), fc.constantFrom("wide", "lean") as fc.Arbitrary<"wide" | "lean">, ({ n, clauses }, k, strategy) => {
+        const f = simplify(cnfFromClauses(n, clauses));
+        const rec = new LogicalRecorder(n, n, 0);
+        searchOps(n, phaseOracleOps(f, strategy, () => synthesize(f, "phase", strategy)), k, true, rec, new VirtualIds(n));
+        const c = rec.finish();
+        const real = searchCircuit(f, strategy, k);
+        expect(c.qubits).toBe(real.qubits);
+        expect(logicalLines(c, n)).toEqual(logicalLines(real, n));
+      }),
+      { numRuns: 60 },
     );
   });
 
