@@ -129,13 +129,13 @@ export class LoweringStream implements LogicalSink {
       if (a >>> 1 !== b >>> 1 && (n === 2 || (a >>> 1 !== d >>> 1 && b >>> 1 !== d >>> 1))) {
         if (n === 2) {
           this.and2(a, b, t);
-          this.remember(t, -1, [a, b, t]);
+          this.rememberOne(t, a, b, t, -1, -1, -1);
         } else {
           const w = this.ids.take();
           this.room(w);
           this.and2(a, b, w);
           this.and2(pos(w), d, t);
-          this.remember(t, -1, [a, b, w, pos(w), d, t]);
+          this.rememberOne(t, a, b, w, pos(w), d, t);
         }
         return;
       }
@@ -262,6 +262,31 @@ export class LoweringStream implements LogicalSink {
   }
 
   // ---- as in lower.ts --------------------------------------------------------------------
+
+  /** remember() for one or two triples without a list (the second when d >= 0). */
+  private rememberOne(t: number, a: number, b: number, c: number, d: number, e: number, f: number): void {
+    const two = d >= 0 ? 1 : 0;
+    const need = this.top + 5 + 3 * two;
+    if (need > this.records.length) {
+      const r = new Int32Array(Math.max(need, this.records.length * 2));
+      r.set(this.records.subarray(0, this.top));
+      this.records = r;
+    }
+    const r = this.records;
+    const at = this.top;
+    this.recordAt[t] = at;
+    r[at] = 1 + two;
+    r[at + 1] = -1;
+    r[at + 2] = a;
+    r[at + 3] = b;
+    r[at + 4] = c;
+    if (two) {
+      r[at + 5] = d;
+      r[at + 6] = e;
+      r[at + 7] = f;
+    }
+    this.top = need;
+  }
 
   private remember(t: number, copied: number, triples: readonly number[]): void {
     const need = this.top + 2 + triples.length;

@@ -23,7 +23,9 @@ export type Fraction = (done: number) => void;
  */
 export function replayLogical(c: Circuit, base: number, sink: LogicalSink, ids: VirtualIds, lastUse: Int32Array, progress?: Fraction): void {
   const vid = new Int32Array(c.qubits).fill(-1);
-  const buf: number[] = [];
+  let widest = 1;
+  for (let g = 0; g < c.gates; g++) widest = Math.max(widest, c.opStart[g + 1]! - c.opStart[g]!);
+  const buf = new Int32Array(widest);
   const step = Math.max(1, Math.floor(c.gates / 100));
   for (let g = 0; g < c.gates; g++) {
     if (progress && g % step === 0) progress(g / c.gates);
@@ -35,40 +37,39 @@ export function replayLogical(c: Circuit, base: number, sink: LogicalSink, ids: 
       continue;
     }
     const nq = kind === K.measure ? 1 : e - s;
-    buf.length = 0;
     for (let p = s; p < s + nq; p++) {
       const op = c.ops[p]!;
       const q = op >>> 1;
-      if (q < base) {
-        buf.push(op);
-        continue;
+      if (q < base) buf[p - s] = op;
+      else {
+        if (vid[q] === -1) vid[q] = ids.take();
+        buf[p - s] = (vid[q]! << 1) | (op & 1);
       }
-      if (vid[q] === -1) vid[q] = ids.take();
-      buf.push((vid[q]! << 1) | (op & 1));
     }
-    const last = buf.length - 1;
-    const dies = (i: number): boolean => {
-      const q = c.ops[s + i]! >>> 1;
-      return q >= base && lastUse[q] === g;
-    };
+    const last = nq - 1;
+    const tq = c.ops[s + last]! >>> 1;
+    // The target's span ends here (it is never used again).
+    const dies = tq >= base && lastUse[tq] === g;
     switch (kind) {
       case K.and:
-        sink.and(buf.slice(0, last), buf[last]! >>> 1);
+        if (last === 2) sink.andPair(buf[0]!, buf[1]!, buf[2]! >>> 1);
+        else sink.and(buf.subarray(0, last), buf[last]! >>> 1);
         break;
       case K.unand:
-        sink.unand(buf[last]! >>> 1, dies(last));
+        sink.unand(buf[last]! >>> 1, dies);
         break;
       case K.mcx:
-        sink.mcx(buf.slice(0, last), buf[last]! >>> 1, dies(last));
+        if (last === 1) sink.mcx1(buf[0]!, buf[1]! >>> 1, dies);
+        else sink.mcx(buf.subarray(0, last), buf[last]! >>> 1, dies);
         break;
       case K.mcz:
-        sink.mcz(buf);
+        sink.mcz(buf.subarray(0, nq));
         break;
       case K.x:
-        sink.single(T_X, buf[0]! >>> 1, dies(0));
+        sink.single(T_X, buf[0]! >>> 1, dies);
         break;
       case K.h:
-        sink.single(T_H, buf[0]! >>> 1, dies(0));
+        sink.single(T_H, buf[0]! >>> 1, dies);
         break;
       case K.measure:
         sink.measure(buf[0]! >>> 1);
