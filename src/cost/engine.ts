@@ -102,6 +102,61 @@ for (let t = 0; t < TEMPLATE_COUNT; t++) {
   }
 }
 
+/**
+ * A recorded stretch of instances (a segment; see CountingEngine.replaySegment). Wires are entries of
+ * a table: an input wire given by the source, a fixed wire, or one taken from the free wires.
+ */
+interface Segment {
+  /** Table: 0 input (value: its index), 1 fixed (value: the wire), 2 taken (value: order taken). */
+  readonly kind: Int8Array;
+  readonly value: Int32Array;
+  /** Wires taken from the free wires (all before any is given back), and those given back. */
+  readonly takes: number;
+  readonly gives: Int32Array;
+  /** The instances: template, table entry per slot, cancelled gates, stage-1 mask, rechecks. */
+  readonly t: Uint8Array;
+  readonly w: Int32Array;
+  readonly dead: Int32Array;
+  readonly mask1: Int32Array;
+  readonly recheck: Int32Array;
+  /**
+   * Earlier instances the recording read, by path: table entry j, depth along the wire's history
+   * (0: the last instance before the segment), sorted by (j, depth); with their template, the
+   * slot on that wire, their cancelled gates then, and which table entry each slot's wire is
+   * (-1: none). `id` identifies the same instance met on several paths.
+   */
+  readonly readJ: Int32Array;
+  readonly readDepth: Int32Array;
+  /** The instance read, numbered in the order of the instances (0 = the oldest). */
+  readonly readRef: Int32Array;
+  /** Instances read. */
+  readonly refs: number;
+  readonly readT: Uint8Array;
+  readonly readSlot: Int8Array;
+  readonly readDead: Int32Array;
+  readonly readPat: Int32Array;
+  /** Gates of earlier instances the segment cancelled (by read ref), and instances it marked for stage 2. */
+  readonly killRef: Int32Array;
+  readonly killBits: Int32Array;
+  readonly markRef: Int32Array;
+  /** The source's data (e.g. the control flips the segment leaves). */
+  readonly extra: number;
+  /** A digest of the last instance on each input wire when it was recorded (see fingerprint). */
+  readonly fp: number;
+}
+
+/** The segments recorded for one key: all share their table's layout, and are found by fingerprint. */
+interface SegmentsOfKey {
+  readonly kind: Int8Array;
+  readonly value: Int32Array;
+  readonly takes: number;
+  readonly byFp: Map<number, Segment[]>;
+  count: number;
+}
+
+const MAX_SEGMENTS_PER_KEY = 64;
+const MAX_SEGMENTS = 4096;
+
 export class CountingEngine implements InstanceSink {
   private readonly base: number;
   private readonly optimize: boolean;
@@ -123,6 +178,8 @@ export class CountingEngine implements InstanceSink {
   private rNext: Int32Array;
   /** Cancelled gates of each instance right after its own stage 1. */
   private rMask1: Int32Array;
+  /** Per slot: how many instances its wire had with this one (see evict). */
+  private rSeq: Int32Array;
   /** Gates whose walk stage 2 repeats: a gate they passed went after their stage 1 (-1: all). */
   private rRecheck: Int32Array;
   private nextId = 0;
@@ -146,12 +203,39 @@ export class CountingEngine implements InstanceSink {
   private level: Float64Array;
   private tLevel: Float64Array;
   private pend: Uint8Array;
+  /** Instances linked on each wire so far. */
+  private wireSeq = new Int32Array(0);
   private wireCap = 0;
 
   // Virtual ids -> wires.
   private wireOf: Int32Array = new Int32Array(1024).fill(-1);
   private freeWires: number[] = [];
   private workWires = 0;
+
+  // The segment memo (see replaySegment).
+  private readonly memo = new Map<number, SegmentsOfKey>();
+  private memoSize = 0;
+  private rec = false;
+  private recAbort = false;
+  private recStart = 0;
+  private recKey = 0;
+  private recFlags = 0;
+  private stamp = 0;
+  private tabStamp = new Int32Array(0);
+  private tabIdx = new Int32Array(0);
+  private recKind: number[] = [];
+  private recValue: number[] = [];
+  private recWire: number[] = [];
+  private recHead: number[] = [];
+  private recHeadSlot: number[] = [];
+  private recTakes = 0;
+  private recGives: number[] = [];
+  private readonly recReads = new Map<number, number>();
+  private readonly recKills = new Map<number, number>();
+  private readonly recMarks = new Set<number>();
+  /** Segments replayed and recorded (for the tests and benchmarks). */
+  replays = 0;
+  recordings = 0;
 
   // Figures.
   private tCount = 0;
@@ -183,6 +267,7 @@ export class CountingEngine implements InstanceSink {
     this.rPrevSlot = new Int8Array(0);
     this.rNext = new Int32Array(0);
     this.rMask1 = new Int32Array(0);
+    this.rSeq = new Int32Array(0);
     this.rRecheck = new Int32Array(0);
     this.growRing(this.maxLag === Infinity ? 4096 : 0);
     this.lastInst = new Int32Array(0);
@@ -206,7 +291,7 @@ export class CountingEngine implements InstanceSink {
     const want = Number.isFinite(this.lag) ? this.lag * 2 + 64 : 0;
     while (r < Math.max(atLeast, want)) r *= 2;
     if (r === this.ringSize) return;
-    const old = { size: this.ringSize, mask: this.ringMask, rT: this.rT, rW: this.rW, rDead: this.rDead, rPrev: this.rPrev, rPrevSlot: this.rPrevSlot, rNext: this.rNext, rMask1: this.rMask1, rRecheck: this.rRecheck };
+    const old = { size: this.ringSize, mask: this.ringMask, rT: this.rT, rW: this.rW, rDead: this.rDead, rPrev: this.rPrev, rPrevSlot: this.rPrevSlot, rNext: this.rNext, rMask1: this.rMask1, rRecheck: this.rRecheck, rSeq: this.rSeq };
     this.ringSize = r;
     this.ringMask = r - 1;
     this.rT = new Uint8Array(r);
@@ -217,6 +302,7 @@ export class CountingEngine implements InstanceSink {
     this.rNext = new Int32Array(r * 3);
     this.rMask1 = new Int32Array(r);
     this.rRecheck = new Int32Array(r);
+    this.rSeq = new Int32Array(r * 3);
     for (let id = this.ringLow; id < this.nextId; id++) {
       const a = id & old.mask;
       const b = id & this.ringMask;
@@ -229,6 +315,7 @@ export class CountingEngine implements InstanceSink {
         this.rPrev[b * 3 + s] = old.rPrev[a * 3 + s]!;
         this.rPrevSlot[b * 3 + s] = old.rPrevSlot[a * 3 + s]!;
         this.rNext[b * 3 + s] = old.rNext[a * 3 + s]!;
+        this.rSeq[b * 3 + s] = old.rSeq[a * 3 + s]!;
       }
     }
   }
@@ -273,6 +360,15 @@ export class CountingEngine implements InstanceSink {
     const p = new Uint8Array(cap);
     p.set(this.pend);
     this.pend = p;
+    const sq = new Int32Array(cap);
+    sq.set(this.wireSeq);
+    this.wireSeq = sq;
+    const ts = new Int32Array(cap);
+    ts.set(this.tabStamp);
+    this.tabStamp = ts;
+    const ti = new Int32Array(cap);
+    ti.set(this.tabIdx);
+    this.tabIdx = ti;
     this.wireCap = cap;
   }
 
@@ -285,7 +381,13 @@ export class CountingEngine implements InstanceSink {
     }
     let w = this.wireOf[v]!;
     if (w < 0) {
-      w = this.freeWires.length > 0 ? this.freeWires.pop()! : this.base + this.workWires++;
+      if (this.freeWires.length > 0) {
+        w = this.freeWires.pop()!;
+        if (this.rec) this.recPop(w);
+      } else {
+        w = this.base + this.workWires++;
+        if (this.rec) this.recAbort = true; // a replay could not take the same new wire
+      }
       if (w >= this.wireCap) this.growWires(w + 1);
       this.wireOf[v] = w;
     }
@@ -295,6 +397,35 @@ export class CountingEngine implements InstanceSink {
   // ---- input -----------------------------------------------------------------------------
 
   put(t: number, a: number, b: number, c: number, dies: number): void {
+    const id = this.open();
+    const x = id & this.ringMask;
+    // Wires in the order of first use (reuse takes them in that order).
+    const touch = FIRST_TOUCH[t]!;
+    for (let i = 0; i < touch.length; i++) {
+      const s = touch[i]!;
+      this.rW[x * 3 + s] = this.wireFor(s === 0 ? a : s === 1 ? b : c);
+    }
+    this.place(id, x, t);
+    if (this.optimize) this.cancel(id, x);
+    this.rMask1[x] = this.rDead[x]!;
+    if (dies !== 0) {
+      // Freed in the order of their last gate, as reuseWork frees them.
+      const order = LAST_TOUCH[t]!;
+      for (let i = 0; i < order.length; i++) {
+        const s = order[i]!;
+        if (((dies >>> s) & 1) === 0) continue;
+        const v = s === 0 ? a : s === 1 ? b : c;
+        const w = this.wireOf[v]!;
+        this.freeWires.push(w);
+        this.wireOf[v] = -1;
+        if (this.rec) this.recPush(w);
+      }
+    }
+    this.close(id);
+  }
+
+  /** A new instance id: the window grows with the stream, the oldest instance leaves the ring. */
+  private open(): number {
     const id = this.nextId;
     if (id > 0x7ffffff0) throw new Error("counting: more than 2^31 template instances");
     if (this.maxLag === Infinity) {
@@ -306,17 +437,15 @@ export class CountingEngine implements InstanceSink {
       this.growRing();
     }
     this.nextId++;
-    const x = id & this.ringMask;
     if (id - this.ringSize >= this.ringLow) {
       this.evict(id - this.ringSize);
       this.ringLow = id - this.ringSize + 1;
     }
-    // Wires in the order of first use (reuse takes them in that order).
-    const touch = FIRST_TOUCH[t]!;
-    for (let i = 0; i < touch.length; i++) {
-      const s = touch[i]!;
-      this.rW[x * 3 + s] = this.wireFor(s === 0 ? a : s === 1 ? b : c);
-    }
+    return id;
+  }
+
+  /** Writes instance id (its wires already in rW) and links it into its wires' histories. */
+  private place(id: number, x: number, t: number): void {
     this.rT[x] = t;
     this.rDead[x] = 0;
     this.rRecheck[x] = 0;
@@ -324,31 +453,29 @@ export class CountingEngine implements InstanceSink {
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
       const p = this.lastInst[w]!;
+      if (this.rec) this.recTouch(w, p);
       this.rPrev[x * 3 + s] = p;
       this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
       this.rNext[x * 3 + s] = -1;
       if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.lastSlot[w]!] = id;
       this.lastInst[w] = id;
       this.lastSlot[w] = s;
+      this.rSeq[x * 3 + s] = ++this.wireSeq[w]!;
     }
-    if (this.optimize) this.cancel(id, x);
-    this.rMask1[x] = this.rDead[x]!;
-    if (dies !== 0) {
-      // Freed in the order of their last gate, as reuseWork frees them.
-      const order = LAST_TOUCH[t]!;
-      for (let i = 0; i < order.length; i++) {
-        const s = order[i]!;
-        if (((dies >>> s) & 1) === 0) continue;
-        const v = s === 0 ? a : s === 1 ? b : c;
-        this.freeWires.push(this.wireOf[v]!);
-        this.wireOf[v] = -1;
-      }
-    }
+  }
+
+  /** Settles what the window has let go (stage 2's walks are no part of a segment being recorded). */
+  private close(id: number): void {
+    if (this.done > id - this.lag) return;
+    const rec = this.rec;
+    this.rec = false;
     while (this.done <= id - this.lag) this.settle(this.done);
+    this.rec = rec;
   }
 
   /** Flushes everything; call once after the last instance. */
   finish(): EngineResult {
+    this.rec = false;
     while (this.done < this.nextId) this.settle(this.done);
     const wires = this.base + this.workWires;
     let depth = 0;
@@ -391,6 +518,400 @@ export class CountingEngine implements InstanceSink {
     return this.nextId;
   }
 
+  // ---- the segment memo -------------------------------------------------------------------
+  //
+  // A source may mark a stretch of its instances as a segment with a key that fixes the stretch's
+  // templates and the pattern of its wires, given its input wires (the lean oracle: one clause's
+  // half, keyed by its width, polarities and pending flips). The first time, the engine records
+  // the segment while replaying it as usual: which wires it took from the free wires, and every
+  // earlier instance its walks read (by path: a table wire and a depth in that wire's history),
+  // with the data the walks looked at. Later, the same key is replayed from the record when every
+  // recorded read finds the same data at the same path (the same instances where the recording met
+  // one instance twice, in the same order): the engine is deterministic, so the walks would make
+  // the same decisions; the record's cancellations, marks and instances are written directly.
+
+  private flagState(): number {
+    return (this.flagHard !== null ? 1 : 0) | (this.flagSecond !== null ? 2 : 0) | (this.flagBound !== null ? 4 : 0) | (this.historyShort ? 8 : 0) | (this.lagShort ? 16 : 0);
+  }
+
+  /**
+   * Replays a recorded segment for `key` with these input wires; returns its extra data, or -1
+   * when none applies (then the engine records the segment the caller is about to send, until
+   * endSegment).
+   */
+  replaySegment(key: number, inputs: ArrayLike<number>): number {
+    const of = this.memo.get(key);
+    if (of !== undefined && this.stampTable(of.kind, of.value, of.takes, inputs)) {
+      const list = of.byFp.get(this.fingerprint(of.kind));
+      if (list !== undefined) {
+        for (let i = 0; i < list.length; i++) {
+          const seg = list[i]!;
+          if (this.tryReplay(seg)) {
+            this.replays++;
+            // The one that fits goes first: the next segment like this one likely meets the same.
+            if (i > 0) {
+              list.splice(i, 1);
+              list.unshift(seg);
+            }
+            return seg.extra;
+          }
+        }
+      }
+    }
+    if ((of?.count ?? 0) < MAX_SEGMENTS_PER_KEY && this.memoSize < MAX_SEGMENTS) this.startRecording(key, inputs);
+    return -1;
+  }
+
+  /** Ends the segment begun by a replaySegment that returned -1 (extra -1: do not keep it). */
+  endSegment(extra: number): void {
+    if (!this.rec) return;
+    this.rec = false;
+    const seg = extra < 0 || this.recAbort || this.flagState() !== this.recFlags || this.nextId - this.recStart > this.lag / 2 ? null : this.buildSegment(extra);
+    if (seg === null) return;
+    let of = this.memo.get(this.recKey);
+    if (of === undefined) {
+      of = { kind: seg.kind, value: seg.value, takes: seg.takes, byFp: new Map(), count: 0 };
+      this.memo.set(this.recKey, of);
+    } else if (!sameTable(of, seg)) return;
+    const list = of.byFp.get(seg.fp) ?? [];
+    list.push(seg);
+    of.byFp.set(seg.fp, list);
+    of.count++;
+    this.memoSize++;
+    this.recordings++;
+  }
+
+  /**
+   * Puts the wires of a table layout (inputs, fixed wires, wires about to be taken) into the
+   * stamped lookup; false when the layout does not fit now.
+   */
+  private stampTable(kind: Int8Array, value: Int32Array, takes: number, inputs: ArrayLike<number>): boolean {
+    const table = this.replayWires;
+    table.length = 0;
+    const free = this.freeWires;
+    if (takes > free.length) return false;
+    this.stamp++;
+    for (let j = 0; j < kind.length; j++) {
+      const k = kind[j]!;
+      const v = value[j]!;
+      let wire: number;
+      if (k === 0) {
+        if (v >= inputs.length) return false;
+        wire = inputs[v]!;
+      } else if (k === 1) wire = v;
+      else wire = free[free.length - 1 - v]!;
+      if (wire >= this.wireCap) this.growWires(wire + 1);
+      if (this.tabStamp[wire] === this.stamp) return false;
+      this.tabStamp[wire] = this.stamp;
+      this.tabIdx[wire] = j;
+      table.push(wire);
+    }
+    return true;
+  }
+
+  /**
+   * A digest of the last instance on each input wire of the stamped table (template, slot, gates
+   * cancelled, which table wires it uses): the data a segment's walks most often differ by.
+   */
+  private fingerprint(kind: Int8Array): number {
+    let h = 0;
+    const table = this.replayWires;
+    for (let j = 0; j < kind.length; j++) {
+      if (kind[j] !== 0) continue;
+      const wire = table[j]!;
+      const id = this.lastInst[wire]!;
+      let v = 7;
+      if (id >= 0) {
+        const loc = this.locate(id, wire);
+        v = loc === -1 ? 11 : this.headDigest(loc, this.lastSlot[wire]!, 0);
+      }
+      h = (Math.imul(h, 1000003) + v) | 0;
+    }
+    return h;
+  }
+
+  private startRecording(key: number, inputs: ArrayLike<number>): void {
+    this.rec = true;
+    this.recAbort = false;
+    this.recStart = this.nextId;
+    this.recKey = key;
+    this.recFlags = this.flagState();
+    this.stamp++;
+    this.recKind.length = 0;
+    this.recValue.length = 0;
+    this.recWire.length = 0;
+    this.recHead.length = 0;
+    this.recHeadSlot.length = 0;
+    this.recTakes = 0;
+    this.recGives.length = 0;
+    this.recReads.clear();
+    this.recKills.clear();
+    this.recMarks.clear();
+    for (let i = 0; i < inputs.length; i++) {
+      const w = inputs[i]!;
+      if (w >= this.wireCap) this.growWires(w + 1);
+      if (this.tabStamp[w] === this.stamp) {
+        this.recAbort = true; // the same wire twice
+        continue;
+      }
+      this.addWire(w, 0, i);
+    }
+  }
+
+  private addWire(w: number, kind: number, value: number): number {
+    const j = this.recKind.length;
+    this.tabStamp[w] = this.stamp;
+    this.tabIdx[w] = j;
+    this.recKind.push(kind);
+    this.recValue.push(value);
+    this.recWire.push(w);
+    this.recHead.push(-2);
+    this.recHeadSlot.push(-1);
+    return j;
+  }
+
+  private recPop(w: number): void {
+    if (this.recGives.length > 0) this.recAbort = true; // taken after one was given back
+    this.addWire(w, 2, this.recTakes++);
+  }
+
+  private recPush(w: number): void {
+    if (this.tabStamp[w] !== this.stamp) {
+      this.recAbort = true;
+      return;
+    }
+    this.recGives.push(this.tabIdx[w]!);
+  }
+
+  /** A segment instance uses wire w, whose last instance is p: the first time, p is the wire's head. */
+  private recTouch(w: number, p: number): void {
+    let j = this.tabStamp[w] === this.stamp ? this.tabIdx[w]! : -1;
+    if (j < 0) j = this.addWire(w, 1, w);
+    if (this.recHead[j] === -2) {
+      this.recHead[j] = p;
+      this.recHeadSlot[j] = this.lastSlot[w]!;
+    }
+  }
+
+  private recRead(id: number, w: number): void {
+    if (!this.recReads.has(id)) {
+      const j = this.tabStamp[w] === this.stamp ? this.tabIdx[w]! : -1;
+      if (j < 0) this.recAbort = true;
+      this.recReads.set(id, j);
+    }
+  }
+
+  private recKill(id: number, bits: number): void {
+    this.recKills.set(id, (this.recKills.get(id) ?? 0) | bits);
+  }
+
+  private recMarked(id: number): void {
+    this.recMarks.add(id);
+  }
+
+  /** The record of the segment just replayed, or null when it cannot be replayed safely. */
+  private buildSegment(extra: number): Segment | null {
+    const n = this.nextId - this.recStart;
+    const t = new Uint8Array(n);
+    const w = new Int32Array(n * 3).fill(-1);
+    const dead = new Int32Array(n);
+    const mask1 = new Int32Array(n);
+    const recheck = new Int32Array(n);
+    for (let k = 0; k < n; k++) {
+      const x = (this.recStart + k) & this.ringMask;
+      t[k] = this.rT[x]!;
+      for (let s = 0; s < SLOTS[t[k]!]!; s++) {
+        const wire = this.rW[x * 3 + s]!;
+        if (this.tabStamp[wire] !== this.stamp) return null;
+        w[k * 3 + s] = this.tabIdx[wire]!;
+      }
+      dead[k] = this.rDead[x]!;
+      mask1[k] = this.rMask1[x]!;
+      recheck[k] = this.rRecheck[x]!;
+    }
+    // Paths of the earlier instances read: walk each table wire's history from its head.
+    const reads: { j: number; depth: number; id: number; t: number; slot: number; dead: number; pat: number[] }[] = [];
+    const want = new Map<number, number[]>();
+    for (const [id, j] of this.recReads) {
+      if (j < 0) return null;
+      const list = want.get(j) ?? [];
+      list.push(id);
+      want.set(j, list);
+    }
+    for (const [j, ids] of want) {
+      const wire = this.recWire[j]!;
+      let cur = this.recHead[j]!;
+      let slot = this.recHeadSlot[j]!;
+      const left = new Set(ids);
+      for (let depth = 0; left.size > 0; depth++) {
+        if (cur < 0) return null;
+        const loc = this.locate(cur, wire);
+        if (loc === -1) return null;
+        if (left.has(cur)) {
+          left.delete(cur);
+          const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+          const pat: number[] = [];
+          for (let s = 0; s < 3; s++) {
+            const ww = s < SLOTS[ct]! ? (loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!) : -1;
+            pat.push(ww >= 0 && this.tabStamp[ww] === this.stamp ? this.tabIdx[ww]! : -1);
+          }
+          const d = (loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!) & ~(this.recKills.get(cur) ?? 0);
+          reads.push({ j, depth, id: cur, t: ct, slot, dead: d, pat });
+        }
+        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
+        slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+        cur = prev;
+      }
+    }
+    reads.sort((a, b) => a.j - b.j || a.depth - b.depth);
+    for (const id of this.recKills.keys()) if (!this.recReads.has(id)) return null;
+    for (const id of this.recMarks) if (!this.recReads.has(id)) return null;
+    const ids = [...this.recReads.keys()].sort((a, b) => a - b);
+    const ref = new Map(ids.map((id, i) => [id, i]));
+    // The fingerprint of the situation at the start: the heads of the input wires then.
+    let fp = 0;
+    for (let j = 0; j < this.recKind.length; j++) {
+      if (this.recKind[j] !== 0) continue;
+      const head = this.recHead[j]!;
+      const wire = this.recWire[j]!;
+      let v = 7;
+      if (head === -2) {
+        // Not touched by the segment: its head now is what it was.
+        const id = this.lastInst[wire]!;
+        if (id >= 0) {
+          const loc = this.locate(id, wire);
+          if (loc === -1) v = 11;
+          else v = this.headDigest(loc, this.lastSlot[wire]!, this.recKills.get(id) ?? 0);
+        }
+      } else if (head >= 0) {
+        const loc = this.locate(head, wire);
+        if (loc === -1) v = 11;
+        else v = this.headDigest(loc, this.recHeadSlot[j]!, this.recKills.get(head) ?? 0);
+      }
+      fp = (Math.imul(fp, 1000003) + v) | 0;
+    }
+    return {
+      kind: Int8Array.from(this.recKind),
+      value: Int32Array.from(this.recValue),
+      takes: this.recTakes,
+      gives: Int32Array.from(this.recGives),
+      t, w, dead, mask1, recheck,
+      readJ: Int32Array.from(reads, (r) => r.j),
+      readDepth: Int32Array.from(reads, (r) => r.depth),
+      readRef: Int32Array.from(reads, (r) => ref.get(r.id)!),
+      refs: ids.length,
+      readT: Uint8Array.from(reads, (r) => r.t),
+      readSlot: Int8Array.from(reads, (r) => r.slot),
+      readDead: Int32Array.from(reads, (r) => r.dead),
+      readPat: Int32Array.from(reads.flatMap((r) => r.pat)),
+      killRef: Int32Array.from(this.recKills.keys(), (id) => ref.get(id)!),
+      killBits: Int32Array.from(this.recKills.values()),
+      markRef: Int32Array.from(this.recMarks, (id) => ref.get(id)!),
+      extra,
+      fp,
+    };
+  }
+
+  /** fingerprint()'s digest of one instance (with the gates the segment cancelled in it restored). */
+  private headDigest(loc: number, slot: number, killed: number): number {
+    const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+    let v = ct * 8 + slot;
+    v = Math.imul(v, 31) + ((loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!) & ~killed);
+    for (let s = 0; s < SLOTS[ct]!; s++) {
+      const ww = loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!;
+      v = Math.imul(v, 31) + (this.tabStamp[ww] === this.stamp ? this.tabIdx[ww]! + 1 : 0);
+    }
+    return v;
+  }
+
+  private readonly replayWires: number[] = [];
+  /** Per read ref: the instance found now, and a wire it was found along. */
+  private replayId = new Int32Array(64);
+  private replayWire = new Int32Array(64);
+
+  /** Replays a recorded segment if every recorded read finds the same data; true when done. */
+  private tryReplay(seg: Segment): boolean {
+    const table = this.replayWires;
+    const free = this.freeWires;
+    // The reads, wire by wire, walking each history once.
+    if (this.replayId.length < seg.refs) {
+      this.replayId = new Int32Array(seg.refs * 2);
+      this.replayWire = new Int32Array(seg.refs * 2);
+    }
+    const found = this.replayId;
+    const along = this.replayWire;
+    found.fill(-1, 0, seg.refs);
+    const nr = seg.readJ.length;
+    let r = 0;
+    while (r < nr) {
+      const j = seg.readJ[r]!;
+      const wire = table[j]!;
+      let cur = this.lastInst[wire]!;
+      let slot = this.lastSlot[wire]!;
+      let depth = 0;
+      for (; r < nr && seg.readJ[r] === j; r++) {
+        const want = seg.readDepth[r]!;
+        let loc = -1;
+        for (;;) {
+          if (cur < 0) return false;
+          loc = this.locate(cur, wire);
+          if (loc === -1) return false;
+          if (depth === want) break;
+          const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
+          slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+          cur = prev;
+          depth++;
+        }
+        const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+        if (ct !== seg.readT[r] || slot !== seg.readSlot[r]) return false;
+        if ((loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!) !== seg.readDead[r]) return false;
+        for (let s = 0; s < 3; s++) {
+          const ww = s < SLOTS[ct]! ? (loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!) : -1;
+          const idx = ww >= 0 && this.tabStamp[ww] === this.stamp ? this.tabIdx[ww]! : -1;
+          if (idx !== seg.readPat[r * 3 + s]) return false;
+        }
+        const ref = seg.readRef[r]!;
+        const seen = found[ref]!;
+        if (seen === -1) {
+          found[ref] = cur;
+          along[ref] = wire;
+        } else if (seen !== cur) return false;
+      }
+    }
+    // The same instances in the same order (the walks compare their positions).
+    for (let i = 1; i < seg.refs; i++) if (found[i - 1]! >= found[i]!) return false;
+    // Replay: cancellations and marks in earlier instances, the wires taken, the instances, the wires given back.
+    for (let i = 0; i < seg.killRef.length; i++) {
+      const id = found[seg.killRef[i]!]!;
+      const loc = this.locate(id, along[seg.killRef[i]!]!);
+      if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | seg.killBits[i]!;
+      else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | seg.killBits[i]!;
+      if (id < this.done) {
+        this.lagShort = true;
+        this.flagHard ??= "a cancellation reached a part already counted";
+      }
+    }
+    for (let i = 0; i < seg.markRef.length; i++) {
+      const id = found[seg.markRef[i]!]!;
+      if (id >= this.ringLow) this.rRecheck[id & this.ringMask] = -1;
+    }
+    free.length -= seg.takes;
+    const n = seg.t.length;
+    for (let k = 0; k < n; k++) {
+      const id = this.open();
+      const x = id & this.ringMask;
+      const t = seg.t[k]!;
+      for (let s = 0; s < SLOTS[t]!; s++) this.rW[x * 3 + s] = table[seg.w[k * 3 + s]!]!;
+      this.place(id, x, t);
+      this.rDead[x] = seg.dead[k]!;
+      this.rMask1[x] = seg.mask1[k]!;
+      this.rRecheck[x] = seg.recheck[k]!;
+      this.close(id);
+    }
+    for (let i = 0; i < seg.gives.length; i++) free.push(table[seg.gives[i]!]!);
+    return true;
+  }
+
   // ---- the instance store ----------------------------------------------------------------
 
   /**
@@ -405,21 +926,9 @@ export class CountingEngine implements InstanceSink {
     for (let s = 0; s < SLOTS[t]!; s++) {
       const w = this.rW[x * 3 + s]!;
       const next = this.rNext[x * 3 + s]!;
-      let keep = next === -1 || next >= this.done;
-      if (!keep) {
-        // Instances on w after this one (all still in the ring): keep it if fewer than depth.
-        let n = 1;
-        let cur = next;
-        let cs = this.slotOf(cur, w);
-        while (n < d && cur !== -1) {
-          const nx = this.rNext[(cur & this.ringMask) * 3 + cs]!;
-          if (nx === -1) break;
-          cur = nx;
-          cs = this.slotOf(cur, w);
-          n++;
-        }
-        keep = n < d;
-      }
+      // Kept when fewer than `depth` instances came after it on w, or the next one on w is not
+      // through stage 2 yet (whose walks start here).
+      const keep = this.wireSeq[w]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
       if (!keep) continue;
       // Newest first: shift the older copies of this wire down.
       const b = w * d;
@@ -444,12 +953,6 @@ export class CountingEngine implements InstanceSink {
       this.sPrev[b] = this.rPrev[x * 3 + s]!;
       this.sPrevSlot[b] = this.rPrevSlot[x * 3 + s]!;
     }
-  }
-
-  /** The slot of instance id (in the ring) on wire w. */
-  private slotOf(id: number, w: number): number {
-    const x = (id & this.ringMask) * 3;
-    return this.rW[x] === w ? 0 : this.rW[x + 1] === w ? 1 : 2;
   }
 
   /** Where instance `id` is kept, seen from wire w: ring index, -2 - copy index, or -1. */
@@ -490,6 +993,7 @@ export class CountingEngine implements InstanceSink {
         const loc = this.locate(hid, hw);
         if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
         else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
+        if (this.rec && hid < this.recStart) this.recKill(hid, 1 << hp);
         this.rDead[x] = this.rDead[x]! | (1 << p);
         if (hid < this.done) {
           this.lagShort = true;
@@ -513,6 +1017,7 @@ export class CountingEngine implements InstanceSink {
       if (prev <= from || prev < this.ringLow) return;
       const pl = prev & this.ringMask;
       this.rRecheck[pl] = -1;
+      if (this.rec && prev < this.recStart) this.recMarked(prev);
       slot = this.rPrevSlot[loc * 3 + slot]!;
       loc = pl;
     }
@@ -566,6 +1071,7 @@ export class CountingEngine implements InstanceSink {
       loc = pl;
       cur = prev;
       slot = ps;
+      if (this.rec && cur < this.recStart) this.recRead(cur, w);
       k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
     }
   }
@@ -659,6 +1165,7 @@ export class CountingEngine implements InstanceSink {
         loc = pl;
         cur = prev;
         slot = ps;
+        if (this.rec && cur < this.recStart) this.recRead(cur, w);
         k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
       }
     }
@@ -762,4 +1269,10 @@ function maxPlus(o: Int32Array, k: number, a: number, b: number, c: number, bit:
   if (dc !== NONE && c + dc > r) r = c + dc;
   if (dd !== NONE && bit + dd > r) r = bit + dd;
   return r;
+}
+
+function sameTable(a: SegmentsOfKey, b: Segment): boolean {
+  if (a.takes !== b.takes || a.kind.length !== b.kind.length) return false;
+  for (let j = 0; j < a.kind.length; j++) if (a.kind[j] !== b.kind[j] || a.value[j] !== b.value[j]) return false;
+  return true;
 }
