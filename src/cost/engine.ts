@@ -120,41 +120,17 @@ interface Segment {
   readonly mask1: Int32Array;
   readonly recheck: Int32Array;
   /**
-   * Earlier instances the recording read, by path: table entry j, depth along the wire's history
-   * (0: the last instance before the segment), sorted by (j, depth); with their template, the
-   * slot on that wire, their cancelled gates then, and which table entry each slot's wire is
-   * (-1: none). `id` identifies the same instance met on several paths.
+   * The boundary walks, WALK_FIELDS numbers each: instance index and gate of the walker, the table
+   * entry of the wire walked, live gates counted inside the segment, clearBetween's segment part
+   * for control operands 0 and 1 (passed?, gates counted), and whether a partner was found.
    */
-  readonly readJ: Int32Array;
-  readonly readDepth: Int32Array;
-  /** The instance read, numbered in the order of the instances (0 = the oldest). */
-  readonly readRef: Int32Array;
-  /** Instances read. */
-  readonly refs: number;
-  readonly readT: Uint8Array;
-  readonly readSlot: Int8Array;
-  readonly readDead: Int32Array;
-  readonly readPat: Int32Array;
-  /** Gates of earlier instances the segment cancelled (by read ref), and instances it marked for stage 2. */
-  readonly killRef: Int32Array;
-  readonly killBits: Int32Array;
-  readonly markRef: Int32Array;
+  readonly walks: Int32Array;
   /** The source's data (e.g. the control flips the segment leaves). */
   readonly extra: number;
-  /** A digest of the last instance on each input wire when it was recorded (see fingerprint). */
-  readonly fp: number;
 }
 
-/** The segments recorded for one key: all share their table's layout, and are found by fingerprint. */
-interface SegmentsOfKey {
-  readonly kind: Int8Array;
-  readonly value: Int32Array;
-  readonly takes: number;
-  readonly byFp: Map<number, Segment[]>;
-  count: number;
-}
-
-const MAX_SEGMENTS_PER_KEY = 64;
+const WALK_FIELDS = 9;
+const MAX_SEGMENTS_PER_KEY = 8;
 const MAX_SEGMENTS = 4096;
 
 export class CountingEngine implements InstanceSink {
@@ -213,7 +189,7 @@ export class CountingEngine implements InstanceSink {
   private workWires = 0;
 
   // The segment memo (see replaySegment).
-  private readonly memo = new Map<number, SegmentsOfKey>();
+  private readonly memo = new Map<number, Segment[]>();
   private memoSize = 0;
   private rec = false;
   private recAbort = false;
@@ -225,14 +201,9 @@ export class CountingEngine implements InstanceSink {
   private tabIdx = new Int32Array(0);
   private recKind: number[] = [];
   private recValue: number[] = [];
-  private recWire: number[] = [];
-  private recHead: number[] = [];
-  private recHeadSlot: number[] = [];
   private recTakes = 0;
   private recGives: number[] = [];
-  private readonly recReads = new Map<number, number>();
-  private readonly recKills = new Map<number, number>();
-  private readonly recMarks = new Set<number>();
+  private recWalks: number[] = [];
   /** Segments replayed and recorded (for the tests and benchmarks). */
   replays = 0;
   recordings = 0;
@@ -453,7 +424,7 @@ export class CountingEngine implements InstanceSink {
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
       const p = this.lastInst[w]!;
-      if (this.rec) this.recTouch(w, p);
+      if (this.rec) this.recTouch(w);
       this.rPrev[x * 3 + s] = p;
       this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
       this.rNext[x * 3 + s] = -1;
@@ -520,15 +491,17 @@ export class CountingEngine implements InstanceSink {
 
   // ---- the segment memo -------------------------------------------------------------------
   //
-  // A source may mark a stretch of its instances as a segment with a key that fixes the stretch's
-  // templates and the pattern of its wires, given its input wires (the lean oracle: one clause's
-  // half, keyed by its width, polarities and pending flips). The first time, the engine records
-  // the segment while replaying it as usual: which wires it took from the free wires, and every
-  // earlier instance its walks read (by path: a table wire and a depth in that wire's history),
-  // with the data the walks looked at. Later, the same key is replayed from the record when every
-  // recorded read finds the same data at the same path (the same instances where the recording met
-  // one instance twice, in the same order): the engine is deterministic, so the walks would make
-  // the same decisions; the record's cancellations, marks and instances are written directly.
+  // A source may mark a stretch of its instances as a segment, with a key that fixes the
+  // stretch's templates and the pattern of its wires given its input wires (the lean oracle: one
+  // clause's half, keyed by its width, its literals' signs and their pending flips). The first time,
+  // the engine replays the segment as usual and records it: the wires it takes from the free wires
+  // and gives back, its instances as they end up, and its boundary walks: the cancel-inverses walks
+  // of its gates that leave the segment for the instances before it (with what the walk had
+  // counted inside the segment). The next time, the boundary walks are replayed on the instances
+  // now before it, with the very walk code; when each finds a partner exactly where the recorded one
+  // did (or did not), every decision inside the segment is the recorded one (the engine is
+  // deterministic and the instances before a segment are seen only through its boundary walks),
+  // so the recorded instances are written directly. Otherwise the segment is replayed as usual.
 
   private flagState(): number {
     return (this.flagHard !== null ? 1 : 0) | (this.flagSecond !== null ? 2 : 0) | (this.flagBound !== null ? 4 : 0) | (this.historyShort ? 8 : 0) | (this.lagShort ? 16 : 0);
@@ -540,25 +513,22 @@ export class CountingEngine implements InstanceSink {
    * endSegment).
    */
   replaySegment(key: number, inputs: ArrayLike<number>): number {
-    const of = this.memo.get(key);
-    if (of !== undefined && this.stampTable(of.kind, of.value, of.takes, inputs)) {
-      const list = of.byFp.get(this.fingerprint(of.kind));
-      if (list !== undefined) {
-        for (let i = 0; i < list.length; i++) {
-          const seg = list[i]!;
-          if (this.tryReplay(seg)) {
-            this.replays++;
-            // The one that fits goes first: the next segment like this one likely meets the same.
-            if (i > 0) {
-              list.splice(i, 1);
-              list.unshift(seg);
-            }
-            return seg.extra;
+    const list = this.memo.get(key);
+    if (list !== undefined) {
+      for (let i = 0; i < list.length; i++) {
+        const seg = list[i]!;
+        if (this.tryReplay(seg, inputs)) {
+          this.replays++;
+          // The one that fitted goes first: the next segment like it likely meets the same.
+          if (i > 0) {
+            list.splice(i, 1);
+            list.unshift(seg);
           }
+          return seg.extra;
         }
       }
     }
-    if ((of?.count ?? 0) < MAX_SEGMENTS_PER_KEY && this.memoSize < MAX_SEGMENTS) this.startRecording(key, inputs);
+    if ((list?.length ?? 0) < MAX_SEGMENTS_PER_KEY && this.memoSize < MAX_SEGMENTS) this.startRecording(key, inputs);
     return -1;
   }
 
@@ -566,68 +536,16 @@ export class CountingEngine implements InstanceSink {
   endSegment(extra: number): void {
     if (!this.rec) return;
     this.rec = false;
-    const seg = extra < 0 || this.recAbort || this.flagState() !== this.recFlags || this.nextId - this.recStart > this.lag / 2 ? null : this.buildSegment(extra);
+    // A wire taken and not given back would need its qubit's id mapped to it on a replay (the
+    // engine sees wires, not the lowering's ids): such a segment is not kept.
+    const kept = this.recGives.length === this.recTakes;
+    const seg = extra < 0 || !kept || this.recAbort || this.flagState() !== this.recFlags || this.nextId - this.recStart > this.lag / 2 ? null : this.buildSegment(extra);
     if (seg === null) return;
-    let of = this.memo.get(this.recKey);
-    if (of === undefined) {
-      of = { kind: seg.kind, value: seg.value, takes: seg.takes, byFp: new Map(), count: 0 };
-      this.memo.set(this.recKey, of);
-    } else if (!sameTable(of, seg)) return;
-    const list = of.byFp.get(seg.fp) ?? [];
-    list.push(seg);
-    of.byFp.set(seg.fp, list);
-    of.count++;
+    const list = this.memo.get(this.recKey) ?? [];
+    list.unshift(seg);
+    this.memo.set(this.recKey, list);
     this.memoSize++;
     this.recordings++;
-  }
-
-  /**
-   * Puts the wires of a table layout (inputs, fixed wires, wires about to be taken) into the
-   * stamped lookup; false when the layout does not fit now.
-   */
-  private stampTable(kind: Int8Array, value: Int32Array, takes: number, inputs: ArrayLike<number>): boolean {
-    const table = this.replayWires;
-    table.length = 0;
-    const free = this.freeWires;
-    if (takes > free.length) return false;
-    this.stamp++;
-    for (let j = 0; j < kind.length; j++) {
-      const k = kind[j]!;
-      const v = value[j]!;
-      let wire: number;
-      if (k === 0) {
-        if (v >= inputs.length) return false;
-        wire = inputs[v]!;
-      } else if (k === 1) wire = v;
-      else wire = free[free.length - 1 - v]!;
-      if (wire >= this.wireCap) this.growWires(wire + 1);
-      if (this.tabStamp[wire] === this.stamp) return false;
-      this.tabStamp[wire] = this.stamp;
-      this.tabIdx[wire] = j;
-      table.push(wire);
-    }
-    return true;
-  }
-
-  /**
-   * A digest of the last instance on each input wire of the stamped table (template, slot, gates
-   * cancelled, which table wires it uses): the data a segment's walks most often differ by.
-   */
-  private fingerprint(kind: Int8Array): number {
-    let h = 0;
-    const table = this.replayWires;
-    for (let j = 0; j < kind.length; j++) {
-      if (kind[j] !== 0) continue;
-      const wire = table[j]!;
-      const id = this.lastInst[wire]!;
-      let v = 7;
-      if (id >= 0) {
-        const loc = this.locate(id, wire);
-        v = loc === -1 ? 11 : this.headDigest(loc, this.lastSlot[wire]!, 0);
-      }
-      h = (Math.imul(h, 1000003) + v) | 0;
-    }
-    return h;
   }
 
   private startRecording(key: number, inputs: ArrayLike<number>): void {
@@ -639,14 +557,9 @@ export class CountingEngine implements InstanceSink {
     this.stamp++;
     this.recKind.length = 0;
     this.recValue.length = 0;
-    this.recWire.length = 0;
-    this.recHead.length = 0;
-    this.recHeadSlot.length = 0;
     this.recTakes = 0;
     this.recGives.length = 0;
-    this.recReads.clear();
-    this.recKills.clear();
-    this.recMarks.clear();
+    this.recWalks.length = 0;
     for (let i = 0; i < inputs.length; i++) {
       const w = inputs[i]!;
       if (w >= this.wireCap) this.growWires(w + 1);
@@ -664,9 +577,6 @@ export class CountingEngine implements InstanceSink {
     this.tabIdx[w] = j;
     this.recKind.push(kind);
     this.recValue.push(value);
-    this.recWire.push(w);
-    this.recHead.push(-2);
-    this.recHeadSlot.push(-1);
     return j;
   }
 
@@ -676,37 +586,17 @@ export class CountingEngine implements InstanceSink {
   }
 
   private recPush(w: number): void {
-    if (this.tabStamp[w] !== this.stamp) {
+    // Only wires the segment took may be given back (a replay leaves qubit ids' wires alone).
+    if (this.tabStamp[w] !== this.stamp || this.recKind[this.tabIdx[w]!] !== 2) {
       this.recAbort = true;
       return;
     }
     this.recGives.push(this.tabIdx[w]!);
   }
 
-  /** A segment instance uses wire w, whose last instance is p: the first time, p is the wire's head. */
-  private recTouch(w: number, p: number): void {
-    let j = this.tabStamp[w] === this.stamp ? this.tabIdx[w]! : -1;
-    if (j < 0) j = this.addWire(w, 1, w);
-    if (this.recHead[j] === -2) {
-      this.recHead[j] = p;
-      this.recHeadSlot[j] = this.lastSlot[w]!;
-    }
-  }
-
-  private recRead(id: number, w: number): void {
-    if (!this.recReads.has(id)) {
-      const j = this.tabStamp[w] === this.stamp ? this.tabIdx[w]! : -1;
-      if (j < 0) this.recAbort = true;
-      this.recReads.set(id, j);
-    }
-  }
-
-  private recKill(id: number, bits: number): void {
-    this.recKills.set(id, (this.recKills.get(id) ?? 0) | bits);
-  }
-
-  private recMarked(id: number): void {
-    this.recMarks.add(id);
+  /** A segment instance uses wire w: a wire neither input nor taken is a fixed one. */
+  private recTouch(w: number): void {
+    if (this.tabStamp[w] !== this.stamp) this.addWire(w, 1, w);
   }
 
   /** The record of the segment just replayed, or null when it cannot be replayed safely. */
@@ -729,172 +619,71 @@ export class CountingEngine implements InstanceSink {
       mask1[k] = this.rMask1[x]!;
       recheck[k] = this.rRecheck[x]!;
     }
-    // Paths of the earlier instances read: walk each table wire's history from its head.
-    const reads: { j: number; depth: number; id: number; t: number; slot: number; dead: number; pat: number[] }[] = [];
-    const want = new Map<number, number[]>();
-    for (const [id, j] of this.recReads) {
-      if (j < 0) return null;
-      const list = want.get(j) ?? [];
-      list.push(id);
-      want.set(j, list);
-    }
-    for (const [j, ids] of want) {
-      const wire = this.recWire[j]!;
-      let cur = this.recHead[j]!;
-      let slot = this.recHeadSlot[j]!;
-      const left = new Set(ids);
-      for (let depth = 0; left.size > 0; depth++) {
-        if (cur < 0) return null;
-        const loc = this.locate(cur, wire);
-        if (loc === -1) return null;
-        if (left.has(cur)) {
-          left.delete(cur);
-          const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
-          const pat: number[] = [];
-          for (let s = 0; s < 3; s++) {
-            const ww = s < SLOTS[ct]! ? (loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!) : -1;
-            pat.push(ww >= 0 && this.tabStamp[ww] === this.stamp ? this.tabIdx[ww]! : -1);
-          }
-          const d = (loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!) & ~(this.recKills.get(cur) ?? 0);
-          reads.push({ j, depth, id: cur, t: ct, slot, dead: d, pat });
-        }
-        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-        slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
-        cur = prev;
-      }
-    }
-    reads.sort((a, b) => a.j - b.j || a.depth - b.depth);
-    for (const id of this.recKills.keys()) if (!this.recReads.has(id)) return null;
-    for (const id of this.recMarks) if (!this.recReads.has(id)) return null;
-    const ids = [...this.recReads.keys()].sort((a, b) => a - b);
-    const ref = new Map(ids.map((id, i) => [id, i]));
-    // The fingerprint of the situation at the start: the heads of the input wires then.
-    let fp = 0;
-    for (let j = 0; j < this.recKind.length; j++) {
-      if (this.recKind[j] !== 0) continue;
-      const head = this.recHead[j]!;
-      const wire = this.recWire[j]!;
-      let v = 7;
-      if (head === -2) {
-        // Not touched by the segment: its head now is what it was.
-        const id = this.lastInst[wire]!;
-        if (id >= 0) {
-          const loc = this.locate(id, wire);
-          if (loc === -1) v = 11;
-          else v = this.headDigest(loc, this.lastSlot[wire]!, this.recKills.get(id) ?? 0);
-        }
-      } else if (head >= 0) {
-        const loc = this.locate(head, wire);
-        if (loc === -1) v = 11;
-        else v = this.headDigest(loc, this.recHeadSlot[j]!, this.recKills.get(head) ?? 0);
-      }
-      fp = (Math.imul(fp, 1000003) + v) | 0;
-    }
     return {
       kind: Int8Array.from(this.recKind),
       value: Int32Array.from(this.recValue),
       takes: this.recTakes,
       gives: Int32Array.from(this.recGives),
       t, w, dead, mask1, recheck,
-      readJ: Int32Array.from(reads, (r) => r.j),
-      readDepth: Int32Array.from(reads, (r) => r.depth),
-      readRef: Int32Array.from(reads, (r) => ref.get(r.id)!),
-      refs: ids.length,
-      readT: Uint8Array.from(reads, (r) => r.t),
-      readSlot: Int8Array.from(reads, (r) => r.slot),
-      readDead: Int32Array.from(reads, (r) => r.dead),
-      readPat: Int32Array.from(reads.flatMap((r) => r.pat)),
-      killRef: Int32Array.from(this.recKills.keys(), (id) => ref.get(id)!),
-      killBits: Int32Array.from(this.recKills.values()),
-      markRef: Int32Array.from(this.recMarks, (id) => ref.get(id)!),
+      walks: Int32Array.from(this.recWalks),
       extra,
-      fp,
     };
   }
 
-  /** fingerprint()'s digest of one instance (with the gates the segment cancelled in it restored). */
-  private headDigest(loc: number, slot: number, killed: number): number {
-    const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
-    let v = ct * 8 + slot;
-    v = Math.imul(v, 31) + ((loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!) & ~killed);
-    for (let s = 0; s < SLOTS[ct]!; s++) {
-      const ww = loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!;
-      v = Math.imul(v, 31) + (this.tabStamp[ww] === this.stamp ? this.tabIdx[ww]! + 1 : 0);
-    }
-    return v;
-  }
-
+  /** Walker wires of a segment instance being replayed (from the table). */
+  private readonly walker = new Int32Array(3);
   private readonly replayWires: number[] = [];
-  /** Per read ref: the instance found now, and a wire it was found along. */
-  private replayId = new Int32Array(64);
-  private replayWire = new Int32Array(64);
+  private readonly sumOk = new Int32Array(2);
+  private readonly sumSteps = new Int32Array(2);
+  /** Undo log of a replay attempt: (id, wire, old dead mask) and (ring index, old recheck). */
+  private readonly undoDead: number[] = [];
+  private readonly undoMark: number[] = [];
 
-  /** Replays a recorded segment if every recorded read finds the same data; true when done. */
-  private tryReplay(seg: Segment): boolean {
+  /** Replays a recorded segment if every boundary walk finds what the recorded one found; true when done. */
+  private tryReplay(seg: Segment, inputs: ArrayLike<number>): boolean {
+    // The table's wires now.
     const table = this.replayWires;
+    table.length = 0;
     const free = this.freeWires;
-    // The reads, wire by wire, walking each history once.
-    if (this.replayId.length < seg.refs) {
-      this.replayId = new Int32Array(seg.refs * 2);
-      this.replayWire = new Int32Array(seg.refs * 2);
+    if (seg.takes > free.length) return false;
+    for (let j = 0; j < seg.kind.length; j++) {
+      const k = seg.kind[j]!;
+      const v = seg.value[j]!;
+      let wire: number;
+      if (k === 0) {
+        if (v >= inputs.length) return false;
+        wire = inputs[v]!;
+      } else if (k === 1) wire = v;
+      else wire = free[free.length - 1 - v]!;
+      if (wire >= this.wireCap) this.growWires(wire + 1);
+      table.push(wire);
     }
-    const found = this.replayId;
-    const along = this.replayWire;
-    found.fill(-1, 0, seg.refs);
-    const nr = seg.readJ.length;
-    let r = 0;
-    while (r < nr) {
-      const j = seg.readJ[r]!;
-      const wire = table[j]!;
-      let cur = this.lastInst[wire]!;
-      let slot = this.lastSlot[wire]!;
-      let depth = 0;
-      for (; r < nr && seg.readJ[r] === j; r++) {
-        const want = seg.readDepth[r]!;
-        let loc = -1;
-        for (;;) {
-          if (cur < 0) return false;
-          loc = this.locate(cur, wire);
-          if (loc === -1) return false;
-          if (depth === want) break;
-          const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-          slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
-          cur = prev;
-          depth++;
-        }
-        const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
-        if (ct !== seg.readT[r] || slot !== seg.readSlot[r]) return false;
-        if ((loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!) !== seg.readDead[r]) return false;
-        for (let s = 0; s < 3; s++) {
-          const ww = s < SLOTS[ct]! ? (loc >= 0 ? this.rW[loc * 3 + s]! : this.sW[(-2 - loc) * 3 + s]!) : -1;
-          const idx = ww >= 0 && this.tabStamp[ww] === this.stamp ? this.tabIdx[ww]! : -1;
-          if (idx !== seg.readPat[r * 3 + s]) return false;
-        }
-        const ref = seg.readRef[r]!;
-        const seen = found[ref]!;
-        if (seen === -1) {
-          found[ref] = cur;
-          along[ref] = wire;
-        } else if (seen !== cur) return false;
+    // The boundary walks, in their order, on the instances before the segment.
+    this.undoDead.length = 0;
+    this.undoMark.length = 0;
+    const walks = seg.walks;
+    const ww = this.walker;
+    for (let i = 0; i < walks.length; i += WALK_FIELDS) {
+      const k = walks[i]!;
+      const p = walks[i + 1]!;
+      const j = walks[i + 2]!;
+      const steps = walks[i + 3]!;
+      const t = seg.t[k]!;
+      for (let s = 0; s < 3; s++) ww[s] = s < SLOTS[t]! ? table[seg.w[k * 3 + s]!]! : -1;
+      const e = GATE_START[t]! + p;
+      this.sumOk[0] = walks[i + 4]!;
+      this.sumSteps[0] = walks[i + 5]!;
+      this.sumOk[1] = walks[i + 6]!;
+      this.sumSteps[1] = walks[i + 7]!;
+      const w = table[j]!;
+      const found = this.walkBefore(e, ww, 0, w, this.lastInst[w]!, this.lastSlot[w]!, steps);
+      if ((found >= 0 ? 1 : 0) !== walks[i + 8]) {
+        this.undo();
+        return false;
       }
+      if (found >= 0) this.killBefore(e, ww, found, w);
     }
-    // The same instances in the same order (the walks compare their positions).
-    for (let i = 1; i < seg.refs; i++) if (found[i - 1]! >= found[i]!) return false;
-    // Replay: cancellations and marks in earlier instances, the wires taken, the instances, the wires given back.
-    for (let i = 0; i < seg.killRef.length; i++) {
-      const id = found[seg.killRef[i]!]!;
-      const loc = this.locate(id, along[seg.killRef[i]!]!);
-      if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | seg.killBits[i]!;
-      else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | seg.killBits[i]!;
-      if (id < this.done) {
-        this.lagShort = true;
-        this.flagHard ??= "a cancellation reached a part already counted";
-      }
-    }
-    for (let i = 0; i < seg.markRef.length; i++) {
-      const id = found[seg.markRef[i]!]!;
-      if (id >= this.ringLow) this.rRecheck[id & this.ringMask] = -1;
-    }
+    // The instances, the wires taken and given back.
     free.length -= seg.takes;
     const n = seg.t.length;
     for (let k = 0; k < n; k++) {
@@ -910,6 +699,52 @@ export class CountingEngine implements InstanceSink {
     }
     for (let i = 0; i < seg.gives.length; i++) free.push(table[seg.gives[i]!]!);
     return true;
+  }
+
+  private undo(): void {
+    const d = this.undoDead;
+    for (let i = d.length - 3; i >= 0; i -= 3) {
+      const loc = this.locate(d[i]!, d[i + 1]!);
+      if (loc >= 0) this.rDead[loc] = d[i + 2]!;
+      else if (loc !== -1) this.sDead[-2 - loc] = d[i + 2]!;
+    }
+    const m = this.undoMark;
+    for (let i = m.length - 2; i >= 0; i -= 2) this.rRecheck[m[i]!] = m[i + 1]!;
+  }
+
+  /**
+   * A segment gate (gate e on wires ws) found its partner (id * 32 + position) before the
+   * segment, along wire w: cancels the partner, and marks for stage 2 the instances between the
+   * partner and the segment on the gate's wires (as cancel does), logging the old values.
+   */
+  private killBefore(e: number, ws: Int32Array, partner: number, w: number): void {
+    const hid = Math.floor(partner / 32);
+    const hp = partner % 32;
+    const loc = this.locate(hid, w);
+    if (loc >= 0) {
+      this.undoDead.push(hid, w, this.rDead[loc]!);
+      this.rDead[loc] = this.rDead[loc]! | (1 << hp);
+    } else {
+      this.undoDead.push(hid, w, this.sDead[-2 - loc]!);
+      this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
+    }
+    if (hid < this.done) {
+      this.lagShort = true;
+      this.flagHard ??= "a cancellation reached a part already counted";
+    }
+    for (let i = 0; i < G_NQ[e]!; i++) {
+      const v = ws[G_OP[e * 3 + i]!]!;
+      let cur = this.lastInst[v]!;
+      let slot = this.lastSlot[v]!;
+      while (cur > hid && cur >= this.ringLow) {
+        const x = cur & this.ringMask;
+        this.undoMark.push(x, this.rRecheck[x]!);
+        this.rRecheck[x] = -1;
+        const prev = this.rPrev[x * 3 + slot]!;
+        slot = this.rPrevSlot[x * 3 + slot]!;
+        cur = prev;
+      }
+    }
   }
 
   // ---- the instance store ----------------------------------------------------------------
@@ -993,7 +828,6 @@ export class CountingEngine implements InstanceSink {
         const loc = this.locate(hid, hw);
         if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
         else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
-        if (this.rec && hid < this.recStart) this.recKill(hid, 1 << hp);
         this.rDead[x] = this.rDead[x]! | (1 << p);
         if (hid < this.done) {
           this.lagShort = true;
@@ -1017,7 +851,6 @@ export class CountingEngine implements InstanceSink {
       if (prev <= from || prev < this.ringLow) return;
       const pl = prev & this.ringMask;
       this.rRecheck[pl] = -1;
-      if (this.rec && prev < this.recStart) this.recMarked(prev);
       slot = this.rPrevSlot[loc * 3 + slot]!;
       loc = pl;
     }
@@ -1033,7 +866,9 @@ export class CountingEngine implements InstanceSink {
     const e = GATE_START[t]! + p;
     const nq = G_NQ[e]!;
     const ts = G_OP[e * 3 + nq - 1]!;
-    const w = this.rW[x * 3 + ts]!;
+    const ws = this.rW;
+    const wo = x * 3;
+    const w = ws[wo + ts]!;
     let steps = 0;
     let loc = x;
     let cur = id;
@@ -1047,22 +882,19 @@ export class CountingEngine implements InstanceSink {
         const hp = list[k]!;
         if ((dead >>> hp) & 1) continue;
         if (steps >= WINDOW) {
-          // merge-phases changes how many phase gates a walk diagonal on its qubit passes (never
-          // those an X-like or other walk passes: it stops at the first phase gate): only such a
-          // walk could reach further in the second cancel-inverses.
-          // Stage 1 notes it too: stage 2 repeats only the walks that something changed (settle).
-          if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
+          this.windowNote(e, ts);
           return -1;
         }
         steps++;
         const f = GATE_START[ct]! + hp;
-        if (this.inversePair(x, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
-        if (!this.commute(x, e, loc, f)) return -1;
+        if (this.inversePair(ws, wo, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
+        if (!this.commute(ws, wo, e, loc, f)) return -1;
       }
       // The previous instance on this wire.
       const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
       if (prev < 0) return -1;
       const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+      if (this.rec && prev < this.recStart) return this.cross(e, x, id, p, w, prev, ps, steps);
       const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
       if (pl === -1) {
         this.unavailable();
@@ -1071,9 +903,176 @@ export class CountingEngine implements InstanceSink {
       loc = pl;
       cur = prev;
       slot = ps;
-      if (this.rec && cur < this.recStart) this.recRead(cur, w);
       k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
     }
+  }
+
+  /**
+   * Recording a segment: the walk of gate e (instance id at ring index x) leaves the segment at
+   * instance `prev`. What clearBetween would count inside the segment on each control wire does
+   * not depend on where the partner is (all segment gates come after it); it is summed up, the
+   * walk goes on before the segment (walkBefore, as a replay will), and the boundary walk is
+   * recorded with its result.
+   */
+  private cross(e: number, x: number, id: number, p: number, w: number, prev: number, ps: number, steps: number): number {
+    const nq = G_NQ[e]!;
+    this.sumOk[0] = this.sumOk[1] = 1;
+    this.sumSteps[0] = this.sumSteps[1] = 0;
+    for (let i = 0; i + 1 < nq; i++) this.segmentPart(e, x, id, i);
+    const found = this.walkBefore(e, this.rW, x * 3, w, prev, ps, steps);
+    const j = this.tabStamp[w] === this.stamp ? this.tabIdx[w]! : -1;
+    if (j < 0 || prev !== this.lastInstAtStart(w)) this.recAbort = true;
+    this.recWalks.push(id - this.recStart, p, j, steps, this.sumOk[0]!, this.sumSteps[0]!, this.sumOk[1]!, this.sumSteps[1]!, found >= 0 ? 1 : 0);
+    return found;
+  }
+
+  /** The first instance before the recorded segment on wire w (its last when the segment began). */
+  private lastInstAtStart(w: number): number {
+    let cur = this.lastInst[w]!;
+    let slot = this.lastSlot[w]!;
+    while (cur >= this.recStart) {
+      const x = cur & this.ringMask;
+      const prev = this.rPrev[x * 3 + slot]!;
+      slot = this.rPrevSlot[x * 3 + slot]!;
+      cur = prev;
+    }
+    return cur;
+  }
+
+  /**
+   * clearBetween's part inside the recorded segment on control operand i of gate e: every live
+   * gate there must commute with e (at most WINDOW); sets sumOk[i] and sumSteps[i].
+   */
+  private segmentPart(e: number, x: number, id: number, i: number): void {
+    const s0 = G_OP[e * 3 + i]!;
+    let steps = 0;
+    let loc = x;
+    let cur = id;
+    let slot = s0;
+    let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
+    for (;;) {
+      const ct = this.rT[loc]!;
+      const list = SLOT_GATES[ct * 3 + slot]!;
+      const dead = this.rDead[loc]!;
+      for (; k >= 0; k--) {
+        const xp = list[k]!;
+        if ((dead >>> xp) & 1) continue;
+        if (++steps > WINDOW || !this.commute(this.rW, x * 3, e, loc, GATE_START[ct]! + xp)) {
+          this.sumOk[i] = 0;
+          this.sumSteps[i] = steps;
+          return;
+        }
+      }
+      const prev = this.rPrev[loc * 3 + slot]!;
+      if (prev < this.recStart) {
+        this.sumSteps[i] = steps;
+        return;
+      }
+      slot = this.rPrevSlot[loc * 3 + slot]!;
+      cur = prev;
+      loc = cur & this.ringMask;
+      k = SLOT_GATES[this.rT[loc]! * 3 + slot]!.length - 1;
+    }
+  }
+
+  /**
+   * The part of a findPartner walk before a segment: gate e (wires ws[wo..wo+2]), along wire w
+   * from instance `cur` (slot `slot`), `steps` live gates examined already; clearBetween's
+   * segment parts in sumOk/sumSteps. Used alike when recording and when replaying.
+   */
+  private walkBefore(e: number, ws: Int32Array, wo: number, w: number, cur: number, slot: number, steps: number): number {
+    const ts = G_OP[e * 3 + G_NQ[e]! - 1]!;
+    while (cur >= 0) {
+      const loc = cur >= this.ringLow ? cur & this.ringMask : this.locate(cur, w);
+      if (loc === -1) {
+        this.unavailable();
+        return -1;
+      }
+      const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+      const list = SLOT_GATES[ct * 3 + slot]!;
+      const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
+      for (let k = list.length - 1; k >= 0; k--) {
+        const hp = list[k]!;
+        if ((dead >>> hp) & 1) continue;
+        if (steps >= WINDOW) {
+          this.windowNote(e, ts);
+          return -1;
+        }
+        steps++;
+        const f = GATE_START[ct]! + hp;
+        if (this.inversePair(ws, wo, e, loc, f) && this.clearBefore(e, ws, wo, cur, hp)) return cur * 32 + hp;
+        if (!this.commute(ws, wo, e, loc, f)) return -1;
+      }
+      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
+      slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+      cur = prev;
+    }
+    return -1;
+  }
+
+  /** clearBetween for a partner (hid, hp) before the segment: the segment parts summed up, then the rest. */
+  private clearBefore(e: number, ws: Int32Array, wo: number, hid: number, hp: number): boolean {
+    const nq = G_NQ[e]!;
+    for (let i = 0; i + 1 < nq; i++) {
+      if (this.sumOk[i] === 0) return false;
+      const w = ws[wo + G_OP[e * 3 + i]!]!;
+      let steps = this.sumSteps[i]!;
+      // The first instance before the segment on w.
+      let cur = this.rec ? this.lastInstAtStart(w) : this.lastInst[w]!;
+      let slot = this.rec ? this.lastSlotAtStart(w) : this.lastSlot[w]!;
+      let done = false;
+      while (!done && cur >= 0) {
+        if (cur < hid) break;
+        const loc = cur >= this.ringLow ? cur & this.ringMask : this.locate(cur, w);
+        if (loc === -1) {
+          this.unavailable();
+          return false;
+        }
+        const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+        const list = SLOT_GATES[ct * 3 + slot]!;
+        const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
+        for (let k = list.length - 1; k >= 0; k--) {
+          const xp = list[k]!;
+          if (cur === hid && xp <= hp) {
+            done = true;
+            break;
+          }
+          if ((dead >>> xp) & 1) continue;
+          if (++steps > WINDOW) {
+            this.noteSecond("the second cancel-inverses reaches its window");
+            return false;
+          }
+          if (!this.commute(ws, wo, e, loc, GATE_START[ct]! + xp)) return false;
+        }
+        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
+        slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+        cur = prev;
+      }
+    }
+    return true;
+  }
+
+  /** The slot of w in its first instance before the recorded segment. */
+  private lastSlotAtStart(w: number): number {
+    let cur = this.lastInst[w]!;
+    let slot = this.lastSlot[w]!;
+    while (cur >= this.recStart) {
+      const x = cur & this.ringMask;
+      const prev = this.rPrev[x * 3 + slot]!;
+      slot = this.rPrevSlot[x * 3 + slot]!;
+      cur = prev;
+    }
+    return slot;
+  }
+
+  /**
+   * merge-phases changes how many phase gates a walk diagonal on its qubit passes (never those an
+   * X-like or other walk passes: it stops at the first phase gate): only such a walk could reach
+   * further in the second cancel-inverses. Stage 1 notes it too: stage 2 repeats only the walks
+   * that something changed (settle).
+   */
+  private windowNote(e: number, ts: number): void {
+    if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
   }
 
   private noteSecond(reason: string): void {
@@ -1085,27 +1084,27 @@ export class CountingEngine implements InstanceSink {
     if (this.flagHard === null) this.flagHard = "a cancel-inverses walk needed a part no longer kept";
   }
 
-  /** commute.ts's inversePair for gate e of the instance at ring index x and gate f at loc. */
-  private inversePair(x: number, e: number, loc: number, f: number): boolean {
+  /** commute.ts's inversePair for gate e on wires ws[wo..] and gate f of the instance at loc. */
+  private inversePair(ws: Int32Array, wo: number, e: number, loc: number, f: number): boolean {
     if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
     const nq = G_NQ[e]!;
     if (G_NQ[f] !== nq) return false;
     const wa = loc >= 0 ? this.rW : this.sW;
     const xb = (loc >= 0 ? loc : -2 - loc) * 3;
     for (let i = 0; i < nq; i++) {
-      if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
+      if (ws[wo + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
     }
     return true;
   }
 
-  /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
-  private commute(x: number, e: number, loc: number, f: number): boolean {
+  /** commute.ts's commute for gate e on wires ws[wo..] and gate f of the instance at loc. */
+  private commute(ws: Int32Array, wo: number, e: number, loc: number, f: number): boolean {
     const nq = G_NQ[e]!;
     const wa = loc >= 0 ? this.rW : this.sW;
     const xb = (loc >= 0 ? loc : -2 - loc) * 3;
     for (let i = 0; i < nq; i++) {
       const s = G_OP[e * 3 + i]!;
-      const w = this.rW[x * 3 + s]!;
+      const w = ws[wo + s]!;
       // The role of f on wire w (slots of an instance are distinct wires; unused ones are stale).
       let rh = -1;
       if (wa[xb] === w) rh = G_ROLE[f * 3]!;
@@ -1151,7 +1150,7 @@ export class CountingEngine implements InstanceSink {
             this.noteSecond("the second cancel-inverses reaches its window");
             return false;
           }
-          if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
+          if (!this.commute(this.rW, x * 3, e, loc, GATE_START[ct]! + xp)) return false;
         }
         if (stop || cur <= hid) break;
         const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
@@ -1165,7 +1164,6 @@ export class CountingEngine implements InstanceSink {
         loc = pl;
         cur = prev;
         slot = ps;
-        if (this.rec && cur < this.recStart) this.recRead(cur, w);
         k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
       }
     }
@@ -1269,10 +1267,4 @@ function maxPlus(o: Int32Array, k: number, a: number, b: number, c: number, bit:
   if (dc !== NONE && c + dc > r) r = c + dc;
   if (dd !== NONE && bit + dd > r) r = bit + dd;
   return r;
-}
-
-function sameTable(a: SegmentsOfKey, b: Segment): boolean {
-  if (a.takes !== b.takes || a.kind.length !== b.kind.length) return false;
-  for (let j = 0; j < a.kind.length; j++) if (a.kind[j] !== b.kind[j] || a.value[j] !== b.value[j]) return false;
-  return true;
 }
