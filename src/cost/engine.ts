@@ -102,37 +102,6 @@ for (let t = 0; t < TEMPLATE_COUNT; t++) {
   }
 }
 
-/**
- * A recorded stretch of instances (a segment; see CountingEngine.replaySegment). Wires are entries of
- * a table: an input wire given by the source, a fixed wire, or one taken from the free wires.
- */
-interface Segment {
-  /** Table: 0 input (value: its index), 1 fixed (value: the wire), 2 taken (value: order taken). */
-  readonly kind: Int8Array;
-  readonly value: Int32Array;
-  /** Wires taken from the free wires (all before any is given back), and those given back. */
-  readonly takes: number;
-  readonly gives: Int32Array;
-  /** The instances: template, table entry per slot, cancelled gates, stage-1 mask, rechecks. */
-  readonly t: Uint8Array;
-  readonly w: Int32Array;
-  readonly dead: Int32Array;
-  readonly mask1: Int32Array;
-  readonly recheck: Int32Array;
-  /**
-   * The boundary walks, WALK_FIELDS numbers each: instance index and gate of the walker, the table
-   * entry of the wire walked, live gates counted inside the segment, clearBetween's segment part
-   * for control operands 0 and 1 (passed?, gates counted), and whether a partner was found.
-   */
-  readonly walks: Int32Array;
-  /** The source's data (e.g. the control flips the segment leaves). */
-  readonly extra: number;
-}
-
-const WALK_FIELDS = 9;
-const MAX_SEGMENTS_PER_KEY = 8;
-const MAX_SEGMENTS = 4096;
-
 export class CountingEngine implements InstanceSink {
   private readonly base: number;
   private readonly optimize: boolean;
@@ -187,26 +156,6 @@ export class CountingEngine implements InstanceSink {
   private wireOf: Int32Array = new Int32Array(1024).fill(-1);
   private freeWires: number[] = [];
   private workWires = 0;
-
-  // The segment memo (see replaySegment).
-  private readonly memo = new Map<number, Segment[]>();
-  private memoSize = 0;
-  private rec = false;
-  private recAbort = false;
-  private recStart = 0;
-  private recKey = 0;
-  private recFlags = 0;
-  private stamp = 0;
-  private tabStamp = new Int32Array(0);
-  private tabIdx = new Int32Array(0);
-  private recKind: number[] = [];
-  private recValue: number[] = [];
-  private recTakes = 0;
-  private recGives: number[] = [];
-  private recWalks: number[] = [];
-  /** Segments replayed and recorded (for the tests and benchmarks). */
-  replays = 0;
-  recordings = 0;
 
   // Figures.
   private tCount = 0;
@@ -334,12 +283,6 @@ export class CountingEngine implements InstanceSink {
     const sq = new Int32Array(cap);
     sq.set(this.wireSeq);
     this.wireSeq = sq;
-    const ts = new Int32Array(cap);
-    ts.set(this.tabStamp);
-    this.tabStamp = ts;
-    const ti = new Int32Array(cap);
-    ti.set(this.tabIdx);
-    this.tabIdx = ti;
     this.wireCap = cap;
   }
 
@@ -352,13 +295,7 @@ export class CountingEngine implements InstanceSink {
     }
     let w = this.wireOf[v]!;
     if (w < 0) {
-      if (this.freeWires.length > 0) {
-        w = this.freeWires.pop()!;
-        if (this.rec) this.recPop(w);
-      } else {
-        w = this.base + this.workWires++;
-        if (this.rec) this.recAbort = true; // a replay could not take the same new wire
-      }
+      w = this.freeWires.length > 0 ? this.freeWires.pop()! : this.base + this.workWires++;
       if (w >= this.wireCap) this.growWires(w + 1);
       this.wireOf[v] = w;
     }
@@ -368,35 +305,6 @@ export class CountingEngine implements InstanceSink {
   // ---- input -----------------------------------------------------------------------------
 
   put(t: number, a: number, b: number, c: number, dies: number): void {
-    const id = this.open();
-    const x = id & this.ringMask;
-    // Wires in the order of first use (reuse takes them in that order).
-    const touch = FIRST_TOUCH[t]!;
-    for (let i = 0; i < touch.length; i++) {
-      const s = touch[i]!;
-      this.rW[x * 3 + s] = this.wireFor(s === 0 ? a : s === 1 ? b : c);
-    }
-    this.place(id, x, t);
-    if (this.optimize) this.cancel(id, x);
-    this.rMask1[x] = this.rDead[x]!;
-    if (dies !== 0) {
-      // Freed in the order of their last gate, as reuseWork frees them.
-      const order = LAST_TOUCH[t]!;
-      for (let i = 0; i < order.length; i++) {
-        const s = order[i]!;
-        if (((dies >>> s) & 1) === 0) continue;
-        const v = s === 0 ? a : s === 1 ? b : c;
-        const w = this.wireOf[v]!;
-        this.freeWires.push(w);
-        this.wireOf[v] = -1;
-        if (this.rec) this.recPush(w);
-      }
-    }
-    this.close(id);
-  }
-
-  /** A new instance id: the window grows with the stream, the oldest instance leaves the ring. */
-  private open(): number {
     const id = this.nextId;
     if (id > 0x7ffffff0) throw new Error("counting: more than 2^31 template instances");
     if (this.maxLag === Infinity) {
@@ -408,15 +316,17 @@ export class CountingEngine implements InstanceSink {
       this.growRing();
     }
     this.nextId++;
+    const x = id & this.ringMask;
     if (id - this.ringSize >= this.ringLow) {
       this.evict(id - this.ringSize);
       this.ringLow = id - this.ringSize + 1;
     }
-    return id;
-  }
-
-  /** Writes instance id (its wires already in rW) and links it into its wires' histories. */
-  private place(id: number, x: number, t: number): void {
+    // Wires in the order of first use (reuse takes them in that order).
+    const touch = FIRST_TOUCH[t]!;
+    for (let i = 0; i < touch.length; i++) {
+      const s = touch[i]!;
+      this.rW[x * 3 + s] = this.wireFor(s === 0 ? a : s === 1 ? b : c);
+    }
     this.rT[x] = t;
     this.rDead[x] = 0;
     this.rRecheck[x] = 0;
@@ -424,7 +334,6 @@ export class CountingEngine implements InstanceSink {
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
       const p = this.lastInst[w]!;
-      if (this.rec) this.recTouch(w);
       this.rPrev[x * 3 + s] = p;
       this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
       this.rNext[x * 3 + s] = -1;
@@ -433,20 +342,24 @@ export class CountingEngine implements InstanceSink {
       this.lastSlot[w] = s;
       this.rSeq[x * 3 + s] = ++this.wireSeq[w]!;
     }
-  }
-
-  /** Settles what the window has let go (stage 2's walks are no part of a segment being recorded). */
-  private close(id: number): void {
-    if (this.done > id - this.lag) return;
-    const rec = this.rec;
-    this.rec = false;
+    if (this.optimize) this.cancel(id, x);
+    this.rMask1[x] = this.rDead[x]!;
+    if (dies !== 0) {
+      // Freed in the order of their last gate, as reuseWork frees them.
+      const order = LAST_TOUCH[t]!;
+      for (let i = 0; i < order.length; i++) {
+        const s = order[i]!;
+        if (((dies >>> s) & 1) === 0) continue;
+        const v = s === 0 ? a : s === 1 ? b : c;
+        this.freeWires.push(this.wireOf[v]!);
+        this.wireOf[v] = -1;
+      }
+    }
     while (this.done <= id - this.lag) this.settle(this.done);
-    this.rec = rec;
   }
 
   /** Flushes everything; call once after the last instance. */
   finish(): EngineResult {
-    this.rec = false;
     while (this.done < this.nextId) this.settle(this.done);
     const wires = this.base + this.workWires;
     let depth = 0;
@@ -487,264 +400,6 @@ export class CountingEngine implements InstanceSink {
   /** Instances replayed so far. */
   get instances(): number {
     return this.nextId;
-  }
-
-  // ---- the segment memo -------------------------------------------------------------------
-  //
-  // A source may mark a stretch of its instances as a segment, with a key that fixes the
-  // stretch's templates and the pattern of its wires given its input wires (the lean oracle: one
-  // clause's half, keyed by its width, its literals' signs and their pending flips). The first time,
-  // the engine replays the segment as usual and records it: the wires it takes from the free wires
-  // and gives back, its instances as they end up, and its boundary walks: the cancel-inverses walks
-  // of its gates that leave the segment for the instances before it (with what the walk had
-  // counted inside the segment). The next time, the boundary walks are replayed on the instances
-  // now before it, with the very walk code; when each finds a partner exactly where the recorded one
-  // did (or did not), every decision inside the segment is the recorded one (the engine is
-  // deterministic and the instances before a segment are seen only through its boundary walks),
-  // so the recorded instances are written directly. Otherwise the segment is replayed as usual.
-
-  private flagState(): number {
-    return (this.flagHard !== null ? 1 : 0) | (this.flagSecond !== null ? 2 : 0) | (this.flagBound !== null ? 4 : 0) | (this.historyShort ? 8 : 0) | (this.lagShort ? 16 : 0);
-  }
-
-  /**
-   * Replays a recorded segment for `key` with these input wires; returns its extra data, or -1
-   * when none applies (then the engine records the segment the caller is about to send, until
-   * endSegment).
-   */
-  replaySegment(key: number, inputs: ArrayLike<number>): number {
-    const list = this.memo.get(key);
-    if (list !== undefined) {
-      for (let i = 0; i < list.length; i++) {
-        const seg = list[i]!;
-        if (this.tryReplay(seg, inputs)) {
-          this.replays++;
-          // The one that fitted goes first: the next segment like it likely meets the same.
-          if (i > 0) {
-            list.splice(i, 1);
-            list.unshift(seg);
-          }
-          return seg.extra;
-        }
-      }
-    }
-    if ((list?.length ?? 0) < MAX_SEGMENTS_PER_KEY && this.memoSize < MAX_SEGMENTS) this.startRecording(key, inputs);
-    return -1;
-  }
-
-  /** Ends the segment begun by a replaySegment that returned -1 (extra -1: do not keep it). */
-  endSegment(extra: number): void {
-    if (!this.rec) return;
-    this.rec = false;
-    // A wire taken and not given back would need its qubit's id mapped to it on a replay (the
-    // engine sees wires, not the lowering's ids): such a segment is not kept.
-    const kept = this.recGives.length === this.recTakes;
-    const seg = extra < 0 || !kept || this.recAbort || this.flagState() !== this.recFlags || this.nextId - this.recStart > this.lag / 2 ? null : this.buildSegment(extra);
-    if (seg === null) return;
-    const list = this.memo.get(this.recKey) ?? [];
-    list.unshift(seg);
-    this.memo.set(this.recKey, list);
-    this.memoSize++;
-    this.recordings++;
-  }
-
-  private startRecording(key: number, inputs: ArrayLike<number>): void {
-    this.rec = true;
-    this.recAbort = false;
-    this.recStart = this.nextId;
-    this.recKey = key;
-    this.recFlags = this.flagState();
-    this.stamp++;
-    this.recKind.length = 0;
-    this.recValue.length = 0;
-    this.recTakes = 0;
-    this.recGives.length = 0;
-    this.recWalks.length = 0;
-    for (let i = 0; i < inputs.length; i++) {
-      const w = inputs[i]!;
-      if (w >= this.wireCap) this.growWires(w + 1);
-      if (this.tabStamp[w] === this.stamp) {
-        this.recAbort = true; // the same wire twice
-        continue;
-      }
-      this.addWire(w, 0, i);
-    }
-  }
-
-  private addWire(w: number, kind: number, value: number): number {
-    const j = this.recKind.length;
-    this.tabStamp[w] = this.stamp;
-    this.tabIdx[w] = j;
-    this.recKind.push(kind);
-    this.recValue.push(value);
-    return j;
-  }
-
-  private recPop(w: number): void {
-    if (this.recGives.length > 0) this.recAbort = true; // taken after one was given back
-    this.addWire(w, 2, this.recTakes++);
-  }
-
-  private recPush(w: number): void {
-    // Only wires the segment took may be given back (a replay leaves qubit ids' wires alone).
-    if (this.tabStamp[w] !== this.stamp || this.recKind[this.tabIdx[w]!] !== 2) {
-      this.recAbort = true;
-      return;
-    }
-    this.recGives.push(this.tabIdx[w]!);
-  }
-
-  /** A segment instance uses wire w: a wire neither input nor taken is a fixed one. */
-  private recTouch(w: number): void {
-    if (this.tabStamp[w] !== this.stamp) this.addWire(w, 1, w);
-  }
-
-  /** The record of the segment just replayed, or null when it cannot be replayed safely. */
-  private buildSegment(extra: number): Segment | null {
-    const n = this.nextId - this.recStart;
-    const t = new Uint8Array(n);
-    const w = new Int32Array(n * 3).fill(-1);
-    const dead = new Int32Array(n);
-    const mask1 = new Int32Array(n);
-    const recheck = new Int32Array(n);
-    for (let k = 0; k < n; k++) {
-      const x = (this.recStart + k) & this.ringMask;
-      t[k] = this.rT[x]!;
-      for (let s = 0; s < SLOTS[t[k]!]!; s++) {
-        const wire = this.rW[x * 3 + s]!;
-        if (this.tabStamp[wire] !== this.stamp) return null;
-        w[k * 3 + s] = this.tabIdx[wire]!;
-      }
-      dead[k] = this.rDead[x]!;
-      mask1[k] = this.rMask1[x]!;
-      recheck[k] = this.rRecheck[x]!;
-    }
-    return {
-      kind: Int8Array.from(this.recKind),
-      value: Int32Array.from(this.recValue),
-      takes: this.recTakes,
-      gives: Int32Array.from(this.recGives),
-      t, w, dead, mask1, recheck,
-      walks: Int32Array.from(this.recWalks),
-      extra,
-    };
-  }
-
-  /** Walker wires of a segment instance being replayed (from the table). */
-  private readonly walker = new Int32Array(3);
-  private readonly replayWires: number[] = [];
-  private readonly sumOk = new Int32Array(2);
-  private readonly sumSteps = new Int32Array(2);
-  /** Undo log of a replay attempt: (id, wire, old dead mask) and (ring index, old recheck). */
-  private readonly undoDead: number[] = [];
-  private readonly undoMark: number[] = [];
-
-  /** Replays a recorded segment if every boundary walk finds what the recorded one found; true when done. */
-  private tryReplay(seg: Segment, inputs: ArrayLike<number>): boolean {
-    // The table's wires now.
-    const table = this.replayWires;
-    table.length = 0;
-    const free = this.freeWires;
-    if (seg.takes > free.length) return false;
-    for (let j = 0; j < seg.kind.length; j++) {
-      const k = seg.kind[j]!;
-      const v = seg.value[j]!;
-      let wire: number;
-      if (k === 0) {
-        if (v >= inputs.length) return false;
-        wire = inputs[v]!;
-      } else if (k === 1) wire = v;
-      else wire = free[free.length - 1 - v]!;
-      if (wire >= this.wireCap) this.growWires(wire + 1);
-      table.push(wire);
-    }
-    // The boundary walks, in their order, on the instances before the segment.
-    this.undoDead.length = 0;
-    this.undoMark.length = 0;
-    const walks = seg.walks;
-    const ww = this.walker;
-    for (let i = 0; i < walks.length; i += WALK_FIELDS) {
-      const k = walks[i]!;
-      const p = walks[i + 1]!;
-      const j = walks[i + 2]!;
-      const steps = walks[i + 3]!;
-      const t = seg.t[k]!;
-      for (let s = 0; s < 3; s++) ww[s] = s < SLOTS[t]! ? table[seg.w[k * 3 + s]!]! : -1;
-      const e = GATE_START[t]! + p;
-      this.sumOk[0] = walks[i + 4]!;
-      this.sumSteps[0] = walks[i + 5]!;
-      this.sumOk[1] = walks[i + 6]!;
-      this.sumSteps[1] = walks[i + 7]!;
-      const w = table[j]!;
-      const found = this.walkBefore(e, ww, 0, w, this.lastInst[w]!, this.lastSlot[w]!, steps);
-      if ((found >= 0 ? 1 : 0) !== walks[i + 8]) {
-        this.undo();
-        return false;
-      }
-      if (found >= 0) this.killBefore(e, ww, found, w);
-    }
-    // The instances, the wires taken and given back.
-    free.length -= seg.takes;
-    const n = seg.t.length;
-    for (let k = 0; k < n; k++) {
-      const id = this.open();
-      const x = id & this.ringMask;
-      const t = seg.t[k]!;
-      for (let s = 0; s < SLOTS[t]!; s++) this.rW[x * 3 + s] = table[seg.w[k * 3 + s]!]!;
-      this.place(id, x, t);
-      this.rDead[x] = seg.dead[k]!;
-      this.rMask1[x] = seg.mask1[k]!;
-      this.rRecheck[x] = seg.recheck[k]!;
-      this.close(id);
-    }
-    for (let i = 0; i < seg.gives.length; i++) free.push(table[seg.gives[i]!]!);
-    return true;
-  }
-
-  private undo(): void {
-    const d = this.undoDead;
-    for (let i = d.length - 3; i >= 0; i -= 3) {
-      const loc = this.locate(d[i]!, d[i + 1]!);
-      if (loc >= 0) this.rDead[loc] = d[i + 2]!;
-      else if (loc !== -1) this.sDead[-2 - loc] = d[i + 2]!;
-    }
-    const m = this.undoMark;
-    for (let i = m.length - 2; i >= 0; i -= 2) this.rRecheck[m[i]!] = m[i + 1]!;
-  }
-
-  /**
-   * A segment gate (gate e on wires ws) found its partner (id * 32 + position) before the
-   * segment, along wire w: cancels the partner, and marks for stage 2 the instances between the
-   * partner and the segment on the gate's wires (as cancel does), logging the old values.
-   */
-  private killBefore(e: number, ws: Int32Array, partner: number, w: number): void {
-    const hid = Math.floor(partner / 32);
-    const hp = partner % 32;
-    const loc = this.locate(hid, w);
-    if (loc >= 0) {
-      this.undoDead.push(hid, w, this.rDead[loc]!);
-      this.rDead[loc] = this.rDead[loc]! | (1 << hp);
-    } else {
-      this.undoDead.push(hid, w, this.sDead[-2 - loc]!);
-      this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
-    }
-    if (hid < this.done) {
-      this.lagShort = true;
-      this.flagHard ??= "a cancellation reached a part already counted";
-    }
-    for (let i = 0; i < G_NQ[e]!; i++) {
-      const v = ws[G_OP[e * 3 + i]!]!;
-      let cur = this.lastInst[v]!;
-      let slot = this.lastSlot[v]!;
-      while (cur > hid && cur >= this.ringLow) {
-        const x = cur & this.ringMask;
-        this.undoMark.push(x, this.rRecheck[x]!);
-        this.rRecheck[x] = -1;
-        const prev = this.rPrev[x * 3 + slot]!;
-        slot = this.rPrevSlot[x * 3 + slot]!;
-        cur = prev;
-      }
-    }
   }
 
   // ---- the instance store ----------------------------------------------------------------
@@ -866,9 +521,7 @@ export class CountingEngine implements InstanceSink {
     const e = GATE_START[t]! + p;
     const nq = G_NQ[e]!;
     const ts = G_OP[e * 3 + nq - 1]!;
-    const ws = this.rW;
-    const wo = x * 3;
-    const w = ws[wo + ts]!;
+    const w = this.rW[x * 3 + ts]!;
     let steps = 0;
     let loc = x;
     let cur = id;
@@ -882,19 +535,22 @@ export class CountingEngine implements InstanceSink {
         const hp = list[k]!;
         if ((dead >>> hp) & 1) continue;
         if (steps >= WINDOW) {
-          this.windowNote(e, ts);
+          // merge-phases changes how many phase gates a walk diagonal on its qubit passes (never
+          // those an X-like or other walk passes: it stops at the first phase gate): only such a
+          // walk could reach further in the second cancel-inverses.
+          // Stage 1 notes it too: stage 2 repeats only the walks that something changed (settle).
+          if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
           return -1;
         }
         steps++;
         const f = GATE_START[ct]! + hp;
-        if (this.inversePair(ws, wo, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
-        if (!this.commute(ws, wo, e, loc, f)) return -1;
+        if (this.inversePair(x, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
+        if (!this.commute(x, e, loc, f)) return -1;
       }
       // The previous instance on this wire.
       const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
       if (prev < 0) return -1;
       const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
-      if (this.rec && prev < this.recStart) return this.cross(e, x, id, p, w, prev, ps, steps);
       const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
       if (pl === -1) {
         this.unavailable();
@@ -907,174 +563,6 @@ export class CountingEngine implements InstanceSink {
     }
   }
 
-  /**
-   * Recording a segment: the walk of gate e (instance id at ring index x) leaves the segment at
-   * instance `prev`. What clearBetween would count inside the segment on each control wire does
-   * not depend on where the partner is (all segment gates come after it); it is summed up, the
-   * walk goes on before the segment (walkBefore, as a replay will), and the boundary walk is
-   * recorded with its result.
-   */
-  private cross(e: number, x: number, id: number, p: number, w: number, prev: number, ps: number, steps: number): number {
-    const nq = G_NQ[e]!;
-    this.sumOk[0] = this.sumOk[1] = 1;
-    this.sumSteps[0] = this.sumSteps[1] = 0;
-    for (let i = 0; i + 1 < nq; i++) this.segmentPart(e, x, id, i);
-    const found = this.walkBefore(e, this.rW, x * 3, w, prev, ps, steps);
-    const j = this.tabStamp[w] === this.stamp ? this.tabIdx[w]! : -1;
-    if (j < 0 || prev !== this.lastInstAtStart(w)) this.recAbort = true;
-    this.recWalks.push(id - this.recStart, p, j, steps, this.sumOk[0]!, this.sumSteps[0]!, this.sumOk[1]!, this.sumSteps[1]!, found >= 0 ? 1 : 0);
-    return found;
-  }
-
-  /** The first instance before the recorded segment on wire w (its last when the segment began). */
-  private lastInstAtStart(w: number): number {
-    let cur = this.lastInst[w]!;
-    let slot = this.lastSlot[w]!;
-    while (cur >= this.recStart) {
-      const x = cur & this.ringMask;
-      const prev = this.rPrev[x * 3 + slot]!;
-      slot = this.rPrevSlot[x * 3 + slot]!;
-      cur = prev;
-    }
-    return cur;
-  }
-
-  /**
-   * clearBetween's part inside the recorded segment on control operand i of gate e: every live
-   * gate there must commute with e (at most WINDOW); sets sumOk[i] and sumSteps[i].
-   */
-  private segmentPart(e: number, x: number, id: number, i: number): void {
-    const s0 = G_OP[e * 3 + i]!;
-    let steps = 0;
-    let loc = x;
-    let cur = id;
-    let slot = s0;
-    let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
-    for (;;) {
-      const ct = this.rT[loc]!;
-      const list = SLOT_GATES[ct * 3 + slot]!;
-      const dead = this.rDead[loc]!;
-      for (; k >= 0; k--) {
-        const xp = list[k]!;
-        if ((dead >>> xp) & 1) continue;
-        if (++steps > WINDOW || !this.commute(this.rW, x * 3, e, loc, GATE_START[ct]! + xp)) {
-          this.sumOk[i] = 0;
-          this.sumSteps[i] = steps;
-          return;
-        }
-      }
-      const prev = this.rPrev[loc * 3 + slot]!;
-      if (prev < this.recStart) {
-        this.sumSteps[i] = steps;
-        return;
-      }
-      slot = this.rPrevSlot[loc * 3 + slot]!;
-      cur = prev;
-      loc = cur & this.ringMask;
-      k = SLOT_GATES[this.rT[loc]! * 3 + slot]!.length - 1;
-    }
-  }
-
-  /**
-   * The part of a findPartner walk before a segment: gate e (wires ws[wo..wo+2]), along wire w
-   * from instance `cur` (slot `slot`), `steps` live gates examined already; clearBetween's
-   * segment parts in sumOk/sumSteps. Used alike when recording and when replaying.
-   */
-  private walkBefore(e: number, ws: Int32Array, wo: number, w: number, cur: number, slot: number, steps: number): number {
-    const ts = G_OP[e * 3 + G_NQ[e]! - 1]!;
-    while (cur >= 0) {
-      const loc = cur >= this.ringLow ? cur & this.ringMask : this.locate(cur, w);
-      if (loc === -1) {
-        this.unavailable();
-        return -1;
-      }
-      const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
-      const list = SLOT_GATES[ct * 3 + slot]!;
-      const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
-      for (let k = list.length - 1; k >= 0; k--) {
-        const hp = list[k]!;
-        if ((dead >>> hp) & 1) continue;
-        if (steps >= WINDOW) {
-          this.windowNote(e, ts);
-          return -1;
-        }
-        steps++;
-        const f = GATE_START[ct]! + hp;
-        if (this.inversePair(ws, wo, e, loc, f) && this.clearBefore(e, ws, wo, cur, hp)) return cur * 32 + hp;
-        if (!this.commute(ws, wo, e, loc, f)) return -1;
-      }
-      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-      slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
-      cur = prev;
-    }
-    return -1;
-  }
-
-  /** clearBetween for a partner (hid, hp) before the segment: the segment parts summed up, then the rest. */
-  private clearBefore(e: number, ws: Int32Array, wo: number, hid: number, hp: number): boolean {
-    const nq = G_NQ[e]!;
-    for (let i = 0; i + 1 < nq; i++) {
-      if (this.sumOk[i] === 0) return false;
-      const w = ws[wo + G_OP[e * 3 + i]!]!;
-      let steps = this.sumSteps[i]!;
-      // The first instance before the segment on w.
-      let cur = this.rec ? this.lastInstAtStart(w) : this.lastInst[w]!;
-      let slot = this.rec ? this.lastSlotAtStart(w) : this.lastSlot[w]!;
-      let done = false;
-      while (!done && cur >= 0) {
-        if (cur < hid) break;
-        const loc = cur >= this.ringLow ? cur & this.ringMask : this.locate(cur, w);
-        if (loc === -1) {
-          this.unavailable();
-          return false;
-        }
-        const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
-        const list = SLOT_GATES[ct * 3 + slot]!;
-        const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
-        for (let k = list.length - 1; k >= 0; k--) {
-          const xp = list[k]!;
-          if (cur === hid && xp <= hp) {
-            done = true;
-            break;
-          }
-          if ((dead >>> xp) & 1) continue;
-          if (++steps > WINDOW) {
-            this.noteSecond("the second cancel-inverses reaches its window");
-            return false;
-          }
-          if (!this.commute(ws, wo, e, loc, GATE_START[ct]! + xp)) return false;
-        }
-        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-        slot = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
-        cur = prev;
-      }
-    }
-    return true;
-  }
-
-  /** The slot of w in its first instance before the recorded segment. */
-  private lastSlotAtStart(w: number): number {
-    let cur = this.lastInst[w]!;
-    let slot = this.lastSlot[w]!;
-    while (cur >= this.recStart) {
-      const x = cur & this.ringMask;
-      const prev = this.rPrev[x * 3 + slot]!;
-      slot = this.rPrevSlot[x * 3 + slot]!;
-      cur = prev;
-    }
-    return slot;
-  }
-
-  /**
-   * merge-phases changes how many phase gates a walk diagonal on its qubit passes (never those an
-   * X-like or other walk passes: it stops at the first phase gate): only such a walk could reach
-   * further in the second cancel-inverses. Stage 1 notes it too: stage 2 repeats only the walks
-   * that something changed (settle).
-   */
-  private windowNote(e: number, ts: number): void {
-    if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
-  }
-
   private noteSecond(reason: string): void {
     if (this.flagSecond === null) this.flagSecond = reason;
   }
@@ -1084,27 +572,27 @@ export class CountingEngine implements InstanceSink {
     if (this.flagHard === null) this.flagHard = "a cancel-inverses walk needed a part no longer kept";
   }
 
-  /** commute.ts's inversePair for gate e on wires ws[wo..] and gate f of the instance at loc. */
-  private inversePair(ws: Int32Array, wo: number, e: number, loc: number, f: number): boolean {
+  /** commute.ts's inversePair for gate e of the instance at ring index x and gate f at loc. */
+  private inversePair(x: number, e: number, loc: number, f: number): boolean {
     if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
     const nq = G_NQ[e]!;
     if (G_NQ[f] !== nq) return false;
     const wa = loc >= 0 ? this.rW : this.sW;
     const xb = (loc >= 0 ? loc : -2 - loc) * 3;
     for (let i = 0; i < nq; i++) {
-      if (ws[wo + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
+      if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
     }
     return true;
   }
 
-  /** commute.ts's commute for gate e on wires ws[wo..] and gate f of the instance at loc. */
-  private commute(ws: Int32Array, wo: number, e: number, loc: number, f: number): boolean {
+  /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
+  private commute(x: number, e: number, loc: number, f: number): boolean {
     const nq = G_NQ[e]!;
     const wa = loc >= 0 ? this.rW : this.sW;
     const xb = (loc >= 0 ? loc : -2 - loc) * 3;
     for (let i = 0; i < nq; i++) {
       const s = G_OP[e * 3 + i]!;
-      const w = ws[wo + s]!;
+      const w = this.rW[x * 3 + s]!;
       // The role of f on wire w (slots of an instance are distinct wires; unused ones are stale).
       let rh = -1;
       if (wa[xb] === w) rh = G_ROLE[f * 3]!;
@@ -1150,7 +638,7 @@ export class CountingEngine implements InstanceSink {
             this.noteSecond("the second cancel-inverses reaches its window");
             return false;
           }
-          if (!this.commute(this.rW, x * 3, e, loc, GATE_START[ct]! + xp)) return false;
+          if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
         }
         if (stop || cur <= hid) break;
         const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;

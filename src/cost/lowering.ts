@@ -17,10 +17,6 @@ import {
 /** Receives template instances. `dies`: a bit per slot whose qubit is never used again. */
 export interface InstanceSink {
   put(template: number, a: number, b: number, c: number, dies: number): void;
-  /** See CountingEngine.replaySegment (optional: a sink without it replays nothing). */
-  replaySegment?(key: number, inputs: ArrayLike<number>): number;
-  /** See CountingEngine.endSegment. */
-  endSegment?(extra: number): void;
 }
 
 /**
@@ -49,14 +45,6 @@ export interface LogicalSink {
   measure(q: number): void;
   /** A global phase of -1. */
   gphase(): void;
-  /**
-   * Optional: the operations up to endSegment depend on nothing but `key`, the search qubits
-   * `qubits` (distinct, at most 8) and the pending X flips on them. Returns true when they were
-   * replayed from an earlier identical stretch: then the caller sends nothing until the next segment.
-   */
-  segment?(key: number, qubits: ArrayLike<number>): boolean;
-  /** Ends a segment for which segment() returned false. */
-  endSegment?(qubits: ArrayLike<number>): void;
 }
 
 /** Virtual qubit ids above the fixed registers, recycled when a span ends. */
@@ -125,53 +113,6 @@ export class LoweringStream implements LogicalSink {
     const o = new Int32Array(n);
     o.set(this.seenOp);
     this.seenOp = o;
-  }
-
-  // ---- segments (see LogicalSink.segment) ------------------------------------------------
-
-  segment(key: number, qubits: ArrayLike<number>): boolean {
-    const out = this.out;
-    // The lowering's state a segment depends on: the X flips pending on its search qubits, and
-    // on work qubits, which must have none (a segment is replayed only where no work qubit is
-    // flipped, and must touch no search qubit but its own).
-    if (out.replaySegment === undefined || qubits.length > 8 || this.flippedWork !== 0) return false;
-    let flips = 0;
-    for (let i = 0; i < qubits.length; i++) {
-      const q = qubits[i]!;
-      if (q >= this.ids.base) return false;
-      this.room(q);
-      flips |= this.flipped[q]! << i;
-    }
-    const extra = out.replaySegment((key * 256 + flips) * 16 + qubits.length, qubits);
-    if (extra >= 0) {
-      for (let i = 0; i < qubits.length; i++) this.flipped[qubits[i]!] = (extra >>> i) & 1;
-      return true;
-    }
-    this.segInputs = Array.from(qubits);
-    this.segBroken = false;
-    return false;
-  }
-
-  endSegment(qubits: ArrayLike<number>): void {
-    let flips = 0;
-    for (let i = 0; i < qubits.length; i++) flips |= this.flipped[qubits[i]!]! << i;
-    const broken = this.segBroken || this.flippedWork !== 0;
-    this.segInputs = null;
-    // A segment that broke the contract is not recorded (-1 is never replayed).
-    this.out.endSegment?.(broken ? -1 : flips);
-  }
-
-  /** Inputs of the segment being recorded (null: none). */
-  private segInputs: number[] | null = null;
-  private segBroken = false;
-  /** Work qubits with a pending flip. */
-  private flippedWork = 0;
-
-  /** Sets qubit q's pending flip (keeps the count of flipped work qubits). */
-  private setFlip(q: number, v: number): void {
-    if (q >= this.ids.base) this.flippedWork += v - this.flipped[q]!;
-    else if (this.segInputs !== null && !this.segInputs.includes(q)) this.segBroken = true;
-    this.flipped[q] = v;
   }
 
   // ---- logical operations ------------------------------------------------------------------
@@ -368,16 +309,16 @@ export class LoweringStream implements LogicalSink {
     this.room(q);
     if (this.flipped[q] !== want) {
       this.out.put(T_X, q, -1, -1, 0);
-      this.setFlip(q, want);
-    } else if (this.segInputs !== null && q < this.ids.base && !this.segInputs.includes(q)) this.segBroken = true;
+      this.flipped[q] = want;
+    }
     return q;
   }
 
   private plain(q: number): void {
     if (this.flipped[q]) {
       this.out.put(T_X, q, -1, -1, 0);
-      this.setFlip(q, 0);
-    } else if (this.segInputs !== null && q < this.ids.base && !this.segInputs.includes(q)) this.segBroken = true;
+      this.flipped[q] = 0;
+    }
   }
 
   private copy(ctrl: number, t: number, dies: boolean): void {

@@ -131,26 +131,9 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
     for (let j = 0; j < k; j++) ctrls[j] = violatedBy(f.lits[s + j]!);
     return { k, lits: ctrls.subarray(0, k) };
   };
-  // A clause's half is a segment (the counting engine replays it when it meets the same
-  // situation again): keyed by the half, the clause width and the literals' signs.
-  const qubits = new Int32Array(maxK);
-  const seg = sink.segment !== undefined && maxK <= 8;
-  const begin = (half: number, k: number, lits: Int32Array): boolean => {
-    if (!seg) return false;
-    let signs = 0;
-    for (let j = 0; j < k; j++) {
-      qubits[j] = lits[j]! >>> 1;
-      signs |= (lits[j]! & 1) << j;
-    }
-    return sink.segment!(half * 256 + signs, qubits.subarray(0, k));
-  };
-  const end = (k: number): void => {
-    if (seg) sink.endSegment!(qubits.subarray(0, k));
-  };
   for (let i = 0; i < m; i++) {
     if (progress && i % step === 0) progress(i / (2 * m));
     const { k, lits } = clause(i);
-    if (begin(0, k, lits)) continue;
     let t = -1;
     let bit: number;
     if (k === 1) bit = lits[0]!;
@@ -176,7 +159,6 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
       sink.unand(t, true);
       ids.give(t);
     }
-    end(k);
   }
   const ok = Array.from(counter, (q) => pos(q) | 1); // fires when the counter is 0
   if (kind === "phase") sink.mcz(ok);
@@ -185,8 +167,6 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
   for (let i = m - 1; i >= 0; i--) {
     if (progress && i % step === 0) progress(1 - i / (2 * m));
     const { k, lits } = clause(i);
-    // Clause 0, last, is no segment: there the counter qubits end.
-    if (i > 0 && begin(1, k, lits)) continue;
     let t = -1;
     let bit: number;
     if (k === 1) bit = lits[0]!;
@@ -212,7 +192,6 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
       sink.unand(t, true);
       ids.give(t);
     }
-    if (i > 0) end(k);
   }
   for (let j = 0; j < w; j++) ids.give(counter[j]!);
 }
