@@ -53,8 +53,8 @@ export type { VerifyOptions, VerifyResult, Counterexample, ModelSearchReport } f
 export { verifyOracle } from "./sim/verify.js";
 
 // Costing.
-export type { ResourceReport, CostRow, SearchCost, PartCost } from "./compile.js";
-export { oracleResources, costTable, searchCosts } from "./compile.js";
+export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle } from "./cost/index.js";
+export { costTable, oracleResources, searchCosts } from "./cost/index.js";
 export type { CircuitCounts } from "./emit/resources.js";
 export { countCircuit } from "./emit/resources.js";
 

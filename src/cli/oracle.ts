@@ -25,7 +25,15 @@ export const costHelp = `Usage: clausegate cost FILE|- [--kind phase|flag] [--js
 
 Prints what an oracle for the formula costs, one row per strategy and uncomputation, and a
 textbook reference row (a clause bit per clause, V-chains of 7-T Toffolis). Qubits, T-count,
-T-depth, CNOTs and depth are those of the Clifford+T circuit; Toffolis those of the toffoli basis.
+T-depth, CNOTs and depth are those of the Clifford+T circuit; Toffolis those of the toffoli basis;
+all after work-qubit reuse and the optimizer passes, exactly as clausegate oracle emits them. The
+figures are counted without building the circuits (a million clauses take seconds); a row the
+counting cannot make exact says so ("upper bound"; "exact": false in --json).
+
+Options:
+  --kind phase|flag   the oracle's kind (default phase)
+  --json              print JSON: variables, clauses, kind, rows
+  -h, --help          show this help
 `;
 
 function describe(o: Oracle): string[] {
@@ -114,8 +122,13 @@ export async function costCommand(argv: string[]): Promise<number> {
     process.stdout.write(`${JSON.stringify({ variables: cnf.variables, clauses: cnf.clauseStart.length - 1, kind, rows }, null, 2)}\n`);
     return 0;
   }
-  const head = ["strategy", "uncompute", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth"];
-  const body = rows.map((r) => [r.strategy, r.uncompute, r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String));
+  // A column for rows whose figures are upper bounds, only when there is one.
+  const bounds = rows.some((r) => !r.exact);
+  const head = ["strategy", "uncompute", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth", ...(bounds ? ["figures"] : [])];
+  const body = rows.map((r) => [
+    ...[r.strategy, r.uncompute, r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String),
+    ...(bounds ? [r.exact ? "exact" : "upper bound"] : []),
+  ]);
   const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
   const line = (cells: string[]): string => cells.map((c, i) => (i < 2 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join("  ");
   process.stdout.write(`${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${cnf.clauseStart.length - 1} clauses\n`);

@@ -12,7 +12,7 @@ import { scratchInt32 } from "../ir/scratch.js";
 import { K } from "../ir/kinds.js";
 import { commute, inversePair, qubitCount } from "./commute.js";
 
-const WINDOW = 16;
+export const WINDOW = 16;
 
 export function cancelInverses(c: Circuit): Circuit {
   const alive = new Uint8Array(c.gates).fill(1);

@@ -90,6 +90,6 @@ describe("clausegate cost", () => {
   it("prints JSON with --json", () => {
     const doc = JSON.parse(cli(["cost", "examples/allotment-pair.cnf", "--json"]).stdout);
     expect(doc.rows).toHaveLength(5);
-    expect(Object.keys(doc.rows[0])).toEqual(["strategy", "uncompute", "qubits", "toffoli_count", "t_count", "t_depth", "cnot_count", "depth"]);
+    expect(Object.keys(doc.rows[0])).toEqual(["strategy", "uncompute", "qubits", "toffoli_count", "t_count", "t_depth", "cnot_count", "depth", "exact"]);
   });
 });

@@ -1,0 +1,758 @@
+/**
+ * The counting engine: takes the lowered circuit as a stream of template instances (see
+ * lowering.ts) and counts what the emitted circuit holds after work-qubit reuse and the default
+ * optimizer passes, without storing the circuit.
+ *
+ * 1. Work-qubit reuse (passes/reuseWork.ts): a work qubit takes a wire at its first gate (the
+ *    most recently freed wire, else a new one) and frees it after its last gate.
+ * 2. cancel-inverses (passes/cancelInverses.ts), replayed exactly: the same walk back along the
+ *    target's gates (at most WINDOW live ones), the same inverse, commutation and clear-between
+ *    tests, over instances instead of gates. Only the gates whose walk can leave their own
+ *    instance are walked (templates.ts's exitingGates); the others stop inside it, unchanged.
+ * 3. The second cancel-inverses of the pipeline runs on merge-phases' output. It is replayed on
+ *    the first one's output (in detection mode: any pair it would find makes the result a bound)
+ *    after each instance is final; merge-phases only moves a phase gate later past gates that are
+ *    diagonal on its qubit, and merges a run of them into at most two, which changes no walk of
+ *    cancel-inverses unless a run of phase gates alone vanishes (also detected) or a walk hits
+ *    the window (detected).
+ * 4. merge-phases (passes/mergePhases.ts), replayed exactly per qubit, then the ASAP tally of
+ *    emit/resources.ts (depth, T-depth, counts) with one level per wire.
+ * drop-identities only merges global phases here (no multi-controlled gates are left), and
+ * fold-x-polarity finds no polarity in the toffoli and clifford+t bases: neither changes a figure.
+ *
+ * An instance is final once LAG later instances have been replayed; a cancellation reaching an
+ * instance already counted, or a walk needing an instance no longer kept, makes the result
+ * inexact (reported, never silent). Then figures are not exact: see {@link EngineResult.exact}.
+ */
+import { K, INVERSE_KIND } from "../ir/kinds.js";
+import {
+  FIRST_TOUCH, LAST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
+  exitingGates, gatesOf, ROLE_OTHER, ROLE_Z, TEMPLATE_COUNT,
+} from "./templates.js";
+import type { InstanceSink } from "./lowering.js";
+import { finalRun, NONE, transferOf } from "./transfer.js";
+
+/** What the engine counts. */
+export interface EngineOptions {
+  /** search + target qubits: wires below this are the qubits themselves. */
+  readonly base: number;
+  /** Replay the optimizer passes (the pipeline's default); false: the lowered, reused circuit. */
+  readonly optimize: boolean;
+  /** Depth, T-depth and the phase merging; false counts Toffolis, T and CNOTs only (faster). */
+  readonly levels: boolean;
+  /**
+   * Instances replayed before one is final (a power of two); default 65536. Infinity keeps every
+   * instance until the end (memory grows with the circuit; nothing can fall short).
+   */
+  readonly lag?: number;
+  /** Copies kept per wire of instances that left the window (default 1). */
+  readonly history?: number;
+}
+
+/** Figures of one circuit. */
+export interface EngineResult {
+  /** All qubits (search, target, work wires). */
+  readonly qubits: number;
+  /** T and Tdg gates. */
+  readonly tCount: number;
+  /** ASAP T-depth (0 when levels were not asked for). */
+  readonly tDepth: number;
+  /** CX and CZ gates. */
+  readonly cnotCount: number;
+  /** CCX gates. */
+  readonly toffoliCount: number;
+  /** ASAP depth, global phase excluded (0 when levels were not asked for). */
+  readonly depth: number;
+  /** Measurements. */
+  readonly measurements: number;
+  /** Template instances replayed. */
+  readonly instances: number;
+  /**
+   * True when every figure is that of the emitted circuit. False only when the engine found a
+   * case its replay does not cover (see `reason`): then the counts and depths are upper bounds
+   * when `upperBound` is true, else unknown.
+   */
+  readonly exact: boolean;
+  /** With exact false: the figures are upper bounds. */
+  readonly upperBound: boolean;
+  /** Why the figures are not exact. */
+  readonly reason: string | null;
+  /** A walk needed an instance that was no longer kept: a run with more `history` can be exact. */
+  readonly historyShort: boolean;
+  /** A cancellation reached an instance already counted: a run with a longer `lag` can be exact. */
+  readonly lagShort: boolean;
+}
+
+const KIND_CX = K.cx;
+const KIND_CZ = K.cz;
+const KIND_CCX = K.ccx;
+const KIND_T = K.t;
+const KIND_TDG = K.tdg;
+const KIND_MEASURE = K.measure;
+const KIND_RESET = K.reset;
+
+/** Exiting gates with nothing dead, per template. */
+const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
+/** Index of gate e in its slot's list, per slot: GATE_SLOT_INDEX[e * 3 + s]. */
+const GATE_SLOT_INDEX = new Int8Array(GATE_START[TEMPLATE_COUNT]! * 3).fill(-1);
+for (let t = 0; t < TEMPLATE_COUNT; t++) {
+  for (let s = 0; s < 3; s++) {
+    const list = SLOT_GATES[t * 3 + s]!;
+    for (let i = 0; i < list.length; i++) GATE_SLOT_INDEX[(GATE_START[t]! + list[i]!) * 3 + s] = i;
+  }
+}
+
+export class CountingEngine implements InstanceSink {
+  private readonly base: number;
+  private readonly optimize: boolean;
+  private readonly levels: boolean;
+  /** Instances replayed before one is final; grows with the stream up to maxLag. */
+  private lag = 64;
+  private readonly maxLag: number;
+  private ringSize: number;
+  private ringMask: number;
+  /** The oldest instance still in the ring (older ones survive only as a wire's copy). */
+  private ringLow = 0;
+
+  // Instances, in a ring.
+  private rT: Uint8Array;
+  private rW: Int32Array;
+  private rDead: Int32Array;
+  private rPrev: Int32Array;
+  private rPrevSlot: Int8Array;
+  private rNext: Int32Array;
+  /** Cancelled gates of each instance right after its own stage 1. */
+  private rMask1: Int32Array;
+  /** Per slot: how many instances its wire had with this one (see evict). */
+  private rSeq: Int32Array;
+  /** Gates whose walk stage 2 repeats: a gate they passed went after their stage 1 (-1: all). */
+  private rRecheck: Int32Array;
+  private nextId = 0;
+  /** Instances below this have been through stage 2 and the tally. */
+  private done = 0;
+
+  // Wires.
+  private lastInst: Int32Array;
+  private lastSlot: Int8Array;
+  /**
+   * Copies of instances that left the ring, per wire: entry w * depth + i, newest first. A walk
+   * along a wire seldom used may need the last few instances on it long after they left.
+   */
+  private readonly depth: number;
+  private sId: Int32Array;
+  private sT: Uint8Array;
+  private sW: Int32Array;
+  private sDead: Int32Array;
+  private sPrev: Int32Array;
+  private sPrevSlot: Int8Array;
+  private level: Float64Array;
+  private tLevel: Float64Array;
+  private pend: Uint8Array;
+  /** Instances linked on each wire so far. */
+  private wireSeq = new Int32Array(0);
+  private wireCap = 0;
+
+  // Virtual ids -> wires.
+  private wireOf: Int32Array = new Int32Array(1024).fill(-1);
+  private freeWires: number[] = [];
+  private workWires = 0;
+
+  // Figures.
+  private tCount = 0;
+  private cnotCount = 0;
+  private toffoliCount = 0;
+  private measurements = 0;
+  private bitL = 0;
+  private bitTL = 0;
+  private phaseGates = 0;
+  private flagHard: string | null = null;
+  private historyShort = false;
+  private lagShort = false;
+  private flagBound: string | null = null;
+  /** Set when the second cancel-inverses might change something (irrelevant if it never runs). */
+  private flagSecond: string | null = null;
+
+  constructor(opts: EngineOptions) {
+    this.base = opts.base;
+    this.optimize = opts.optimize;
+    this.levels = opts.levels;
+    this.maxLag = opts.lag ?? 65536;
+    this.lag = this.maxLag === Infinity ? Infinity : Math.min(1024, this.maxLag);
+    this.ringSize = 0;
+    this.ringMask = 0;
+    this.rT = new Uint8Array(0);
+    this.rW = new Int32Array(0);
+    this.rDead = new Int32Array(0);
+    this.rPrev = new Int32Array(0);
+    this.rPrevSlot = new Int8Array(0);
+    this.rNext = new Int32Array(0);
+    this.rMask1 = new Int32Array(0);
+    this.rSeq = new Int32Array(0);
+    this.rRecheck = new Int32Array(0);
+    this.growRing(this.maxLag === Infinity ? 4096 : 0);
+    this.lastInst = new Int32Array(0);
+    this.lastSlot = new Int8Array(0);
+    this.depth = opts.history ?? 1;
+    this.sId = new Int32Array(0);
+    this.sT = new Uint8Array(0);
+    this.sW = new Int32Array(0);
+    this.sDead = new Int32Array(0);
+    this.sPrev = new Int32Array(0);
+    this.sPrevSlot = new Int8Array(0);
+    this.level = new Float64Array(0);
+    this.tLevel = new Float64Array(0);
+    this.pend = new Uint8Array(0);
+    this.growWires(Math.max(64, this.base + 64));
+  }
+
+  /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
+  private growRing(atLeast = 0): void {
+    let r = Math.max(256, this.ringSize);
+    const want = Number.isFinite(this.lag) ? this.lag * 2 + 64 : 0;
+    while (r < Math.max(atLeast, want)) r *= 2;
+    if (r === this.ringSize) return;
+    const old = { size: this.ringSize, mask: this.ringMask, rT: this.rT, rW: this.rW, rDead: this.rDead, rPrev: this.rPrev, rPrevSlot: this.rPrevSlot, rNext: this.rNext, rMask1: this.rMask1, rRecheck: this.rRecheck, rSeq: this.rSeq };
+    this.ringSize = r;
+    this.ringMask = r - 1;
+    this.rT = new Uint8Array(r);
+    this.rW = new Int32Array(r * 3);
+    this.rDead = new Int32Array(r);
+    this.rPrev = new Int32Array(r * 3);
+    this.rPrevSlot = new Int8Array(r * 3);
+    this.rNext = new Int32Array(r * 3);
+    this.rMask1 = new Int32Array(r);
+    this.rRecheck = new Int32Array(r);
+    this.rSeq = new Int32Array(r * 3);
+    for (let id = this.ringLow; id < this.nextId; id++) {
+      const a = id & old.mask;
+      const b = id & this.ringMask;
+      this.rT[b] = old.rT[a]!;
+      this.rDead[b] = old.rDead[a]!;
+      this.rMask1[b] = old.rMask1[a]!;
+      this.rRecheck[b] = old.rRecheck[a]!;
+      for (let s = 0; s < 3; s++) {
+        this.rW[b * 3 + s] = old.rW[a * 3 + s]!;
+        this.rPrev[b * 3 + s] = old.rPrev[a * 3 + s]!;
+        this.rPrevSlot[b * 3 + s] = old.rPrevSlot[a * 3 + s]!;
+        this.rNext[b * 3 + s] = old.rNext[a * 3 + s]!;
+        this.rSeq[b * 3 + s] = old.rSeq[a * 3 + s]!;
+      }
+    }
+  }
+
+  private growWires(n: number): void {
+    if (n <= this.wireCap) return;
+    const cap = Math.max(n, this.wireCap * 2);
+    const i32 = (a: Int32Array, fill: number): Int32Array => {
+      const b = new Int32Array(cap).fill(fill);
+      b.set(a);
+      return b;
+    };
+    this.lastInst = i32(this.lastInst, -1);
+    const ls = new Int8Array(cap);
+    ls.set(this.lastSlot);
+    this.lastSlot = ls;
+    const d = this.depth;
+    const sid = new Int32Array(cap * d).fill(-1);
+    sid.set(this.sId);
+    this.sId = sid;
+    const st = new Uint8Array(cap * d);
+    st.set(this.sT);
+    this.sT = st;
+    const sw = new Int32Array(cap * d * 3);
+    sw.set(this.sW);
+    this.sW = sw;
+    const sd = new Int32Array(cap * d);
+    sd.set(this.sDead);
+    this.sDead = sd;
+    const sp = new Int32Array(cap * d);
+    sp.set(this.sPrev);
+    this.sPrev = sp;
+    const sps = new Int8Array(cap * d);
+    sps.set(this.sPrevSlot);
+    this.sPrevSlot = sps;
+    const l = new Float64Array(cap);
+    l.set(this.level);
+    this.level = l;
+    const tl = new Float64Array(cap);
+    tl.set(this.tLevel);
+    this.tLevel = tl;
+    const p = new Uint8Array(cap);
+    p.set(this.pend);
+    this.pend = p;
+    const sq = new Int32Array(cap);
+    sq.set(this.wireSeq);
+    this.wireSeq = sq;
+    this.wireCap = cap;
+  }
+
+  private wireFor(v: number): number {
+    if (v < this.base) return v;
+    if (v >= this.wireOf.length) {
+      const w = new Int32Array(Math.max(v + 1, this.wireOf.length * 2)).fill(-1);
+      w.set(this.wireOf);
+      this.wireOf = w;
+    }
+    let w = this.wireOf[v]!;
+    if (w < 0) {
+      w = this.freeWires.length > 0 ? this.freeWires.pop()! : this.base + this.workWires++;
+      if (w >= this.wireCap) this.growWires(w + 1);
+      this.wireOf[v] = w;
+    }
+    return w;
+  }
+
+  // ---- input -----------------------------------------------------------------------------
+
+  put(t: number, a: number, b: number, c: number, dies: number): void {
+    const id = this.nextId;
+    if (id > 0x7ffffff0) throw new Error("counting: more than 2^31 template instances");
+    if (this.maxLag === Infinity) {
+      // Everything is kept until the end.
+      if (id >= this.ringSize) this.growRing(this.ringSize * 2);
+    } else if (id > 8 * this.lag && this.lag < this.maxLag) {
+      // A longer stream: a longer window before instances are final (small circuits stay cheap).
+      this.lag = Math.min(this.maxLag, this.lag * 2);
+      this.growRing();
+    }
+    this.nextId++;
+    const x = id & this.ringMask;
+    if (id - this.ringSize >= this.ringLow) {
+      this.evict(id - this.ringSize);
+      this.ringLow = id - this.ringSize + 1;
+    }
+    // Wires in the order of first use (reuse takes them in that order).
+    const touch = FIRST_TOUCH[t]!;
+    for (let i = 0; i < touch.length; i++) {
+      const s = touch[i]!;
+      this.rW[x * 3 + s] = this.wireFor(s === 0 ? a : s === 1 ? b : c);
+    }
+    this.rT[x] = t;
+    this.rDead[x] = 0;
+    this.rRecheck[x] = 0;
+    const slots = SLOTS[t]!;
+    for (let s = 0; s < slots; s++) {
+      const w = this.rW[x * 3 + s]!;
+      const p = this.lastInst[w]!;
+      this.rPrev[x * 3 + s] = p;
+      this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
+      this.rNext[x * 3 + s] = -1;
+      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.lastSlot[w]!] = id;
+      this.lastInst[w] = id;
+      this.lastSlot[w] = s;
+      this.rSeq[x * 3 + s] = ++this.wireSeq[w]!;
+    }
+    if (this.optimize) this.cancel(id, x);
+    this.rMask1[x] = this.rDead[x]!;
+    if (dies !== 0) {
+      // Freed in the order of their last gate, as reuseWork frees them.
+      const order = LAST_TOUCH[t]!;
+      for (let i = 0; i < order.length; i++) {
+        const s = order[i]!;
+        if (((dies >>> s) & 1) === 0) continue;
+        const v = s === 0 ? a : s === 1 ? b : c;
+        this.freeWires.push(this.wireOf[v]!);
+        this.wireOf[v] = -1;
+      }
+    }
+    while (this.done <= id - this.lag) this.settle(this.done);
+  }
+
+  /** Flushes everything; call once after the last instance. */
+  finish(): EngineResult {
+    while (this.done < this.nextId) this.settle(this.done);
+    const wires = this.base + this.workWires;
+    let depth = 0;
+    let tDepth = 0;
+    for (let w = 0; w < wires; w++) {
+      if (this.levels && this.optimize) {
+        // merge-phases' last flush, in qubit order.
+        const run = finalRun(this.pend[w]!);
+        this.level[w]! += run.gates;
+        this.tLevel[w]! += run.tGates;
+        this.tCount += run.tGates;
+        this.pend[w] = 0;
+      }
+      depth = Math.max(depth, this.level[w]!);
+      tDepth = Math.max(tDepth, this.tLevel[w]!);
+    }
+    // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
+    // phase gates); otherwise the runner skips it.
+    if (this.phaseGates >= 2 && this.flagSecond !== null && this.flagBound === null) this.flagBound = this.flagSecond;
+    const exact = this.flagHard === null && this.flagBound === null;
+    return {
+      qubits: wires,
+      tCount: this.tCount,
+      tDepth: this.levels ? tDepth : 0,
+      cnotCount: this.cnotCount,
+      toffoliCount: this.toffoliCount,
+      depth: this.levels ? depth : 0,
+      measurements: this.measurements,
+      instances: this.nextId,
+      exact,
+      upperBound: !exact && this.flagHard === null,
+      reason: this.flagHard ?? this.flagBound,
+      historyShort: this.historyShort,
+      lagShort: this.lagShort,
+    };
+  }
+
+  /** Instances replayed so far. */
+  get instances(): number {
+    return this.nextId;
+  }
+
+  // ---- the instance store ----------------------------------------------------------------
+
+  /**
+   * Keeps a copy of an instance leaving the ring on each wire that may still walk into it: where
+   * it is among the wire's last `depth` instances, or the one before an instance not yet through
+   * stage 2.
+   */
+  private evict(old: number): void {
+    const x = old & this.ringMask;
+    const t = this.rT[x]!;
+    const d = this.depth;
+    for (let s = 0; s < SLOTS[t]!; s++) {
+      const w = this.rW[x * 3 + s]!;
+      const next = this.rNext[x * 3 + s]!;
+      // Kept when fewer than `depth` instances came after it on w, or the next one on w is not
+      // through stage 2 yet (whose walks start here).
+      const keep = this.wireSeq[w]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
+      if (!keep) continue;
+      // Newest first: shift the older copies of this wire down.
+      const b = w * d;
+      for (let i = d - 1; i > 0; i--) {
+        const from = b + i - 1;
+        const to = b + i;
+        this.sId[to] = this.sId[from]!;
+        this.sT[to] = this.sT[from]!;
+        this.sW[to * 3] = this.sW[from * 3]!;
+        this.sW[to * 3 + 1] = this.sW[from * 3 + 1]!;
+        this.sW[to * 3 + 2] = this.sW[from * 3 + 2]!;
+        this.sDead[to] = this.sDead[from]!;
+        this.sPrev[to] = this.sPrev[from]!;
+        this.sPrevSlot[to] = this.sPrevSlot[from]!;
+      }
+      this.sId[b] = old;
+      this.sT[b] = t;
+      this.sW[b * 3] = this.rW[x * 3]!;
+      this.sW[b * 3 + 1] = this.rW[x * 3 + 1]!;
+      this.sW[b * 3 + 2] = this.rW[x * 3 + 2]!;
+      this.sDead[b] = this.rDead[x]!;
+      this.sPrev[b] = this.rPrev[x * 3 + s]!;
+      this.sPrevSlot[b] = this.rPrevSlot[x * 3 + s]!;
+    }
+  }
+
+  /** Where instance `id` is kept, seen from wire w: ring index, -2 - copy index, or -1. */
+  private locate(id: number, w: number): number {
+    if (id >= this.ringLow) return id & this.ringMask;
+    const b = w * this.depth;
+    for (let i = 0; i < this.depth; i++) if (this.sId[b + i] === id) return -2 - (b + i);
+    return -1;
+  }
+
+  // ---- cancel-inverses -------------------------------------------------------------------
+
+  /** Stage 1: the first cancel-inverses for the new instance. */
+  private cancel(id: number, x: number): void {
+    const t = this.rT[x]!;
+    const n = gatesOf(t);
+    let exits = EXIT0[t]!;
+    let known = 0;
+    let walked = 0;
+    const base = GATE_START[t]!;
+    for (let p = 0; p < n; p++) {
+      const dead = this.rDead[x]!;
+      if ((dead >>> p) & 1) continue;
+      // A gate whose walk stops inside the instance (given the gates gone so far) stays.
+      if (dead !== known) {
+        known = dead;
+        exits = exitingGates(t, dead);
+      }
+      if (((exits >>> p) & 1) === 0) continue;
+      const e = base + p;
+      const kind = G_KIND[e]!;
+      if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+      const partner = this.findPartner(id, x, p);
+      if (partner >= 0) {
+        const hid = Math.floor(partner / 32);
+        const hp = partner % 32;
+        const hw = this.rW[x * 3 + G_OP[e * 3 + G_NQ[e]! - 1]!]!;
+        const loc = this.locate(hid, hw);
+        if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
+        else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
+        this.rDead[x] = this.rDead[x]! | (1 << p);
+        if (hid < this.done) {
+          this.lagShort = true;
+          this.flagHard ??= "a cancellation reached a part already counted";
+        }
+        // Walks that passed over the partner before it went may go further now: stage 2
+        // repeats them (see settle): of the instances after it on its wires, and of this
+        // instance's gates walked before. The partner's own later gates see it in its mask.
+        for (let i = 0; i < G_NQ[e]!; i++) this.markRecheck(x, G_OP[e * 3 + i]!, hid);
+        this.rRecheck[x] = this.rRecheck[x]! | walked;
+      } else walked |= 1 << p;
+    }
+  }
+
+  /** Marks the instances on the wire of slot s between instance `from` and instance x (both exclusive). */
+  private markRecheck(x: number, s: number, from: number): void {
+    let loc = x;
+    let slot = s;
+    for (;;) {
+      const prev = this.rPrev[loc * 3 + slot]!;
+      if (prev <= from || prev < this.ringLow) return;
+      const pl = prev & this.ringMask;
+      this.rRecheck[pl] = -1;
+      slot = this.rPrevSlot[loc * 3 + slot]!;
+      loc = pl;
+    }
+  }
+
+  /**
+   * cancelInverses.ts's findPartner for gate p of instance `id` (at ring index x): the most
+   * recent live gate that undoes it with only commuting gates between, as id * 32 + position,
+   * or -1.
+   */
+  private findPartner(id: number, x: number, p: number): number {
+    const t = this.rT[x]!;
+    const e = GATE_START[t]! + p;
+    const nq = G_NQ[e]!;
+    const ts = G_OP[e * 3 + nq - 1]!;
+    const w = this.rW[x * 3 + ts]!;
+    let steps = 0;
+    let loc = x;
+    let cur = id;
+    let slot = ts;
+    let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
+    for (;;) {
+      const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+      const list = SLOT_GATES[ct * 3 + slot]!;
+      const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
+      for (; k >= 0; k--) {
+        const hp = list[k]!;
+        if ((dead >>> hp) & 1) continue;
+        if (steps >= WINDOW) {
+          // merge-phases changes how many phase gates a walk diagonal on its qubit passes (never
+          // those an X-like or other walk passes: it stops at the first phase gate): only such a
+          // walk could reach further in the second cancel-inverses.
+          // Stage 1 notes it too: stage 2 repeats only the walks that something changed (settle).
+          if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
+          return -1;
+        }
+        steps++;
+        const f = GATE_START[ct]! + hp;
+        if (this.inversePair(x, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
+        if (!this.commute(x, e, loc, f)) return -1;
+      }
+      // The previous instance on this wire.
+      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
+      if (prev < 0) return -1;
+      const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+      const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
+      if (pl === -1) {
+        this.unavailable();
+        return -1;
+      }
+      loc = pl;
+      cur = prev;
+      slot = ps;
+      k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
+    }
+  }
+
+  private noteSecond(reason: string): void {
+    if (this.flagSecond === null) this.flagSecond = reason;
+  }
+
+  private unavailable(): void {
+    this.historyShort = true;
+    if (this.flagHard === null) this.flagHard = "a cancel-inverses walk needed a part no longer kept";
+  }
+
+  /** commute.ts's inversePair for gate e of the instance at ring index x and gate f at loc. */
+  private inversePair(x: number, e: number, loc: number, f: number): boolean {
+    if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
+    const nq = G_NQ[e]!;
+    if (G_NQ[f] !== nq) return false;
+    const wa = loc >= 0 ? this.rW : this.sW;
+    const xb = (loc >= 0 ? loc : -2 - loc) * 3;
+    for (let i = 0; i < nq; i++) {
+      if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
+    }
+    return true;
+  }
+
+  /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
+  private commute(x: number, e: number, loc: number, f: number): boolean {
+    const nq = G_NQ[e]!;
+    const wa = loc >= 0 ? this.rW : this.sW;
+    const xb = (loc >= 0 ? loc : -2 - loc) * 3;
+    for (let i = 0; i < nq; i++) {
+      const s = G_OP[e * 3 + i]!;
+      const w = this.rW[x * 3 + s]!;
+      // The role of f on wire w (slots of an instance are distinct wires; unused ones are stale).
+      let rh = -1;
+      if (wa[xb] === w) rh = G_ROLE[f * 3]!;
+      if (rh < 0 && wa[xb + 1] === w) rh = G_ROLE[f * 3 + 1]!;
+      if (rh < 0 && wa[xb + 2] === w) rh = G_ROLE[f * 3 + 2]!;
+      if (rh < 0) continue;
+      const rg = G_ROLE[e * 3 + s]!;
+      if (rg === ROLE_OTHER || rg !== rh) return false;
+    }
+    return true;
+  }
+
+  /**
+   * cancelInverses.ts's clearBetween: every live gate after gate hp of instance hid on the other
+   * qubits of gate p of instance id commutes with it (at most WINDOW of them per qubit).
+   */
+  private clearBetween(id: number, x: number, p: number, hid: number, hp: number): boolean {
+    const t = this.rT[x]!;
+    const e = GATE_START[t]! + p;
+    const nq = G_NQ[e]!;
+    for (let i = 0; i + 1 < nq; i++) {
+      const s0 = G_OP[e * 3 + i]!;
+      const w = this.rW[x * 3 + s0]!;
+      let steps = 0;
+      let loc = x;
+      let cur = id;
+      let slot = s0;
+      let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
+      for (;;) {
+        const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+        const list = SLOT_GATES[ct * 3 + slot]!;
+        const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
+        let stop = false;
+        for (; k >= 0; k--) {
+          const xp = list[k]!;
+          if (cur < hid || (cur === hid && xp <= hp)) {
+            stop = true;
+            break;
+          }
+          if ((dead >>> xp) & 1) continue;
+          if (++steps > WINDOW) {
+            // The gates passed here are diagonal on this qubit (controls), phase gates among them.
+            this.noteSecond("the second cancel-inverses reaches its window");
+            return false;
+          }
+          if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
+        }
+        if (stop || cur <= hid) break;
+        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
+        if (prev < 0) break;
+        const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+        const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
+        if (pl === -1) {
+          this.unavailable();
+          return false;
+        }
+        loc = pl;
+        cur = prev;
+        slot = ps;
+        k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
+      }
+    }
+    return true;
+  }
+
+  // ---- final instances: second cancel-inverses (detection), merge-phases, tally ----------
+
+  private settle(id: number): void {
+    const x = id & this.ringMask;
+    const t = this.rT[x]!;
+    const dead = this.rDead[x]!;
+    const slots = SLOTS[t]!;
+    this.done = id + 1;
+    if (this.optimize && this.flagSecond === null) {
+      // Stage 2 (the second cancel-inverses, detecting only). A walk from this instance is the
+      // one of stage 1 unless a gate it passes went after that: then it is repeated.
+      const later = dead ^ this.rMask1[x]!;
+      const again = this.rRecheck[x]!;
+      if (again !== 0 || later !== 0) {
+        const exits = exitingGates(t, dead);
+        for (let m = exits; m !== 0; m &= m - 1) {
+          const p = 31 - Math.clz32(m & -m);
+          if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
+          const e = GATE_START[t]! + p;
+          const kind = G_KIND[e]!;
+          if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+          if (this.findPartner(id, x, p) >= 0) {
+            this.noteSecond("the second cancel-inverses would cancel more");
+            break;
+          }
+        }
+      }
+    }
+    if (!this.levels) {
+      const base = GATE_START[t]!;
+      const n = gatesOf(t);
+      for (let p = 0; p < n; p++) {
+        if ((dead >>> p) & 1) continue;
+        const k = G_KIND[base + p]!;
+        if (k === KIND_T || k === KIND_TDG) this.tCount++;
+        else if (k === KIND_CX || k === KIND_CZ) this.cnotCount++;
+        else if (k === KIND_CCX) this.toffoliCount++;
+        else if (k === KIND_MEASURE) this.measurements++;
+        if (G_PHASE[base + p]! >= 0) this.phaseGates++;
+      }
+      return;
+    }
+    const w0 = this.rW[x * 3]!;
+    const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
+    const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
+    const tr = transferOf(t, dead, slots > 0 ? this.pend[w0]! : 0, w1 >= 0 ? this.pend[w1]! : 0, w2 >= 0 ? this.pend[w2]! : 0, this.optimize);
+    this.tCount += tr.tCount;
+    this.cnotCount += tr.cnotCount;
+    this.toffoliCount += tr.toffoliCount;
+    this.measurements += tr.measurements;
+    this.phaseGates += tr.phaseGates;
+    if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
+    if (slots === 0) return;
+    const lv = this.level;
+    const tv = this.tLevel;
+    const l0 = lv[w0]!;
+    const l1 = w1 >= 0 ? lv[w1]! : 0;
+    const l2 = w2 >= 0 ? lv[w2]! : 0;
+    const t0 = tv[w0]!;
+    const t1 = w1 >= 0 ? tv[w1]! : 0;
+    const t2 = w2 >= 0 ? tv[w2]! : 0;
+    const lb = this.bitL;
+    const tb = this.bitTL;
+    if (tr.bit !== null) {
+      this.bitL = maxPlus(tr.bit, 0, l0, l1, l2, lb);
+      this.bitTL = maxPlus(tr.bitT!, 0, t0, t1, t2, tb);
+    }
+    const d = tr.d;
+    const dt = tr.dt;
+    lv[w0] = maxPlus(d, 0, l0, l1, l2, lb);
+    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
+    this.pend[w0] = tr.pendOut[0]!;
+    if (w1 >= 0) {
+      lv[w1] = maxPlus(d, 4, l0, l1, l2, lb);
+      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
+      this.pend[w1] = tr.pendOut[1]!;
+    }
+    if (w2 >= 0) {
+      lv[w2] = maxPlus(d, 8, l0, l1, l2, lb);
+      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
+      this.pend[w2] = tr.pendOut[2]!;
+    }
+  }
+}
+
+/** max over inputs j of in_j + o[k + j] (NONE: no path from that input). */
+function maxPlus(o: Int32Array, k: number, a: number, b: number, c: number, bit: number): number {
+  let r = -Infinity;
+  const da = o[k]!;
+  const db = o[k + 1]!;
+  const dc = o[k + 2]!;
+  const dd = o[k + 3]!;
+  if (da !== NONE) r = a + da;
+  if (db !== NONE && b + db > r) r = b + db;
+  if (dc !== NONE && c + dc > r) r = c + dc;
+  if (dd !== NONE && bit + dd > r) r = bit + dd;
+  return r;
+}

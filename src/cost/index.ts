@@ -1,0 +1,493 @@
+/**
+ * The cost model: what an oracle, a diffusion or a whole search costs in qubits, Toffolis,
+ * T-count, T-depth, CNOTs and depth, always those of the circuits clausegate emits (Clifford+T
+ * lowering for qubits, T, CNOTs and depth; toffoli lowering for Toffolis), after work-qubit reuse
+ * and the optimizer passes.
+ *
+ * Figures come from counting, not from building: the counting engine (engine.ts) replays the
+ * lowering, the work-qubit reuse and the passes over a stream of gate templates, with memory for
+ * one level per qubit and a bounded window of recent templates. A property test holds its figures
+ * equal to those of the built circuits. Where the engine meets a case its replay does not cover,
+ * it says so: the figures are then built exactly when the circuit is small, else reported as
+ * upper bounds (`exact: false`).
+ */
+import type { Cnf } from "../cnf/cnf.js";
+import type { Circuit } from "../ir/circuit.js";
+import { countCircuit } from "../emit/resources.js";
+import type { Basis, Uncompute } from "../passes/lower.js";
+import { simplify, synthesize, type AnyStrategy, type OracleKind, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
+import { builtCounts } from "./built.js";
+import { CountingEngine, type EngineResult } from "./engine.js";
+import { LoweringStream, VirtualIds } from "./lowering.js";
+import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction } from "./sources.js";
+
+/** Options of the cost functions. */
+export interface CostOptions {
+  /**
+   * Called now and then with the fraction of the work done (0 to 1), for a progress display.
+   * Calls are at most every 1/200 of the work.
+   */
+  readonly onProgress?: (fraction: number) => void;
+}
+
+/** One row of the cost table. */
+export interface CostRow {
+  /** `wide`, `lean`, or the `textbook` reference. */
+  readonly strategy: AnyStrategy;
+  /** How temporary ANDs are uncomputed. */
+  readonly uncompute: Uncompute;
+  /** Qubits of the Clifford+T circuit. */
+  readonly qubits: number;
+  /** Toffolis of the toffoli-basis circuit. */
+  readonly toffoli_count: number;
+  /** T gates of the Clifford+T circuit. */
+  readonly t_count: number;
+  /** T-depth of the Clifford+T circuit. */
+  readonly t_depth: number;
+  /** CX plus CZ gates of the Clifford+T circuit. */
+  readonly cnot_count: number;
+  /** Depth of the Clifford+T circuit. */
+  readonly depth: number;
+  /**
+   * True: every figure is that of the emitted circuits. False: the figures are upper bounds (the
+   * counting could not follow one optimizer step, and the circuit was too large to build).
+   */
+  readonly exact: boolean;
+}
+
+/** Costs of one part of a search (Clifford+T counts; Toffolis from the toffoli basis). */
+export interface PartCost {
+  /** Qubits of the Clifford+T circuit. */
+  readonly qubits: number;
+  /** T gates. */
+  readonly t_count: number;
+  /** T-depth. */
+  readonly t_depth: number;
+  /** CX plus CZ gates. */
+  readonly cnot_count: number;
+  /** Depth. */
+  readonly depth: number;
+  /** Toffolis in the toffoli basis. */
+  readonly toffoli_count: number;
+  /** True: the figures are those of the emitted circuits; false: upper bounds (see {@link CostRow.exact}). */
+  readonly exact: boolean;
+}
+
+/** Costs of a whole search with one strategy and uncomputation. */
+export interface SearchCost {
+  /** The oracle's strategy. */
+  readonly strategy: Strategy;
+  /** How temporary ANDs are uncomputed. */
+  readonly uncompute: Uncompute;
+  /** Grover iterations per run. */
+  readonly iterations: number;
+  /** One oracle. */
+  readonly oracle: PartCost;
+  /** One diffusion. */
+  readonly diffusion: PartCost;
+  /** The whole circuit of one run (K iterations and the measurements). */
+  readonly circuit: PartCost;
+  /** Runs expected until success (1 / P). */
+  readonly expected_runs: number;
+  /** T gates over the expected number of runs. */
+  readonly expected_t_count: number;
+  /** Toffolis over the expected number of runs. */
+  readonly expected_toffoli_count: number;
+  /** Circuit depth over the expected number of runs (run one after another). */
+  readonly expected_depth: number;
+}
+
+/** What simplification removed, in the resource report (snake_case like every report key). */
+export interface SimplificationReport {
+  /** Literals that stood twice in one clause. */
+  readonly duplicate_literals: number;
+  /** Clauses holding a literal and its negation. */
+  readonly tautologies: number;
+  /** Clauses equal to an earlier one. */
+  readonly repeated: number;
+  /** Clauses containing another, shorter clause. */
+  readonly subsumed: number;
+  /** False when the subsumption check stopped at its work budget. */
+  readonly subsumption_complete: boolean;
+  /** Clauses left for synthesis. */
+  readonly clauses_kept: number;
+  /** Literals left for synthesis (L in the cost formulas). */
+  readonly literals_kept: number;
+}
+
+/** The resource report of an oracle (stable keys, for `--report`). */
+export interface ResourceReport {
+  /** Declared variables. */
+  readonly variables: number;
+  /** Clauses in the input. */
+  readonly clauses: number;
+  /** The oracle's kind. */
+  readonly kind: OracleKind;
+  /** Its strategy. */
+  readonly strategy: Strategy;
+  /** The basis it was emitted in. */
+  readonly basis: Basis;
+  /** How its temporary ANDs are uncomputed. */
+  readonly uncompute: Uncompute;
+  /** Qubits by register, and in all. */
+  readonly qubits: {
+    /** The search register vars. */
+    readonly search: number;
+    /** Work qubits. */
+    readonly work: number;
+    /** 1 for a flag oracle, else 0. */
+    readonly target: number;
+    /** All qubits. */
+    readonly total: number;
+  };
+  /** Gates of the emitted circuit by OpenQASM 3 name. */
+  readonly gates: Record<string, number>;
+  /** Toffolis in the toffoli-basis lowering (with the chosen uncomputation). */
+  readonly toffoli_count: number;
+  /** T gates of the Clifford+T lowering (with the chosen uncomputation). */
+  readonly t_count: number;
+  /** T-depth of the Clifford+T lowering (ASAP). */
+  readonly t_depth: number;
+  /** CX plus CZ gates of the Clifford+T lowering. */
+  readonly cnot_count: number;
+  /** Depth of the emitted circuit. */
+  readonly depth: number;
+  /** Measurements in the emitted circuit. */
+  readonly measurements: number;
+  /** What simplification removed before synthesis. */
+  readonly simplification: SimplificationReport;
+}
+
+/** What {@link oracleResources} needs of a compiled oracle (compileOracle's result has it). */
+export interface CompiledOracle {
+  /** The emitted circuit. */
+  readonly circuit: Circuit;
+  /** The options it was compiled with. */
+  readonly options: {
+    /** Phase or flag oracle. */
+    readonly kind: OracleKind;
+    /** The synthesis strategy. */
+    readonly strategy: Strategy;
+    /** The emitted gate basis. */
+    readonly basis: Basis;
+    /** How temporary ANDs are uncomputed. */
+    readonly uncompute: Uncompute;
+    /** Whether the optimizer passes ran. */
+    readonly optimize: boolean;
+  };
+  /** Declared variables. */
+  readonly variables: number;
+  /** Clauses in the input. */
+  readonly clauses: number;
+  /** What simplification removed, with the clauses and literals kept. */
+  readonly simplification: SimplifyReport & {
+    /** Clauses left for synthesis. */
+    readonly clausesKept: number;
+    /** Literals left for synthesis. */
+    readonly literalsKept: number;
+  };
+}
+
+/** Built instead of counted when the engine cannot be exact and the circuit has at most this many template instances. */
+const BUILD_LIMIT = 400_000;
+
+/** One construction to count. */
+interface Spec {
+  readonly f: SimplifiedCnf;
+  readonly kind: OracleKind;
+  readonly strategy: AnyStrategy;
+  readonly basis: "toffoli" | "clifford+t";
+  readonly uncompute: Uncompute;
+  readonly optimize: boolean;
+  /** Depth and T-depth wanted (Clifford+T runs); Toffoli runs need counts only. */
+  readonly levels: boolean;
+}
+
+/** Synthesized logical circuits kept for the runs that share them (wide and textbook oracles). */
+class Logicals {
+  private readonly kept = new Map<string, { c: Circuit; last: Int32Array }>();
+  constructor(private readonly f: SimplifiedCnf) {}
+  get(kind: OracleKind, strategy: AnyStrategy): { c: Circuit; last: Int32Array } {
+    const key = `${kind} ${strategy}`;
+    let v = this.kept.get(key);
+    if (v === undefined) {
+      const c = synthesize(this.f, kind, strategy);
+      v = { c, last: lastUses(c) };
+      this.kept.set(key, v);
+    }
+    return v;
+  }
+}
+
+/**
+ * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
+ * or a cancellation across a long stretch), runs it again keeping more, up to a limit. The
+ * figures of a run that still falls short say so (exact false, upperBound false).
+ */
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number }): EngineResult {
+  let { lag, history } = sizing;
+  for (let attempt = 0; ; attempt++) {
+    const engine = new CountingEngine({ base, optimize, levels, lag, history });
+    const ids = new VirtualIds(base);
+    const low = new LoweringStream(engine, ids, mode);
+    emit(low, ids);
+    low.finish();
+    const r = engine.finish();
+    if (!r.historyShort && !r.lagShort) return r;
+    // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
+    // nothing can fall short.
+    if (attempt === 0) {
+      if (r.historyShort) history = Math.max(1, Math.min(16 * history, Math.floor(HISTORY_BYTES / 40 / r.qubits)));
+      if (r.lagShort) lag *= 16;
+    } else lag = Infinity;
+  }
+}
+
+const DEFAULT_LAG = 1 << 16;
+const MAX_LAG = 1 << 22;
+/** Memory for the copies kept per wire on a second run. */
+const HISTORY_BYTES = 256 << 20;
+
+/** Counts one oracle construction with the engine. */
+function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
+  const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
+  const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
+  // The lean oracle reuses few wires, some of them seldom (a work qubit of a longer clause):
+  // keeping a few instances per wire costs little there. Wide and textbook oracles have a wire
+  // per clause.
+  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1 };
+  return run(base, s.optimize, s.levels, mode, (low, ids) => {
+    if (s.strategy === "lean") leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
+    else {
+      const { c, last } = logicals.get(s.kind, s.strategy);
+      replayLogical(c, base, low, ids, last, progress);
+    }
+  }, sizing);
+}
+
+/** Counts a circuit given as logical operations (search parts). */
+function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG): EngineResult {
+  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4 });
+}
+
+/** Splits one progress callback over weighted steps. */
+class Progress {
+  private doneWeight = 0;
+  private last = -1;
+  constructor(private readonly total: number, private readonly report?: (fraction: number) => void) {}
+  /** A callback for the next step of weight w; call `finish` after it. */
+  step(w: number): Fraction | undefined {
+    const report = this.report;
+    if (report === undefined) return undefined;
+    const start = this.doneWeight;
+    this.doneWeight += w;
+    return (x) => this.emit((start + Math.min(1, Math.max(0, x)) * w) / this.total);
+  }
+  emit(fraction: number): void {
+    if (this.report === undefined) return;
+    if (fraction < 1 && fraction - this.last < 0.005) return;
+    this.last = fraction;
+    this.report(Math.min(1, fraction));
+  }
+}
+
+/** Relative work of counting one oracle construction (template instances, roughly). */
+function weight(f: SimplifiedCnf, strategy: AnyStrategy, levels: boolean): number {
+  const m = f.clauseStart.length - 1;
+  const L = f.lits.length;
+  const w = Math.ceil(Math.log2(m + 2));
+  const instances = strategy === "lean" ? m * (12 * w + 4) : strategy === "wide" ? 4 * L : 6 * L;
+  return (levels ? 3 : 1) * instances + 1;
+}
+
+function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, tof: EngineResult): CostRow {
+  return {
+    strategy, uncompute, qubits: ct.qubits, toffoli_count: tof.toffoliCount, t_count: ct.tCount, t_depth: ct.tDepth,
+    cnot_count: ct.cnotCount, depth: ct.depth, exact: ct.exact && tof.exact,
+  };
+}
+
+/**
+ * Costs of every strategy and uncomputation for one formula, plus the textbook reference
+ * (one clause bit per clause, V-chains of 7-T Toffolis, unitary uncomputation). Counted, not
+ * built: a million clauses take seconds and a few hundred megabytes.
+ *
+ * @example
+ * ```ts
+ * const rows = costTable(cnfFromClauses(3, [[1, -2], [2, 3]]));
+ * rows.find((r) => r.strategy === "wide" && r.uncompute === "measured")!.t_count;
+ * ```
+ */
+export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOptions = {}): CostRow[] {
+  const f = simplify(cnf);
+  const logicals = new Logicals(f);
+  const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
+  const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
+  const rows = plan.map(([strategy, uncompute]): CostRow => {
+    const spec = { f, kind, strategy, uncompute, optimize: true };
+    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
+    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
+    if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
+    const logical = logicals.get(kind, strategy).c;
+    const bc = builtCounts(logical, "clifford+t", uncompute, true, strategy === "textbook");
+    const bt = builtCounts(logical, "toffoli", uncompute, true, strategy === "textbook");
+    return {
+      strategy, uncompute, qubits: bc.qubits, toffoli_count: bt.toffoliCount, t_count: bc.tCount, t_depth: bc.tDepth,
+      cnot_count: bc.cnotCount, depth: bc.depth, exact: true,
+    };
+  });
+  progress.emit(1);
+  return rows;
+}
+
+/**
+ * Counts one oracle construction in one basis: the figures of the circuit compileOracle emits
+ * with these options (the textbook reference has no compileOracle option; its circuit is the
+ * one the cost table describes).
+ *
+ * @example
+ * ```ts
+ * const c = countConstruction(cnf, { kind: "phase", strategy: "lean", basis: "clifford+t", uncompute: "measured" });
+ * c.tCount;
+ * ```
+ */
+export function countConstruction(
+  cnf: Cnf,
+  o: { readonly kind: OracleKind; readonly strategy: AnyStrategy; readonly basis: "toffoli" | "clifford+t"; readonly uncompute: Uncompute; readonly optimize?: boolean },
+  options: CostOptions = {},
+): EngineResult {
+  const f = simplify(cnf);
+  const progress = new Progress(1, options.onProgress);
+  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true }, new Logicals(f), progress.step(1));
+  progress.emit(1);
+  return r;
+}
+
+function snake(s: CompiledOracle["simplification"]): SimplificationReport {
+  return {
+    duplicate_literals: s.duplicateLiterals,
+    tautologies: s.tautologies,
+    repeated: s.repeated,
+    subsumed: s.subsumed,
+    subsumption_complete: s.subsumptionComplete,
+    clauses_kept: s.clausesKept,
+    literals_kept: s.literalsKept,
+  };
+}
+
+/**
+ * The resource report of a compiled oracle. The emitted circuit gives the gates, depth and
+ * measurements; the Toffoli count of the toffoli lowering and the T and CNOT figures of the
+ * Clifford+T lowering are counted (built when the counting cannot be exact). Pass the formula
+ * the oracle was compiled from.
+ *
+ * @example
+ * ```ts
+ * const oracle = compileOracle(cnf, { strategy: "lean" });
+ * oracleResources(cnf, oracle).t_count;
+ * ```
+ */
+export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostOptions = {}): ResourceReport {
+  const o = oracle.options;
+  const emitted = countCircuit(oracle.circuit);
+  const f = simplify(cnf);
+  const logicals = new Logicals(f);
+  const progress = new Progress(2, options.onProgress);
+  const counted = (basis: "toffoli" | "clifford+t"): { toffoliCount: number; tCount: number; tDepth: number; cnotCount: number } => {
+    const step = progress.step(1);
+    if (o.basis === basis) return emitted;
+    const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
+    if (r.exact) return r;
+    return builtCounts(logicals.get(o.kind, o.strategy).c, basis, o.uncompute, o.optimize);
+  };
+  const cliffordT = counted("clifford+t");
+  const toffoli = counted("toffoli");
+  progress.emit(1);
+  const reg = (role: string): number => oracle.circuit.registers.find((r) => r.role === role)?.size ?? 0;
+  return {
+    variables: oracle.variables,
+    clauses: oracle.clauses,
+    kind: o.kind,
+    strategy: o.strategy,
+    basis: o.basis,
+    uncompute: o.uncompute,
+    qubits: { search: reg("search"), work: reg("work"), target: reg("target"), total: oracle.circuit.qubits },
+    gates: emitted.gates,
+    toffoli_count: toffoli.toffoliCount,
+    t_count: cliffordT.tCount,
+    t_depth: cliffordT.tDepth,
+    cnot_count: cliffordT.cnotCount,
+    depth: emitted.depth,
+    measurements: emitted.measurements,
+    simplification: snake(oracle.simplification),
+  };
+}
+
+/** The part figures from a Clifford+T count and a toffoli count. */
+function part(ct: EngineResult, tof: EngineResult): PartCost {
+  return { qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount, exact: ct.exact && tof.exact };
+}
+
+function builtPart(logical: Circuit, uncompute: Uncompute): PartCost {
+  const ct = builtCounts(logical, "clifford+t", uncompute, true);
+  const tof = builtCounts(logical, "toffoli", uncompute, true);
+  return { qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount, exact: true };
+}
+
+/**
+ * What a whole search costs, per strategy: one phase oracle, one diffusion, and the circuit of
+ * one run (H on all, `iterations` times oracle and diffusion, the measurements), each counted
+ * (a run is streamed, never built), and the totals over the expected 1 / P runs.
+ *
+ * @example
+ * ```ts
+ * const plan = planSearch(cnf.variables, 1);
+ * searchCosts(cnf, plan.iterations, plan.successProbability, "measured")[0]!.circuit.t_count;
+ * ```
+ */
+export function searchCosts(cnf: Cnf, iterations: number, successProbability: number, uncompute: Uncompute, options: CostOptions = {}): SearchCost[] {
+  const f = simplify(cnf);
+  const n = cnf.variables;
+  const runs = successProbability > 0 ? 1 / successProbability : Infinity;
+  const logicals = new Logicals(f);
+  const strategies = ["wide", "lean"] as const;
+  const oracleWeight = (s: Strategy): number => weight(f, s, true) + weight(f, s, false);
+  const total = strategies.reduce((sum, s) => sum + (2 + iterations) * oracleWeight(s), 0);
+  const progress = new Progress(total, options.onProgress);
+  const costs = strategies.map((strategy): SearchCost => {
+    const ops = phaseOracleOps(f, strategy, () => logicals.get("phase", strategy).c);
+    const both = (emit: (low: LoweringStream, ids: VirtualIds, p?: Fraction) => void, w: number, lag?: number): [EngineResult, EngineResult] => {
+      const p1 = progress.step(w / 2);
+      const p2 = progress.step(w / 2);
+      return [
+        countOps(n, "clifford+t", uncompute, true, (low, ids) => emit(low, ids, p1), lag),
+        countOps(n, "toffoli", uncompute, false, (low, ids) => emit(low, ids, p2), lag),
+      ];
+    };
+    const [oct, otof] = both((low, ids, p) => ops(low, ids, p), oracleWeight(strategy));
+    const [dct, dtof] = both((low) => diffusionOps(n, low), 1);
+    // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
+    // templates, so that the cancellations at those seams stay inside the window.
+    const lag = Math.min(MAX_LAG, 2 ** Math.ceil(Math.log2(2 * (oct.instances + dct.instances) + DEFAULT_LAG)));
+    const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight(strategy), lag);
+    let oracle = part(oct, otof);
+    let diffusion = part(dct, dtof);
+    let whole = part(wct, wtof);
+    if (!oracle.exact && oct.instances <= BUILD_LIMIT) oracle = builtPart(synthesize(f, "phase", strategy), uncompute);
+    const recorded = (emit: (sink: LogicalRecorder, ids: VirtualIds) => void): Circuit => {
+      const rec = new LogicalRecorder(n, n, 0);
+      emit(rec, new VirtualIds(n));
+      return rec.finish();
+    };
+    if (!diffusion.exact && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
+    if (!whole.exact && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
+    return {
+      strategy, uncompute, iterations, oracle, diffusion, circuit: whole, expected_runs: runs,
+      expected_t_count: whole.t_count * runs, expected_toffoli_count: whole.toffoli_count * runs, expected_depth: whole.depth * runs,
+    };
+  });
+  progress.emit(1);
+  return costs;
+}
+
+export type { EngineResult } from "./engine.js";

@@ -1,0 +1,417 @@
+/**
+ * The lowering of `passes/lower.ts`, replayed one logical operation at a time and handed on as
+ * template instances (see templates.ts) instead of gates: the same 2-input AND trees, the same
+ * lazily placed X gates for control polarity, the same record-driven uncomputation, in the same
+ * order. Nothing is stored but the state the lowering itself keeps (pending X flips, how each
+ * live AND was lowered). A test replays every template back into gates and requires the very
+ * circuit `lower` builds.
+ *
+ * Qubits are virtual ids: the search register and target keep their numbers; work qubits get ids
+ * from a pool that are given back when their span ends, and the engine assigns wires to them as
+ * work-qubit reuse does.
+ */
+import {
+  T_AND, T_CCX, T_CX, T_CZ, T_ERASE_HEAD, T_ERASE_TAIL, T_GPHASE, T_MEASURE, T_TOF7, T_UNAND, T_X, T_Z,
+} from "./templates.js";
+
+/** Receives template instances. `dies`: a bit per slot whose qubit is never used again. */
+export interface InstanceSink {
+  put(template: number, a: number, b: number, c: number, dies: number): void;
+}
+
+/**
+ * The logical operations of synthesis, as a stream. Controls are encoded `(qubit << 1) |
+ * negated`; targets are plain qubit ids. `dies` says the qubit is never used again (its span ends).
+ */
+export interface LogicalSink {
+  /** A temporary AND of the controls into the fresh qubit t. */
+  and(ctrls: ArrayLike<number>, t: number): void;
+  /** The AND of two controls into t (no list). */
+  andPair(a: number, b: number, t: number): void;
+  /**
+   * Uncomputes the AND into t. `controlsDie` (a 2-input AND only): bit 0, its first control, bit
+   * 1, its second, are never used again either.
+   */
+  unand(t: number, dies: boolean, controlsDie?: number): void;
+  /** A multi-controlled X onto t. */
+  mcx(ctrls: ArrayLike<number>, t: number, dies: boolean): void;
+  /** A singly controlled X onto t (no list). */
+  mcx1(ctrl: number, t: number, dies: boolean): void;
+  /** A multi-controlled Z. */
+  mcz(qs: ArrayLike<number>): void;
+  /** An X (template T_X) or H (T_H) on q. */
+  single(template: number, q: number, dies: boolean): void;
+  /** A measurement of q into the next bit. */
+  measure(q: number): void;
+  /** A global phase of -1. */
+  gphase(): void;
+}
+
+/** Virtual qubit ids above the fixed registers, recycled when a span ends. */
+export class VirtualIds {
+  private free: number[] = [];
+  /** Ids handed out so far (the high-water mark). */
+  next: number;
+
+  constructor(readonly base: number) {
+    this.next = base;
+  }
+
+  take(): number {
+    return this.free.length > 0 ? this.free.pop()! : this.next++;
+  }
+
+  give(id: number): void {
+    this.free.push(id);
+  }
+}
+
+/** Which circuit the lowering produces. */
+export interface LoweringMode {
+  /** `toffoli` or `clifford+t`. */
+  readonly basis: "toffoli" | "clifford+t";
+  /** `unitary` or `measured` uncomputation. */
+  readonly uncompute: "unitary" | "measured";
+  /** ANDs as full Toffolis, always uncomputed unitarily (the textbook reference). */
+  readonly toffoliAnds: boolean;
+}
+
+const pos = (q: number): number => q << 1;
+
+export class LoweringStream implements LogicalSink {
+  private flipped = new Uint8Array(1024);
+  private recordAt = new Int32Array(1024).fill(-1);
+  /** Records as in lower.ts: count, copied control, then count triples (a, b, w); used as a stack. */
+  private records = new Int32Array(1024);
+  private top = 0;
+  private readonly cliffordT: boolean;
+  private readonly measured: boolean;
+  private readonly toffoliAnds: boolean;
+  private seen = new Int32Array(1024);
+  private seenOp = new Int32Array(1024);
+  private stamp = 0;
+  private readonly pair = new Int32Array(2);
+
+  constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode) {
+    this.cliffordT = mode.basis === "clifford+t";
+    this.measured = mode.uncompute === "measured";
+    this.toffoliAnds = mode.toffoliAnds;
+  }
+
+  private room(q: number): void {
+    if (q < this.flipped.length) return;
+    const n = Math.max(q + 1, this.flipped.length * 2);
+    const f = new Uint8Array(n);
+    f.set(this.flipped);
+    this.flipped = f;
+    const r = new Int32Array(n).fill(-1);
+    r.set(this.recordAt);
+    this.recordAt = r;
+    const s = new Int32Array(n);
+    s.set(this.seen);
+    this.seen = s;
+    const o = new Int32Array(n);
+    o.set(this.seenOp);
+    this.seenOp = o;
+  }
+
+  // ---- logical operations ------------------------------------------------------------------
+
+  /** A temporary AND of encoded controls into the fresh qubit t. */
+  and(ctrls: ArrayLike<number>, t: number): void {
+    this.room(t);
+    const n = ctrls.length;
+    if (n === 2 || n === 3) {
+      // lower.ts's smallAnd: two or three controls on distinct qubits, no lists.
+      const a = ctrls[0]!;
+      const b = ctrls[1]!;
+      const d = n === 3 ? ctrls[2]! : -1;
+      if (a >>> 1 !== b >>> 1 && (n === 2 || (a >>> 1 !== d >>> 1 && b >>> 1 !== d >>> 1))) {
+        if (n === 2) {
+          this.and2(a, b, t);
+          this.rememberOne(t, a, b, t, -1, -1, -1);
+        } else {
+          const w = this.ids.take();
+          this.room(w);
+          this.and2(a, b, w);
+          this.and2(pos(w), d, t);
+          this.rememberOne(t, a, b, w, pos(w), d, t);
+        }
+        return;
+      }
+    }
+    const c = this.normalize(ctrls);
+    if (c === null) {
+      this.remember(t, -1, []);
+      return;
+    }
+    if (c.length === 1) {
+      this.copy(c[0]!, t, false);
+      this.remember(t, c[0]!, []);
+      return;
+    }
+    const record: number[] = [];
+    const [a, b] = this.tree(c, 2, record);
+    this.and2(a!, b!, t);
+    record.push(a!, b!, t);
+    this.remember(t, -1, record);
+  }
+
+  andPair(a: number, b: number, t: number): void {
+    this.pair[0] = a;
+    this.pair[1] = b;
+    this.and(this.pair, t);
+  }
+
+  mcx1(ctrl: number, t: number, dies: boolean): void {
+    // mcx with one control: plain target, then a CX from the control made plain.
+    this.room(t);
+    this.plain(t);
+    const qa = this.control(ctrl);
+    this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
+  }
+
+  /** Uncomputes the AND into t; `dies`: t is never used again. */
+  unand(t: number, dies: boolean, controlsDie = 0): void {
+    const at = this.recordAt[t]!;
+    if (at < 0) throw new Error(`counting: uncompute of work qubit ${t} without its AND`);
+    this.recordAt[t] = -1;
+    const r = this.records;
+    const count = r[at]!;
+    const copied = r[at + 1]!;
+    if (count > 0) {
+      for (let i = count - 1; i >= 0; i--) {
+        const w = r[at + 4 + 3 * i]!;
+        this.unand2(r[at + 2 + 3 * i]!, r[at + 3 + 3 * i]!, w, (w === t ? (dies ? 4 : 0) | controlsDie : 4));
+        if (w !== t) this.ids.give(w);
+      }
+    } else if (copied >= 0) this.copy(copied, t, dies);
+    if (at + 2 + 3 * count === this.top) this.top = at;
+  }
+
+  /** A multi-controlled X (encoded controls) onto t; `dies`: t is never used again. */
+  mcx(ctrls: ArrayLike<number>, t: number, dies: boolean): void {
+    this.room(t);
+    const c = this.normalize(ctrls);
+    if (c === null) return;
+    this.plain(t);
+    if (c.length === 0) {
+      this.out.put(T_X, t, -1, -1, dies ? 1 : 0);
+      return;
+    }
+    if (c.length === 1) {
+      const qa = this.control(c[0]!);
+      this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
+      return;
+    }
+    const record: number[] = [];
+    if (this.cliffordT && this.measured && !this.toffoliAnds) {
+      const [a] = this.tree(c, 1, record);
+      const qa = this.control(a!);
+      this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
+    } else {
+      const [a, b] = this.tree(c, 2, record);
+      const qa = this.control(a!);
+      const qb = this.control(b!);
+      this.ccx(qa, qb, t, dies ? 4 : 0);
+    }
+    this.undoTree(record);
+  }
+
+  /** A multi-controlled Z over encoded qubits. */
+  mcz(qs: ArrayLike<number>): void {
+    const c = this.normalize(qs);
+    if (c === null) return;
+    if (c.length === 0) {
+      this.out.put(T_GPHASE, -1, -1, -1, 0);
+      return;
+    }
+    const record: number[] = [];
+    const [a, b] = this.tree(c, 2, record);
+    if (b === undefined) this.out.put(T_Z, this.control(a!), -1, -1, 0);
+    else {
+      const qa = this.control(a!);
+      const qb = this.control(b);
+      this.out.put(T_CZ, qa, qb, -1, 0);
+    }
+    this.undoTree(record);
+  }
+
+  /** A plain one-qubit gate (template T_X or T_H) on q, after undoing a pending flip of q. */
+  single(template: number, q: number, dies: boolean): void {
+    this.room(q);
+    this.plain(q);
+    this.out.put(template, q, -1, -1, dies ? 1 : 0);
+  }
+
+  /** A measurement of q (into a fresh bit). */
+  measure(q: number): void {
+    this.room(q);
+    this.plain(q);
+    this.out.put(T_MEASURE, q, -1, -1, 0);
+  }
+
+  /** A global phase. */
+  gphase(): void {
+    this.out.put(T_GPHASE, -1, -1, -1, 0);
+  }
+
+  /** The end of the circuit: every qubit still flipped is restored (lower.ts does it in qubit order). */
+  finish(): void {
+    for (let q = 0; q < this.flipped.length; q++) if (this.flipped[q]) this.plain(q);
+  }
+
+  // ---- as in lower.ts --------------------------------------------------------------------
+
+  /** remember() for one or two triples without a list (the second when d >= 0). */
+  private rememberOne(t: number, a: number, b: number, c: number, d: number, e: number, f: number): void {
+    const two = d >= 0 ? 1 : 0;
+    const need = this.top + 5 + 3 * two;
+    if (need > this.records.length) {
+      const r = new Int32Array(Math.max(need, this.records.length * 2));
+      r.set(this.records.subarray(0, this.top));
+      this.records = r;
+    }
+    const r = this.records;
+    const at = this.top;
+    this.recordAt[t] = at;
+    r[at] = 1 + two;
+    r[at + 1] = -1;
+    r[at + 2] = a;
+    r[at + 3] = b;
+    r[at + 4] = c;
+    if (two) {
+      r[at + 5] = d;
+      r[at + 6] = e;
+      r[at + 7] = f;
+    }
+    this.top = need;
+  }
+
+  private remember(t: number, copied: number, triples: readonly number[]): void {
+    const need = this.top + 2 + triples.length;
+    if (need > this.records.length) {
+      const r = new Int32Array(Math.max(need, this.records.length * 2));
+      r.set(this.records.subarray(0, this.top));
+      this.records = r;
+    }
+    this.recordAt[t] = this.top;
+    const r = this.records;
+    r[this.top] = triples.length / 3;
+    r[this.top + 1] = copied;
+    for (let i = 0; i < triples.length; i++) r[this.top + 2 + i] = triples[i]!;
+    this.top = need;
+  }
+
+  private control(op: number): number {
+    const q = op >>> 1;
+    const want = op & 1;
+    this.room(q);
+    if (this.flipped[q] !== want) {
+      this.out.put(T_X, q, -1, -1, 0);
+      this.flipped[q] = want;
+    }
+    return q;
+  }
+
+  private plain(q: number): void {
+    if (this.flipped[q]) {
+      this.out.put(T_X, q, -1, -1, 0);
+      this.flipped[q] = 0;
+    }
+  }
+
+  private copy(ctrl: number, t: number, dies: boolean): void {
+    this.plain(t);
+    const qc = this.control(ctrl & ~1);
+    const neg = (ctrl & 1) === 1;
+    this.out.put(T_CX, qc, t, -1, dies && !neg ? 2 : 0);
+    if (neg) this.out.put(T_X, t, -1, -1, dies ? 1 : 0);
+  }
+
+  private and2(a: number, b: number, t: number): void {
+    const qa = this.control(a);
+    const qb = this.control(b);
+    this.plain(t);
+    if (!this.cliffordT || this.toffoliAnds) this.ccx(qa, qb, t, 0);
+    else this.out.put(T_AND, qa, qb, t, 0);
+  }
+
+  /** `dies`: bits of a, b, t never used again (slots 0, 1, 2 of every uncompute template). */
+  private unand2(a: number, b: number, t: number, dies: number): void {
+    if (this.measured && !this.toffoliAnds) {
+      this.plain(t);
+      this.out.put(T_ERASE_HEAD, t, -1, -1, 0);
+      const qa = this.control(a);
+      const qb = this.control(b);
+      this.out.put(T_ERASE_TAIL, qa, qb, t, dies);
+      return;
+    }
+    const qa = this.control(a);
+    const qb = this.control(b);
+    this.plain(t);
+    if (!this.cliffordT || this.toffoliAnds) this.ccx(qa, qb, t, dies);
+    else this.out.put(T_UNAND, qa, qb, t, dies);
+  }
+
+  private ccx(a: number, b: number, t: number, dies: number): void {
+    this.out.put(this.cliffordT ? T_TOF7 : T_CCX, a, b, t, dies);
+  }
+
+  /** Reduces encoded controls to r of them by 2-input ANDs into fresh qubits (lower.ts's tree). */
+  private tree(items: number[], r: number, record: number[]): number[] {
+    if (items.length === r + 1) {
+      const w = this.ids.take();
+      this.room(w);
+      this.and2(items[0]!, items[1]!, w);
+      record.push(items[0]!, items[1]!, w);
+      return r === 1 ? [pos(w)] : [pos(w), items[2]!];
+    }
+    while (items.length > r) {
+      const next: number[] = [];
+      let excess = items.length - r;
+      for (let i = 0; i < items.length; ) {
+        if (excess > 0 && i + 1 < items.length) {
+          const w = this.ids.take();
+          this.room(w);
+          this.and2(items[i]!, items[i + 1]!, w);
+          record.push(items[i]!, items[i + 1]!, w);
+          next.push(pos(w));
+          excess--;
+          i += 2;
+        } else next.push(items[i++]!);
+      }
+      items = next;
+    }
+    return items;
+  }
+
+  private undoTree(record: readonly number[]): void {
+    for (let i = record.length - 3; i >= 0; i -= 3) {
+      this.unand2(record[i]!, record[i + 1]!, record[i + 2]!, 4);
+      this.ids.give(record[i + 2]!);
+    }
+  }
+
+  /**
+   * lower.ts's normalizeControls: a repeated control is dropped; a qubit wanted both on |0> and
+   * on |1> means the gate never fires (null). Order of first occurrence is kept.
+   */
+  private normalize(ops: ArrayLike<number>): number[] | null {
+    const s = ++this.stamp;
+    const out: number[] = [];
+    for (let i = 0; i < ops.length; i++) {
+      const op = ops[i]!;
+      const q = op >>> 1;
+      this.room(q);
+      if (this.seen[q] === s) {
+        if (this.seenOp[q] !== op) return null;
+        continue;
+      }
+      this.seen[q] = s;
+      this.seenOp[q] = op;
+      out.push(op);
+    }
+    return out;
+  }
+}
