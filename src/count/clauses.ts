@@ -5,10 +5,10 @@
  * `countModels` (src/count/) puts structure recovery in front of this and falls back to it when
  * recovery does not shrink the enumeration.
  */
+import { countInWorkers } from "./workers.js";
 import { availableParallelism } from "node:os";
-import { Worker } from "node:worker_threads";
 import type { Cnf } from "../cnf/cnf.js";
-import { blockCount, countBlocks, planCount, type CountPlan } from "./clauseKernel.js";
+import { blockCount, countBlocks, planCount } from "./clauseKernel.js";
 import { countBySplitting } from "./clauseSplit.js";
 
 /** Options of {@link countModels}. */
@@ -106,35 +106,11 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
       options.onProgress?.(Math.min(blocks, b + step) / blocks);
     }
   } else {
-    found = await countInWorkers(plan, blocks, threads, options.onProgress);
+    found = await countInWorkers(new URL("./clauseWorker.js", import.meta.url), plan, blocks, threads, options.onProgress);
   }
   return { ok: true, models: BigInt(found) << BigInt(plan.free), enumerated: plan.used };
 }
 
-function countInWorkers(plan: CountPlan, blocks: number, threads: number, onProgress?: (f: number) => void): Promise<number> {
-  const url = new URL("./clauseWorker.js", import.meta.url);
-  let done = 0;
-  // Interleaved chunks balance the load: pruned blocks cluster, so contiguous halves would not.
-  const chunk = Math.max(1, Math.floor(blocks / (64 * threads)));
-  const jobs = Array.from({ length: threads }, (_, k) => {
-    const job = { plan, first: k * chunk, chunk, stride: threads * chunk, blocks };
-    return new Promise<number>((resolve, reject) => {
-      const w = new Worker(url, { workerData: job });
-      w.on("message", (msg: { done?: number; total?: number }) => {
-        if (msg.done !== undefined) {
-          done += msg.done;
-          onProgress?.(done / blocks);
-        }
-        if (msg.total !== undefined) resolve(msg.total);
-      });
-      w.on("error", reject);
-      w.on("exit", (code) => {
-        if (code !== 0) reject(new Error(`counting worker exited with code ${code}`));
-      });
-    });
-  });
-  return Promise.all(jobs).then((parts) => parts.reduce((a, b) => a + b, 0));
-}
 
 /** "12 seconds", "3 minutes", ...: a duration for messages. */
 export function humanTime(seconds: number): string {

@@ -5,8 +5,8 @@
  * unit clauses) is solved by Gaussian elimination instead (linear.ts). When recovery does not
  * shrink the enumeration, the clause-level counter (clauses.ts) counts as before.
  */
+import { countInWorkers } from "./workers.js";
 import { availableParallelism } from "node:os";
-import { Worker } from "node:worker_threads";
 import type { Cnf } from "../cnf/cnf.js";
 import {
   countModels as countByClauses,
@@ -19,7 +19,7 @@ import {
   type CountResult,
 } from "./clauses.js";
 import { recoverStructure } from "../structure/index.js";
-import { countStructuredBlocks, newStructuredScratch, structuredBlocks, type StructuredPlan } from "./kernel.js";
+import { countStructuredBlocks, newStructuredScratch, structuredBlocks } from "./kernel.js";
 import { countLinear, isLinear } from "./linear.js";
 import { planStructuredCount } from "./plan.js";
 
@@ -90,7 +90,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
       options.onProgress?.(Math.min(blocks, b + step) / blocks);
     }
   } else {
-    found = await countInWorkers(plan, blocks, threads, options.onProgress);
+    found = await countInWorkers(new URL("./worker.js", import.meta.url), plan, blocks, threads, options.onProgress);
   }
   return { ok: true, models: BigInt(found) << BigInt(doubling), enumerated: F };
 }
@@ -107,26 +107,3 @@ function structureWins(F: number, cost: number, used: number, literals: number, 
   return F <= STRUCTURED_BEFORE_SPLITTING;
 }
 
-function countInWorkers(plan: StructuredPlan, blocks: number, threads: number, onProgress?: (f: number) => void): Promise<number> {
-  const url = new URL("./worker.js", import.meta.url);
-  let done = 0;
-  const chunk = Math.max(1, Math.floor(blocks / (64 * threads)));
-  const jobs = Array.from({ length: threads }, (_, k) => {
-    const job = { plan, first: k * chunk, chunk, stride: threads * chunk, blocks };
-    return new Promise<number>((resolve, reject) => {
-      const w = new Worker(url, { workerData: job });
-      w.on("message", (msg: { done?: number; total?: number }) => {
-        if (msg.done !== undefined) {
-          done += msg.done;
-          onProgress?.(done / blocks);
-        }
-        if (msg.total !== undefined) resolve(msg.total);
-      });
-      w.on("error", reject);
-      w.on("exit", (code) => {
-        if (code !== 0) reject(new Error(`counting worker exited with code ${code}`));
-      });
-    });
-  });
-  return Promise.all(jobs).then((parts) => parts.reduce((a, b) => a + b, 0));
-}
