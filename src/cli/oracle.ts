@@ -1,7 +1,7 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
 import { parseArgs } from "node:util";
 import { compileOracle, costTable, oracleResources, type Cnf, type Oracle } from "../internal.js";
-import { checkCircuitSize, displayName, loadCnf, writeAtomic } from "./io.js";
+import { checkCircuitSize, displayName, loadCnf, progress, writeAtomic } from "./io.js";
 import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
 import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
@@ -17,7 +17,8 @@ Options:
   --format qasm3|qasm2|json   output format (default qasm3)
 ${ORACLE_HELP}
   --report FILE               also write the resource report (JSON)
-  --verify                    verify the oracle first (as clausegate verify); write only if it passes
+  --verify                    verify the oracle first (as clausegate verify); write only if it passes; takes
+                              verify's --exhaustive-limit, --samples, --models, --conflict-limit and --seed
   -h, --help                  show this help
 `;
 
@@ -85,7 +86,9 @@ export async function oracleCommand(argv: string[]): Promise<number> {
     const r = await runVerification(cnf, oracle.circuit, flags, options.kind);
     process.stderr.write(`${reportLines(r, file).join("\n")}\n`);
     if (!r.verified) {
-      process.stderr.write("clausegate oracle: error: the oracle failed verification; nothing was written (please report this with the input)\n");
+      process.stderr.write(r.counterexample
+        ? "clausegate oracle: error: the oracle failed verification; nothing was written; hint: please report this with the input\n"
+        : "clausegate oracle: error: the verification was inconclusive; nothing was written; hint: raise --conflict-limit or --exhaustive-limit, or write without --verify\n");
       return 1;
     }
   }
@@ -117,7 +120,13 @@ export async function costCommand(argv: string[]): Promise<number> {
   const kind = choice(values.kind, "--kind", ["phase", "flag"], "phase");
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "cost");
-  const rows = costTable(cnf, kind);
+  const bar = progress("costing");
+  let rows;
+  try {
+    rows = costTable(cnf, kind, { onProgress: bar.update });
+  } finally {
+    bar.stop();
+  }
   if (values.json) {
     process.stdout.write(`${JSON.stringify({ variables: cnf.variables, clauses: cnf.clauseStart.length - 1, kind, rows }, null, 2)}\n`);
     return 0;
