@@ -47,6 +47,8 @@ export interface EngineOptions {
   readonly lag?: number;
   /** Copies kept per wire of instances that left the window (default 1). */
   readonly history?: number;
+  /** Wires expected (search, target and work), to size the per-wire tables once. */
+  readonly wires?: number;
 }
 
 /** Figures of one circuit. */
@@ -132,8 +134,14 @@ export class CountingEngine implements InstanceSink {
   private done = 0;
 
   // Wires.
-  private lastInst: Int32Array;
-  private lastSlot: Int8Array;
+  /**
+   * Per wire, interleaved so that one wire's data share a cache line (a wide oracle has millions
+   * of wires, visited in no order): wI[w * 4 + 0] its last instance (-1: none), + 1 that
+   * instance's slot on it, + 2 instances on it so far (see evict), + 3 its pending phase run
+   * (merge-phases); wL[w * 2] its level, + 1 its T-level.
+   */
+  private wI: Int32Array;
+  private wL: Float64Array;
   /**
    * Copies of instances that left the ring, per wire: entry w * depth + i, newest first. A walk
    * along a wire seldom used may need the last few instances on it long after they left.
@@ -145,11 +153,7 @@ export class CountingEngine implements InstanceSink {
   private sDead: Int32Array;
   private sPrev: Int32Array;
   private sPrevSlot: Int8Array;
-  private level: Float64Array;
-  private tLevel: Float64Array;
-  private pend: Uint8Array;
-  /** Instances linked on each wire so far. */
-  private wireSeq = new Int32Array(0);
+
   private wireCap = 0;
 
   // Virtual ids -> wires.
@@ -190,8 +194,8 @@ export class CountingEngine implements InstanceSink {
     this.rSeq = new Int32Array(0);
     this.rRecheck = new Int32Array(0);
     this.growRing(this.maxLag === Infinity ? 4096 : 0);
-    this.lastInst = new Int32Array(0);
-    this.lastSlot = new Int8Array(0);
+    this.wI = new Int32Array(0);
+    this.wL = new Float64Array(0);
     this.depth = opts.history ?? 1;
     this.sId = new Int32Array(0);
     this.sT = new Uint8Array(0);
@@ -199,10 +203,7 @@ export class CountingEngine implements InstanceSink {
     this.sDead = new Int32Array(0);
     this.sPrev = new Int32Array(0);
     this.sPrevSlot = new Int8Array(0);
-    this.level = new Float64Array(0);
-    this.tLevel = new Float64Array(0);
-    this.pend = new Uint8Array(0);
-    this.growWires(Math.max(64, this.base + 64));
+    this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
   }
 
   /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
@@ -242,16 +243,15 @@ export class CountingEngine implements InstanceSink {
 
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
-    const cap = Math.max(n, this.wireCap * 2);
-    const i32 = (a: Int32Array, fill: number): Int32Array => {
-      const b = new Int32Array(cap).fill(fill);
-      b.set(a);
-      return b;
-    };
-    this.lastInst = i32(this.lastInst, -1);
-    const ls = new Int8Array(cap);
-    ls.set(this.lastSlot);
-    this.lastSlot = ls;
+    // Growing by half: these tables are the engine's largest (a wide oracle has a wire per literal).
+    const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
+    const wi = new Int32Array(cap * 4);
+    wi.set(this.wI);
+    for (let w = this.wireCap; w < cap; w++) wi[w * 4] = -1;
+    this.wI = wi;
+    const wl = new Float64Array(cap * 2);
+    wl.set(this.wL);
+    this.wL = wl;
     const d = this.depth;
     const sid = new Int32Array(cap * d).fill(-1);
     sid.set(this.sId);
@@ -271,25 +271,13 @@ export class CountingEngine implements InstanceSink {
     const sps = new Int8Array(cap * d);
     sps.set(this.sPrevSlot);
     this.sPrevSlot = sps;
-    const l = new Float64Array(cap);
-    l.set(this.level);
-    this.level = l;
-    const tl = new Float64Array(cap);
-    tl.set(this.tLevel);
-    this.tLevel = tl;
-    const p = new Uint8Array(cap);
-    p.set(this.pend);
-    this.pend = p;
-    const sq = new Int32Array(cap);
-    sq.set(this.wireSeq);
-    this.wireSeq = sq;
     this.wireCap = cap;
   }
 
   private wireFor(v: number): number {
     if (v < this.base) return v;
     if (v >= this.wireOf.length) {
-      const w = new Int32Array(Math.max(v + 1, this.wireOf.length * 2)).fill(-1);
+      const w = new Int32Array(Math.max(v + 1, Math.ceil(this.wireOf.length * 1.5))).fill(-1);
       w.set(this.wireOf);
       this.wireOf = w;
     }
@@ -333,14 +321,14 @@ export class CountingEngine implements InstanceSink {
     const slots = SLOTS[t]!;
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
-      const p = this.lastInst[w]!;
+      const p = this.wI[(w) * 4]!;
       this.rPrev[x * 3 + s] = p;
-      this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
+      this.rPrevSlot[x * 3 + s] = this.wI[(w) * 4 + 1]!;
       this.rNext[x * 3 + s] = -1;
-      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.lastSlot[w]!] = id;
-      this.lastInst[w] = id;
-      this.lastSlot[w] = s;
-      this.rSeq[x * 3 + s] = ++this.wireSeq[w]!;
+      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.wI[(w) * 4 + 1]!] = id;
+      this.wI[(w) * 4] = id;
+      this.wI[(w) * 4 + 1] = s;
+      this.rSeq[x * 3 + s] = ++this.wI[(w) * 4 + 2]!;
     }
     if (this.optimize) this.cancel(id, x);
     this.rMask1[x] = this.rDead[x]!;
@@ -367,14 +355,14 @@ export class CountingEngine implements InstanceSink {
     for (let w = 0; w < wires; w++) {
       if (this.levels && this.optimize) {
         // merge-phases' last flush, in qubit order.
-        const run = finalRun(this.pend[w]!);
-        this.level[w]! += run.gates;
-        this.tLevel[w]! += run.tGates;
+        const run = finalRun(this.wI[(w) * 4 + 3]!);
+        this.wL[(w) * 2]! += run.gates;
+        this.wL[(w) * 2 + 1]! += run.tGates;
         this.tCount += run.tGates;
-        this.pend[w] = 0;
+        this.wI[(w) * 4 + 3] = 0;
       }
-      depth = Math.max(depth, this.level[w]!);
-      tDepth = Math.max(tDepth, this.tLevel[w]!);
+      depth = Math.max(depth, this.wL[(w) * 2]!);
+      tDepth = Math.max(tDepth, this.wL[(w) * 2 + 1]!);
     }
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
@@ -418,7 +406,7 @@ export class CountingEngine implements InstanceSink {
       const next = this.rNext[x * 3 + s]!;
       // Kept when fewer than `depth` instances came after it on w, or the next one on w is not
       // through stage 2 yet (whose walks start here).
-      const keep = this.wireSeq[w]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
+      const keep = this.wI[(w) * 4 + 2]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
       if (!keep) continue;
       // Newest first: shift the older copies of this wire down.
       const b = w * d;
@@ -703,7 +691,7 @@ export class CountingEngine implements InstanceSink {
     const w0 = this.rW[x * 3]!;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
     const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
-    const tr = transferOf(t, dead, slots > 0 ? this.pend[w0]! : 0, w1 >= 0 ? this.pend[w1]! : 0, w2 >= 0 ? this.pend[w2]! : 0, this.optimize);
+    const tr = transferOf(t, dead, slots > 0 ? this.wI[(w0) * 4 + 3]! : 0, w1 >= 0 ? this.wI[(w1) * 4 + 3]! : 0, w2 >= 0 ? this.wI[(w2) * 4 + 3]! : 0, this.optimize);
     this.tCount += tr.tCount;
     this.cnotCount += tr.cnotCount;
     this.toffoliCount += tr.toffoliCount;
@@ -711,14 +699,13 @@ export class CountingEngine implements InstanceSink {
     this.phaseGates += tr.phaseGates;
     if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
     if (slots === 0) return;
-    const lv = this.level;
-    const tv = this.tLevel;
-    const l0 = lv[w0]!;
-    const l1 = w1 >= 0 ? lv[w1]! : 0;
-    const l2 = w2 >= 0 ? lv[w2]! : 0;
-    const t0 = tv[w0]!;
-    const t1 = w1 >= 0 ? tv[w1]! : 0;
-    const t2 = w2 >= 0 ? tv[w2]! : 0;
+    const wl = this.wL;
+    const l0 = wl[w0 * 2]!;
+    const l1 = w1 >= 0 ? wl[w1 * 2]! : 0;
+    const l2 = w2 >= 0 ? wl[w2 * 2]! : 0;
+    const t0 = wl[w0 * 2 + 1]!;
+    const t1 = w1 >= 0 ? wl[w1 * 2 + 1]! : 0;
+    const t2 = w2 >= 0 ? wl[w2 * 2 + 1]! : 0;
     const lb = this.bitL;
     const tb = this.bitTL;
     if (tr.bit !== null) {
@@ -727,18 +714,18 @@ export class CountingEngine implements InstanceSink {
     }
     const d = tr.d;
     const dt = tr.dt;
-    lv[w0] = maxPlus(d, 0, l0, l1, l2, lb);
-    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
-    this.pend[w0] = tr.pendOut[0]!;
+    wl[w0 * 2] = maxPlus(d, 0, l0, l1, l2, lb);
+    wl[w0 * 2 + 1] = maxPlus(dt, 0, t0, t1, t2, tb);
+    this.wI[(w0) * 4 + 3] = tr.pendOut[0]!;
     if (w1 >= 0) {
-      lv[w1] = maxPlus(d, 4, l0, l1, l2, lb);
-      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
-      this.pend[w1] = tr.pendOut[1]!;
+      wl[w1 * 2] = maxPlus(d, 4, l0, l1, l2, lb);
+      wl[w1 * 2 + 1] = maxPlus(dt, 4, t0, t1, t2, tb);
+      this.wI[(w1) * 4 + 3] = tr.pendOut[1]!;
     }
     if (w2 >= 0) {
-      lv[w2] = maxPlus(d, 8, l0, l1, l2, lb);
-      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
-      this.pend[w2] = tr.pendOut[2]!;
+      wl[w2 * 2] = maxPlus(d, 8, l0, l1, l2, lb);
+      wl[w2 * 2 + 1] = maxPlus(dt, 8, t0, t1, t2, tb);
+      this.wI[(w2) * 4 + 3] = tr.pendOut[2]!;
     }
   }
 }

@@ -207,6 +207,10 @@ class Logicals {
     }
     return v;
   }
+  /** Lets go of the circuits no longer needed (a million clauses' wide oracle is some 50 MB). */
+  keepOnly(strategy: AnyStrategy): void {
+    for (const key of [...this.kept.keys()]) if (!key.endsWith(` ${strategy}`)) this.kept.delete(key);
+  }
 }
 
 /**
@@ -214,16 +218,18 @@ class Logicals {
  * or a cancellation across a long stretch), runs it again keeping more, up to a limit. The
  * figures of a run that still falls short say so (exact false, upperBound false).
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number }): EngineResult {
   let { lag, history } = sizing;
+  let wires = sizing.wires;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires });
     const ids = new VirtualIds(base);
     const low = new LoweringStream(engine, ids, mode);
     emit(low, ids);
     low.finish();
     const r = engine.finish();
     if (!r.historyShort && !r.lagShort) return r;
+    wires = r.qubits;
     // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
     // nothing can fall short.
     if (attempt === 0) {
@@ -245,7 +251,10 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // The lean oracle reuses few wires, some of them seldom (a work qubit of a longer clause):
   // keeping a few instances per wire costs little there. Wide and textbook oracles have a wire
   // per clause.
-  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1 };
+  // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
+  // mark's tree); the lean oracle reuses a few.
+  const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
+  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires };
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
     if (s.strategy === "lean") leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
     else {
@@ -257,7 +266,7 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
 
 /** Counts a circuit given as logical operations (search parts). */
 function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG): EngineResult {
-  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4 });
+  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4, wires: base + 64 });
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -314,6 +323,7 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
   const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
+    logicals.keepOnly(strategy);
     const spec = { f, kind, strategy, uncompute, optimize: true };
     const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
     const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
