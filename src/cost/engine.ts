@@ -49,6 +49,12 @@ export interface EngineOptions {
   readonly history?: number;
   /** Wires expected (search, target and work), to size the per-wire tables once. */
   readonly wires?: number;
+  /**
+   * Replay the second cancel-inverses (stage 2; default true). The pipeline runs it only when
+   * merge-phases met two phase gates or more: a run without it that meets fewer is exact, one
+   * that meets more says so (secondNeeded) and must be run again with it.
+   */
+  readonly second?: boolean;
 }
 
 /** Figures of one circuit. */
@@ -83,6 +89,8 @@ export interface EngineResult {
   readonly historyShort: boolean;
   /** A cancellation reached an instance already counted: a run with a longer `lag` can be exact. */
   readonly lagShort: boolean;
+  /** Run without stage 2, the circuit turned out to have two phase gates or more (see EngineOptions.second). */
+  readonly secondNeeded: boolean;
 }
 
 const KIND_CX = K.cx;
@@ -108,6 +116,7 @@ export class CountingEngine implements InstanceSink {
   private readonly base: number;
   private readonly optimize: boolean;
   private readonly levels: boolean;
+  private readonly second: boolean;
   /** Instances replayed before one is final; grows with the stream up to maxLag. */
   private lag = 64;
   private readonly maxLag: number;
@@ -180,6 +189,7 @@ export class CountingEngine implements InstanceSink {
     this.base = opts.base;
     this.optimize = opts.optimize;
     this.levels = opts.levels;
+    this.second = opts.second ?? true;
     this.maxLag = opts.lag ?? 65536;
     this.lag = this.maxLag === Infinity ? Infinity : Math.min(1024, this.maxLag);
     this.ringSize = 0;
@@ -367,6 +377,8 @@ export class CountingEngine implements InstanceSink {
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
     if (this.phaseGates >= 2 && this.flagSecond !== null && this.flagBound === null) this.flagBound = this.flagSecond;
+    const secondNeeded = this.optimize && !this.second && this.phaseGates >= 2;
+    if (secondNeeded) this.flagHard ??= "the second cancel-inverses was not replayed";
     const exact = this.flagHard === null && this.flagBound === null;
     return {
       qubits: wires,
@@ -382,6 +394,7 @@ export class CountingEngine implements InstanceSink {
       reason: this.flagHard ?? this.flagBound,
       historyShort: this.historyShort,
       lagShort: this.lagShort,
+      secondNeeded,
     };
   }
 
@@ -654,7 +667,7 @@ export class CountingEngine implements InstanceSink {
     const dead = this.rDead[x]!;
     const slots = SLOTS[t]!;
     this.done = id + 1;
-    if (this.optimize && this.flagSecond === null) {
+    if (this.optimize && this.second && this.flagSecond === null) {
       // Stage 2 (the second cancel-inverses, detecting only). A walk from this instance is the
       // one of stage 1 unless a gate it passes went after that: then it is repeated.
       const later = dead ^ this.rMask1[x]!;

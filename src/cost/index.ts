@@ -221,13 +221,21 @@ class Logicals {
 function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
+  // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
+  // without the second cancel-inverses, which the pipeline then skips.
+  let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second });
     const ids = new VirtualIds(base);
     const low = new LoweringStream(engine, ids, mode);
     emit(low, ids);
     low.finish();
     const r = engine.finish();
+    if (r.secondNeeded) {
+      second = true;
+      attempt--;
+      continue;
+    }
     if (!r.historyShort && !r.lagShort) return r;
     wires = r.qubits;
     // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
