@@ -164,10 +164,15 @@ export interface CompiledOracle {
   readonly circuit: Circuit;
   /** The options it was compiled with. */
   readonly options: {
+    /** Phase or flag oracle. */
     readonly kind: OracleKind;
+    /** Wide or lean. */
     readonly strategy: Strategy;
+    /** The basis it was emitted in. */
     readonly basis: Basis;
+    /** How temporary ANDs are uncomputed. */
     readonly uncompute: Uncompute;
+    /** Whether the optimizer passes ran. */
     readonly optimize: boolean;
   };
   /** Declared variables. */
@@ -175,7 +180,12 @@ export interface CompiledOracle {
   /** Clauses in the input. */
   readonly clauses: number;
   /** What simplification removed, with the clauses and literals kept. */
-  readonly simplification: SimplifyReport & { readonly clausesKept: number; readonly literalsKept: number };
+  readonly simplification: SimplifyReport & {
+    /** Clauses left for synthesis. */
+    readonly clausesKept: number;
+    /** Literals left for synthesis. */
+    readonly literalsKept: number;
+  };
 }
 
 /** Built instead of counted when the engine cannot be exact and the circuit has at most this many template instances. */
