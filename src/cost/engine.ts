@@ -9,20 +9,23 @@
  *    target's gates (at most WINDOW live ones), the same inverse, commutation and clear-between
  *    tests, over instances instead of gates. Only the gates whose walk can leave their own
  *    instance are walked (templates.ts's exitingGates); the others stop inside it, unchanged.
- * 3. The second cancel-inverses of the pipeline runs on merge-phases' output. It is replayed on
- *    the first one's output (in detection mode: any pair it would find makes the result a bound)
- *    after each instance is final; merge-phases only moves a phase gate later past gates that are
- *    diagonal on its qubit, and merges a run of them into at most two, which changes no walk of
- *    cancel-inverses unless a run of phase gates alone vanishes (also detected) or a walk hits
- *    the window (detected).
- * 4. merge-phases (passes/mergePhases.ts), replayed exactly per qubit, then the ASAP tally of
- *    emit/resources.ts (depth, T-depth, counts) with one level per wire.
+ * 3. merge-phases (passes/mergePhases.ts), replayed exactly per qubit (transfer.ts), then the
+ *    ASAP tally of emit/resources.ts (depth, T-depth, counts) with one level per wire.
+ * 4. The second cancel-inverses runs on merge-phases' output; it is replayed on the first one's
+ *    output after each instance is final, detecting only. That is the same pass as far as it can
+ *    act: merge-phases only moves a phase gate later past gates diagonal on its qubit (never past
+ *    a gate it blocks: those are not diagonal there) and merges a run into at most two gates, so
+ *    a walk sees the same gates stop it, unless a run of phase gates alone vanishes or a walk
+ *    diagonal on its qubit reaches the window (both detected). When it might act, the figures
+ *    are upper bounds: it only removes gates, and removing a gate grows no count and no ASAP level.
  * drop-identities only merges global phases here (no multi-controlled gates are left), and
  * fold-x-polarity finds no polarity in the toffoli and clifford+t bases: neither changes a figure.
  *
- * An instance is final once LAG later instances have been replayed; a cancellation reaching an
- * instance already counted, or a walk needing an instance no longer kept, makes the result
- * inexact (reported, never silent). Then figures are not exact: see {@link EngineResult.exact}.
+ * Memory: a ring of recent instances, copies of the last few instances of each wire that left it,
+ * and a few numbers per wire. An instance is final (counted) once `lag` later instances were
+ * replayed. A cancellation reaching an instance already counted, or a walk needing an instance no
+ * longer kept, makes the run fall short (lagShort, historyShort): cost/index.ts then runs it again
+ * keeping more, at last everything, so that a shortfall never reaches a result.
  */
 import { K, INVERSE_KIND } from "../ir/kinds.js";
 import {

@@ -69,8 +69,6 @@ export interface PartCost {
   readonly depth: number;
   /** Toffolis in the toffoli basis. */
   readonly toffoli_count: number;
-  /** True: the figures are those of the emitted circuits; false: upper bounds (see {@link CostRow.exact}). */
-  readonly exact: boolean;
 }
 
 /** Costs of a whole search with one strategy and uncomputation. */
@@ -95,6 +93,8 @@ export interface SearchCost {
   readonly expected_toffoli_count: number;
   /** Circuit depth over the expected number of runs (run one after another). */
   readonly expected_depth: number;
+  /** True: every figure is that of the emitted circuits; false: upper bounds (see {@link CostRow.exact}). */
+  readonly exact: boolean;
 }
 
 /** What simplification removed, in the resource report (snake_case like every report key). */
@@ -225,8 +225,8 @@ class Logicals {
 
 /**
  * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
- * or a cancellation across a long stretch), runs it again keeping more, up to a limit. The
- * figures of a run that still falls short say so (exact false, upperBound false).
+ * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
+ * where nothing can fall short: a shortfall never reaches a result.
  */
 function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number }): EngineResult {
   let { lag, history } = sizing;
@@ -258,6 +258,7 @@ function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "t
 }
 
 const DEFAULT_LAG = 1 << 16;
+/** The longest window a search run asks for (its work wires come back one iteration later). */
 const MAX_LAG = 1 << 22;
 /** Memory for the copies kept per wire on a second run. */
 const HISTORY_BYTES = 256 << 20;
@@ -266,11 +267,9 @@ const HISTORY_BYTES = 256 << 20;
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
   const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
-  // The lean oracle reuses few wires, some of them seldom (a work qubit of a longer clause):
-  // keeping a few instances per wire costs little there. Wide and textbook oracles have a wire
-  // per clause.
   // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
-  // mark's tree); the lean oracle reuses a few.
+  // mark's tree); the lean oracle reuses a few, some of them seldom (a work qubit of a longer
+  // clause), so keeping a few instances per wire costs little there.
   const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
   const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires };
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
@@ -292,7 +291,7 @@ class Progress {
   private doneWeight = 0;
   private last = -1;
   constructor(private readonly total: number, private readonly report?: (fraction: number) => void) {}
-  /** A callback for the next step of weight w; call `finish` after it. */
+  /** A callback for the next step, of weight w. */
   step(w: number): Fraction | undefined {
     const report = this.report;
     if (report === undefined) return undefined;
@@ -441,15 +440,15 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
   };
 }
 
-/** The part figures from a Clifford+T count and a toffoli count. */
-function part(ct: EngineResult, tof: EngineResult): PartCost {
-  return { qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount, exact: ct.exact && tof.exact };
+/** The part figures from a Clifford+T count and a toffoli count, and whether both are exact. */
+function part(ct: EngineResult, tof: EngineResult): [PartCost, boolean] {
+  return [{ qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount }, ct.exact && tof.exact];
 }
 
-function builtPart(logical: Circuit, uncompute: Uncompute): PartCost {
+function builtPart(logical: Circuit, uncompute: Uncompute): [PartCost, boolean] {
   const ct = builtCounts(logical, "clifford+t", uncompute, true);
   const tof = builtCounts(logical, "toffoli", uncompute, true);
-  return { qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount, exact: true };
+  return [{ qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount }, true];
 }
 
 /**
@@ -491,17 +490,19 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
     let oracle = part(oct, otof);
     let diffusion = part(dct, dtof);
     let whole = part(wct, wtof);
-    if (!oracle.exact && oct.instances <= BUILD_LIMIT) oracle = builtPart(synthesize(f, "phase", strategy), uncompute);
+    if (!oracle[1] && oct.instances <= BUILD_LIMIT) oracle = builtPart(synthesize(f, "phase", strategy), uncompute);
     const recorded = (emit: (sink: LogicalRecorder, ids: VirtualIds) => void): Circuit => {
       const rec = new LogicalRecorder(n, n, 0);
       emit(rec, new VirtualIds(n));
       return rec.finish();
     };
-    if (!diffusion.exact && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
-    if (!whole.exact && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
+    if (!diffusion[1] && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
+    if (!whole[1] && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
+    const c = whole[0];
     return {
-      strategy, uncompute, iterations, oracle, diffusion, circuit: whole, expected_runs: runs,
-      expected_t_count: whole.t_count * runs, expected_toffoli_count: whole.toffoli_count * runs, expected_depth: whole.depth * runs,
+      strategy, uncompute, iterations, oracle: oracle[0], diffusion: diffusion[0], circuit: c, expected_runs: runs,
+      expected_t_count: c.t_count * runs, expected_toffoli_count: c.toffoli_count * runs, expected_depth: c.depth * runs,
+      exact: oracle[1] && diffusion[1] && whole[1],
     };
   });
   progress.emit(1);
