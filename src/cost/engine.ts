@@ -9,20 +9,23 @@
  *    target's gates (at most WINDOW live ones), the same inverse, commutation and clear-between
  *    tests, over instances instead of gates. Only the gates whose walk can leave their own
  *    instance are walked (templates.ts's exitingGates); the others stop inside it, unchanged.
- * 3. The second cancel-inverses of the pipeline runs on merge-phases' output. It is replayed on
- *    the first one's output (in detection mode: any pair it would find makes the result a bound)
- *    after each instance is final; merge-phases only moves a phase gate later past gates that are
- *    diagonal on its qubit, and merges a run of them into at most two, which changes no walk of
- *    cancel-inverses unless a run of phase gates alone vanishes (also detected) or a walk hits
- *    the window (detected).
- * 4. merge-phases (passes/mergePhases.ts), replayed exactly per qubit, then the ASAP tally of
- *    emit/resources.ts (depth, T-depth, counts) with one level per wire.
+ * 3. merge-phases (passes/mergePhases.ts), replayed exactly per qubit (transfer.ts), then the
+ *    ASAP tally of emit/resources.ts (depth, T-depth, counts) with one level per wire.
+ * 4. The second cancel-inverses runs on merge-phases' output; it is replayed on the first one's
+ *    output after each instance is final, detecting only. That is the same pass as far as it can
+ *    act: merge-phases only moves a phase gate later past gates diagonal on its qubit (never past
+ *    a gate it blocks: those are not diagonal there) and merges a run into at most two gates, so
+ *    a walk sees the same gates stop it, unless a run of phase gates alone vanishes or a walk
+ *    diagonal on its qubit reaches the window (both detected). When it might act, the figures
+ *    are upper bounds: it only removes gates, and removing a gate grows no count and no ASAP level.
  * drop-identities only merges global phases here (no multi-controlled gates are left), and
  * fold-x-polarity finds no polarity in the toffoli and clifford+t bases: neither changes a figure.
  *
- * An instance is final once LAG later instances have been replayed; a cancellation reaching an
- * instance already counted, or a walk needing an instance no longer kept, makes the result
- * inexact (reported, never silent). Then figures are not exact: see {@link EngineResult.exact}.
+ * Memory: a ring of recent instances, copies of the last few instances of each wire that left it,
+ * and a few numbers per wire. An instance is final (counted) once `lag` later instances were
+ * replayed. A cancellation reaching an instance already counted, or a walk needing an instance no
+ * longer kept, makes the run fall short (lagShort, historyShort): cost/index.ts then runs it again
+ * keeping more, at last everything, so that a shortfall never reaches a result.
  */
 import { K, INVERSE_KIND } from "../ir/kinds.js";
 import {
@@ -47,6 +50,14 @@ export interface EngineOptions {
   readonly lag?: number;
   /** Copies kept per wire of instances that left the window (default 1). */
   readonly history?: number;
+  /** Wires expected (search, target and work), to size the per-wire tables once. */
+  readonly wires?: number;
+  /**
+   * Replay the second cancel-inverses (stage 2; default true). The pipeline runs it only when
+   * merge-phases met two phase gates or more: a run without it that meets fewer is exact, one
+   * that meets more says so (secondNeeded) and must be run again with it.
+   */
+  readonly second?: boolean;
 }
 
 /** Figures of one circuit. */
@@ -81,6 +92,8 @@ export interface EngineResult {
   readonly historyShort: boolean;
   /** A cancellation reached an instance already counted: a run with a longer `lag` can be exact. */
   readonly lagShort: boolean;
+  /** Run without stage 2, the circuit turned out to have two phase gates or more (see EngineOptions.second). */
+  readonly secondNeeded: boolean;
 }
 
 const KIND_CX = K.cx;
@@ -106,6 +119,7 @@ export class CountingEngine implements InstanceSink {
   private readonly base: number;
   private readonly optimize: boolean;
   private readonly levels: boolean;
+  private readonly second: boolean;
   /** Instances replayed before one is final; grows with the stream up to maxLag. */
   private lag = 64;
   private readonly maxLag: number;
@@ -132,8 +146,14 @@ export class CountingEngine implements InstanceSink {
   private done = 0;
 
   // Wires.
-  private lastInst: Int32Array;
-  private lastSlot: Int8Array;
+  /**
+   * Per wire, interleaved so that one wire's data share a cache line (a wide oracle has millions
+   * of wires, visited in no order): wI[w * 4 + 0] its last instance (-1: none), + 1 that
+   * instance's slot on it, + 2 instances on it so far (see evict), + 3 its pending phase run
+   * (merge-phases); wL[w * 2] its level, + 1 its T-level.
+   */
+  private wI: Int32Array;
+  private wL: Float64Array;
   /**
    * Copies of instances that left the ring, per wire: entry w * depth + i, newest first. A walk
    * along a wire seldom used may need the last few instances on it long after they left.
@@ -145,11 +165,7 @@ export class CountingEngine implements InstanceSink {
   private sDead: Int32Array;
   private sPrev: Int32Array;
   private sPrevSlot: Int8Array;
-  private level: Float64Array;
-  private tLevel: Float64Array;
-  private pend: Uint8Array;
-  /** Instances linked on each wire so far. */
-  private wireSeq = new Int32Array(0);
+
   private wireCap = 0;
 
   // Virtual ids -> wires.
@@ -176,6 +192,7 @@ export class CountingEngine implements InstanceSink {
     this.base = opts.base;
     this.optimize = opts.optimize;
     this.levels = opts.levels;
+    this.second = opts.second ?? true;
     this.maxLag = opts.lag ?? 65536;
     this.lag = this.maxLag === Infinity ? Infinity : Math.min(1024, this.maxLag);
     this.ringSize = 0;
@@ -190,8 +207,8 @@ export class CountingEngine implements InstanceSink {
     this.rSeq = new Int32Array(0);
     this.rRecheck = new Int32Array(0);
     this.growRing(this.maxLag === Infinity ? 4096 : 0);
-    this.lastInst = new Int32Array(0);
-    this.lastSlot = new Int8Array(0);
+    this.wI = new Int32Array(0);
+    this.wL = new Float64Array(0);
     this.depth = opts.history ?? 1;
     this.sId = new Int32Array(0);
     this.sT = new Uint8Array(0);
@@ -199,10 +216,7 @@ export class CountingEngine implements InstanceSink {
     this.sDead = new Int32Array(0);
     this.sPrev = new Int32Array(0);
     this.sPrevSlot = new Int8Array(0);
-    this.level = new Float64Array(0);
-    this.tLevel = new Float64Array(0);
-    this.pend = new Uint8Array(0);
-    this.growWires(Math.max(64, this.base + 64));
+    this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
   }
 
   /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
@@ -242,16 +256,15 @@ export class CountingEngine implements InstanceSink {
 
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
-    const cap = Math.max(n, this.wireCap * 2);
-    const i32 = (a: Int32Array, fill: number): Int32Array => {
-      const b = new Int32Array(cap).fill(fill);
-      b.set(a);
-      return b;
-    };
-    this.lastInst = i32(this.lastInst, -1);
-    const ls = new Int8Array(cap);
-    ls.set(this.lastSlot);
-    this.lastSlot = ls;
+    // Growing by half: these tables are the engine's largest (a wide oracle has a wire per literal).
+    const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
+    const wi = new Int32Array(cap * 4);
+    wi.set(this.wI);
+    for (let w = this.wireCap; w < cap; w++) wi[w * 4] = -1;
+    this.wI = wi;
+    const wl = new Float64Array(cap * 2);
+    wl.set(this.wL);
+    this.wL = wl;
     const d = this.depth;
     const sid = new Int32Array(cap * d).fill(-1);
     sid.set(this.sId);
@@ -271,25 +284,13 @@ export class CountingEngine implements InstanceSink {
     const sps = new Int8Array(cap * d);
     sps.set(this.sPrevSlot);
     this.sPrevSlot = sps;
-    const l = new Float64Array(cap);
-    l.set(this.level);
-    this.level = l;
-    const tl = new Float64Array(cap);
-    tl.set(this.tLevel);
-    this.tLevel = tl;
-    const p = new Uint8Array(cap);
-    p.set(this.pend);
-    this.pend = p;
-    const sq = new Int32Array(cap);
-    sq.set(this.wireSeq);
-    this.wireSeq = sq;
     this.wireCap = cap;
   }
 
   private wireFor(v: number): number {
     if (v < this.base) return v;
     if (v >= this.wireOf.length) {
-      const w = new Int32Array(Math.max(v + 1, this.wireOf.length * 2)).fill(-1);
+      const w = new Int32Array(Math.max(v + 1, Math.ceil(this.wireOf.length * 1.5))).fill(-1);
       w.set(this.wireOf);
       this.wireOf = w;
     }
@@ -333,14 +334,14 @@ export class CountingEngine implements InstanceSink {
     const slots = SLOTS[t]!;
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
-      const p = this.lastInst[w]!;
+      const p = this.wI[(w) * 4]!;
       this.rPrev[x * 3 + s] = p;
-      this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
+      this.rPrevSlot[x * 3 + s] = this.wI[(w) * 4 + 1]!;
       this.rNext[x * 3 + s] = -1;
-      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.lastSlot[w]!] = id;
-      this.lastInst[w] = id;
-      this.lastSlot[w] = s;
-      this.rSeq[x * 3 + s] = ++this.wireSeq[w]!;
+      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.wI[(w) * 4 + 1]!] = id;
+      this.wI[(w) * 4] = id;
+      this.wI[(w) * 4 + 1] = s;
+      this.rSeq[x * 3 + s] = ++this.wI[(w) * 4 + 2]!;
     }
     if (this.optimize) this.cancel(id, x);
     this.rMask1[x] = this.rDead[x]!;
@@ -367,18 +368,20 @@ export class CountingEngine implements InstanceSink {
     for (let w = 0; w < wires; w++) {
       if (this.levels && this.optimize) {
         // merge-phases' last flush, in qubit order.
-        const run = finalRun(this.pend[w]!);
-        this.level[w]! += run.gates;
-        this.tLevel[w]! += run.tGates;
+        const run = finalRun(this.wI[(w) * 4 + 3]!);
+        this.wL[(w) * 2]! += run.gates;
+        this.wL[(w) * 2 + 1]! += run.tGates;
         this.tCount += run.tGates;
-        this.pend[w] = 0;
+        this.wI[(w) * 4 + 3] = 0;
       }
-      depth = Math.max(depth, this.level[w]!);
-      tDepth = Math.max(tDepth, this.tLevel[w]!);
+      depth = Math.max(depth, this.wL[(w) * 2]!);
+      tDepth = Math.max(tDepth, this.wL[(w) * 2 + 1]!);
     }
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
     if (this.phaseGates >= 2 && this.flagSecond !== null && this.flagBound === null) this.flagBound = this.flagSecond;
+    const secondNeeded = this.optimize && !this.second && this.phaseGates >= 2;
+    if (secondNeeded) this.flagHard ??= "the second cancel-inverses was not replayed";
     const exact = this.flagHard === null && this.flagBound === null;
     return {
       qubits: wires,
@@ -394,6 +397,7 @@ export class CountingEngine implements InstanceSink {
       reason: this.flagHard ?? this.flagBound,
       historyShort: this.historyShort,
       lagShort: this.lagShort,
+      secondNeeded,
     };
   }
 
@@ -418,7 +422,7 @@ export class CountingEngine implements InstanceSink {
       const next = this.rNext[x * 3 + s]!;
       // Kept when fewer than `depth` instances came after it on w, or the next one on w is not
       // through stage 2 yet (whose walks start here).
-      const keep = this.wireSeq[w]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
+      const keep = this.wI[(w) * 4 + 2]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
       if (!keep) continue;
       // Newest first: shift the older copies of this wire down.
       const b = w * d;
@@ -666,7 +670,7 @@ export class CountingEngine implements InstanceSink {
     const dead = this.rDead[x]!;
     const slots = SLOTS[t]!;
     this.done = id + 1;
-    if (this.optimize && this.flagSecond === null) {
+    if (this.optimize && this.second && this.flagSecond === null) {
       // Stage 2 (the second cancel-inverses, detecting only). A walk from this instance is the
       // one of stage 1 unless a gate it passes went after that: then it is repeated.
       const later = dead ^ this.rMask1[x]!;
@@ -703,7 +707,7 @@ export class CountingEngine implements InstanceSink {
     const w0 = this.rW[x * 3]!;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
     const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
-    const tr = transferOf(t, dead, slots > 0 ? this.pend[w0]! : 0, w1 >= 0 ? this.pend[w1]! : 0, w2 >= 0 ? this.pend[w2]! : 0, this.optimize);
+    const tr = transferOf(t, dead, slots > 0 ? this.wI[(w0) * 4 + 3]! : 0, w1 >= 0 ? this.wI[(w1) * 4 + 3]! : 0, w2 >= 0 ? this.wI[(w2) * 4 + 3]! : 0, this.optimize);
     this.tCount += tr.tCount;
     this.cnotCount += tr.cnotCount;
     this.toffoliCount += tr.toffoliCount;
@@ -711,14 +715,13 @@ export class CountingEngine implements InstanceSink {
     this.phaseGates += tr.phaseGates;
     if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
     if (slots === 0) return;
-    const lv = this.level;
-    const tv = this.tLevel;
-    const l0 = lv[w0]!;
-    const l1 = w1 >= 0 ? lv[w1]! : 0;
-    const l2 = w2 >= 0 ? lv[w2]! : 0;
-    const t0 = tv[w0]!;
-    const t1 = w1 >= 0 ? tv[w1]! : 0;
-    const t2 = w2 >= 0 ? tv[w2]! : 0;
+    const wl = this.wL;
+    const l0 = wl[w0 * 2]!;
+    const l1 = w1 >= 0 ? wl[w1 * 2]! : 0;
+    const l2 = w2 >= 0 ? wl[w2 * 2]! : 0;
+    const t0 = wl[w0 * 2 + 1]!;
+    const t1 = w1 >= 0 ? wl[w1 * 2 + 1]! : 0;
+    const t2 = w2 >= 0 ? wl[w2 * 2 + 1]! : 0;
     const lb = this.bitL;
     const tb = this.bitTL;
     if (tr.bit !== null) {
@@ -727,18 +730,18 @@ export class CountingEngine implements InstanceSink {
     }
     const d = tr.d;
     const dt = tr.dt;
-    lv[w0] = maxPlus(d, 0, l0, l1, l2, lb);
-    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
-    this.pend[w0] = tr.pendOut[0]!;
+    wl[w0 * 2] = maxPlus(d, 0, l0, l1, l2, lb);
+    wl[w0 * 2 + 1] = maxPlus(dt, 0, t0, t1, t2, tb);
+    this.wI[(w0) * 4 + 3] = tr.pendOut[0]!;
     if (w1 >= 0) {
-      lv[w1] = maxPlus(d, 4, l0, l1, l2, lb);
-      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
-      this.pend[w1] = tr.pendOut[1]!;
+      wl[w1 * 2] = maxPlus(d, 4, l0, l1, l2, lb);
+      wl[w1 * 2 + 1] = maxPlus(dt, 4, t0, t1, t2, tb);
+      this.wI[(w1) * 4 + 3] = tr.pendOut[1]!;
     }
     if (w2 >= 0) {
-      lv[w2] = maxPlus(d, 8, l0, l1, l2, lb);
-      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
-      this.pend[w2] = tr.pendOut[2]!;
+      wl[w2 * 2] = maxPlus(d, 8, l0, l1, l2, lb);
+      wl[w2 * 2 + 1] = maxPlus(dt, 8, t0, t1, t2, tb);
+      this.wI[(w2) * 4 + 3] = tr.pendOut[2]!;
     }
   }
 }

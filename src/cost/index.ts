@@ -69,8 +69,6 @@ export interface PartCost {
   readonly depth: number;
   /** Toffolis in the toffoli basis. */
   readonly toffoli_count: number;
-  /** True: the figures are those of the emitted circuits; false: upper bounds (see {@link CostRow.exact}). */
-  readonly exact: boolean;
 }
 
 /** Costs of a whole search with one strategy and uncomputation. */
@@ -95,6 +93,8 @@ export interface SearchCost {
   readonly expected_toffoli_count: number;
   /** Circuit depth over the expected number of runs (run one after another). */
   readonly expected_depth: number;
+  /** True: every figure is that of the emitted circuits; false: upper bounds (see {@link CostRow.exact}). */
+  readonly exact: boolean;
 }
 
 /** What simplification removed, in the resource report (snake_case like every report key). */
@@ -166,9 +166,9 @@ export interface CompiledOracle {
   readonly options: {
     /** Phase or flag oracle. */
     readonly kind: OracleKind;
-    /** The synthesis strategy. */
+    /** Wide or lean. */
     readonly strategy: Strategy;
-    /** The emitted gate basis. */
+    /** The basis it was emitted in. */
     readonly basis: Basis;
     /** How temporary ANDs are uncomputed. */
     readonly uncompute: Uncompute;
@@ -217,23 +217,37 @@ class Logicals {
     }
     return v;
   }
+  /** Lets go of the circuits no longer needed (a million clauses' wide oracle is some 50 MB). */
+  keepOnly(strategy: AnyStrategy): void {
+    for (const key of [...this.kept.keys()]) if (!key.endsWith(` ${strategy}`)) this.kept.delete(key);
+  }
 }
 
 /**
  * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
- * or a cancellation across a long stretch), runs it again keeping more, up to a limit. The
- * figures of a run that still falls short say so (exact false, upperBound false).
+ * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
+ * where nothing can fall short: a shortfall never reaches a result.
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number }): EngineResult {
   let { lag, history } = sizing;
+  let wires = sizing.wires;
+  // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
+  // without the second cancel-inverses, which the pipeline then skips.
+  let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second });
     const ids = new VirtualIds(base);
     const low = new LoweringStream(engine, ids, mode);
     emit(low, ids);
     low.finish();
     const r = engine.finish();
+    if (r.secondNeeded) {
+      second = true;
+      attempt--;
+      continue;
+    }
     if (!r.historyShort && !r.lagShort) return r;
+    wires = r.qubits;
     // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
     // nothing can fall short.
     if (attempt === 0) {
@@ -244,6 +258,7 @@ function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "t
 }
 
 const DEFAULT_LAG = 1 << 16;
+/** The longest window a search run asks for (its work wires come back one iteration later). */
 const MAX_LAG = 1 << 22;
 /** Memory for the copies kept per wire on a second run. */
 const HISTORY_BYTES = 256 << 20;
@@ -252,10 +267,11 @@ const HISTORY_BYTES = 256 << 20;
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
   const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
-  // The lean oracle reuses few wires, some of them seldom (a work qubit of a longer clause):
-  // keeping a few instances per wire costs little there. Wide and textbook oracles have a wire
-  // per clause.
-  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1 };
+  // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
+  // mark's tree); the lean oracle reuses a few, some of them seldom (a work qubit of a longer
+  // clause), so keeping a few instances per wire costs little there.
+  const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
+  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires };
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
     if (s.strategy === "lean") leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
     else {
@@ -267,7 +283,7 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
 
 /** Counts a circuit given as logical operations (search parts). */
 function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG): EngineResult {
-  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4 });
+  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4, wires: base + 64 });
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -275,7 +291,7 @@ class Progress {
   private doneWeight = 0;
   private last = -1;
   constructor(private readonly total: number, private readonly report?: (fraction: number) => void) {}
-  /** A callback for the next step of weight w; call `finish` after it. */
+  /** A callback for the next step, of weight w. */
   step(w: number): Fraction | undefined {
     const report = this.report;
     if (report === undefined) return undefined;
@@ -324,6 +340,7 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
   const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
+    logicals.keepOnly(strategy);
     const spec = { f, kind, strategy, uncompute, optimize: true };
     const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
     const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
@@ -423,15 +440,15 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
   };
 }
 
-/** The part figures from a Clifford+T count and a toffoli count. */
-function part(ct: EngineResult, tof: EngineResult): PartCost {
-  return { qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount, exact: ct.exact && tof.exact };
+/** The part figures from a Clifford+T count and a toffoli count, and whether both are exact. */
+function part(ct: EngineResult, tof: EngineResult): [PartCost, boolean] {
+  return [{ qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount }, ct.exact && tof.exact];
 }
 
-function builtPart(logical: Circuit, uncompute: Uncompute): PartCost {
+function builtPart(logical: Circuit, uncompute: Uncompute): [PartCost, boolean] {
   const ct = builtCounts(logical, "clifford+t", uncompute, true);
   const tof = builtCounts(logical, "toffoli", uncompute, true);
-  return { qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount, exact: true };
+  return [{ qubits: ct.qubits, t_count: ct.tCount, t_depth: ct.tDepth, cnot_count: ct.cnotCount, depth: ct.depth, toffoli_count: tof.toffoliCount }, true];
 }
 
 /**
@@ -473,17 +490,19 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
     let oracle = part(oct, otof);
     let diffusion = part(dct, dtof);
     let whole = part(wct, wtof);
-    if (!oracle.exact && oct.instances <= BUILD_LIMIT) oracle = builtPart(synthesize(f, "phase", strategy), uncompute);
+    if (!oracle[1] && oct.instances <= BUILD_LIMIT) oracle = builtPart(synthesize(f, "phase", strategy), uncompute);
     const recorded = (emit: (sink: LogicalRecorder, ids: VirtualIds) => void): Circuit => {
       const rec = new LogicalRecorder(n, n, 0);
       emit(rec, new VirtualIds(n));
       return rec.finish();
     };
-    if (!diffusion.exact && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
-    if (!whole.exact && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
+    if (!diffusion[1] && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
+    if (!whole[1] && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
+    const c = whole[0];
     return {
-      strategy, uncompute, iterations, oracle, diffusion, circuit: whole, expected_runs: runs,
-      expected_t_count: whole.t_count * runs, expected_toffoli_count: whole.toffoli_count * runs, expected_depth: whole.depth * runs,
+      strategy, uncompute, iterations, oracle: oracle[0], diffusion: diffusion[0], circuit: c, expected_runs: runs,
+      expected_t_count: c.t_count * runs, expected_toffoli_count: c.toffoli_count * runs, expected_depth: c.depth * runs,
+      exact: oracle[1] && diffusion[1] && whole[1],
     };
   });
   progress.emit(1);

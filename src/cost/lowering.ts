@@ -87,9 +87,6 @@ export class LoweringStream implements LogicalSink {
   private readonly cliffordT: boolean;
   private readonly measured: boolean;
   private readonly toffoliAnds: boolean;
-  private seen = new Int32Array(1024);
-  private seenOp = new Int32Array(1024);
-  private stamp = 0;
   private readonly pair = new Int32Array(2);
 
   constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode) {
@@ -100,19 +97,13 @@ export class LoweringStream implements LogicalSink {
 
   private room(q: number): void {
     if (q < this.flipped.length) return;
-    const n = Math.max(q + 1, this.flipped.length * 2);
+    const n = Math.max(q + 1, Math.ceil(this.flipped.length * 1.5));
     const f = new Uint8Array(n);
     f.set(this.flipped);
     this.flipped = f;
     const r = new Int32Array(n).fill(-1);
     r.set(this.recordAt);
     this.recordAt = r;
-    const s = new Int32Array(n);
-    s.set(this.seen);
-    this.seen = s;
-    const o = new Int32Array(n);
-    o.set(this.seenOp);
-    this.seenOp = o;
   }
 
   // ---- logical operations ------------------------------------------------------------------
@@ -268,7 +259,7 @@ export class LoweringStream implements LogicalSink {
     const two = d >= 0 ? 1 : 0;
     const need = this.top + 5 + 3 * two;
     if (need > this.records.length) {
-      const r = new Int32Array(Math.max(need, this.records.length * 2));
+      const r = new Int32Array(Math.max(need, Math.ceil(this.records.length * 1.5)));
       r.set(this.records.subarray(0, this.top));
       this.records = r;
     }
@@ -291,7 +282,7 @@ export class LoweringStream implements LogicalSink {
   private remember(t: number, copied: number, triples: readonly number[]): void {
     const need = this.top + 2 + triples.length;
     if (need > this.records.length) {
-      const r = new Int32Array(Math.max(need, this.records.length * 2));
+      const r = new Int32Array(Math.max(need, Math.ceil(this.records.length * 1.5)));
       r.set(this.records.subarray(0, this.top));
       this.records = r;
     }
@@ -398,19 +389,31 @@ export class LoweringStream implements LogicalSink {
    * on |1> means the gate never fires (null). Order of first occurrence is kept.
    */
   private normalize(ops: ArrayLike<number>): number[] | null {
-    const s = ++this.stamp;
     const out: number[] = [];
+    if (ops.length <= 16) {
+      // Small gates (nearly all): a quadratic scan, as lower.ts does.
+      next: for (let i = 0; i < ops.length; i++) {
+        const op = ops[i]!;
+        for (let j = 0; j < out.length; j++) {
+          if (out[j]! >>> 1 !== op >>> 1) continue;
+          if (out[j] !== op) return null;
+          continue next;
+        }
+        out.push(op);
+      }
+      return out;
+    }
+    // A large gate (the wide oracle's mark): the encoded op seen per qubit, plus one (0: none).
+    let top = 0;
+    for (let i = 0; i < ops.length; i++) top = Math.max(top, ops[i]! >>> 1);
+    const seen = new Int32Array(top + 1);
     for (let i = 0; i < ops.length; i++) {
       const op = ops[i]!;
-      const q = op >>> 1;
-      this.room(q);
-      if (this.seen[q] === s) {
-        if (this.seenOp[q] !== op) return null;
-        continue;
-      }
-      this.seen[q] = s;
-      this.seenOp[q] = op;
-      out.push(op);
+      const prev = seen[op >>> 1]!;
+      if (prev === 0) {
+        seen[op >>> 1] = op + 1;
+        out.push(op);
+      } else if (prev !== op + 1) return null;
     }
     return out;
   }

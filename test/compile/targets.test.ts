@@ -1,9 +1,12 @@
-// Cost targets of the published constructions, as inequalities on random 3-SAT of several sizes.
-// The formulas are our own derivation (not quoted from a paper) from the published cost of the temporary
-// logical AND (Gidney 2018, "Halving the cost of quantum addition": 4 T to compute, 0 T to erase):
-// wide with measured uncomputation:
-// n + L - 2 qubits and 4(L - 2) T; lean (sequential counter): n + 2w + k - 2 qubits and
-// 8m(k + w - 2) + 4w - 8 T, w = ceil(log2(m + 1)). Unitary uncomputation at most doubles T.
+// Cost targets of the constructions, as inequalities on random 3-SAT of several sizes. The
+// formulas follow from the constructions (derived here, common practice), with the temporary
+// logical-AND of Gidney 2018 ("Halving the cost of quantum addition"): 4 T to compute a 2-input
+// AND, 0 T to erase it by measurement. Wide, measured: a k-literal clause is k - 1 ANDs and the
+// mark over m clause bits m - 2 more, L - 2 ANDs in all for L literals: 4(L - 2) T, and one work
+// qubit per AND: n + L - 2 qubits. Lean (a w-bit counter, w = ceil(log2(m + 1))): per clause k - 1
+// ANDs for the clause and w - 1 carries, twice (forward and mirror): 8m(k + w - 2) T, plus the
+// mark's w - 2 ANDs (4w - 8 T); qubits: n, the counter, k - 2 + w - 1 work qubits at a time.
+// Unitary uncomputation at most doubles T.
 import { describe, expect, it } from "vitest";
 import { randomKSat } from "../helpers/formulas.js";
 import { compileOracle, costTable, oracleResources } from "../helpers/lib.js";
