@@ -28,7 +28,7 @@ Prints what an oracle for the formula costs, one row per strategy and uncomputat
 textbook reference row (a clause bit per clause, V-chains of 7-T Toffolis). Qubits, T-count,
 T-depth, CNOTs and depth are those of the Clifford+T circuit; Toffolis those of the toffoli basis;
 all after work-qubit reuse and the optimizer passes, exactly as clausegate oracle emits them. The
-figures are counted without building the circuits (a million clauses take seconds); a row the
+figures are counted without building the circuits (memory for a few numbers per qubit); a row the
 counting cannot make exact says so ("upper bound"; "exact": false in --json).
 
 Options:

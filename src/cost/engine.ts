@@ -52,6 +52,8 @@ export interface EngineOptions {
   readonly history?: number;
   /** Wires expected (search, target and work), to size the per-wire tables once. */
   readonly wires?: number;
+  /** Qubit ids expected (see LoweringStream), to size the id-to-wire table once. */
+  readonly ids?: number;
   /**
    * Replay the second cancel-inverses (stage 2; default true). The pipeline runs it only when
    * merge-phases met two phase gates or more: a run without it that meets fewer is exact, one
@@ -170,7 +172,9 @@ export class CountingEngine implements InstanceSink {
 
   // Virtual ids -> wires.
   private wireOf: Int32Array = new Int32Array(1024).fill(-1);
-  private freeWires: number[] = [];
+  /** Wires given back, a stack (reuse takes the last one given back). */
+  private freeWires = new Int32Array(256);
+  private freeTop = 0;
   private workWires = 0;
 
   // Figures.
@@ -217,6 +221,7 @@ export class CountingEngine implements InstanceSink {
     this.sPrev = new Int32Array(0);
     this.sPrevSlot = new Int8Array(0);
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
+    this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
   }
 
   /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
@@ -296,7 +301,7 @@ export class CountingEngine implements InstanceSink {
     }
     let w = this.wireOf[v]!;
     if (w < 0) {
-      w = this.freeWires.length > 0 ? this.freeWires.pop()! : this.base + this.workWires++;
+      w = this.freeTop > 0 ? this.freeWires[--this.freeTop]! : this.base + this.workWires++;
       if (w >= this.wireCap) this.growWires(w + 1);
       this.wireOf[v] = w;
     }
@@ -352,7 +357,12 @@ export class CountingEngine implements InstanceSink {
         const s = order[i]!;
         if (((dies >>> s) & 1) === 0) continue;
         const v = s === 0 ? a : s === 1 ? b : c;
-        this.freeWires.push(this.wireOf[v]!);
+        if (this.freeTop === this.freeWires.length) {
+          const f = new Int32Array(this.freeWires.length * 2);
+          f.set(this.freeWires);
+          this.freeWires = f;
+        }
+        this.freeWires[this.freeTop++] = this.wireOf[v]!;
         this.wireOf[v] = -1;
       }
     }

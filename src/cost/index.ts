@@ -228,16 +228,16 @@ class Logicals {
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
  * where nothing can fall short: a shortfall never reaches a result.
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
   // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
   // without the second cancel-inverses, which the pipeline then skips.
   let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids });
     const ids = new VirtualIds(base);
-    const low = new LoweringStream(engine, ids, mode);
+    const low = new LoweringStream(engine, ids, mode, sizing.ids);
     emit(low, ids);
     low.finish();
     const r = engine.finish();
@@ -271,19 +271,19 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // mark's tree); the lean oracle reuses a few, some of them seldom (a work qubit of a longer
   // clause), so keeping a few instances per wire costs little there.
   const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
-  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires };
+  // Ids: a replayed circuit's qubits, and a few for AND trees (given back when done).
+  const logical = s.strategy === "lean" ? null : logicals.get(s.kind, s.strategy);
+  const idCount = (logical?.c.qubits ?? base) + 1024;
+  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount };
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
-    if (s.strategy === "lean") leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
-    else {
-      const { c, last } = logicals.get(s.kind, s.strategy);
-      replayLogical(c, base, low, ids, last, progress);
-    }
+    if (logical === null) leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
+    else replayLogical(logical.c, base, low, ids, logical.last, progress);
   }, sizing);
 }
 
 /** Counts a circuit given as logical operations (search parts). */
 function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG): EngineResult {
-  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4, wires: base + 64 });
+  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4, wires: base + 64, ids: base + 1024 });
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -326,7 +326,9 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
 /**
  * Costs of every strategy and uncomputation for one formula, plus the textbook reference
  * (one clause bit per clause, V-chains of 7-T Toffolis, unitary uncomputation). Counted, not
- * built: a million clauses take seconds and a few hundred megabytes.
+ * built: memory grows with the qubits (a few numbers per wire), not with the gates; time with
+ * the gates (the lean rows of a million clauses dominate: minutes). Progress goes to
+ * `options.onProgress`.
  *
  * @example
  * ```ts

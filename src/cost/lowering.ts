@@ -49,7 +49,9 @@ export interface LogicalSink {
 
 /** Virtual qubit ids above the fixed registers, recycled when a span ends. */
 export class VirtualIds {
-  private free: number[] = [];
+  /** Ids given back, a stack (typed: a wide oracle gives back millions). */
+  private free = new Int32Array(256);
+  private top = 0;
   /** Ids handed out so far (the high-water mark). */
   next: number;
 
@@ -58,11 +60,16 @@ export class VirtualIds {
   }
 
   take(): number {
-    return this.free.length > 0 ? this.free.pop()! : this.next++;
+    return this.top > 0 ? this.free[--this.top]! : this.next++;
   }
 
   give(id: number): void {
-    this.free.push(id);
+    if (this.top === this.free.length) {
+      const f = new Int32Array(this.free.length * 2);
+      f.set(this.free);
+      this.free = f;
+    }
+    this.free[this.top++] = id;
   }
 }
 
@@ -89,10 +96,12 @@ export class LoweringStream implements LogicalSink {
   private readonly toffoliAnds: boolean;
   private readonly pair = new Int32Array(2);
 
-  constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode) {
+  /** `qubits`: the ids expected (sizes the per-id tables once; they grow if need be). */
+  constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode, qubits = 1024) {
     this.cliffordT = mode.basis === "clifford+t";
     this.measured = mode.uncompute === "measured";
     this.toffoliAnds = mode.toffoliAnds;
+    this.room(qubits - 1);
   }
 
   private room(q: number): void {

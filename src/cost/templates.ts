@@ -8,7 +8,7 @@
  * template an optimizer walk can leave the template from) use the same numeric tables as the passes.
  */
 import { CircuitBuilder, K, qubitOf } from "../ir/circuit.js";
-import { INVERSE_KIND, PHASE_EIGHTHS, ROLE_BODY, ROLE_LAST, ROLE_OTHER, ROLE_X, ROLE_Z, GATE_KINDS } from "../ir/kinds.js";
+import { INVERSE_KIND, PHASE_EIGHTHS, ROLE_BODY, ROLE_LAST, ROLE_OTHER, ROLE_Z, GATE_KINDS } from "../ir/kinds.js";
 import { temporaryAnd, temporaryAndInverse, toffoli7 } from "../passes/lower.js";
 import { WINDOW } from "../passes/cancelInverses.js";
 
@@ -62,7 +62,7 @@ export const SLOT_GATES: Uint8Array[] = [];
 export const FIRST_TOUCH: Uint8Array[] = [];
 /** Slots in the order of their last use (the order in which work-qubit reuse frees wires). */
 export const LAST_TOUCH: Uint8Array[] = [];
-/** Whether the gate is a phase gate, CX/CZ, CCX, T: per-template totals for quick counting. */
+/** Template names (for messages and tests). */
 export const NAMES: readonly string[] = ["x", "h", "z", "cx", "cz", "ccx", "measure", "gphase", "and", "unand", "toffoli7", "erase-head", "erase-tail"];
 
 interface Raw {
@@ -156,14 +156,15 @@ build();
 export const gatesOf = (t: number): number => GATE_START[t + 1]! - GATE_START[t]!;
 
 /** True when gate kinds `a` and `b` undo each other (same operands assumed). */
-export const inverseKinds = (a: number, b: number): boolean => INVERSE_KIND[a] === b;
+const inverseKinds = (a: number, b: number): boolean => INVERSE_KIND[a] === b;
 
 /**
  * The gates of template t (with the gates in `dead` removed) whose cancel-inverses walk, along
  * their target, can leave the template: every other live gate meets a live gate of the same
- * template first that stops the walk (it neither undoes nor commutes with it). A walk through
- * gates that commute with the walker goes on; the window limit of the pass is never reached
- * inside a template (at most 19 gates). Slots are distinct qubits.
+ * template first that stops the walk (it neither undoes nor commutes with it), or the pass's
+ * window, both without a partner. A walk through gates that commute with the walker goes on; a
+ * gate that meets its inverse inside the template counts as leaving (whether it is a partner
+ * depends on the gates around: the real walk decides). Slots are distinct qubits.
  *
  * Returns a bit mask of such gates; cached per (template, dead mask).
  */
@@ -242,4 +243,4 @@ export function inverseInTemplate(e: number, f: number): boolean {
   return true;
 }
 
-export { ROLE_X, ROLE_Z, ROLE_OTHER };
+export { ROLE_Z, ROLE_OTHER };
