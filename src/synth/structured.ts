@@ -365,25 +365,36 @@ function lean(b: CircuitBuilder, checks: Checks, kind: OracleKind, target: numbe
   const keep = new Uint8Array(b.qubits + 1);
   for (const q of counter) keep[q] = 1;
   // Work qubits of the computed definitions hold their values until the end.
-  const persistent = checks.ops;
-  for (let i = 0; i < checks.persistentEnd; i++) keep[persistent.ops[persistent.starts[i + 1]! - 1]! >>> 1] = 1;
-  const forward = new OpList();
-  forward.append(checks.ops, 0, checks.persistentEnd, false);
+  const ops = checks.ops;
+  for (let i = 0; i < checks.persistentEnd; i++) keep[ops.ops[ops.starts[i + 1]! - 1]! >>> 1] = 1;
   const segments = checks.segOp.n - 1;
+  const forward = new OpList();
+  forward.append(ops, 0, checks.persistentEnd, false);
   for (let sgm = 0; sgm < segments; sgm++) {
     const from = checks.segOp.a[sgm]!;
     const to = checks.segOp.a[sgm + 1]!;
-    forward.append(checks.ops, from, to, false);
-    for (let v = checks.segBit.a[sgm]!; v < checks.segBit.a[sgm + 1]!; v++) increment(b, counter, checks.violated.a[v]!, forward);
-    forward.append(checks.ops, from, to, true);
+    forward.append(ops, from, to, false);
+    for (let v = checks.segBit.a[sgm]!; v < checks.segBit.a[sgm + 1]!; v++) count(b, counter, checks.violated.a[v]!, false, forward);
+    forward.append(ops, from, to, true);
   }
+  // The mirror half: the same checks from the last, each count undone by a decrement (the
+  // increment's inverse built so that every counter qubit ends as a target, where its span ends).
+  const backward = new OpList();
+  for (let sgm = segments - 1; sgm >= 0; sgm--) {
+    const from = checks.segOp.a[sgm]!;
+    const to = checks.segOp.a[sgm + 1]!;
+    backward.append(ops, from, to, false);
+    for (let v = checks.segBit.a[sgm + 1]! - 1; v >= checks.segBit.a[sgm]!; v--) count(b, counter, checks.violated.a[v]!, true, backward);
+    backward.append(ops, from, to, true);
+  }
+  backward.append(ops, 0, checks.persistentEnd, true);
   forward.emit(b, false);
   mark(b, kind, counter.map((q) => pos(q) | 1), target); // fires when the counter is 0
-  // The mirror half on fresh work qubits (each used for one compute-uncompute span, which the
+  // The mirror runs on fresh work qubits (each used for one compute-uncompute span, which the
   // work-qubit reuse after lowering folds onto few wires), except those that hold values across.
   const base = b.search + b.target;
   const fresh = new Map<number, number>();
-  forward.emit(b, true, (op) => {
+  backward.emit(b, false, (op) => {
     const q = op >>> 1;
     if (q < base || (q < keep.length && keep[q])) return op;
     let r = fresh.get(q);
@@ -394,22 +405,25 @@ function lean(b: CircuitBuilder, checks: Checks, kind: OracleKind, target: numbe
 }
 
 /**
- * Adds the encoded control `bit` into the counter (least significant qubit first), as
- * synth/lean.ts does: carries by temporary ANDs, the counter flipped from the top down, each carry
- * uncomputed right after the flip it drives.
+ * Adds the encoded control `bit` into the counter (least significant qubit first), or subtracts
+ * it (`down`), as synth/lean.ts's increment: carry i is bit AND q0 AND ... AND qi (for a
+ * decrement, of the negated qi: a borrow), computed with temporary ANDs; the counter flips from
+ * the top down, each carry uncomputed right after the flip it drives (its inputs are still
+ * unchanged then). Each counter qubit is last touched as a target.
  */
-function increment(b: CircuitBuilder, counter: readonly number[], bit: number, out: OpList): void {
+function count(b: CircuitBuilder, counter: readonly number[], bit: number, down: boolean, out: OpList): void {
   const w = counter.length;
   const carries = Array.from({ length: w - 1 }, () => b.newWork());
+  const q = (i: number): number => pos(counter[i]!) | (down ? 1 : 0);
   let prev = bit;
   for (let i = 0; i + 1 < w; i++) {
-    out.push(K.and, [prev, pos(counter[i]!), pos(carries[i]!)]);
+    out.push(K.and, [prev, q(i), pos(carries[i]!)]);
     prev = pos(carries[i]!);
   }
   for (let i = w - 1; i >= 1; i--) {
     out.push(K.mcx, [pos(carries[i - 1]!), pos(counter[i]!)]);
     const input = i - 1 === 0 ? bit : pos(carries[i - 2]!);
-    out.push(K.unand, [input, pos(counter[i - 1]!), pos(carries[i - 1]!)]);
+    out.push(K.unand, [input, q(i - 1), pos(carries[i - 1]!)]);
   }
   out.push(K.mcx, [bit, pos(counter[0]!)]);
 }
