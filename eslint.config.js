@@ -20,11 +20,11 @@ const mayImport = {
   ir: [],
   structure: ["cnf"],
   count: ["cnf", "structure"],
-  synth: ["cnf", "ir"],
+  synth: ["cnf", "ir", "structure"],
   passes: ["ir"],
   emit: ["ir"],
   cost: ["ir", "synth", "passes", "emit", "cnf"],
-  sim: ["ir", "cnf"],
+  sim: ["ir", "cnf", "structure"],
   search: ["cnf", "ir", "synth", "count"],
   draw: ["ir", "search"],
   // The physical model takes plain numbers; cnf only for the classical evaluator's rate.

@@ -36,8 +36,10 @@ export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
 export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
-export type { Oracle, OracleOptions, SearchOptions } from "./compile.js";
-export { compileOracle, compileSearch, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { Oracle, OracleOptions, SearchOptions, RegisterPlan } from "./compile.js";
+export { compileOracle, compileSearch, completeModel, registerOf, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { RegisterMode, StructureSummary } from "./synth/index.js";
+export type { Completion } from "./structure/completion.js";
 
 // Emitting and reading circuits back.
 export type { Sink } from "./emit/sink.js";

@@ -24,8 +24,12 @@ export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
 export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
-export type { Oracle, OracleOptions } from "./compile.js";
-export { compileOracle, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { Oracle, OracleOptions, RegisterPlan } from "./compile.js";
+export { compileOracle, completeModel, registerOf, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { RegisterMode, StructureSummary, OraclePlan, StructuredFormula } from "./synth/index.js";
+export { planOracle, synthesizePlan, synthesizeStructured } from "./synth/index.js";
+export type { Completion } from "./structure/completion.js";
+export { completeAssignment, fullCompletion, isFullCompletion } from "./structure/completion.js";
 export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle, EngineResult } from "./cost/index.js";
 export { costTable, countConstruction, oracleResources, searchCosts } from "./cost/index.js";
 export { PassError } from "./passes/runner.js";
@@ -51,8 +55,8 @@ export {
   planSearch, successAfter, successAfterIterations, bbhtRound, bbhtRounds, bbhtLastRound, bbhtExpectedCalls, bbhtSequence, averageSuccess,
   BBHT_LAMBDA, EXACT_BITS,
 } from "./search/plan.js";
-export type { Reduction, VariableRange } from "./search/reduce.js";
-export { reduceSearch } from "./search/reduce.js";
+export type { Reduction, VariableRange } from "./cnf/reduce.js";
+export { reduceSearch } from "./cnf/reduce.js";
 export type { SolutionsCount } from "./search/solutions.js";
 export { countSolutions } from "./search/solutions.js";
 export type { SearchOptions } from "./compile.js";

@@ -7,7 +7,7 @@ const PUBLIC = [
   // read and write formulas, count models
   "readDimacs", "readDimacsFile", "readDimacsWithGrammar", "writeDimacs", "cnfFromClauses", "clausesOf", "formatDiagnostic", "countModels",
   // compile
-  "compileOracle", "compileSearch", "DEFAULT_ORACLE_OPTIONS", "GATE_KINDS",
+  "compileOracle", "compileSearch", "completeModel", "registerOf", "DEFAULT_ORACLE_OPTIONS", "GATE_KINDS",
   // emit and read back
   "emitQasm3", "emitQasm2", "emitJson", "qasm2Problem", "collect", "readCircuit",
   // verify

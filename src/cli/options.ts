@@ -58,5 +58,8 @@ export function oracleOptions(values: Record<string, string | boolean | undefine
     uncompute: choice(str("uncompute"), "--uncompute", ["unitary", "measured"] as const, "unitary"),
     optimize: values["no-optimize"] !== true,
     validatePasses: values["check-passes"] === true,
+    // The library's defaults until the command line gains --register and --no-structure.
+    register: "full",
+    structure: true,
   };
 }

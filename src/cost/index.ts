@@ -15,11 +15,11 @@ import type { Cnf } from "../cnf/cnf.js";
 import type { Circuit } from "../ir/circuit.js";
 import { countCircuit } from "../emit/resources.js";
 import type { Basis, Uncompute } from "../passes/lower.js";
-import { simplify, synthesize, type AnyStrategy, type OracleKind, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
+import { planOracle, synthesizePlan, type AnyStrategy, type OracleKind, type OraclePlan, type RegisterMode, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
 import { builtCounts } from "./built.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
-import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction } from "./sources.js";
+import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction, type OracleOps } from "./sources.js";
 
 /** Options of the cost functions. */
 export interface CostOptions {
@@ -28,6 +28,16 @@ export interface CostOptions {
    * Calls are at most every 1/200 of the work.
    */
   readonly onProgress?: (fraction: number) => void;
+  /**
+   * Cost the oracles built from recovered structure (default true, as compileOracle builds
+   * them); false: the clause constructions alone. {@link oracleResources} takes it from the oracle.
+   */
+  readonly structure?: boolean;
+  /**
+   * The search register the costed oracles have (default `full`; see OracleOptions.register).
+   * {@link oracleResources} takes it from the oracle.
+   */
+  readonly register?: RegisterMode;
 }
 
 /** One row of the cost table. */
@@ -156,6 +166,8 @@ export interface ResourceReport {
   readonly measurements: number;
   /** What simplification removed before synthesis. */
   readonly simplification: SimplificationReport;
+  /** The DIMACS variable held by each search qubit, in order (1..n for a full register). */
+  readonly register: number[];
 }
 
 /** What {@link oracleResources} needs of a compiled oracle (compileOracle's result has it). */
@@ -174,6 +186,10 @@ export interface CompiledOracle {
     readonly uncompute: Uncompute;
     /** Whether the optimizer passes ran. */
     readonly optimize: boolean;
+    /** Its search register (absent: `full`). */
+    readonly register?: RegisterMode;
+    /** Whether it was built from recovered structure (absent: false). */
+    readonly structure?: boolean;
   };
   /** Declared variables. */
   readonly variables: number;
@@ -203,15 +219,22 @@ interface Spec {
   readonly levels: boolean;
 }
 
-/** Synthesized logical circuits kept for the runs that share them (wide and textbook oracles). */
+/**
+ * Synthesized logical circuits kept for the runs that share them (wide and textbook oracles, and
+ * every structured one: those are replayed from their logical circuit, which is small).
+ */
 class Logicals {
   private readonly kept = new Map<string, { c: Circuit; last: Int32Array }>();
-  constructor(private readonly f: SimplifiedCnf) {}
+  constructor(private readonly plan: OraclePlan) {}
+  /** True when the strategy's oracle is built from recovered structure (then it is replayed, lean too). */
+  structured(strategy: AnyStrategy): boolean {
+    return this.plan.structured !== null && strategy !== "textbook";
+  }
   get(kind: OracleKind, strategy: AnyStrategy): { c: Circuit; last: Int32Array } {
     const key = `${kind} ${strategy}`;
     let v = this.kept.get(key);
     if (v === undefined) {
-      const c = synthesize(this.f, kind, strategy);
+      const c = synthesizePlan(this.plan, kind, strategy);
       v = { c, last: lastUses(c) };
       this.kept.set(key, v);
     }
@@ -265,16 +288,18 @@ const HISTORY_BYTES = 256 << 20;
 
 /** Counts one oracle construction with the engine. */
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
-  const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
+  const streamed = s.strategy === "lean" && !logicals.structured(s.strategy);
+  // A structured oracle's search register is the plan's register, not the clauses' variables.
+  const logical = streamed ? null : logicals.get(s.kind, s.strategy);
+  const base = logical === null ? s.f.variables + (s.kind === "flag" ? 1 : 0) : logical.c.registers.reduce((q, r) => q + (r.role === "work" ? 0 : r.size), 0);
   const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
   // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
   // mark's tree); the lean oracle reuses a few, some of them seldom (a work qubit of a longer
   // clause), so keeping a few instances per wire costs little there.
-  const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
+  const wires = base + (streamed ? 64 : logicals.structured(s.strategy) ? logical!.c.qubits + 64 : s.f.lits.length + 64);
   // Ids: a replayed circuit's qubits, and a few for AND trees (given back when done).
-  const logical = s.strategy === "lean" ? null : logicals.get(s.kind, s.strategy);
   const idCount = (logical?.c.qubits ?? base) + 1024;
-  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount };
+  const sizing = { lag: DEFAULT_LAG, history: streamed ? 4 : 1, wires, ids: idCount };
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
     if (logical === null) leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
     else replayLogical(logical.c, base, low, ids, logical.last, progress);
@@ -337,8 +362,9 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
  * ```
  */
 export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOptions = {}): CostRow[] {
-  const f = simplify(cnf);
-  const logicals = new Logicals(f);
+  const oraclePlan = planOf(cnf, options);
+  const f = oraclePlan.clauses;
+  const logicals = new Logicals(oraclePlan);
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
   const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
@@ -375,9 +401,10 @@ export function countConstruction(
   o: { readonly kind: OracleKind; readonly strategy: AnyStrategy; readonly basis: "toffoli" | "clifford+t"; readonly uncompute: Uncompute; readonly optimize?: boolean },
   options: CostOptions = {},
 ): EngineResult {
-  const f = simplify(cnf);
+  const plan = planOf(cnf, options);
+  const f = plan.clauses;
   const progress = new Progress(1, options.onProgress);
-  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true }, new Logicals(f), progress.step(1));
+  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true }, new Logicals(plan), progress.step(1));
   progress.emit(1);
   return r;
 }
@@ -409,8 +436,9 @@ function snake(s: CompiledOracle["simplification"]): SimplificationReport {
 export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostOptions = {}): ResourceReport {
   const o = oracle.options;
   const emitted = countCircuit(oracle.circuit);
-  const f = simplify(cnf);
-  const logicals = new Logicals(f);
+  const plan = planOracle(cnf, o.register ?? "full", o.structure ?? false);
+  const f = plan.clauses;
+  const logicals = new Logicals(plan);
   const progress = new Progress(2, options.onProgress);
   const counted = (basis: "toffoli" | "clifford+t"): { toffoliCount: number; tCount: number; tDepth: number; cnotCount: number } => {
     const step = progress.step(1);
@@ -439,6 +467,7 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
     depth: emitted.depth,
     measurements: emitted.measurements,
     simplification: snake(oracle.simplification),
+    register: Array.from(plan.register),
   };
 }
 
@@ -465,16 +494,18 @@ function builtPart(logical: Circuit, uncompute: Uncompute): [PartCost, boolean] 
  * ```
  */
 export function searchCosts(cnf: Cnf, iterations: number, successProbability: number, uncompute: Uncompute, options: CostOptions = {}): SearchCost[] {
-  const f = simplify(cnf);
-  const n = cnf.variables;
+  const plan = planOf(cnf, options);
+  const f = plan.clauses;
+  // The search register: the plan's (all variables, or the free ones).
+  const n = plan.structured === null ? f.variables : plan.register.length;
   const runs = successProbability > 0 ? 1 / successProbability : Infinity;
-  const logicals = new Logicals(f);
+  const logicals = new Logicals(plan);
   const strategies = ["wide", "lean"] as const;
   const oracleWeight = (s: Strategy): number => weight(f, s, true) + weight(f, s, false);
   const total = strategies.reduce((sum, s) => sum + (2 + iterations) * oracleWeight(s), 0);
   const progress = new Progress(total, options.onProgress);
   const costs = strategies.map((strategy): SearchCost => {
-    const ops = phaseOracleOps(f, strategy, () => logicals.get("phase", strategy).c);
+    const ops = logicals.structured(strategy) ? replayOps(logicals.get("phase", strategy).c, n) : phaseOracleOps(f, strategy, () => logicals.get("phase", strategy).c);
     const both = (emit: (low: LoweringStream, ids: VirtualIds, p?: Fraction) => void, w: number, lag?: number): [EngineResult, EngineResult] => {
       const p1 = progress.step(w / 2);
       const p2 = progress.step(w / 2);
@@ -492,7 +523,7 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
     let oracle = part(oct, otof);
     let diffusion = part(dct, dtof);
     let whole = part(wct, wtof);
-    if (!oracle[1] && oct.instances <= BUILD_LIMIT) oracle = builtPart(synthesize(f, "phase", strategy), uncompute);
+    if (!oracle[1] && oct.instances <= BUILD_LIMIT) oracle = builtPart(logicals.get("phase", strategy).c, uncompute);
     const recorded = (emit: (sink: LogicalRecorder, ids: VirtualIds) => void): Circuit => {
       const rec = new LogicalRecorder(n, n, 0);
       emit(rec, new VirtualIds(n));
@@ -509,6 +540,17 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
   });
   progress.emit(1);
   return costs;
+}
+
+/** The oracle plan the cost options ask for (structure on and a full register by default, as compileOracle). */
+function planOf(cnf: Cnf, options: CostOptions): OraclePlan {
+  return planOracle(cnf, options.register ?? "full", options.structure ?? true);
+}
+
+/** A logical phase oracle over search qubits 0..n-1, replayed as a stream (structured oracles). */
+function replayOps(logical: Circuit, n: number): OracleOps {
+  const last = lastUses(logical);
+  return (sink, ids, progress) => replayLogical(logical, n, sink, ids, last, progress);
 }
 
 export type { EngineResult } from "./engine.js";

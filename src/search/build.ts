@@ -29,8 +29,14 @@ export function diffusionCircuit(n: number): Circuit {
  * measurements are left out (to look at the state they would sample).
  */
 export function searchCircuit(f: SimplifiedCnf, strategy: Strategy, iterations: number, measure = true): Circuit {
-  const n = f.variables;
-  const oracle = synthesize(f, "phase", strategy);
+  return searchAround(synthesize(f, "phase", strategy), f.variables, iterations, measure);
+}
+
+/**
+ * The logical search circuit around a given logical phase oracle whose search register is qubits
+ * 0..n-1 (what {@link searchCircuit} does for a clause oracle; compile.ts for structured ones).
+ */
+export function searchAround(oracle: Circuit, n: number, iterations: number, measure = true): Circuit {
   const oracleWork = oracle.qubits - n;
   const b = new CircuitBuilder({ search: n, target: 0, clbits: n }, iterations * (oracle.gates + 3 * n + 2) + 2 * n);
   for (let q = 0; q < n; q++) b.add(K.h, pos(q));
