@@ -27,6 +27,11 @@ export interface OracleCheck {
   readonly explicit?: readonly boolean[][] | undefined;
   /** Seed for measurement outcomes. */
   readonly seed?: number;
+  /**
+   * A free register: its size (assignments are then of its qubits) and the oracle's expected value
+   * on a register value (default: the formula on the assignment itself).
+   */
+  readonly register?: { readonly size: number; readonly value: (assignment: boolean[]) => boolean } | undefined;
 }
 
 const TOL = 1e-9;
@@ -39,9 +44,10 @@ const TOL = 1e-9;
  * whose factor differs between inputs, would spoil superpositions of inputs).
  */
 export function checkOracleSparse(c: Circuit, cnf: Cnf, opts: OracleCheck): Mismatch | null {
-  const n = cnf.variables;
+  const n = opts.register?.size ?? cnf.variables;
   const search = c.registers.find((r) => r.role === "search")!;
   if (search.size !== n) return { assignment: [], message: `search register has ${search.size} qubits, the formula ${n} variables` };
+  const value = opts.register?.value ?? ((a: boolean[]) => evaluate(cnf, a));
   const targetReg = c.registers.find((r) => r.role === "target");
   const random = seededRandom(opts.seed ?? 1);
   let forced: number[] | undefined;
@@ -51,7 +57,7 @@ export function checkOracleSparse(c: Circuit, cnf: Cnf, opts: OracleCheck): Mism
     if (opts.explicit) yield* opts.explicit;
   }
   for (const assignment of all()) {
-    const f = evaluate(cnf, assignment);
+    const f = value(assignment);
     const ones = assignment.flatMap((on, v) => (on ? [v] : []));
     const bs = opts.kind === "flag" ? [0, 1] : [0];
     for (const b of bs) {

@@ -11,9 +11,10 @@ import type { Cnf } from "../cnf/cnf.js";
 import { evaluate } from "../cnf/evaluate.js";
 import { DEFAULT_CONFLICT_LIMIT, findModels } from "../cnf/findModels.js";
 import { SEARCH_REGISTER, type Circuit } from "../ir/circuit.js";
+import { completeAssignment, isFullCompletion, type Completion } from "../structure/completion.js";
 import { compileBitProgram, newBlock, runBlock, type BitProgram } from "./bitsim.js";
 import { checkOracleSparse } from "./check.js";
-import { hash3, runVerifyRange, sampleBit, type RangeResult, type VerifyJob } from "./verifyKernel.js";
+import { hash3, runVerifyRange, sampleBit, type CompletionProgram, type RangeResult, type VerifyJob } from "./verifyKernel.js";
 
 /** Options of {@link verifyOracle}. */
 export interface VerifyOptions {
@@ -33,6 +34,13 @@ export interface VerifyOptions {
   readonly threads?: number;
   /** Progress, from 0 to 1. */
   readonly onProgress?: (fraction: number) => void;
+  /**
+   * The oracle's search register and its completion rule (`Oracle.completion`). For a free
+   * register the oracle must mark a register value exactly when some model extends it, that is
+   * when its completion is a model; the check enumerates (or samples) register values. Default:
+   * a full register (search qubit v-1 is variable v).
+   */
+  readonly completion?: Completion;
 }
 
 /** How the satisfying assignments of a sampled check were found: the CDCL solver (solve.ts). */
@@ -75,6 +83,8 @@ export interface VerifyResult {
   readonly samples: number;
   /** The first failing assignment, or null. */
   readonly counterexample: Counterexample | null;
+  /** `full` (the search register is every variable) or `free` (checked against the projection). */
+  readonly register: "full" | "free";
   /** Why the circuit could not even be run against the formula (register sizes), or undefined. */
   readonly problem?: string;
   /** Why no mismatch was found and yet the circuit is not verified (a kind of input left unchecked), or undefined. */
@@ -85,10 +95,14 @@ export interface VerifyResult {
 
 /** A failing assignment and what went wrong there. */
 export interface Counterexample {
-  /** Values of variables 1..n. */
+  /** Values of variables 1..n (for a free register: the completion of the failing register value). */
   readonly assignment: boolean[];
   /** The assignment as a DIMACS clause of literals, e.g. `-1 2 -3 0`. */
   readonly dimacs: string;
+  /** A free register: the failing register value, search qubit by search qubit. */
+  readonly registerValue?: boolean[];
+  /** A free register: the failing value as DIMACS literals of the register's variables, e.g. `3 -7 0`. */
+  readonly registerDimacs?: string;
   /** What the oracle should have done. */
   readonly expected: string;
   /** What the circuit did. */
@@ -127,10 +141,16 @@ export async function verifyOracle(cnf: Cnf, circuit: Circuit, opts: VerifyOptio
   const seed = opts.seed ?? 1;
   // Word indices are 32-bit in the kernel: 2^36 assignments is the most it can enumerate.
   const limit = Math.min(opts.exhaustiveLimit ?? DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT);
-  const n = cnf.variables;
-  const base = { verified: false, assignments: 0, models: 0, nonModels: 0, modelSearch: null, falsifying: 0, samples: 0, counterexample: null, notes: [] } as const;
+  const completion = opts.completion !== undefined && !isFullCompletion(opts.completion) ? opts.completion : undefined;
+  const n = completion?.register.length ?? cnf.variables;
+  const registerKind = completion === undefined ? "full" : "free";
+  const base = { verified: false, assignments: 0, models: 0, nonModels: 0, modelSearch: null, falsifying: 0, samples: 0, counterexample: null, notes: [], register: registerKind } as const;
+  if (completion !== undefined && completion.variables !== cnf.variables) {
+    return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: `the register's completion is for a formula of ${completion.variables} variables but this one declares ${cnf.variables}` };
+  }
   if ((search?.size ?? 0) !== n) {
-    return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: `the search register ${search?.name ?? SEARCH_REGISTER} has ${search?.size ?? 0} qubits but the formula declares ${n} variables` };
+    const what = completion === undefined ? `the formula declares ${n} variables` : `the free register holds ${n} variables`;
+    return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: `the search register ${search?.name ?? SEARCH_REGISTER} has ${search?.size ?? 0} qubits but ${what}` };
   }
   if (kind === "flag" && reg("target")?.size !== 1) {
     return { ...base, method: "exhaustive", simulator: "bit-parallel", problem: "a flag oracle needs a target register of one qubit" };
@@ -138,9 +158,9 @@ export async function verifyOracle(cnf: Cnf, circuit: Circuit, opts: VerifyOptio
   const program = compileBitProgram(circuit);
   const stateVector = "unsupported" in program;
   const exhaustive = n <= (stateVector ? Math.min(limit, STATE_VECTOR_EXHAUSTIVE) : limit);
-  const inputs = exhaustive ? null : sampledInputs(cnf, opts, seed, stateVector);
-  const run = stateVector ? runStateVector(cnf, circuit, kind, inputs, opts, seed) : await runBitParallel(cnf, circuit, program, kind, inputs, opts, seed);
-  return verdict(run, inputs);
+  const inputs = exhaustive ? null : sampledInputs(cnf, opts, seed, stateVector, completion);
+  const run = stateVector ? runStateVector(cnf, circuit, kind, inputs, opts, seed, completion) : await runBitParallel(cnf, circuit, program, kind, inputs, opts, seed, completion);
+  return { ...verdict(run, inputs, completion !== undefined), register: registerKind };
 }
 
 /** What one simulator run found, before the verdict. */
@@ -161,10 +181,23 @@ interface SampledInputs {
   readonly hasNonModels: boolean;
 }
 
-function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector: boolean): SampledInputs {
+function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector: boolean, completion: Completion | undefined): SampledInputs {
   const conflictLimit = opts.conflictLimit ?? DEFAULT_CONFLICT_LIMIT;
   const found = findModels(cnf, opts.models ?? (stateVector ? 16 : 64), { seed, conflictLimit });
   const search: ModelSearchReport = { status: found.status, found: found.models.length, all: found.all, conflicts: found.conflicts, conflictLimit };
+  if (completion !== undefined) {
+    // A free register: the models' register values (marked), and each with one register bit
+    // flipped (mostly unmarked: just outside the projection).
+    const reg = completion.register;
+    const projected = found.models.map((m) => Uint8Array.from(reg, (v) => m[v - 1]!));
+    const flipped: Uint8Array[] = [];
+    for (let j = 0; j < FALSIFYING && reg.length > 0; j++) {
+      const a = projected.length > 0 ? projected[j % projected.length]!.slice() : Uint8Array.from(reg, (_, i) => hash3(seed, -1 - j, i) & 1);
+      a[j % reg.length]! ^= 1;
+      flipped.push(a);
+    }
+    return { samples: opts.samples ?? (stateVector ? 256 : 4096), explicit: [...projected, ...flipped], search, falsifying: flipped.length, hasNonModels: true };
+  }
   const { clauses, hasNonModels } = falsifiable(cnf);
   // Each assignment falsifies one clause and, where a model was found, agrees with it elsewhere:
   // an input just outside the marked set, where an oracle that mishandles one clause goes wrong.
@@ -211,7 +244,7 @@ function falsifiable(cnf: Cnf): { clauses: number[]; hasNonModels: boolean } {
  * Verified only when there was no mismatch and both kinds of input were checked, or the formula
  * is shown to have none of one kind: checking only unmarked inputs proves nothing about marking.
  */
-function verdict(run: Run, inputs: SampledInputs | null): VerifyResult {
+function verdict(run: Run, inputs: SampledInputs | null, free: boolean): Omit<VerifyResult, "register"> {
   const nonModels = run.assignments - run.models;
   const notes: string[] = [];
   let unchecked: string | undefined;
@@ -229,7 +262,7 @@ function verdict(run: Run, inputs: SampledInputs | null): VerifyResult {
       ? `no satisfying assignment was checked: the CDCL solver spent its budget of ${s.conflictLimit} conflicts without finding one or proving that there is none`
       : "no satisfying assignment was checked";
   } else if (nonModels === 0 && inputs.hasNonModels) {
-    unchecked = "no assignment that falsifies the formula was checked";
+    unchecked = free ? "no register value outside the formula's projection was checked" : "no assignment that falsifies the formula was checked";
   }
   return {
     ...common,
@@ -244,9 +277,10 @@ function verdict(run: Run, inputs: SampledInputs | null): VerifyResult {
 }
 
 async function runBitParallel(
-  cnf: Cnf, circuit: Circuit, program: BitProgram, kind: "phase" | "flag", inputs: SampledInputs | null, opts: VerifyOptions, seed: number,
+  cnf: Cnf, circuit: Circuit, program: BitProgram, kind: "phase" | "flag", inputs: SampledInputs | null, opts: VerifyOptions, seed: number, completion: Completion | undefined,
 ): Promise<Run> {
-  const n = cnf.variables;
+  const n = completion?.register.length ?? cnf.variables;
+  const completed = completion === undefined ? undefined : completionProgram(cnf, completion);
   const reg = (role: string) => circuit.registers.find((r) => r.role === role);
   const models = inputs === null ? new Uint8Array(0) : flatten(inputs.explicit, n);
   const modelCount = inputs === null ? 0 : inputs.explicit.length;
@@ -254,7 +288,7 @@ async function runBitParallel(
   const totalWords = inputs === null ? (n >= 5 ? 2 ** (n - 5) : 1) : Math.ceil((samples + modelCount) / 32);
   const work = reg("work");
   // Words per block: 64, or fewer when a block of that many words over every qubit would be large.
-  const perWord = 4 * (program.qubits + program.clbits);
+  const perWord = 4 * (program.qubits + program.clbits + (completed?.slots ?? 0));
   const blockWords = Math.max(1, Math.min(64, totalWords, Math.floor(BLOCK_BYTES / Math.max(1, perWord))));
   const job: VerifyJob = {
     program, variables: n, lits: cnf.lits, clauseStart: cnf.clauseStart, kind,
@@ -262,13 +296,14 @@ async function runBitParallel(
     workStart: work?.start ?? 0, workEnd: (work?.start ?? 0) + (work?.size ?? 0),
     seed, mode: inputs === null ? "exhaustive" : "sampled",
     blockWords, fromWord: 0, toWord: totalWords, samples, models, modelCount,
+    ...(completed === undefined ? {} : { completion: completed }),
   };
   const result = await runJob(job, totalWords, opts);
   return {
     simulator: "bit-parallel",
     assignments: result.checked,
     models: result.models,
-    counterexample: result.firstBad < 0 ? null : describe(job, circuit, result.firstBad),
+    counterexample: result.firstBad < 0 ? null : describe(job, circuit, result.firstBad, cnf, completion),
   };
 }
 
@@ -318,12 +353,12 @@ async function runJob(job: VerifyJob, totalWords: number, opts: VerifyOptions): 
 }
 
 /** Re-runs the failing lane alone and words what went wrong. */
-function describe(job: VerifyJob, c: Circuit, lane: number): Counterexample {
+function describe(job: VerifyJob, c: Circuit, lane: number, cnf: Cnf, completion: Completion | undefined): Counterexample {
   const n = job.variables;
   const assignment = Array.from({ length: n }, (_, v) =>
     job.mode === "exhaustive" ? Math.floor(lane / 2 ** v) % 2 === 1 : sampleBit(job, lane, v) === 1,
   );
-  const f = evaluate({ variables: n, lits: job.lits, clauseStart: job.clauseStart }, assignment);
+  const { f, shown } = expectedValue(cnf, completion, assignment);
   const name = (q: number): string => {
     const r = c.registers.find((x) => q >= x.start && q < x.start + x.size)!;
     return `${r.name}[${q - r.start}]`;
@@ -350,12 +385,53 @@ function describe(job: VerifyJob, c: Circuit, lane: number): Counterexample {
     }
     if (found.length > 0) problems.push(`${job.program.measurements > 0 ? `with measurement outcomes pattern ${b}: ` : ""}${found.join(", ")}`);
   }
-  return { assignment, dimacs: dimacsOf(assignment), expected, actual: problems.join("; ") || "a mismatch" };
+  return { ...shown, expected, actual: problems.join("; ") || "a mismatch" };
+}
+
+/**
+ * The formula's value for a search-register value and how a counterexample shows it: the
+ * assignment itself (full register), or its completion with the register value beside it.
+ */
+function expectedValue(cnf: Cnf, completion: Completion | undefined, value: boolean[]): { f: boolean; shown: Omit<Counterexample, "expected" | "actual"> } {
+  if (completion === undefined) return { f: evaluate(cnf, value), shown: { assignment: value, dimacs: dimacsOf(value) } };
+  const full = Array.from(completeAssignment(completion, value), (b) => b === 1);
+  const reg = completion.register;
+  const registerDimacs = `${value.map((on, i) => (on ? reg[i]! : -reg[i]!)).join(" ")}${value.length ? " " : ""}0`;
+  return { f: evaluate(cnf, full), shown: { assignment: full, dimacs: dimacsOf(full), registerValue: value, registerDimacs } };
+}
+
+const KIND_CODE = { equiv: 0, not: 1, and: 2, or: 3, xor: 4, xnor: 5 } as const;
+
+/** The completion rule and the formula over compact slots, for the bit-parallel kernel. */
+function completionProgram(cnf: Cnf, c: Completion): CompletionProgram {
+  const slot = new Map<number, number>();
+  const at = (v: number): number => {
+    let s = slot.get(v);
+    if (s === undefined) slot.set(v, (s = slot.size));
+    return s;
+  };
+  const operand = (l: number): number => (at(Math.abs(l)) << 1) | (l < 0 ? 1 : 0);
+  const regSlot = Int32Array.from(c.register, at);
+  const fixedSlot = Int32Array.from(c.fixed, (l) => at(Math.abs(l)));
+  const fixedValue = Uint8Array.from(c.fixed, (l) => (l > 0 ? 1 : 0));
+  const defIn: number[] = [];
+  const defInStart = [0];
+  for (const d of c.definitions) {
+    for (const l of d.inputs) defIn.push(operand(l));
+    defInStart.push(defIn.length);
+  }
+  const defSlot = Int32Array.from(c.definitions, (d) => at(d.variable));
+  const lits = Int32Array.from(cnf.lits, operand);
+  return {
+    slots: slot.size, regSlot, fixedSlot, fixedValue, defSlot, defKind: Uint8Array.from(c.definitions, (d) => KIND_CODE[d.kind]),
+    defInStart: Uint32Array.from(defInStart), defIn: Int32Array.from(defIn), lits,
+  };
 }
 
 /** Circuits with S, T, or other non-classical gates: the exact state-vector simulator. */
-function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inputs: SampledInputs | null, opts: VerifyOptions, seed: number): Run {
-  const n = cnf.variables;
+function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inputs: SampledInputs | null, opts: VerifyOptions, seed: number, completion: Completion | undefined): Run {
+  const n = completion?.register.length ?? cnf.variables;
+  const value = (a: boolean[]): boolean => expectedValue(cnf, completion, a).f;
   const list: number[] = [];
   const assignments: boolean[][] = [];
   if (inputs === null) for (let x = 0; x < 2 ** n; x++) list.push(x);
@@ -367,17 +443,18 @@ function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inpu
   let models = 0;
   for (let i = 0; i < total; i++) {
     const a = inputs === null ? Array.from({ length: n }, (_, v) => Math.floor(list[i]! / 2 ** v) % 2 === 1) : assignments[i]!;
-    if (evaluate(cnf, a)) models++;
+    if (value(a)) models++;
   }
   const seeds = [seed, seed + 1];
+  const register = completion === undefined ? undefined : { size: n, value };
   for (const s of seeds) {
-    const bad = checkOracleSparse(circuit, cnf, { kind, seed: s, assignments: list, explicit: inputs === null ? undefined : assignments });
+    const bad = checkOracleSparse(circuit, cnf, { kind, seed: s, assignments: list, explicit: inputs === null ? undefined : assignments, register });
     opts.onProgress?.((s - seed + 1) / seeds.length);
     if (bad !== null) {
-      const f = evaluate(cnf, bad.assignment);
+      const { f, shown } = expectedValue(cnf, completion, bad.assignment);
       return {
         simulator: "state-vector", assignments: total, models,
-        counterexample: { assignment: bad.assignment, dimacs: dimacsOf(bad.assignment), expected: expectation(kind, f), actual: bad.message },
+        counterexample: { ...shown, expected: expectation(kind, f), actual: bad.message },
       };
     }
   }

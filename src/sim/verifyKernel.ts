@@ -7,9 +7,32 @@ import { newBlock, runBlock, type BitBlock, type BitProgram } from "./bitsim.js"
 /** Lane patterns: bit j of LANE[v] is bit v of j. */
 const LANE = [0xaaaaaaaa | 0, 0xcccccccc | 0, 0xf0f0f0f0 | 0, 0xff00ff00 | 0, 0xffff0000 | 0];
 
+/**
+ * How a free register's value completes to an assignment (structure/completion.ts's rule) and the
+ * formula over that assignment, over compact slots (one per variable the rule or a clause names):
+ * plain typed arrays, so that workers receive them.
+ */
+export interface CompletionProgram {
+  /** Compact variables. */
+  readonly slots: number;
+  /** Slot of the variable each search qubit holds. */
+  readonly regSlot: Int32Array;
+  /** Slots fixed by unit propagation, and their values. */
+  readonly fixedSlot: Int32Array;
+  readonly fixedValue: Uint8Array;
+  /** Definitions in order: slot, kind (0 equiv, 1 not, 2 and, 3 or, 4 xor, 5 xnor), inputs as (slot << 1) | negated. */
+  readonly defSlot: Int32Array;
+  readonly defKind: Uint8Array;
+  readonly defInStart: Uint32Array;
+  readonly defIn: Int32Array;
+  /** The formula's literals as (slot << 1) | negated (clauses as in the job's clauseStart). */
+  readonly lits: Int32Array;
+}
+
 /** Everything a range of checks needs (structured-clone friendly for workers). */
 export interface VerifyJob {
   readonly program: BitProgram;
+  /** Search qubits (the formula's variables, or a free register's size). */
   readonly variables: number;
   readonly lits: Int32Array;
   readonly clauseStart: Uint32Array;
@@ -30,6 +53,8 @@ export interface VerifyJob {
   readonly samples: number;
   readonly models: Uint8Array;
   readonly modelCount: number;
+  /** A free register: the expected marking is the formula on the completed assignment. */
+  readonly completion?: CompletionProgram;
 }
 
 export interface RangeResult {
@@ -90,6 +115,8 @@ export function runVerifyRange(job: VerifyJob, onBlock?: (words: number) => void
   const b = newBlock(program, W);
   const init = new Int32Array(n * W);
   const f = new Int32Array(W);
+  const completion = job.completion;
+  const slots = completion === undefined ? new Int32Array(0) : new Int32Array(completion.slots);
   const badLanes = new Int32Array(W);
   const result: RangeResult = { checked: 0, bad: 0, firstBad: -1, models: 0 };
   const passes = job.kind === "flag" || program.measurements > 0 ? 2 : 1;
@@ -103,7 +130,7 @@ export function runVerifyRange(job: VerifyJob, onBlock?: (words: number) => void
       fillSearch(job, b, word0);
       if (pass === 0) {
         init.set(b.state.subarray(0, n * W));
-        for (let w = 0; w < W; w++) f[w] = formulaWord(lits, clauseStart, b.state, W, w);
+        for (let w = 0; w < W; w++) f[w] = completion === undefined ? formulaWord(lits, clauseStart, b.state, W, w) : completedWord(completion, clauseStart, b.state, W, w, slots);
       }
       const flagIn = pass === 1 ? -1 : 0;
       if (job.target >= 0) b.state.fill(flagIn, job.target * W, job.target * W + W);
@@ -145,6 +172,45 @@ function formulaWord(lits: Int32Array, clauseStart: Uint32Array, state: Int32Arr
       c |= l > 0 ? state[(l - 1) * W + w]! : ~state[(-l - 1) * W + w]!;
     }
     acc &= c;
+  }
+  return acc;
+}
+
+/** The formula's value on the 32 lanes of word w, on the completion of the register's values. */
+function completedWord(c: CompletionProgram, clauseStart: Uint32Array, state: Int32Array, W: number, w: number, v: Int32Array): number {
+  v.fill(0);
+  for (let i = 0; i < c.regSlot.length; i++) v[c.regSlot[i]!] = state[i * W + w]!;
+  for (let i = 0; i < c.fixedSlot.length; i++) v[c.fixedSlot[i]!] = c.fixedValue[i] ? -1 : 0;
+  const input = (k: number): number => {
+    const o = c.defIn[k]!;
+    return o & 1 ? ~v[o >>> 1]! : v[o >>> 1]!;
+  };
+  for (let d = 0; d < c.defSlot.length; d++) {
+    const s = c.defInStart[d]!;
+    const e = c.defInStart[d + 1]!;
+    const kind = c.defKind[d]!;
+    let r: number;
+    if (kind <= 1) r = kind === 0 ? input(s) : ~input(s);
+    else if (kind === 2) {
+      r = -1;
+      for (let k = s; k < e; k++) r &= input(k);
+    } else if (kind === 3) {
+      r = 0;
+      for (let k = s; k < e; k++) r |= input(k);
+    } else {
+      r = kind === 5 ? -1 : 0;
+      for (let k = s; k < e; k++) r ^= input(k);
+    }
+    v[c.defSlot[d]!] = r;
+  }
+  let acc = -1;
+  for (let i = 0; i + 1 < clauseStart.length && acc !== 0; i++) {
+    let x = 0;
+    for (let k = clauseStart[i]!; k < clauseStart[i + 1]!; k++) {
+      const o = c.lits[k]!;
+      x |= o & 1 ? ~v[o >>> 1]! : v[o >>> 1]!;
+    }
+    acc &= x;
   }
   return acc;
 }

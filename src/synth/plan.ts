@@ -43,8 +43,14 @@ export interface StructuredFormula {
   readonly structure: Structure;
   /** The local variable held by each search qubit. */
   readonly register: Int32Array;
-  /** True: definitions are computed into work qubits (free register); false: checked. */
+  /**
+   * True (free register): definitions are computed into work qubits, except those of constant
+   * variables, which are checked against their constant. False (full register): every
+   * definition is checked against its variable's search qubit.
+   */
   readonly computeDefinitions: boolean;
+  /** Local literals fixed true by unit propagation (constants, not qubits). */
+  readonly constants: Int32Array;
   /** The clauses left as clauses, simplified (local variables). */
   readonly remaining: SimplifiedCnf;
 }
@@ -84,7 +90,7 @@ export function planOracle(cnf: Cnf, mode: RegisterMode, structure: boolean): Or
     const remaining = simplifyRemaining(s.remaining, clauses);
     return {
       variables: cnf.variables, register: completion.register, completion, clauses,
-      structured: { structure: s, register: completion.register, computeDefinitions: false, remaining },
+      structured: { structure: s, register: completion.register, computeDefinitions: false, constants: new Int32Array(0), remaining },
       summary: summaryOf(s, remaining),
     };
   }
@@ -94,8 +100,26 @@ export function planOracle(cnf: Cnf, mode: RegisterMode, structure: boolean): Or
   const searched = Int32Array.from(r.searched);
   const plainCompletion: Completion = { variables: cnf.variables, register: searched, fixed, definitions: [] };
   if (!structure || r.unsat) return { variables: cnf.variables, register: searched, completion: plainCompletion, clauses, structured: null, summary: structure ? nothing(clauses) : null };
+  const reducedFirst = afterPropagation(cnf, r, clauses, fixed);
+  const recoveredFirst = cnf.variables <= DENSE_LIMIT ? beforePropagation(cnf, r, fixed) : null;
+  // The smaller register wins (each free variable doubles the search space); on a tie, recovery
+  // after propagation (its formula is smaller).
+  const best = reducedFirst === null ? recoveredFirst : recoveredFirst === null || reducedFirst.register.length <= recoveredFirst.register.length ? reducedFirst : recoveredFirst;
+  return best ?? { variables: cnf.variables, register: searched, completion: plainCompletion, clauses, structured: null, summary: nothing(clauses) };
+}
+
+/** Declared variables up to which recovery before propagation is also tried (it indexes by variable). */
+const DENSE_LIMIT = 1 << 22;
+
+/**
+ * The free register by recovery on the reduced formula (after unit propagation and dropping
+ * variables in no open clause): its free variables are the register, its definitions computed.
+ * Null when nothing is recovered.
+ */
+function afterPropagation(cnf: Cnf, r: Reduction, clauses: SimplifiedCnf, fixed: Int32Array): OraclePlan | null {
+  const searched = Int32Array.from(r.searched);
   const s = recoverStructure(r.cnf);
-  if (!recovered(s)) return { variables: cnf.variables, register: searched, completion: plainCompletion, clauses, structured: null, summary: nothing(clauses) };
+  if (!recovered(s)) return null;
   const remaining = simplifyRemaining(s.remaining, clauses);
   const back = (l: number): number => (l > 0 ? searched[l - 1]! : -searched[-l - 1]!);
   const register = Int32Array.from(s.free, (v) => searched[v - 1]!);
@@ -105,7 +129,37 @@ export function planOracle(cnf: Cnf, mode: RegisterMode, structure: boolean): Or
     register,
     completion: { variables: cnf.variables, register, fixed, definitions },
     clauses,
-    structured: { structure: s, register: s.free, computeDefinitions: true, remaining },
+    structured: { structure: s, register: s.free, computeDefinitions: true, constants: new Int32Array(0), remaining },
+    summary: summaryOf(s, remaining),
+  };
+}
+
+/**
+ * The free register by recovery on the whole formula, with the values unit propagation fixes as
+ * constants: the register is the free variables that are neither fixed nor in only satisfied
+ * clauses (those take 0: flipping one keeps every clause satisfied, and the definitions computed
+ * from it keep their values in every model). A definition of a fixed variable becomes a check
+ * against its constant. On a circuit whose output propagation forces, recovery after propagation
+ * can leave a forced gate as a parity constraint and define an input from it instead; here the
+ * circuit's inputs stay the register. Null when nothing is recovered.
+ */
+function beforePropagation(cnf: Cnf, r: Reduction, fixed: Int32Array): OraclePlan | null {
+  const s = recoverStructure(cnf);
+  if (!recovered(s)) return null;
+  const isFixed = new Uint8Array(cnf.variables + 1);
+  for (const l of fixed) isFixed[Math.abs(l)] = 1;
+  const open = new Uint8Array(cnf.variables + 1);
+  for (const v of r.searched) open[v] = 1;
+  const register = s.free.filter((v) => !isFixed[v] && open[v] === 1);
+  const definitions = s.definitions.filter((d) => !isFixed[d.variable]);
+  const clauses = simplify(cnf);
+  const remaining = simplifyRemaining(s.remaining, clauses);
+  return {
+    variables: cnf.variables,
+    register,
+    completion: { variables: cnf.variables, register, fixed, definitions },
+    clauses: simplify(r.cnf),
+    structured: { structure: s, register, computeDefinitions: true, constants: fixed, remaining },
     summary: summaryOf(s, remaining),
   };
 }

@@ -277,8 +277,17 @@ export function synthesizeStructured(f: StructuredFormula, kind: OracleKind, str
   const b = new CircuitBuilder(layout, 4 * (s.definitions.length + f.remaining.clauseStart.length) + 16);
   const checks = new Checks(b);
   const N = s.variables;
+  // Variables neither on the register, constant nor defined take 0 (see Completion, rule 5).
   const sig = new Int32Array(N + 1).fill(FALSE);
-  for (let i = 0; i < n; i++) sig[f.register[i]!] = pos(i);
+  const held = new Uint8Array(N + 1);
+  for (const l of f.constants) {
+    sig[Math.abs(l)] = l > 0 ? TRUE : FALSE;
+    held[Math.abs(l)] = 1;
+  }
+  for (let i = 0; i < n; i++) {
+    sig[f.register[i]!] = pos(i);
+    held[f.register[i]!] = 1;
+  }
   const lit = (l: number): number => (l > 0 ? sig[l]! : negate(sig[-l]!));
   const value = (d: (typeof s.definitions)[number]): { signal: number; owned: number } => {
     const ins = d.inputs.map(lit);
@@ -301,15 +310,25 @@ export function synthesizeStructured(f: StructuredFormula, kind: OracleKind, str
       }
     }
   };
-  if (f.computeDefinitions) {
-    for (const d of s.definitions) sig[d.variable] = value(d).signal;
-    checks.persistentEnd = checks.ops.n;
-  } else {
-    for (const d of s.definitions) {
-      checks.beginSegment();
-      const v = value(d);
-      checks.equal(v.signal, v.owned, sig[d.variable]!);
-    }
+  // A definition is computed (free register, its variable neither on the register nor constant)
+  // or checked against its variable's signal. Computed ones nothing reads are left out.
+  const defs = s.definitions;
+  const computed = defs.map((d) => f.computeDefinitions && !held[d.variable]);
+  const needed = new Uint8Array(N + 1);
+  const need = (l: number): void => {
+    needed[Math.abs(l)] = 1;
+  };
+  for (const p of s.parities) p.variables.forEach(need);
+  for (const g of s.groups) g.variables.forEach(need);
+  f.remaining.lits.forEach(need);
+  for (let d = defs.length - 1; d >= 0; d--) if (!computed[d] || needed[defs[d]!.variable]) defs[d]!.inputs.forEach(need);
+  for (let d = 0; d < defs.length; d++) if (computed[d] && needed[defs[d]!.variable]) sig[defs[d]!.variable] = value(defs[d]!).signal;
+  checks.persistentEnd = checks.ops.n;
+  for (let d = 0; d < defs.length; d++) {
+    if (computed[d]) continue;
+    checks.beginSegment();
+    const v = value(defs[d]!);
+    checks.equal(v.signal, v.owned, sig[defs[d]!.variable]!);
   }
   for (const p of s.parities) {
     checks.beginSegment();

@@ -26,7 +26,7 @@ describe("clausegate oracle", () => {
     const report = JSON.parse(readFileSync(rep, "utf8"));
     expect(Object.keys(report)).toEqual([
       "variables", "clauses", "kind", "strategy", "basis", "uncompute", "qubits", "gates", "toffoli_count", "t_count",
-      "t_depth", "cnot_count", "depth", "measurements", "simplification",
+      "t_depth", "cnot_count", "depth", "measurements", "simplification", "register",
     ]);
     expect(report).toMatchObject({ variables: 12, clauses: 19, kind: "flag", strategy: "lean", basis: "clifford+t", uncompute: "measured" });
     expect(report.qubits.search).toBe(12);
