@@ -4,7 +4,8 @@
  * plan, search, draw, oracle, cost and forecast.
  */
 import {
-  completeModel, evaluate, reduceSearch, registerOf, type Cnf, type Reduction, type RegisterMode, type RegisterPlan,
+  completeModel, evaluate, reduceSearch, registerOf, type Cnf, type Oracle, type Reduction, type RegisterMode, type RegisterPlan,
+  type StructureSummary,
 } from "../internal.js";
 import { UserError } from "./io.js";
 
@@ -48,12 +49,41 @@ export function searchProblem(cnf: Cnf, o: { register: RegisterMode; structure: 
   return { mode: "free", structure: o.structure, n: plan.register.length, variables: cnf.variables, plan, reduction, counted: reduction.cnf };
 }
 
+/** The register of a compiled oracle, as a SearchProblem (what registerText and registerJson take). */
+export function problemOfOracle(cnf: Cnf, o: Pick<Oracle, "options" | "register" | "completion" | "structure">): SearchProblem {
+  const { register, structure } = o.options;
+  if (register === "full") return { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, reduction: undefined, counted: cnf };
+  return {
+    mode: "free", structure, n: o.register.length, variables: cnf.variables,
+    plan: { register: o.register, completion: o.completion, structure: o.structure }, reduction: undefined, counted: cnf,
+  };
+}
+
+/** What structure recovery gave, in words. */
+export function structureText(s: StructureSummary | null): string {
+  if (s === null) return "recovery off (--no-structure): the clause construction";
+  if (!s.used) return "none recovered: the clause construction";
+  return `${plural(s.definitions, "definition")}, ${plural(s.parities, "parity constraint")}, ${plural(s.groups, "one-hot group")}, ${plural(s.remainingClauses, "remaining clause")}`;
+}
+
+/** What structure recovery gave, as JSON (null when recovery was off). */
+export function structureJson(s: StructureSummary | null) {
+  if (s === null) return null;
+  return { used: s.used, definitions: s.definitions, parities: s.parities, groups: s.groups, remaining_clauses: s.remainingClauses, remaining_literals: s.remainingLiterals };
+}
+
 const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
 
 /** "1 2 3", or (unless `all`) the first 48 and how many more. */
 function listText(vs: ArrayLike<number>, all: boolean): string {
   const shown = Array.from({ length: all ? vs.length : Math.min(vs.length, vs.length > 64 ? 48 : 64) }, (_, i) => vs[i]!);
   return vs.length > shown.length ? `${shown.join(" ")} ... (${vs.length - shown.length} more; --json lists all)` : shown.join(" ") || "(none)";
+}
+
+/** Variables that are neither in the register, nor fixed, nor defined: step 5 of the completion (0 chosen). */
+function others(p: SearchProblem): number {
+  const c = p.plan!.completion;
+  return p.variables - p.n - c.fixed.length - c.definitions.length;
 }
 
 /** One line for people: what the register holds and where the other variables come from (`all`: every variable listed). */
@@ -63,7 +93,7 @@ export function registerText(p: SearchProblem, all = false): string {
   const parts = [
     `${c.fixed.length} fixed by unit propagation`,
     ...(p.structure ? [`${c.definitions.length} defined`] : []),
-    `${p.reduction!.freeCount} in no open clause`,
+    `${others(p)} in no open clause`,
   ];
   return `free (vars[i] is variable ${listText(p.plan!.register, all)}; of ${p.variables}: ${parts.join(", ")}${p.structure ? "" : "; structure recovery off"})`;
 }
@@ -79,7 +109,6 @@ export function registerJson(p: SearchProblem) {
     };
   }
   const c = p.plan!.completion;
-  const r = p.reduction!;
   return {
     register_mode: "free" as const,
     structure: p.structure,
@@ -88,8 +117,7 @@ export function registerJson(p: SearchProblem) {
       rule: COMPLETION_RULE,
       fixed: Array.from(c.fixed, (l) => ({ variable: Math.abs(l), value: l > 0 })),
       definitions: c.definitions.map((d) => ({ variable: d.variable, kind: d.kind, inputs: [...d.inputs] })),
-      unconstrained: r.free.map(({ first, last }) => ({ first, last })),
-      unconstrained_count: r.freeCount,
+      other_variables: others(p),
     },
   };
 }
