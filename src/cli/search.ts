@@ -646,7 +646,6 @@ export async function drawCommand(argv: string[]): Promise<number> {
   if (values.search && o.kind === "flag") throw new UserError("clausegate draw: error: a search uses the phase oracle; hint: leave out --kind flag, or leave out --search to draw the flag oracle");
   const cnf = await loadCnf(file);
   const what = values.search ? "search circuit" : "oracle";
-  if (o.register === "full") checkCircuitSize(cnf, file, "draw");
   const register = searchProblem(cnf, o);
   const n = register.n;
   // Sizes first: the search register alone is one qubit per register variable.
@@ -654,6 +653,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
     const free = o.register === "full" ? ", or --register free" : "";
     throw new UserError(`clausegate draw: error: refusing to draw: the ${what} has at least ${n} qubits (one per ${o.register === "full" ? "variable" : "variable of the free register"}); diagrams stay readable up to ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; hint: draw a formula with at most ${DRAW_LIMITS.qubits} ${o.register === "full" ? "variables" : "free variables"}${free}, or clausegate cost ${displayName(file)} for the numbers`);
   }
+  checkCircuitSize(cnf, file, "draw");
   let circuit: Circuit;
   let title: string;
   let K = 0;
