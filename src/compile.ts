@@ -142,7 +142,7 @@ export function registerOf(cnf: Cnf, options: Pick<OracleOptions, "register" | "
 
 /**
  * Completes a value of an oracle's search register (`registerValue[i]` is search qubit i, as
- * measured) to an assignment of every declared variable (index v - 1 for variable v, 0/1):
+ * measured; nonzero or true is 1) to an assignment of every declared variable (index v - 1 for variable v, 0/1):
  * register variables take their measured values, variables fixed by unit propagation their forced
  * values, defined variables are computed from their definitions in order, and every other
  * variable (one in no clause left open by the fixed values, whose value cannot matter) is 0. For a
@@ -155,7 +155,7 @@ export function registerOf(cnf: Cnf, options: Pick<OracleOptions, "register" | "
  * const model = completeModel(oracle, measuredBits); // satisfies cnf when the oracle marks measuredBits
  * ```
  */
-export function completeModel(oracle: Pick<Oracle, "completion">, registerValue: ArrayLike<0 | 1 | boolean>): Uint8Array {
+export function completeModel(oracle: Pick<Oracle, "completion">, registerValue: ArrayLike<number | boolean>): Uint8Array {
   return completeAssignment(oracle.completion, registerValue);
 }
 

@@ -9,6 +9,7 @@ import { reduceSearch, type Reduction } from "../cnf/reduce.js";
 import { fullCompletion, type Completion } from "../structure/completion.js";
 import { recoverStructure, type Definition, type Structure } from "../structure/index.js";
 import { simplify, type SimplifiedCnf } from "./simplify.js";
+import { clauseAnds, structuredAnds } from "./structured.js";
 
 /**
  * `full`: the search register holds every declared variable (vars[v-1] is variable v) and the
@@ -30,7 +31,10 @@ export interface StructureSummary {
   readonly remainingClauses: number;
   /** Literals in them. */
   readonly remainingLiterals: number;
-  /** False when nothing was recovered: the oracle is then the plain clause construction. */
+  /**
+   * False when the oracle is the plain clause construction: nothing was recovered, or (full
+   * register) the structured construction would not need fewer two-input ANDs.
+   */
   readonly used: boolean;
 }
 
@@ -78,7 +82,9 @@ export interface OraclePlan {
 /**
  * Plans the oracle of `cnf`. With `structure` false, or when recovery finds nothing, the oracle is
  * today's clause construction (over all variables, or over the reduced formula for a free
- * register), gate for gate.
+ * register), gate for gate. On a full register structure is used only when it needs fewer
+ * two-input ANDs (Toffoli-equivalents) than the clause construction; on a free register always
+ * (it shrinks the register).
  */
 export function planOracle(cnf: Cnf, mode: RegisterMode, structure: boolean): OraclePlan {
   if (mode === "full") {
@@ -88,11 +94,12 @@ export function planOracle(cnf: Cnf, mode: RegisterMode, structure: boolean): Or
     const s = recoverStructure(cnf);
     if (!recovered(s)) return { variables: cnf.variables, register: completion.register, completion, clauses, structured: null, summary: nothing(clauses) };
     const remaining = simplifyRemaining(s.remaining, clauses);
-    return {
-      variables: cnf.variables, register: completion.register, completion, clauses,
-      structured: { structure: s, register: completion.register, computeDefinitions: false, constants: new Int32Array(0), remaining },
-      summary: summaryOf(s, remaining),
-    };
+    const structured: StructuredFormula = { structure: s, register: completion.register, computeDefinitions: false, constants: new Int32Array(0), remaining };
+    // The register is the same either way: structure is only worth what it saves. It can save
+    // nothing when unit clauses subsume most of a definition's clauses, which the clause
+    // construction then drops.
+    if (structuredAnds(structured) >= clauseAnds(clauses)) return { variables: cnf.variables, register: completion.register, completion, clauses, structured: null, summary: { ...summaryOf(s, remaining), used: false } };
+    return { variables: cnf.variables, register: completion.register, completion, clauses, structured, summary: summaryOf(s, remaining) };
   }
   const r = reduceSearch(cnf);
   const clauses = simplify(r.cnf);

@@ -31,6 +31,7 @@
 import { CircuitBuilder, K, pos, type Circuit } from "../ir/circuit.js";
 import { mark, type OracleKind } from "./common.js";
 import type { StructuredFormula } from "./plan.js";
+import type { SimplifiedCnf } from "./simplify.js";
 
 /** Constant signals. */
 const FALSE = -2;
@@ -271,10 +272,50 @@ class Checks {
  * qubit i holds local variable `f.register[i]`; a flag oracle's target follows the register.
  */
 export function synthesizeStructured(f: StructuredFormula, kind: OracleKind, strategy: "wide" | "lean"): Circuit {
-  const s = f.structure;
   const n = f.register.length;
   const layout = { search: n, target: kind === "flag" ? 1 : 0 };
-  const b = new CircuitBuilder(layout, 4 * (s.definitions.length + f.remaining.clauseStart.length) + 16);
+  const b = new CircuitBuilder(layout, 4 * (f.structure.definitions.length + f.remaining.clauseStart.length) + 16);
+  const checks = collectChecks(f, b);
+  if (checks.unsat) return new CircuitBuilder(layout).finish(); // f = 0: the identity
+  const target = n;
+  if (checks.violated.n === 0) {
+    // Nothing left to check: f = 1 on every register value.
+    const out = new CircuitBuilder(layout);
+    if (kind === "phase") out.add(K.gphase, 4);
+    else out.add(K.x, pos(target));
+    return out.finish();
+  }
+  return strategy === "wide" ? wide(b, checks, kind, target, layout) : lean(b, checks, kind, target);
+}
+
+/**
+ * Two-input ANDs (Toffoli-equivalents) of the wide phase oracle of a structured formula, one way
+ * up: a w-input AND is w - 1 of them and the mark over c bits c - 2. The same measure as
+ * {@link clauseAnds}, for choosing the cheaper construction.
+ */
+export function structuredAnds(f: StructuredFormula): number {
+  const checks = collectChecks(f, new CircuitBuilder({ search: f.register.length, target: 0 }));
+  if (checks.unsat) return 0;
+  const ops = checks.ops;
+  let ands = 0;
+  for (let i = 0; i < ops.n; i++) if (ops.kinds[i] === K.and) ands += ops.starts[i + 1]! - ops.starts[i]! - 2;
+  const marks = new Set(checks.violated.a.subarray(0, checks.violated.n)).size;
+  return ands + Math.max(0, marks - 2);
+}
+
+/** The same measure for the clause construction (synth/wide.ts) of simplified clauses. */
+export function clauseAnds(c: SimplifiedCnf): number {
+  if (c.unsat) return 0;
+  const m = c.clauseStart.length - 1;
+  let ands = 0;
+  for (let i = 0; i < m; i++) ands += Math.max(0, c.clauseStart[i + 1]! - c.clauseStart[i]! - 1);
+  return ands + Math.max(0, m - 2);
+}
+
+/** The checks of a structured formula (see the file comment), recorded, with their violated bits. */
+function collectChecks(f: StructuredFormula, b: CircuitBuilder): Checks {
+  const s = f.structure;
+  const n = f.register.length;
   const checks = new Checks(b);
   const N = s.variables;
   // Variables neither on the register, constant nor defined take 0 (see Completion, rule 5).
@@ -349,16 +390,7 @@ export function synthesizeStructured(f: StructuredFormula, kind: OracleKind, str
     checks.clause(clause);
   }
   checks.beginSegment(); // sentinel
-  if (checks.unsat) return new CircuitBuilder(layout).finish(); // f = 0: the identity
-  const target = n;
-  if (checks.violated.n === 0) {
-    // Nothing left to check: f = 1 on every register value.
-    const out = new CircuitBuilder(layout);
-    if (kind === "phase") out.add(K.gphase, 4);
-    else out.add(K.x, pos(target));
-    return out.finish();
-  }
-  return strategy === "wide" ? wide(b, checks, kind, target, layout) : lean(b, checks, kind, target);
+  return checks;
 }
 
 function wide(b: CircuitBuilder, checks: Checks, kind: OracleKind, target: number, layout: { search: number; target: number }): Circuit {

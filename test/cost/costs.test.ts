@@ -5,7 +5,7 @@ import { describe, expect, it } from "vitest";
 import { randomKSat } from "../helpers/formulas.js";
 import { cnfFromClauses, compileOracle, compileSearch, costTable, countCircuit, oracleResources, searchCosts, type Cnf } from "../helpers/lib.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
-import { simplify, synthesize } from "../../dist/src/synth/index.js";
+import { planOracle, synthesizePlan } from "../../dist/src/synth/index.js";
 import { diffusionCircuit } from "../../dist/src/search/build.js";
 
 const formula = fc.integer({ min: 1, max: 7 }).chain((n) =>
@@ -16,7 +16,8 @@ const formula = fc.integer({ min: 1, max: 7 }).chain((n) =>
 );
 
 function builtRow(cnf: Cnf, kind: "phase" | "flag", strategy: "wide" | "lean" | "textbook", uncompute: "unitary" | "measured") {
-  const logical = synthesize(simplify(cnf), kind, strategy);
+  // The oracle compileOracle builds by default (structure used where recovered and cheaper).
+  const logical = synthesizePlan(planOracle(cnf, "full", true), kind, strategy);
   const ct = lowerAndOptimize(logical, "clifford+t", uncompute, true, strategy === "textbook");
   const tof = lowerAndOptimize(logical, "toffoli", uncompute, true, strategy === "textbook");
   const k = countCircuit(ct);
@@ -72,7 +73,7 @@ describe("oracleResources", () => {
   it("reports every key in snake_case, simplification included", () => {
     const cnf = cnfFromClauses(3, [[1, 1, 2], [1, -1], [1, 2, 3], [2]]);
     const r = oracleResources(cnf, compileOracle(cnf));
-    const keys = (o: object): string[] => Object.entries(o).flatMap(([k, v]) => [k, ...(v && typeof v === "object" && k !== "gates" ? keys(v) : [])]);
+    const keys = (o: object): string[] => Object.entries(o).flatMap(([k, v]) => [k, ...(v && typeof v === "object" && !Array.isArray(v) && k !== "gates" ? keys(v) : [])]);
     for (const k of keys(r)) expect(k).toMatch(/^[a-z]+(_[a-z]+)*$/);
     expect(r.simplification).toEqual({
       duplicate_literals: 1, tautologies: 1, repeated: 0, subsumed: 2, subsumption_complete: true, clauses_kept: 1, literals_kept: 1,

@@ -1,0 +1,90 @@
+// verifyOracle on free-register oracles: checked against the formula's projection (a register
+// value is marked exactly when some model extends it), exhaustively or sampled, on both
+// simulators and in workers; a failure names the register value and its completion.
+import { describe, expect, it } from "vitest";
+import { multiplier, randomCircuit, type Encoded } from "../helpers/encoders.js";
+import { colouring } from "../helpers/formulas.js";
+import { cnfFromClauses, compileOracle, evaluate, fullCompletion, verifyOracle, type Cnf } from "../helpers/lib.js";
+
+const cnfOf = (f: Encoded): Cnf => cnfFromClauses(f.variables, f.clauses);
+
+describe("verifyOracle with a free register", () => {
+  it("checks every register value and counts those whose completion is a model", async () => {
+    const cnf = cnfOf(multiplier(4, 4, 143n));
+    const o = compileOracle(cnf, { register: "free", basis: "toffoli", uncompute: "measured" });
+    expect(o.register.length).toBeLessThan(cnf.variables);
+    const r = await verifyOracle(cnf, o.circuit, { completion: o.completion });
+    expect(r).toMatchObject({ verified: true, method: "exhaustive", register: "free", assignments: 2 ** o.register.length, models: 2 });
+  });
+
+  it("names the failing register value and its completion", async () => {
+    // The free oracle of 15 = a x b checked against 21 = a x b: same register, different marks.
+    const a = cnfOf(multiplier(3, 3, 15n));
+    const b = cnfOf(multiplier(3, 3, 21n));
+    const o = compileOracle(a, { register: "free", basis: "mcx" });
+    const other = compileOracle(b, { register: "free", basis: "mcx" });
+    expect(Array.from(other.register)).toEqual(Array.from(o.register));
+    const r = await verifyOracle(b, o.circuit, { completion: other.completion, threads: 1 });
+    expect(r.verified).toBe(false);
+    const c = r.counterexample!;
+    expect(c.registerValue).toHaveLength(o.register.length);
+    expect(c.registerDimacs).toBe(`${c.registerValue!.map((on, i) => (on ? o.register[i]! : -o.register[i]!)).join(" ")} 0`);
+    expect(c.assignment).toHaveLength(b.variables);
+    expect(c.dimacs.split(" ")).toHaveLength(b.variables + 1);
+    // The completion agrees with the register value on the register's variables.
+    c.registerValue!.forEach((on, i) => expect(c.assignment[o.register[i]! - 1]).toBe(on));
+    expect(c.expected).toContain(evaluate(b, c.assignment) ? "phase -1" : "phase +1");
+  });
+
+  it("refuses a register of the wrong size or a completion of another formula, with the reason", async () => {
+    const cnf = cnfOf(multiplier(3, 3, 12n));
+    const free = compileOracle(cnf, { register: "free" });
+    const full = compileOracle(cnf);
+    const wrongSize = await verifyOracle(cnf, full.circuit, { completion: free.completion });
+    expect(wrongSize.verified).toBe(false);
+    expect(wrongSize.problem).toBe(`the search register vars has ${cnf.variables} qubits but the free register holds ${free.register.length} variables`);
+    const other = await verifyOracle(cnfFromClauses(3, [[1, 2]]), free.circuit, { completion: free.completion });
+    expect(other.problem).toBe(`the register's completion is for a formula of ${cnf.variables} variables but this one declares 3`);
+  });
+
+  it("treats the full register's completion as the plain check", async () => {
+    const cnf = cnfFromClauses(4, [[1, -2], [2, 3, -4]]);
+    const o = compileOracle(cnf, { basis: "mcx" });
+    const r = await verifyOracle(cnf, o.circuit, { completion: fullCompletion(4) });
+    expect(r).toMatchObject({ verified: true, register: "full", assignments: 16 });
+  });
+
+  it("samples register values above the exhaustive limit (model projections, one bit flipped, random)", async () => {
+    const cnf = cnfOf(randomCircuit(4, { inputs: 6, gates: 8, oneHot: 4 }));
+    const o = compileOracle(cnf, { register: "free", basis: "toffoli", uncompute: "measured", kind: "flag" });
+    expect(o.register.length).toBeGreaterThan(3);
+    const r = await verifyOracle(cnf, o.circuit, { completion: o.completion, exhaustiveLimit: 3, samples: 200, threads: 1 });
+    expect(r).toMatchObject({ verified: true, method: "sampled", register: "free" });
+    expect(r.models).toBeGreaterThan(0);
+    expect(r.nonModels).toBeGreaterThan(0);
+  });
+
+  it("runs Clifford+T free oracles on the state-vector simulator", async () => {
+    const cnf = cnfOf(multiplier(3, 3, 12n));
+    const o = compileOracle(cnf, { register: "free", basis: "clifford+t", uncompute: "measured" });
+    const r = await verifyOracle(cnf, o.circuit, { completion: o.completion });
+    expect(r).toMatchObject({ verified: true, simulator: "state-vector", method: "exhaustive", register: "free" });
+    const wrong = compileOracle(cnfOf(multiplier(3, 3, 6n)), { register: "free", basis: "clifford+t" });
+    if (wrong.register.length === o.register.length) {
+      const bad = await verifyOracle(cnf, wrong.circuit, { completion: o.completion });
+      expect(bad.verified).toBe(false);
+      expect(bad.counterexample?.registerDimacs).toMatch(/ 0$/);
+    }
+  });
+
+  it("splits a large register over worker threads (the completion travels with the job)", async () => {
+    // One-hot 4-colourings of a 7-cycle: 28 variables, P(C7, 4) = 3^7 - 3 = 2184 (chromatic polynomial).
+    const cnf = colouring(7, Array.from({ length: 7 }, (_, i) => [i, (i + 1) % 7] as [number, number]), 4);
+    const o = compileOracle(cnf, { register: "free", basis: "toffoli", uncompute: "measured" });
+    expect(o.register.length).toBeGreaterThanOrEqual(20);
+    const r = await verifyOracle(cnf, o.circuit, { completion: o.completion, threads: 2 });
+    expect(r).toMatchObject({ verified: true, method: "exhaustive", register: "free" });
+    const others = cnf.variables - o.register.length - o.completion.fixed.length - o.completion.definitions.length;
+    expect(r.models * 2 ** others).toBe(2184);
+  });
+});
