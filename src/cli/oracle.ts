@@ -1,6 +1,6 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
 import { parseArgs } from "node:util";
-import { compileOracle, costTable, oracleResources, registerOf, type Cnf, type CostRow, type Oracle } from "../internal.js";
+import { compileOracle, costTable, oracleResources, reduceSearch, registerOf, type Cnf, type CostRow, type Oracle } from "../internal.js";
 import { checkCircuitSize, displayName, loadCnf, progress, writeAtomic } from "./io.js";
 import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
@@ -164,8 +164,8 @@ export async function costCommand(argv: string[]): Promise<number> {
     bar.stop();
   }
   const problemOf = (plan: typeof plainRegister, structure: boolean): SearchProblem => reg.register === "full"
-    ? { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, reduction: undefined, counted: cnf }
-    : { mode: "free", structure, n: plan.register.length, variables: cnf.variables, plan, reduction: undefined, counted: cnf };
+    ? { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, counted: cnf }
+    : { mode: "free", structure, n: plan.register.length, variables: cnf.variables, plan, counted: reduceSearch(cnf).cnf };
   // The registers of the rows: with structure (when shown) and without.
   const problems = [...(both ? [problemOf(withStructure!, true)] : []), problemOf(plainRegister, false)];
   const clauses = cnf.clauseStart.length - 1;

@@ -4,7 +4,7 @@
  * plan, search, draw, oracle, cost and forecast.
  */
 import {
-  completeModel, evaluate, reduceSearch, registerOf, type Cnf, type Oracle, type Reduction, type RegisterMode, type RegisterPlan,
+  completeModel, evaluate, reduceSearch, registerOf, type Cnf, type Oracle, type RegisterMode, type RegisterPlan,
   type StructureSummary,
 } from "../internal.js";
 import { UserError } from "./io.js";
@@ -30,8 +30,6 @@ export interface SearchProblem {
   readonly variables: number;
   /** The register and its completion (free register only: a full register is 1..n). */
   readonly plan: RegisterPlan | undefined;
-  /** Unit propagation and unused variables behind a free register. */
-  readonly reduction: Reduction | undefined;
   /**
    * The formula whose model count is M over the register: the formula itself for a full register;
    * for a free one, the formula left by unit propagation over the variables still in clauses, whose
@@ -43,19 +41,18 @@ export interface SearchProblem {
 
 /** The register of `cnf` for the given options (no synthesis). */
 export function searchProblem(cnf: Cnf, o: { register: RegisterMode; structure: boolean }): SearchProblem {
-  if (o.register === "full") return { mode: "full", structure: o.structure, n: cnf.variables, variables: cnf.variables, plan: undefined, reduction: undefined, counted: cnf };
-  const reduction = reduceSearch(cnf);
+  if (o.register === "full") return { mode: "full", structure: o.structure, n: cnf.variables, variables: cnf.variables, plan: undefined, counted: cnf };
   const plan = registerOf(cnf, { register: "free", structure: o.structure });
-  return { mode: "free", structure: o.structure, n: plan.register.length, variables: cnf.variables, plan, reduction, counted: reduction.cnf };
+  return { mode: "free", structure: o.structure, n: plan.register.length, variables: cnf.variables, plan, counted: reduceSearch(cnf).cnf };
 }
 
 /** The register of a compiled oracle, as a SearchProblem (what registerText and registerJson take). */
 export function problemOfOracle(cnf: Cnf, o: Pick<Oracle, "options" | "register" | "completion" | "structure">): SearchProblem {
   const { register, structure } = o.options;
-  if (register === "full") return { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, reduction: undefined, counted: cnf };
+  if (register === "full") return { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, counted: cnf };
   return {
     mode: "free", structure, n: o.register.length, variables: cnf.variables,
-    plan: { register: o.register, completion: o.completion, structure: o.structure }, reduction: undefined, counted: cnf,
+    plan: { register: o.register, completion: o.completion, structure: o.structure }, counted: reduceSearch(cnf).cnf,
   };
 }
 

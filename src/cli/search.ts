@@ -56,7 +56,7 @@ ${registerHelp("free")}
   --json                      print the plan as JSON (snake_case keys); register_mode, structure,
                               register (the DIMACS variable of each search qubit, in order; null for a
                               full register above 2^20 qubits) and, for a free register, completion
-                              (fixed values, definitions in order, unconstrained variables, the rule)
+                              (the rule, fixed values, definitions in order, other_variables)
   --plot FILE.svg             plot the success probability against the number of iterations
   --simulate SEED             with M unknown: the iteration counts to run, round by round, drawn with SEED
   -h, --help                  show this help
