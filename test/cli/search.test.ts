@@ -285,12 +285,13 @@ describe("clausegate draw", { timeout: 60_000 }, () => {
     expect(cli(["draw", "examples/allotment-pair.cnf", "--basis", "mcx", "--no-structure", "-o", out]).code).toBe(0);
     const svg = readFileSync(out, "utf8");
     expect(checkXml(svg).ok).toBe(true);
-    // Six clauses of two literals, computed and uncomputed: 12 ANDs (4 open dots each for the two
-    // all-positive-literal clauses... counted exactly below), 12 targets, and the root: 6 open dots.
+    // Structure recovery finds two negations (2 <-> not 1, 4 <-> not 3), each checked by two CNOTs
+    // into a work qubit, and leaves two clauses of two literals (one 2-control AND each); all computed
+    // and uncomputed: 12 targets, 8 + 8 control dots, and the root over the 4 check bits: 4 dots.
     expect(countClass(svg, "target")).toBe(12);
-    expect(countClass(svg, "ctrl-on") + countClass(svg, "ctrl-off")).toBe(12 * 2 + 6);
+    expect(countClass(svg, "ctrl-on") + countClass(svg, "ctrl-off")).toBe(8 * 1 + 4 * 2 + 4);
     expect(svg).toContain(">vars[0]</text>");
-    expect(svg).toContain(">work[5]</text>");
+    expect(svg).toContain(">work[3]</text>");
   });
   it("draws a search circuit with measurements", () => {
     const out = join(dir, "s.svg");
