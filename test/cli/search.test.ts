@@ -282,7 +282,7 @@ describe("clausegate search", { timeout: 60_000 }, () => {
 describe("clausegate draw", { timeout: 60_000 }, () => {
   it("draws an oracle: dots for controls on 1, open dots for controls on 0, circled plus for targets", () => {
     const out = join(dir, "o.svg");
-    expect(cli(["draw", "examples/allotment-pair.cnf", "--basis", "mcx", "--no-structure", "-o", out]).code).toBe(0);
+    expect(cli(["draw", "examples/allotment-pair.cnf", "--basis", "mcx", "-o", out]).code).toBe(0);
     const svg = readFileSync(out, "utf8");
     expect(checkXml(svg).ok).toBe(true);
     // Structure recovery finds two negations (2 <-> not 1, 4 <-> not 3), each checked by two CNOTs
@@ -292,6 +292,14 @@ describe("clausegate draw", { timeout: 60_000 }, () => {
     expect(countClass(svg, "ctrl-on") + countClass(svg, "ctrl-off")).toBe(8 * 1 + 4 * 2 + 4);
     expect(svg).toContain(">vars[0]</text>");
     expect(svg).toContain(">work[3]</text>");
+    // --no-structure: the clause construction. Six clauses of two literals, computed and
+    // uncomputed: 12 ANDs of 2 controls, 12 targets, and the root over the 6 clause bits.
+    const plain = join(dir, "o-plain.svg");
+    expect(cli(["draw", "examples/allotment-pair.cnf", "--basis", "mcx", "--no-structure", "-o", plain]).code).toBe(0);
+    const p = readFileSync(plain, "utf8");
+    expect(countClass(p, "target")).toBe(12);
+    expect(countClass(p, "ctrl-on") + countClass(p, "ctrl-off")).toBe(12 * 2 + 6);
+    expect(p).toContain(">work[5]</text>");
   });
   it("draws a search circuit with measurements", () => {
     const out = join(dir, "s.svg");
