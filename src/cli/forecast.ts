@@ -312,7 +312,7 @@ function singleText(r: Row): string[] {
     );
     if (f.protocol) lines.push(`  factory: ${f.protocol.name} (Litinski 2019, Table 1, p = ${f.protocol.physicalErrorRate}): ${f.protocol.qubits} qubits, ${f.protocol.codeCycles} code cycles per state, output error ${f.protocol.outputError}`);
     lines.push(...regimeLines(f));
-  } else if (g !== undefined) lines.push(`  no quantum estimate: ${r.limit}`);
+  } else if (g !== undefined) lines.push(`  ${r.limit}`);
   if (r.classicalSeconds !== undefined) {
     lines.push(
       `  classical brute force: ${formatCount(10 ** r.log10Evaluations!)} evaluations expected (${g?.solutionsSource === "exact" ? "N/M" : "N: M unknown"}) at ${formatCount(Math.round(r.rate))} assignments/s ` +
