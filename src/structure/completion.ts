@@ -17,7 +17,10 @@ import type { Definition } from "./index.js";
  *     so its value cannot matter.
  * A register value is marked by the oracle exactly when its completion is a model of the formula,
  * which is exactly when some model extends it (the defined variables have one value each that
- * satisfies their clauses, and the fixed ones have one value in every model).
+ * satisfies their clauses, and the fixed ones have one value in every model). The variables of
+ * rule 5 take any value in a model, so the formula has (marked register values) x
+ * 2^(variables - register - fixed - definitions) models: a search over the register plans with
+ * M = models / 2^(that exponent).
  */
 export interface Completion {
   /** Declared variables of the formula. */
