@@ -1,6 +1,6 @@
 /** Running a verification and wording its result, shared by `verify` and `oracle --verify`. */
 import {
-  DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT, verifyOracle, type Circuit, type Cnf, type VerifyResult,
+  DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT, verifyOracle, type Circuit, type Cnf, type Completion, type VerifyResult,
 } from "../internal.js";
 import { displayName, progress } from "./io.js";
 import { intOption } from "./options.js";
@@ -36,11 +36,14 @@ export function verifyFlags(values: Record<string, string | boolean | undefined>
   };
 }
 
-/** Runs the verification with a progress bar on a TTY. */
-export async function runVerification(cnf: Cnf, circuit: Circuit, flags: VerifyFlags, kind?: "phase" | "flag"): Promise<VerifyResult> {
+/**
+ * Runs the verification with a progress bar on a TTY. `completion`: the oracle's register and
+ * completion rule (a free register is checked against the formula's projection).
+ */
+export async function runVerification(cnf: Cnf, circuit: Circuit, flags: VerifyFlags, kind?: "phase" | "flag", completion?: Completion): Promise<VerifyResult> {
   const bar = progress("verifying");
   try {
-    return await verifyOracle(cnf, circuit, { ...flags, ...(kind ? { kind } : {}), onProgress: bar.update });
+    return await verifyOracle(cnf, circuit, { ...flags, ...(kind ? { kind } : {}), ...(completion ? { completion } : {}), onProgress: bar.update });
   } finally {
     bar.stop();
   }
@@ -51,12 +54,18 @@ const plural = (k: number, one: string, many = `${one}s`): string => `${k} ${k =
 /** Human-readable lines for a result. */
 export function reportLines(r: VerifyResult, file: string): string[] {
   if (r.problem) return [`${displayName(file)}: not an oracle for this formula: ${r.problem}`];
-  const how = `${r.method} (${plural(r.assignments, "assignment")}, ${r.simulator} simulator)`;
-  const counts = `${r.models} satisfying, ${r.nonModels} not`;
+  const free = r.register === "free";
+  // A free register is checked against the projection: its inputs are register values, and a
+  // value is "satisfying" when its completion is a model.
+  const how = `${r.method} (${plural(r.assignments, free ? "register value" : "assignment")}, ${r.simulator} simulator${free ? "; free register, against the formula's projection" : ""})`;
+  const counts = free ? `${r.models} extending to a model, ${r.nonModels} not` : `${r.models} satisfying, ${r.nonModels} not`;
   const lines: string[] = [];
   if (r.counterexample) {
     const c = r.counterexample;
-    lines.push(`mismatch: ${how}`, `counterexample: ${c.dimacs}`, `expected: ${c.expected}`, `circuit:  ${c.actual}`);
+    lines.push(`mismatch: ${how}`);
+    if (c.registerDimacs !== undefined) lines.push(`counterexample: register value ${c.registerDimacs} (register variables as literals), completed to ${c.dimacs}`);
+    else lines.push(`counterexample: ${c.dimacs}`);
+    lines.push(`expected: ${c.expected}`, `circuit:  ${c.actual}`);
   } else if (r.verified) lines.push(`verified: ${how}; ${counts}`);
   else lines.push(`not verified: ${how}; ${counts}`, `reason: ${r.unchecked}${/budget/.test(r.unchecked ?? "") ? "; hint: raise --conflict-limit" : ""}`);
   const s = r.modelSearch;
@@ -82,7 +91,9 @@ export function reportJson(r: VerifyResult): object {
     falsifying: r.falsifying,
     random_samples: r.samples,
     notes: r.notes,
+    register: r.register,
     counterexample: c ? c.dimacs : null,
+    ...(c?.registerDimacs !== undefined ? { counterexample_register: c.registerDimacs, counterexample_register_bits: (c.registerValue ?? []).map((b) => (b ? "1" : "0")).join("") } : {}),
     ...(c ? { expected: c.expected, actual: c.actual } : {}),
     ...(r.unchecked ? { unchecked: r.unchecked } : {}),
     ...(r.problem ? { problem: r.problem } : {}),

@@ -8,13 +8,14 @@
  */
 import { parseArgs } from "node:util";
 import {
-  countModels, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatSeconds, LOGICAL_ERROR_MODELS,
+  countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatSeconds, LOGICAL_ERROR_MODELS,
   MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchCosts, clauseCount,
   type Assumption, type Cnf, type Crossover, type Forecast, type ForecastInput, type ForecastPlotSeries, type LogLinearFit,
-  type LogicalErrorModelName, type Machine, type RegimeEstimate, type Uncompute, type Strategy,
+  type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
-import { choice } from "./options.js";
+import { choice, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
+import { registerText, searchProblem } from "./register.js";
 import { printLater } from "./output.js";
 
 /** Seconds the classical evaluator is timed on each formula. */
@@ -30,7 +31,9 @@ is printed with its assumptions and their sources.
 
 Logical counts come from clausegate's Clifford+T lowering of a one-iteration search circuit (the
 oracle and the diffusion), the plan's k iterations and success probability P (M from the exact
-model count; when M cannot be counted, M = 1 is assumed and said). Then:
+count, as clausegate plan; when M cannot be counted, M = 1 is assumed and said). The search register
+is the free register by default (as clausegate plan and search: N = 2^n over the n free variables,
+the others computed by the oracle); --register full searches every declared variable. Then:
   - code distance: the smallest odd d whose logical error, p_L = 0.1 (100 p)^((d+1)/2) per patch
     per code cycle (Fowler & Gidney 2018), keeps the whole expected search within half the
     failure budget; 2 d^2 physical qubits per patch; routing space of Litinski's fast block
@@ -41,12 +44,14 @@ model count; when M cannot be counted, M = 1 is assumed and said). Then:
     expected = run / P. Two regimes: enough factories that T-depth x reaction time bounds the run,
     and one factory (T-count bound). Clifford gates take no time, and a T layer takes one reaction
     time whatever d: the time-optimal limit of Fowler 2012, whose extra qubits are not counted;
-  - classical: N/M evaluations (N when M is unknown) at the rate clausegate's bit-parallel
-    evaluator reaches on the formula, measured for ${MEASURE_SECONDS} s at run time.
+  - classical: N/M evaluations (N when M is unknown) over the same search register (a brute force
+    over the free variables completes each value and checks it) at the rate clausegate's
+    bit-parallel evaluator reaches on the formula, measured for ${MEASURE_SECONDS} s at run time.
 Several files (a family at growing sizes): one table, least-squares lines of log10(time) against
 the number of variables, and where a quantum line crosses the classical one (an extrapolation).
 
 Options:
+${registerHelp("free")}
   --strategy wide|lean        oracle strategy (default wide: fewest T)
   --uncompute unitary|measured
                               unitary inverse (default) or measurement and fix-up (Gidney 2018)
@@ -89,6 +94,10 @@ type SolutionsSource = "exact" | "assumed";
 /** What the adapter gathers for one formula, besides the model's plain input. */
 interface Gathered {
   readonly input: ForecastInput;
+  /** Search qubits (n of N = 2^n). */
+  readonly searchQubits: number;
+  /** The register searched, in words. */
+  readonly register: string;
   readonly solutions: number;
   readonly solutionsSource: SolutionsSource;
   readonly iterations: number;
@@ -96,25 +105,33 @@ interface Gathered {
 }
 
 /**
- * The adapter: the model's plain numbers for one formula from today's APIs. M from the exact
- * count (M = 1 when it cannot be counted), k and P from planSearch, the oracle's and one
- * iteration's Clifford+T counts from searchCosts with one iteration (the initial Hadamards and the
- * final measurement of that circuit hold no T gate, so its T figures are one iteration's).
+ * The adapter: the model's plain numbers for one formula from today's APIs. The search register
+ * (free by default, as plan and search) and M over it from the exact count (M = 1 when it cannot
+ * be counted), k and P from planSearch, the oracle's and one iteration's Clifford+T counts from
+ * searchCosts with one iteration and the same register (the initial Hadamards and the final
+ * measurement of that circuit hold no T gate, so its T figures are one iteration's).
  * Undefined M = 0: nothing to search for.
  */
-export async function forecastInputOf(cnf: Cnf, strategy: Strategy, uncompute: Uncompute): Promise<Gathered | { unsatisfiable: true }> {
-  const counted = await countModels(cnf);
+export async function forecastInputOf(
+  cnf: Cnf, strategy: Strategy, uncompute: Uncompute, registerOptions: { register: RegisterMode; structure: boolean } = { register: "free", structure: true },
+): Promise<Gathered | { unsatisfiable: true } | { tooLarge: number }> {
+  const problem = searchProblem(cnf, registerOptions);
+  if (problem.n > MAX_FORECAST_QUBITS) return { tooLarge: problem.n };
+  const counted = await countSolutions(problem.counted);
   const exact = counted.ok;
-  const M = exact ? Number(counted.models) : 1;
+  const M = exact ? Number(counted.solutions.count) * 2 ** counted.solutions.shift : 1;
   if (M === 0) return { unsatisfiable: true };
-  const plan = planSearch(cnf.variables, M);
+  const plan = planSearch(problem.n, M);
   // k as a double: exact below 2^53, and beyond that the model's times are estimates anyway.
   const k = plan.iterations === undefined ? 0 : plan.iterations.exact !== undefined ? Number(plan.iterations.exact) : 2 ** plan.iterations.log2;
-  const costs = searchCosts(cnf, 1, plan.successProbability, uncompute).find((c) => c.strategy === strategy)!;
+  const costs = searchCosts(cnf, 1, plan.successProbability, uncompute, registerOptions).find((c) => c.strategy === strategy)!;
   const work = (p: { t_count: number; t_depth: number; toffoli_count: number; cnot_count: number; depth: number }) => ({
     tCount: p.t_count, tDepth: p.t_depth, toffoliCount: p.toffoli_count, cnotCount: p.cnot_count, depth: p.depth,
   });
-  const solutionsText = exact ? `M = ${M} from the exact model count` : "M = 1 assumed (the count was out of reach)";
+  const solutionsText = exact
+    ? `M = ${M} from the exact ${problem.mode === "free" ? "count of register values that extend to a model" : "model count"}`
+    : "M = 1 assumed (the count was out of reach)";
+  const register = `${problem.n} search qubit${problem.n === 1 ? "" : "s"}, ${registerText(problem)}`;
   return {
     input: {
       logicalQubits: costs.circuit.qubits,
@@ -122,8 +139,10 @@ export async function forecastInputOf(cnf: Cnf, strategy: Strategy, uncompute: U
       iteration: work(costs.circuit),
       iterations: k,
       successProbability: plan.successProbability,
-      source: `clausegate: Clifford+T lowering of a one-iteration search circuit (strategy ${strategy}, uncompute ${uncompute}); k and P from the Grover plan with ${solutionsText} (Boyer, Brassard, Hoyer & Tapp 1998)`,
+      source: `clausegate: Clifford+T lowering of a one-iteration search circuit (strategy ${strategy}, uncompute ${uncompute}, ${problem.mode} register${registerOptions.structure ? "" : ", no structure"}); k and P from the Grover plan over N = 2^${problem.n} with ${solutionsText} (Boyer, Brassard, Hoyer & Tapp 1998)`,
     },
+    searchQubits: problem.n,
+    register,
     solutions: M,
     solutionsSource: exact ? "exact" : "assumed",
     iterations: k,
@@ -136,6 +155,7 @@ interface Row {
   readonly file: string;
   readonly variables: number;
   readonly clauses: number;
+  readonly registerMode: RegisterMode;
   readonly gathered: Gathered | undefined;
   readonly forecast: Forecast | undefined;
   readonly limit: string | undefined;
@@ -176,6 +196,8 @@ function rowJson(r: Row) {
     file: displayName(r.file),
     variables: r.variables,
     clauses: r.clauses,
+    search_qubits: g ? g.searchQubits : null,
+    register_mode: r.registerMode,
     solutions: g ? g.solutions : 0,
     solutions_source: g ? g.solutionsSource : "exact",
     iterations: g ? g.iterations : null,
@@ -276,7 +298,8 @@ function singleText(r: Row): string[] {
   else {
     const i = g.input;
     lines.push(
-      `  search register ${r.variables} qubit${r.variables === 1 ? "" : "s"}; ${g.solutionsSource === "exact" ? `M = ${g.solutions} (exact model count)` : "M unknown: M = 1 assumed"}; k = ${formatCount(g.iterations)} iteration${g.iterations === 1 ? "" : "s"}, success probability ${g.successProbability.toPrecision(6)}`,
+      `  search register: ${g.register}`,
+      `  N = 2^${g.searchQubits}; ${g.solutionsSource === "exact" ? `M = ${g.solutions} (exact count)` : "M unknown: M = 1 assumed"}; k = ${formatCount(g.iterations)} iteration${g.iterations === 1 ? "" : "s"}, success probability ${g.successProbability.toPrecision(6)}`,
       `  one oracle call: T-count ${i.oracle.tCount}, T-depth ${i.oracle.tDepth}, Toffolis ${i.oracle.toffoliCount}, CNOTs ${i.oracle.cnotCount}`,
       `  one iteration: T-count ${i.iteration.tCount}, T-depth ${i.iteration.tDepth}; logical qubits ${i.logicalQubits}`,
     );
@@ -289,7 +312,7 @@ function singleText(r: Row): string[] {
     );
     if (f.protocol) lines.push(`  factory: ${f.protocol.name} (Litinski 2019, Table 1, p = ${f.protocol.physicalErrorRate}): ${f.protocol.qubits} qubits, ${f.protocol.codeCycles} code cycles per state, output error ${f.protocol.outputError}`);
     lines.push(...regimeLines(f));
-  } else if (g !== undefined) lines.push(`  no quantum estimate: ${r.limit}`);
+  } else if (g !== undefined) lines.push(`  ${r.limit}`);
   if (r.classicalSeconds !== undefined) {
     lines.push(
       `  classical brute force: ${formatCount(10 ** r.log10Evaluations!)} evaluations expected (${g?.solutionsSource === "exact" ? "N/M" : "N: M unknown"}) at ${formatCount(Math.round(r.rate))} assignments/s ` +
@@ -407,7 +430,7 @@ function familyText(rows: readonly Row[], fam: FamilyFits): string[] {
   else lines.push("crossover:", ...fam.crossovers.map(crossoverText));
   // Assumptions shared by every row once; per-file inputs (logical counts, measured rate) are in --json.
   const first = rows.find((r) => r.forecast?.ok) ?? rows[0]!;
-  const perFile = new Set(["logical_qubits", "iterations", "success_probability", "oracle_t_count", "oracle_t_depth", "iteration_t_count", "iteration_t_depth", "magic_state_protocol", "classical_evaluations_per_second", "classical_expected_evaluations", "solver_seconds"]);
+  const perFile = new Set(["search_register_variables", "logical_qubits", "iterations", "success_probability", "oracle_t_count", "oracle_t_depth", "iteration_t_count", "iteration_t_depth", "magic_state_protocol", "classical_evaluations_per_second", "classical_expected_evaluations", "solver_seconds"]);
   lines.push(...assumptionLines(first.assumptions.filter((a) => !perFile.has(a.name))));
   lines.push("  - per-file inputs (logical counts, k, P, factory protocol, the evaluator's measured rate): in --json, each with its source");
   return lines;
@@ -451,6 +474,7 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     args: argv,
     allowPositionals: true,
     options: {
+      ...REGISTER_ARGS,
       strategy: { type: "string" }, basis: { type: "string" }, uncompute: { type: "string" },
       "error-rate": { type: "string" }, "cycle-time": { type: "string" }, "reaction-time": { type: "string" },
       "failure-budget": { type: "string" }, "logical-model": { type: "string" }, "classical-time": { type: "string" },
@@ -463,6 +487,7 @@ export async function forecastCommand(argv: string[]): Promise<number> {
   }
   if (positionals.length === 0) throw new UserError("clausegate forecast: error: expected one or more input files (or - for standard input); hint: see clausegate forecast --help");
   if (positionals.filter((p) => p === "-").length > 1) throw new UserError("clausegate forecast: error: standard input (-) can be read only once; hint: name the files");
+  const reg = registerOptions(values, "free");
   const strategy = choice(values.strategy, "--strategy", ["wide", "lean"] as const, "wide");
   const uncompute = choice(values.uncompute, "--uncompute", ["unitary", "measured"] as const, "unitary");
   const basis = choice(values.basis, "--basis", ["mcx", "toffoli", "clifford+t"] as const, "toffoli");
@@ -491,20 +516,25 @@ export async function forecastCommand(argv: string[]): Promise<number> {
   for (const [i, file] of positionals.entries()) {
     const cnf = await loadCnf(file);
     checkCircuitSize(cnf, file, "forecast");
-    if (cnf.variables > MAX_FORECAST_QUBITS) {
-      throw new UserError(`${displayName(file)}: error: the search register would have ${cnf.variables} qubits; forecast works with at most ${MAX_FORECAST_QUBITS} (N = 2^n must fit a double); hint: declare only the variables the formula uses`);
+    const gathered = await forecastInputOf(cnf, strategy, uncompute, reg);
+    if ("tooLarge" in gathered) {
+      throw new UserError(`${displayName(file)}: error: the search register would have ${gathered.tooLarge} qubits; forecast works with at most ${MAX_FORECAST_QUBITS} (N = 2^n must fit a double); hint: ${reg.register === "full" ? "try --register free (the default), or " : ""}declare only the variables the formula uses`);
     }
-    const gathered = await forecastInputOf(cnf, strategy, uncompute);
     const measured = measureEvaluationRate(cnf, MEASURE_SECONDS);
     const solverSeconds = solver?.[i];
     const extra: Assumption[] = [
       { name: "oracle_options", value: `strategy ${strategy}, uncompute ${uncompute}, basis ${basis}`, source: `${values.strategy || values.uncompute || values.basis ? "given" : "default"}; the model always uses the Clifford+T lowering (a T gate consumes one magic state), whatever the basis` },
+      {
+        name: "search_register", value: `${reg.register}${reg.structure ? "" : ", no structure"}`,
+        source: `${values.register !== undefined || values["no-structure"] ? "given" : "default (the free register, as clausegate plan and search)"}; ${reg.register === "free" ? "the variables left free by unit propagation and structure recovery; the oracle computes the others" : "every declared variable"}`,
+      },
+      ...("searchQubits" in gathered ? [{ name: "search_register_variables", value: gathered.register, source: "clausegate: the register of this formula" }] : []),
       { name: "classical_evaluations_per_second", value: measured.evaluationsPerSecond, source: `measured: clausegate's bit-parallel evaluator (evaluateWords, 32 assignments per call) on this formula for ${measured.seconds.toPrecision(2)} s on this machine` },
     ];
     if ("unsatisfiable" in gathered) {
       unsatisfiable = true;
       rows.push({
-        file, variables: cnf.variables, clauses: clauseCount(cnf), gathered: undefined, forecast: undefined,
+        file, variables: cnf.variables, clauses: clauseCount(cnf), registerMode: reg.register, gathered: undefined, forecast: undefined,
         limit: "the formula is unsatisfiable (exact model count 0): no number of iterations finds a solution, so there is nothing to estimate",
         rate: measured.evaluationsPerSecond, measuredSeconds: measured.seconds, log10Evaluations: undefined, classicalSeconds: undefined, solverSeconds,
         assumptions: [...extra, ...(solverSeconds !== undefined ? [{ name: "solver_seconds", value: solverSeconds, source: "given (--classical-time)" }] : [])],
@@ -512,10 +542,11 @@ export async function forecastCommand(argv: string[]): Promise<number> {
       continue;
     }
     const forecast = forecastSearch(gathered.input, machine);
-    const log10Evaluations = cnf.variables * Math.log10(2) - Math.log10(gathered.solutions);
+    // Brute force over the same register the quantum search uses: N = 2^n register values.
+    const log10Evaluations = gathered.searchQubits * Math.log10(2) - Math.log10(gathered.solutions);
     const classicalSeconds = 10 ** log10Evaluations / measured.evaluationsPerSecond;
     rows.push({
-      file, variables: cnf.variables, clauses: clauseCount(cnf), gathered, forecast,
+      file, variables: cnf.variables, clauses: clauseCount(cnf), registerMode: reg.register, gathered, forecast,
       limit: forecast.ok ? undefined : `no quantum estimate: ${forecast.reason}; ${forecast.hint}`,
       rate: measured.evaluationsPerSecond, measuredSeconds: measured.seconds, log10Evaluations, classicalSeconds, solverSeconds,
       assumptions: [
@@ -523,7 +554,7 @@ export async function forecastCommand(argv: string[]): Promise<number> {
         ...extra,
         {
           name: "classical_expected_evaluations", value: 10 ** log10Evaluations,
-          source: gathered.solutionsSource === "exact" ? "N/M: random guessing with replacement, M from the exact model count" : "N: M is unknown (the count was out of reach); the hardest case, M = 1",
+          source: `${gathered.solutionsSource === "exact" ? "N/M: random guessing with replacement, M from the exact count" : "N: M is unknown (the count was out of reach); the hardest case, M = 1"}; N = 2^${gathered.searchQubits} over the same search register as the quantum search (a value of the free register is completed, then checked)`,
         },
         ...(solverSeconds !== undefined ? [{ name: "solver_seconds", value: solverSeconds, source: "given (--classical-time)" }] : []),
       ],

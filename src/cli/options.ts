@@ -1,5 +1,5 @@
 /** Shared argument checks for the commands. */
-import type { OracleOptions } from "../internal.js";
+import type { OracleOptions, RegisterMode } from "../internal.js";
 import { UserError } from "./io.js";
 
 /** The single FILE|- positional of a command. */
@@ -48,8 +48,44 @@ export const ORACLE_HELP = `  --kind phase|flag           phase: |x> -> (-1)^f(x
   --no-optimize               skip the optimizer passes
   --check-passes              check the circuit's invariants after every pass (debug)`;
 
-/** The oracle options given on the command line. */
-export function oracleOptions(values: Record<string, string | boolean | undefined>): Required<OracleOptions> {
+/**
+ * The search-register options (issue 9), beside ORACLE_ARGS: every command that compiles or
+ * plans takes them. `--reduce`, where a command had it, is an alias of `--register free`.
+ */
+export const REGISTER_ARGS = {
+  register: { type: "string" },
+  "no-structure": { type: "boolean" },
+} as const;
+
+/** Help lines of REGISTER_ARGS, with the command's default register marked. */
+export function registerHelp(fallback: RegisterMode): string {
+  const mark = (m: RegisterMode): string => (m === fallback ? " (default)" : "");
+  return `  --register full|free        the search register. full${mark("full")}: every declared variable, vars[v-1] is
+                              variable v, and the oracle marks exactly the models. free${mark("free")}: only the
+                              variables left free by unit propagation (variables in no clause dropped)
+                              and structure recovery; the oracle computes the others from them and
+                              marks a register value when some model extends it
+  --no-structure              skip structure recovery (gate definitions, parities, one-hot groups): the
+                              clause construction alone, for comparison`;
+}
+
+/** The register options given on the command line; `fallback` is the command's default register. */
+export function registerOptions(values: Record<string, string | boolean | undefined>, fallback: RegisterMode): { register: RegisterMode; structure: boolean } {
+  const raw = values["register"] as string | undefined;
+  if (values["reduce"] === true && raw !== undefined && raw !== "free") {
+    throw new UserError(`clausegate: error: --reduce is an alias of --register free and contradicts --register ${raw}; hint: give one of them`);
+  }
+  return {
+    register: choice(raw ?? (values["reduce"] === true ? "free" : undefined), "--register", ["full", "free"] as const, fallback),
+    structure: values["no-structure"] !== true,
+  };
+}
+
+/**
+ * The oracle options given on the command line; the register options too when the command
+ * parses REGISTER_ARGS (`fallback`: its default register).
+ */
+export function oracleOptions(values: Record<string, string | boolean | undefined>, fallback: RegisterMode = "full"): Required<OracleOptions> {
   const str = (k: string): string | undefined => values[k] as string | undefined;
   return {
     kind: choice(str("kind"), "--kind", ["phase", "flag"] as const, "phase"),
@@ -58,8 +94,6 @@ export function oracleOptions(values: Record<string, string | boolean | undefine
     uncompute: choice(str("uncompute"), "--uncompute", ["unitary", "measured"] as const, "unitary"),
     optimize: values["no-optimize"] !== true,
     validatePasses: values["check-passes"] === true,
-    // The library's defaults until the command line gains --register and --no-structure.
-    register: "full",
-    structure: true,
+    ...registerOptions(values, fallback),
   };
 }

@@ -2,13 +2,16 @@
 import { parseArgs } from "node:util";
 import {
   bbhtExpectedCalls, bbhtLastRound, bbhtRounds, bbhtSequence, BBHT_LAMBDA, compileOracle, compileSearch, countSolutions, DEFAULT_COUNT_LIMIT,
-  drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, reduceSearch, searchCosts,
-  successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type Reduction, type ScheduleRound, type SearchPlan,
+  drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, searchCosts,
+  successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type ScheduleRound, type SearchPlan,
   type Solutions,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
-import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
+import { printLater } from "./output.js";
+import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { checkFormat, writeCircuit } from "./circuits.js";
+import { registerJson, registerText, searchProblem, type SearchProblem } from "./register.js";
+import { checkShots, completionLines, COMPLETE_ARGS, shotLines, SHOTS_HELP, shotsOptions } from "./shots.js";
 
 
 /** Most Grover iterations `search` and `draw --search` build (2^20). */
@@ -30,25 +33,33 @@ field has a log2_ twin (null for log2 of 0). theta and k come from the exact rat
 point: k = floor(pi/(4 theta)) is exact (the precision is raised until the floor is certain), the
 success probability and its complement have a relative error below 2^-40.`;
 
-export const planHelp = `Usage: clausegate plan FILE|- [--solutions M|unknown] [--reduce] [--json] [--plot FILE.svg] [--simulate SEED]
+export const planHelp = `Usage: clausegate plan FILE|- [--register full|free] [--no-structure] [--solutions M|unknown] [--json] [--plot FILE.svg] [--simulate SEED]
 
-Plans a Grover search for the formula (Boyer, Brassard, Hoyer & Tapp 1998), at any size. N = 2^n; M comes
-from --solutions or, within ${DEFAULT_COUNT_LIMIT} variables occurring in clauses, from the exact model count (variables in
-no clause double it). Prints theta (sin^2 theta = M/N), the iteration count k = floor(pi/(4 theta)), the
-success probability sin^2((2k+1) theta), the oracle calls expected until success (k/P, repeating on
-failure) and the classical comparison. With M unknown: the round-by-round schedule for an unknown number of
-solutions and its expected cost for a range of M.
+Plans a Grover search for the formula (Boyer, Brassard, Hoyer & Tapp 1998), at any size. N = 2^n for a
+search register of n qubits: by default the free register (the variables left free by unit propagation
+and structure recovery; the others are computed from them), with --register full every declared
+variable. M is the number of register values that extend to a model: from --solutions, or counted
+exactly (free register: the models of the formula left by unit propagation, which correspond one to one
+to those values; full register: the model count, each variable in no clause doubling it; the count
+enumerates the free variables of the recovered structure, within ${DEFAULT_COUNT_LIMIT} of them). Prints theta
+(sin^2 theta = M/N), the iteration count k = floor(pi/(4 theta)), the success probability
+sin^2((2k+1) theta), the oracle calls expected until success (k/P, repeating on failure) and the
+classical comparison. With M unknown: the round-by-round schedule for an unknown number of solutions
+and its expected cost for a range of M.
 
 ${NUMBERS_NOTE}
 
 Options:
-  --solutions M|unknown   the number of solutions, if known (a whole number up to 2^n)
-  --reduce                plan for the reduced search register (see clausegate search --help); the plan
-                          (and its JSON) maps every register bit to its variable
-  --json                  print the plan as JSON (snake_case keys)
-  --plot FILE.svg         plot the success probability against the number of iterations
-  --simulate SEED         with M unknown: the iteration counts to run, round by round, drawn with SEED
-  -h, --help              show this help
+${registerHelp("free")}
+  --reduce                    an alias of --register free (the default; kept for existing scripts)
+  --solutions M|unknown       register values that extend to a model, if known (a whole number up to 2^n)
+  --json                      print the plan as JSON (snake_case keys); register_mode, structure,
+                              register (the DIMACS variable of each search qubit, in order; null for a
+                              full register above 2^20 qubits) and, for a free register, completion
+                              (the rule, fixed values, definitions in order, other_variables)
+  --plot FILE.svg             plot the success probability against the number of iterations
+  --simulate SEED             with M unknown: the iteration counts to run, round by round, drawn with SEED
+  -h, --help                  show this help
 
 Exit codes: 0, 3 when M = 0 (the formula is unsatisfiable; the numbers are still printed), 2 bad input.
 `;
@@ -57,26 +68,34 @@ export const searchHelp = `Usage: clausegate search FILE|- [options]
 
 Writes the complete search circuit: H on the search register, K iterations of the phase oracle and
 the diffusion (reflection about the uniform superposition), then the search register measured into
-outcome[0..n-1] (outcome[v-1] is variable v). Work qubits are shared by oracle and diffusion.
-The circuit's size is estimated from the formula and K before it is built; circuits above
-${MAX_SEARCH_GATES} gates are refused (clausegate plan gives the numbers at any size).
+outcome[0..n-1] (outcome[i] is vars[i]). By default the search register is the free register: it
+holds only the variables left free by unit propagation and structure recovery, and the oracle
+computes the others; the circuit's comments and the report name the variable of each qubit. A
+measured value completes to a model: register variables as measured, fixed variables their forced
+value, defined variables computed in order, every other variable any value (0 chosen); --shots and
+--complete print such completions. Work qubits are shared by oracle and diffusion. The circuit's
+size is estimated from the formula and K before it is built; circuits above ${MAX_SEARCH_GATES} gates are
+refused (clausegate plan gives the numbers at any size).
 
 Options:
   --iterations K              Grover iterations, 0..${MAX_ITERATIONS} (default: the plan's k)
-  --solutions M               the number of solutions: sets k, and with --iterations the success
-                              probability of the report (default: the exact model count)
-  --reduce                    take variables fixed by unit clauses and variables in no clause out of the
-                              search register; the report maps every register bit to its variable
+  --solutions M               register values that extend to a model: sets k, and with --iterations the
+                              success probability of the report (default: counted exactly, as plan does)
+${registerHelp("free")}
+  --reduce                    an alias of --register free (the default; kept for existing scripts)
   -o, --output FILE           write here (atomically) instead of standard output
   --format qasm3|qasm2|json   output format (default qasm3)
 ${SEARCH_ORACLE_HELP}
   --report FILE               the whole-run report (JSON): plan, costs of one oracle, one diffusion and the
                               whole circuit of K iterations, totals over the runs expected at the success
-                              probability of K iterations (sin^2((2K+1) theta)), wide and lean side by side
+                              probability of K iterations (sin^2((2K+1) theta)), wide and lean side by side;
+                              register_mode, structure, register and completion as in clausegate plan --json
+${SHOTS_HELP}
   -h, --help                  show this help
 
-Exit codes: 0, 2 bad input or a circuit too large to build, 3 when the formula is unsatisfiable and
---iterations is not given (there is nothing to search for).
+Exit codes: 0, 1 when a value given to --complete does not complete to a model, 2 bad input or a
+circuit too large to build or simulate, 3 when the formula is unsatisfiable and --iterations is not
+given (there is nothing to search for).
 `;
 
 export const drawHelp = `Usage: clausegate draw FILE|- -o FILE.svg [--search [--iterations K]] [oracle options]
@@ -91,6 +110,7 @@ Options:
   --search                    draw the search circuit instead of the oracle
   --iterations K              iterations of the drawn search (with --search; default: the plan's k)
 ${ORACLE_HELP}
+${registerHelp("full")}
   -h, --help                  show this help
 
 Exit codes: 0, 2 bad input or a circuit too large to draw, 3 with --search when the formula is
@@ -151,13 +171,6 @@ interface Unknown {
 }
 type SolutionsFound = Known | Unknown;
 
-/** The problem to search: the formula, or its reduction. */
-function problemOf(cnf: Cnf, reduce: boolean): { cnf: Cnf; reduction: Reduction | undefined } {
-  if (!reduce) return { cnf, reduction: undefined };
-  const reduction = reduceSearch(cnf);
-  return { cnf: reduction.cnf, reduction };
-}
-
 /** Parses --solutions M for a register of n qubits (any size: M is read as a BigInt). */
 function givenSolutions(raw: string, n: number, command: string): bigint {
   if (!/^\d+$/.test(raw)) throw new UserError(`clausegate ${command}: error: --solutions expects a whole number or 'unknown' but got '${raw}'; hint: give the number of models, or unknown`);
@@ -171,13 +184,14 @@ function givenSolutions(raw: string, n: number, command: string): bigint {
 
 /**
  * M for the search register: --solutions, or the exact model count of the variables that occur
- * in clauses times 2^(variables in no clause), so a header of any size costs nothing.
+ * in clauses times 2^(variables in no clause), so a header of any size costs nothing. For a free
+ * register the formula counted is the one left by unit propagation (SearchProblem.counted).
  */
-async function solutionsOf(cnf: Cnf, raw: string | undefined, command: string): Promise<SolutionsFound> {
+async function solutionsOf(problem: SearchProblem, raw: string | undefined, command: string): Promise<SolutionsFound> {
   if (raw === "unknown") return { M: undefined, source: "unknown", why: "--solutions unknown" };
-  if (raw !== undefined) return { M: givenSolutions(raw, cnf.variables, command), source: "given" };
+  if (raw !== undefined) return { M: givenSolutions(raw, problem.n, command), source: "given" };
   const bar = progress("counting models");
-  const r = await countSolutions(cnf, { onProgress: bar.update });
+  const r = await countSolutions(problem.counted, { onProgress: bar.update });
   bar.stop();
   if (!r.ok) {
     return {
@@ -188,27 +202,19 @@ async function solutionsOf(cnf: Cnf, raw: string | undefined, command: string): 
   return { M: r.solutions, source: "exact" };
 }
 
-function reductionText(r: Reduction): string {
-  return `reduced: ${r.fixed.size} fixed, ${r.freeCount} free`;
+/** Where M came from, for the text. */
+function sourceText(s: Known, problem: SearchProblem): string {
+  if (s.source === "given") return "given";
+  return problem.mode === "free" ? "exact model count: register values that extend to a model" : "exact model count";
 }
 
-/** The variable map of a reduction, as JSON (snake_case). */
-function reductionJson(r: Reduction) {
-  return {
-    register: r.searched.map((v, i) => ({ bit: i, variable: v })),
-    fixed: [...r.fixed].map(([variable, value]) => ({ variable, value })),
-    free: r.free.map(({ first, last }) => ({ first, last })),
-    free_count: r.freeCount,
-    unsat_by_propagation: r.unsat,
-    completion: "a measured result gives the assignment: variable register[i].variable = outcome[i]; fixed variables take their value; free variables (the ranges first..last) take any value, and each choice is a solution",
-  };
-}
-
-function planLines(file: string, n: number, s: Known, p: SearchPlan, reduction: Reduction | undefined): string[] {
+function planLines(file: string, problem: SearchProblem, s: Known, p: SearchPlan): string[] {
+  const n = problem.n;
   const ratioLog2 = p.solutions.log2 - n;
   const lines = [
-    `formula: ${displayName(file)}; search register: ${plural(n, "qubit")}, ${assignmentsText(n)}${reduction ? ` (${reductionText(reduction)})` : ""}`,
-    `solutions: M = ${whole(p.solutions)} (${s.source === "exact" ? "exact model count" : "given"})`,
+    `formula: ${displayName(file)}; search register: ${plural(n, "qubit")}, ${assignmentsText(n)}`,
+    `register: ${registerText(problem)}`,
+    `solutions: M = ${whole(p.solutions)} (${sourceText(s, problem)})`,
   ];
   if (p.verdict === "unsatisfiable") {
     lines.push(
@@ -239,7 +245,8 @@ function planLines(file: string, n: number, s: Known, p: SearchPlan, reduction: 
   return lines;
 }
 
-function planJson(original: Cnf, n: number, s: Known, p: SearchPlan, reduction: Reduction | undefined) {
+function planJson(original: Cnf, problem: SearchProblem, s: Known, p: SearchPlan) {
+  const n = problem.n;
   return {
     variables: original.variables,
     search_qubits: n,
@@ -262,7 +269,7 @@ function planJson(original: Cnf, n: number, s: Known, p: SearchPlan, reduction: 
     log2_classical_worst_case: jsonReal(p.classicalWorstCase.log2),
     verdict: p.verdict,
     precision_bits: p.precision,
-    ...(reduction ? { reduction: reductionJson(reduction) } : {}),
+    ...registerJson(problem),
   };
 }
 
@@ -286,11 +293,13 @@ function powerOfTwoText(e: number): string {
   return e === 0 ? "1" : e <= 64 ? `2^${e} = ${1n << BigInt(e)}` : `2^${e}`;
 }
 
-function unknownLines(file: string, n: number, why: string, seed: number | undefined, reduction: Reduction | undefined): string[] {
+function unknownLines(file: string, problem: SearchProblem, why: string, seed: number | undefined): string[] {
+  const n = problem.n;
   const { rows, omitted } = scheduleRows(n);
   const last = bbhtLastRound(n);
   const lines = [
-    `formula: ${displayName(file)}; search register: ${plural(n, "qubit")}, ${assignmentsText(n)}${reduction ? ` (${reductionText(reduction)})` : ""}; solutions: unknown (${why})`,
+    `formula: ${displayName(file)}; search register: ${plural(n, "qubit")}, ${assignmentsText(n)}; solutions: unknown (${why})`,
+    `register: ${registerText(problem)}`,
     `schedule for an unknown number of solutions (Boyer, Brassard, Hoyer & Tapp 1998), lambda = ${BBHT_LAMBDA}:`,
     "round r draws j uniformly from {0, ..., ceil(min(lambda^r, sqrt N)) - 1}, runs j iterations, measures and checks;",
     `on failure the next round follows (from round ${last} on, every round is like round ${last})`,
@@ -313,7 +322,8 @@ function unknownLines(file: string, n: number, why: string, seed: number | undef
   return lines;
 }
 
-function unknownJson(original: Cnf, n: number, seed: number | undefined, reduction: Reduction | undefined) {
+function unknownJson(original: Cnf, problem: SearchProblem, seed: number | undefined) {
+  const n = problem.n;
   const { rows, omitted } = scheduleRows(n);
   return {
     variables: original.variables,
@@ -341,7 +351,7 @@ function unknownJson(original: Cnf, n: number, seed: number | undefined, reducti
       };
     }),
     ...(seed !== undefined ? { sequence: bbhtSequence(n, sequenceRounds(n), seed).map((j) => jsonWhole({ exact: j, log2: 0 })) } : {}),
-    ...(reduction ? { reduction: reductionJson(reduction) } : {}),
+    ...registerJson(problem),
   };
 }
 
@@ -350,6 +360,7 @@ export async function planCommand(argv: string[]): Promise<number> {
     args: argv,
     allowPositionals: true,
     options: {
+      ...REGISTER_ARGS,
       solutions: { type: "string" }, reduce: { type: "boolean" }, json: { type: "boolean" }, plot: { type: "string" },
       simulate: { type: "string" }, help: { type: "boolean", short: "h" },
     },
@@ -360,15 +371,16 @@ export async function planCommand(argv: string[]): Promise<number> {
   }
   const file = oneInput(positionals, "plan");
   const seed = intOption(values.simulate, "--simulate", 0, 2 ** 31 - 1);
+  const reg = registerOptions(values, "free");
   const original = await loadCnf(file);
-  const { cnf, reduction } = problemOf(original, values.reduce === true);
-  const n = cnf.variables;
-  const s = await solutionsOf(cnf, values.solutions, "plan");
+  const problem = searchProblem(original, reg);
+  const n = problem.n;
+  const s = await solutionsOf(problem, values.solutions, "plan");
   if (s.M === undefined) {
     // Checked before anything is printed: nothing reaches standard output before an error.
     if (values.plot !== undefined) throw new UserError(`clausegate plan: error: --plot needs the number of solutions, which is unknown (${s.why}); hint: give --solutions M`);
-    if (values.json) process.stdout.write(`${JSON.stringify(unknownJson(original, n, seed, reduction))}\n`);
-    else process.stdout.write(`${unknownLines(file, n, s.why, seed, reduction).join("\n")}\n`);
+    if (values.json) process.stdout.write(`${JSON.stringify(unknownJson(original, problem, seed))}\n`);
+    else process.stdout.write(`${unknownLines(file, problem, s.why, seed).join("\n")}\n`);
     return 0;
   }
   if (seed !== undefined) throw new UserError("clausegate plan: error: --simulate draws the schedule for an unknown number of solutions; hint: add --solutions unknown");
@@ -377,8 +389,8 @@ export async function planCommand(argv: string[]): Promise<number> {
     const svg = plotSuccessSvg(p.theta, p.iterations ?? 0, `${displayName(file)}: M = ${whole(p.solutions)} of ${assignmentsText(n)}`, { successProbability: p.successProbability });
     writeAtomic(values.plot, (w) => w(svg));
   }
-  if (values.json) process.stdout.write(`${JSON.stringify(planJson(original, n, s, p, reduction))}\n`);
-  else process.stdout.write(`${planLines(file, n, s, p, reduction).join("\n")}\n`);
+  if (values.json) process.stdout.write(`${JSON.stringify(planJson(original, problem, s, p))}\n`);
+  else process.stdout.write(`${planLines(file, problem, s, p).join("\n")}\n`);
   return p.verdict === "unsatisfiable" ? EXIT_UNSATISFIABLE : 0;
 }
 
@@ -396,16 +408,16 @@ interface Iterations {
  * found with --iterations when `needM` (the whole-run report prices K iterations at their own
  * success probability).
  */
-async function iterationsFor(cnf: Cnf, rawK: string | undefined, rawM: string | undefined, command: string, needM: boolean): Promise<Iterations> {
+async function iterationsFor(problem: SearchProblem, rawK: string | undefined, rawM: string | undefined, command: string, needM: boolean): Promise<Iterations> {
   if (rawK !== undefined) {
     const K = intOption(rawK, "--iterations", 0, MAX_ITERATIONS)!;
     if (!needM && rawM === undefined) return { K, solutions: undefined, plan: undefined };
-    const s = await solutionsOf(cnf, rawM, command);
-    return { K, solutions: s, plan: s.M === undefined ? undefined : planSearch(cnf.variables, s.M) };
+    const s = await solutionsOf(problem, rawM, command);
+    return { K, solutions: s, plan: s.M === undefined ? undefined : planSearch(problem.n, s.M) };
   }
-  const s = await solutionsOf(cnf, rawM, command);
+  const s = await solutionsOf(problem, rawM, command);
   if (s.M === undefined) throw new UserError(`clausegate ${command}: error: the number of solutions is unknown (${s.why}); hint: give --iterations K or --solutions M`);
-  const plan = planSearch(cnf.variables, s.M);
+  const plan = planSearch(problem.n, s.M);
   if (plan.verdict === "unsatisfiable") {
     throw new UserError(`clausegate ${command}: error: the formula is unsatisfiable: there is nothing to search for; hint: give --iterations K to build the circuit anyway`, EXIT_UNSATISFIABLE);
   }
@@ -440,8 +452,7 @@ const iterationsWithin = (e: SizeEstimate, limit: number): number => Math.max(0,
  * that needs no compilation (each iteration has a diffusion of at least 2n + 2 gates), then from
  * the size of one compiled iteration; with a report, also the Clifford+T circuits it costs.
  */
-function checkSearchSize(file: string, cnf: Cnf, o: Required<OracleOptions>, K: number, report: boolean): void {
-  const n = cnf.variables;
+function checkSearchSize(file: string, cnf: Cnf, n: number, o: Required<OracleOptions>, K: number, report: boolean): void {
   const hint = (fits: number): string => `hint: ${fits > 0 ? `--iterations ${fits} or fewer fits` : "no number of iterations fits"}, or clausegate plan ${displayName(file)} gives the numbers only`;
   const lower = K * (2 * n + 2) + 2 * n;
   if (lower > MAX_SEARCH_GATES) {
@@ -466,7 +477,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
     args: argv,
     allowPositionals: true,
     options: {
-      ...ORACLE_ARGS, iterations: { type: "string" }, solutions: { type: "string" }, reduce: { type: "boolean" },
+      ...ORACLE_ARGS, ...REGISTER_ARGS, ...COMPLETE_ARGS, iterations: { type: "string" }, solutions: { type: "string" }, reduce: { type: "boolean" },
       output: { type: "string", short: "o" }, format: { type: "string" }, report: { type: "string" }, help: { type: "boolean", short: "h" },
     },
   });
@@ -477,26 +488,42 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "search");
   const format = choice(values.format, "--format", ["qasm3", "qasm2", "json"] as const, "qasm3");
   if (values.kind !== undefined) throw new UserError("clausegate search: error: --kind is not an option of search: a search always uses the phase oracle; hint: leave out --kind");
-  const o = oracleOptions(values);
+  const o = oracleOptions(values, "free");
+  const sampling = shotsOptions(values);
   if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
   const original = await loadCnf(file);
-  if (values.reduce !== true) checkCircuitSize(original, file, "search");
-  const { cnf, reduction } = problemOf(original, values.reduce === true);
-  if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
-    throw new UserError(`${displayName(file)}: error: the reduced search register has ${cnf.variables} qubits; clausegate search builds at most ${MAX_CIRCUIT_VARIABLES}; hint: clausegate plan --reduce gives the numbers`);
+  if (o.register === "full") checkCircuitSize(original, file, "search");
+  const problem = searchProblem(original, o);
+  if (problem.n > MAX_CIRCUIT_VARIABLES) {
+    throw new UserError(`${displayName(file)}: error: the free search register has ${problem.n} qubits; clausegate search builds at most ${MAX_CIRCUIT_VARIABLES}; hint: clausegate plan gives the numbers`);
   }
-  const { K, solutions, plan } = await iterationsFor(cnf, values.iterations, values.solutions, "search", values.report !== undefined);
-  checkSearchSize(file, cnf, o, K, values.report !== undefined);
-  const circuit = compileSearch(cnf, { ...o, iterations: K });
+  if (sampling.complete !== undefined) {
+    // Values measured elsewhere: completed and checked; nothing is built.
+    const r = completionLines(file, original, problem, sampling.complete);
+    printLater(`${r.lines.join("\n")}\n`);
+    return r.allModels ? 0 : 1;
+  }
+  const { K, solutions, plan } = await iterationsFor(problem, values.iterations, values.solutions, "search", values.report !== undefined);
+  checkSearchSize(file, original, problem.n, o, K, values.report !== undefined);
+  if (sampling.shots !== undefined) checkShots(file, original, problem, o, K);
+  const circuit = compileSearch(original, { ...o, iterations: K });
   checkFormat(circuit, format);
   const comments = [
-    `clausegate search circuit: ${plural(cnf.variables, "search qubit")}, ${plural(K, "iteration")}`,
-    `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds vars[i]`,
-    ...(reduction ? [`reduced search register: vars[i] is DIMACS variable ${reduction.searched.map((v, i) => `${i}->${v}`).join(" ") || "(none)"}`] : []),
+    `clausegate search circuit: ${plural(problem.n, "search qubit")}, ${plural(K, "iteration")}`,
+    `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}${o.structure ? "" : ", no structure"}; outcome[i] holds vars[i]`,
+    `search register: ${registerText(problem, true)}`,
+    ...(problem.mode === "free" ? ["a measured value completes to a model: register variables as measured, fixed ones forced, defined ones computed in order, others 0 (clausegate search --complete BITS)"] : []),
   ];
   if (values.report !== undefined) {
-    const report = wholeRunReport(original, cnf, K, solutions, plan, o.uncompute, reduction);
+    const report = wholeRunReport(original, problem, K, solutions, plan, o);
     writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`));
+  }
+  if (sampling.shots !== undefined) {
+    // The shots go to standard output; the circuit only where -o says.
+    const lines = shotLines(file, original, problem, o, K, sampling.shots, sampling.seed);
+    if (values.output !== undefined) writeCircuit(circuit, format, comments, values.output);
+    printLater(`${lines.join("\n")}\n`);
+    return 0;
   }
   writeCircuit(circuit, format, comments, values.output);
   return 0;
@@ -507,13 +534,13 @@ export async function searchCommand(argv: string[]): Promise<number> {
  * expected at the success probability of those K iterations, sin^2((2K+1) theta), with theta from
  * M (--solutions or the exact count). K need not be the plan's k.
  */
-function wholeRunReport(original: Cnf, cnf: Cnf, K: number, s: SolutionsFound | undefined, plan: SearchPlan | undefined, uncompute: "unitary" | "measured", reduction: Reduction | undefined) {
-  const built = s?.M !== undefined ? successAfterIterations(cnf.variables, s.M, K) : undefined;
-  const costs = searchCosts(cnf, K, built?.success ?? 0, uncompute);
+function wholeRunReport(original: Cnf, problem: SearchProblem, K: number, s: SolutionsFound | undefined, plan: SearchPlan | undefined, o: Required<OracleOptions>) {
+  const built = s?.M !== undefined ? successAfterIterations(problem.n, s.M, K) : undefined;
+  const costs = searchCosts(original, K, built?.success ?? 0, o.uncompute, { register: o.register, structure: o.structure });
   const runsLog2 = built ? -built.log2Success : Infinity;
   return {
     variables: original.variables,
-    search_qubits: cnf.variables,
+    search_qubits: problem.n,
     iterations: K,
     plan: plan && built && s?.M !== undefined
       ? {
@@ -541,7 +568,7 @@ function wholeRunReport(original: Cnf, cnf: Cnf, K: number, s: SolutionsFound | 
       expected_toffoli_count: jsonReal(c.expected_toffoli_count),
       expected_depth: jsonReal(c.expected_depth),
     })),
-    reduction: reduction ? reductionJson(reduction) : null,
+    ...registerJson(problem),
   };
 }
 
@@ -570,11 +597,11 @@ const fits = (c: Circuit): boolean => drawProblem(c) === null;
  * whose search register fits a diagram): fewest changed options first, then fewest gates; for a
  * search also fewer iterations.
  */
-function drawSuggestion(cnf: Cnf, o: Required<OracleOptions>, search: boolean, K: number): string {
+function drawSuggestion(cnf: Cnf, n: number, o: Required<OracleOptions>, search: boolean, K: number): string {
   const none = search
     ? `no strategy, basis or number of iterations draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate plan and clausegate cost give the numbers`
     : `no strategy, basis or uncomputation draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate cost gives the numbers, or draw a smaller formula`;
-  if (cnf.variables > DRAW_LIMITS.qubits) return none;
+  if (n > DRAW_LIMITS.qubits) return none;
   const found: { flags: string[]; circuit: Circuit }[] = [];
   const fewest = (): number => Math.min(Infinity, ...found.map((f) => f.flags.length));
   const build = (opts: Required<OracleOptions>, k: number): Circuit => (search ? compileSearch(cnf, { ...opts, iterations: k }) : compileOracle(cnf, opts).circuit);
@@ -606,7 +633,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { ...ORACLE_ARGS, output: { type: "string", short: "o" }, search: { type: "boolean" }, iterations: { type: "string" }, help: { type: "boolean", short: "h" } },
+    options: { ...ORACLE_ARGS, ...REGISTER_ARGS, output: { type: "string", short: "o" }, search: { type: "boolean" }, iterations: { type: "string" }, help: { type: "boolean", short: "h" } },
   });
   if (values.help) {
     process.stdout.write(drawHelp);
@@ -619,28 +646,32 @@ export async function drawCommand(argv: string[]): Promise<number> {
   if (values.search && o.kind === "flag") throw new UserError("clausegate draw: error: a search uses the phase oracle; hint: leave out --kind flag, or leave out --search to draw the flag oracle");
   const cnf = await loadCnf(file);
   const what = values.search ? "search circuit" : "oracle";
-  // Sizes first: the search register alone is one qubit per variable.
-  if (cnf.variables > DRAW_LIMITS.qubits) {
-    throw new UserError(`clausegate draw: error: refusing to draw: the ${what} has at least ${cnf.variables} qubits (one per variable); diagrams stay readable up to ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; hint: draw a formula with at most ${DRAW_LIMITS.qubits} variables, or clausegate cost ${displayName(file)} for the numbers`);
+  const register = searchProblem(cnf, o);
+  const n = register.n;
+  // Sizes first: the search register alone is one qubit per register variable.
+  if (n > DRAW_LIMITS.qubits) {
+    const free = o.register === "full" ? ", or --register free" : "";
+    throw new UserError(`clausegate draw: error: refusing to draw: the ${what} has at least ${n} qubits (one per ${o.register === "full" ? "variable" : "variable of the free register"}); diagrams stay readable up to ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; hint: draw a formula with at most ${DRAW_LIMITS.qubits} ${o.register === "full" ? "variables" : "free variables"}${free}, or clausegate cost ${displayName(file)} for the numbers`);
   }
   checkCircuitSize(cnf, file, "draw");
   let circuit: Circuit;
   let title: string;
   let K = 0;
+  const registerWords = o.register === "free" ? `, free register of ${plural(n, "qubit")}` : "";
   if (values.search) {
-    K = (await iterationsFor(cnf, values.iterations, undefined, "draw", false)).K;
-    const lower = K * (2 * cnf.variables + 2) + 2 * cnf.variables;
+    K = (await iterationsFor(register, values.iterations, undefined, "draw", false)).K;
+    const lower = K * (2 * n + 2) + 2 * n;
     if (lower > DRAW_LIMITS.gates) {
-      throw new UserError(`clausegate draw: error: refusing to draw: ${plural(K, "iteration")} on ${plural(cnf.variables, "qubit")} make more than ${lower} gates; diagrams stay readable up to ${DRAW_LIMITS.gates} gates; hint: ${drawSuggestion(cnf, o, true, K)}`);
+      throw new UserError(`clausegate draw: error: refusing to draw: ${plural(K, "iteration")} on ${plural(n, "qubit")} make more than ${lower} gates; diagrams stay readable up to ${DRAW_LIMITS.gates} gates; hint: ${drawSuggestion(cnf, n, o, true, K)}`);
     }
     circuit = compileSearch(cnf, { ...o, iterations: K });
-    title = `search for ${displayName(file)}: ${plural(K, "iteration")}, ${o.strategy}, ${o.basis}, ${o.uncompute}`;
+    title = `search for ${displayName(file)}: ${plural(K, "iteration")}, ${o.strategy}, ${o.basis}, ${o.uncompute}${registerWords}`;
   } else {
     circuit = compileOracle(cnf, o).circuit;
-    title = `${o.kind} oracle for ${displayName(file)}: ${o.strategy}, ${o.basis}, ${o.uncompute}`;
+    title = `${o.kind} oracle for ${displayName(file)}: ${o.strategy}, ${o.basis}, ${o.uncompute}${registerWords}`;
   }
   const problem = drawProblem(circuit);
-  if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}; hint: ${drawSuggestion(cnf, o, values.search === true, K)}`);
+  if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}; hint: ${drawSuggestion(cnf, n, o, values.search === true, K)}`);
   const svg = drawCircuitSvg(circuit, title);
   writeAtomic(values.output, (w) => w(svg));
   return 0;

@@ -2,10 +2,10 @@
 import { readFile } from "node:fs/promises";
 import { parseArgs } from "node:util";
 import {
-  compileOracle, DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, type Circuit,
+  compileOracle, DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, type Circuit, type Completion,
 } from "../internal.js";
 import { checkCircuitSize, loadCnf, UserError } from "./io.js";
-import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
+import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { reportJson, reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
 export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT [--kind phase|flag]] [options]
@@ -25,11 +25,20 @@ each, and a seeded random sample. "verified" needs both satisfying and falsifyin
 checked, unless the formula has none of one kind; otherwise the exit code is 1 and the reason is
 printed.
 
+With --register free the oracle's search register holds only the free variables (see clausegate
+oracle --help), and it is checked against the formula's projection: it must mark a register value
+exactly when some model extends it, that is when the value's completion (register variables as
+given, fixed variables forced, defined variables computed in order, others 0) is a model. The
+checked inputs are register values; a counterexample names the register value and its completion.
+With --circuit, --register and --no-structure say which register the circuit has (the one clausegate
+oracle gives with the same options).
+
 Options:
   --circuit FILE              the circuit to check (.json or OpenQASM 3)
 ${ORACLE_HELP}
                               (--strategy, --basis, --uncompute, --no-optimize and
                               --check-passes apply only without --circuit)
+${registerHelp("full")}
   --exhaustive-limit N        check every assignment up to N variables (default ${DEFAULT_EXHAUSTIVE_LIMIT}, at most ${MAX_EXHAUSTIVE_LIMIT})
   --samples K                 random assignments to sample above the limit (default 4096; 256 for state vectors)
   --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
@@ -49,7 +58,7 @@ export async function verifyCommand(argv: string[]): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { ...ORACLE_ARGS, ...VERIFY_ARGS, circuit: { type: "string" }, json: { type: "boolean" }, help: { type: "boolean", short: "h" } },
+    options: { ...ORACLE_ARGS, ...REGISTER_ARGS, ...VERIFY_ARGS, circuit: { type: "string" }, json: { type: "boolean" }, help: { type: "boolean", short: "h" } },
   });
   if (values.help) {
     process.stdout.write(verifyHelp);
@@ -65,6 +74,7 @@ export async function verifyCommand(argv: string[]): Promise<number> {
   const flags = verifyFlags(values);
   let kind: "phase" | "flag" | undefined;
   let options: ReturnType<typeof oracleOptions> | undefined;
+  const reg = registerOptions(values, "full");
   if (values.circuit !== undefined) {
     if (values.kind !== undefined) kind = choice(values.kind, "--kind", ["phase", "flag"] as const, "phase");
   } else {
@@ -73,8 +83,18 @@ export async function verifyCommand(argv: string[]): Promise<number> {
   }
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "verify");
-  const circuit = options === undefined ? await loadCircuit(values.circuit!) : compileOracle(cnf, options).circuit;
-  const r = await runVerification(cnf, circuit, flags, kind);
+  let circuit: Circuit;
+  let completion: Completion | undefined;
+  if (options === undefined) {
+    circuit = await loadCircuit(values.circuit!);
+    // The register the circuit claims: the one compileOracle gives with these options.
+    if (reg.register === "free") completion = registerOf(cnf, reg).completion;
+  } else {
+    const oracle = compileOracle(cnf, options);
+    circuit = oracle.circuit;
+    if (reg.register === "free") completion = oracle.completion;
+  }
+  const r = await runVerification(cnf, circuit, flags, kind, completion);
   if (values.json) process.stdout.write(`${JSON.stringify(reportJson(r))}\n`);
   else process.stdout.write(`${reportLines(r, values.circuit ?? file).join("\n")}\n`);
   return r.verified ? 0 : 1;

@@ -42,6 +42,17 @@ const cases: [string, string[], string?][] = [
   ["help for an unknown command", ["help", "frobnicate"]],
   ["structure of a malformed formula", ["structure", bad]],
   ["forecast with a bad error rate", ["forecast", EX, "--error-rate", "lots"]],
+  // The search-register options (issue 9) on every command that takes them.
+  ...["oracle", "verify", "cost", "plan", "search", "forecast"].map((c): [string, string[]] => [`${c} --register with a bad value`, [c, EX, "--register", "half"]]),
+  ["draw --register with a bad value", ["draw", EX, "--register", "half", "-o", join(dir, "r.svg")]],
+  ["--no-structure with a value", ["oracle", EX, "--no-structure=1"]],
+  ["--reduce against --register full", ["plan", EX, "--reduce", "--register", "full"]],
+  ["search --complete of the wrong width", ["search", EX, "--complete", "111"]],
+  ["search --complete of other digits", ["search", EX, "--complete", "2x"]],
+  ["search --complete with --iterations", ["search", EX, "--complete", "10", "--iterations", "1"]],
+  ["search --seed without --shots", ["search", EX, "--seed", "2"]],
+  ["search --shots of nothing", ["search", EX, "--shots", "0"]],
+  ["search --shots over a register too wide to simulate", ["search", "examples/shed-lock.cnf", "--register", "full", "--shots", "2", "--iterations", "1"]],
 ];
 
 describe("error shape", () => {

@@ -35,8 +35,9 @@ function planted(n: number, seed: number): string {
 }
 
 describe("clausegate forecast examples/launch-rota.cnf", () => {
-  const text = cli(["forecast", "examples/launch-rota.cnf"]);
-  const json = cli(["forecast", "examples/launch-rota.cnf", "--json"]);
+  // The full register: N = 2^12 over every variable (the default free register is tested in test/cli/register.test.ts).
+  const text = cli(["forecast", "examples/launch-rota.cnf", "--register", "full"]);
+  const json = cli(["forecast", "examples/launch-rota.cnf", "--register", "full", "--json"]);
   const doc = JSON.parse(json.stdout);
 
   it("says it is a model, gives both regimes and lists its assumptions with sources", () => {

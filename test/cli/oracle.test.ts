@@ -26,7 +26,7 @@ describe("clausegate oracle", () => {
     const report = JSON.parse(readFileSync(rep, "utf8"));
     expect(Object.keys(report)).toEqual([
       "variables", "clauses", "kind", "strategy", "basis", "uncompute", "qubits", "gates", "toffoli_count", "t_count",
-      "t_depth", "cnot_count", "depth", "measurements", "simplification", "register",
+      "t_depth", "cnot_count", "depth", "measurements", "simplification", "register", "register_mode", "structure", "recovered", "completion",
     ]);
     expect(report).toMatchObject({ variables: 12, clauses: 19, kind: "flag", strategy: "lean", basis: "clifford+t", uncompute: "measured" });
     expect(report.qubits.search).toBe(12);
@@ -82,14 +82,16 @@ describe("clausegate cost", () => {
     const r = cli(["cost", "examples/launch-rota.cnf"]);
     expect(r.code).toBe(0);
     const lines = r.stdout.trimEnd().split("\n");
-    expect(lines[1]).toMatch(/^strategy\s+uncompute\s+qubits\s+Toffolis\s+T-count\s+T-depth\s+CNOTs\s+depth$/);
-    expect(lines.slice(2).map((l) => l.split(/\s+/).slice(0, 2).join(" "))).toEqual([
-      "wide unitary", "wide measured", "lean unitary", "lean measured", "textbook unitary",
+    expect(lines[3]).toMatch(/^strategy\s+uncompute\s+structure\s+qubits\s+Toffolis\s+T-count\s+T-depth\s+CNOTs\s+depth$/);
+    // Rows with the recovered structure, then without it, then the textbook reference.
+    expect(lines.slice(4).map((l) => l.split(/\s+/).slice(0, 3).join(" "))).toEqual([
+      "wide unitary yes", "wide measured yes", "lean unitary yes", "lean measured yes",
+      "wide unitary no", "wide measured no", "lean unitary no", "lean measured no", "textbook unitary -",
     ]);
   });
   it("prints JSON with --json", () => {
     const doc = JSON.parse(cli(["cost", "examples/allotment-pair.cnf", "--json"]).stdout);
-    expect(doc.rows).toHaveLength(5);
-    expect(Object.keys(doc.rows[0])).toEqual(["strategy", "uncompute", "qubits", "toffoli_count", "t_count", "t_depth", "cnot_count", "depth", "exact"]);
+    expect(doc.rows).toHaveLength(9);
+    expect(Object.keys(doc.rows[0])).toEqual(["strategy", "uncompute", "qubits", "toffoli_count", "t_count", "t_depth", "cnot_count", "depth", "exact", "structure"]);
   });
 });

@@ -13,7 +13,7 @@ const dir = mkdtempSync(join(tmpdir(), "clausegate-search-"));
 
 describe("clausegate plan", { timeout: 60_000 }, () => {
   it("prints theta, k, P, expected oracle calls and the classical comparison", () => {
-    const r = cli(["plan", "examples/launch-rota.cnf"]);
+    const r = cli(["plan", "--register", "full", "examples/launch-rota.cnf"]);
     expect(r.code).toBe(0);
     expect(r.stdout).toContain("search register: 12 qubits, N = 2^12 = 4096");
     expect(r.stdout).toContain("solutions: M = 49 (exact model count)");
@@ -22,58 +22,59 @@ describe("clausegate plan", { timeout: 60_000 }, () => {
     expect(r.stdout).toMatch(/classical: 83\.59\d* evaluations expected .*; 4048 in the worst case/);
   });
   it("prints JSON with the stable snake_case keys, each large whole number with a log2_ twin", () => {
-    const doc = JSON.parse(cli(["plan", "examples/allotment-row.cnf", "--json"]).stdout);
+    const doc = JSON.parse(cli(["plan", "--register", "full", "examples/allotment-row.cnf", "--json"]).stdout);
     expect(Object.keys(doc)).toEqual([
       "variables", "search_qubits", "n_assignments", "log2_n_assignments", "solutions", "log2_solutions", "solutions_source", "theta", "log2_theta",
       "iterations", "log2_iterations", "success_probability", "failure_probability", "expected_oracle_calls", "log2_expected_oracle_calls",
       "classical_expected_evaluations", "log2_classical_expected_evaluations", "classical_worst_case", "log2_classical_worst_case", "verdict", "precision_bits",
+      "register_mode", "structure", "register", "completion",
     ]);
     for (const key of Object.keys(doc)) expect(key).toMatch(/^[a-z0-9]+(_[a-z0-9]+)*$/);
     expect(doc).toMatchObject({ variables: 12, search_qubits: 12, n_assignments: 4096, solutions: 4, solutions_source: "exact", iterations: 25 });
   });
   it("takes --solutions and says when M is given", () => {
-    const doc = JSON.parse(cli(["plan", "examples/allotment-pair.cnf", "--solutions", "1", "--json"]).stdout);
+    const doc = JSON.parse(cli(["plan", "--register", "full", "examples/allotment-pair.cnf", "--solutions", "1", "--json"]).stdout);
     expect(doc).toMatchObject({ solutions: 1, solutions_source: "given", iterations: 3 });
   });
   it("exits 3 for an unsatisfiable formula, with the numbers printed and no k = ... = 0", () => {
-    const r = cli(["plan", "examples/herb-spiral.cnf"]);
+    const r = cli(["plan", "--register", "full", "examples/herb-spiral.cnf"]);
     expect(r.code).toBe(3);
     expect(r.stdout).toContain("verdict: the formula is unsatisfiable");
     expect(r.stdout).not.toContain("floor(pi");
     expect(r.stdout).toContain("no number of iterations finds a solution");
     // Checking one by one with no solution tests all N = 2^6 assignments, not N - M + 1 = 65.
     expect(r.stdout).toContain("tests all 64 assignments and finds none");
-    expect(JSON.parse(cli(["plan", "examples/herb-spiral.cnf", "--json"]).stdout)).toMatchObject({ iterations: null, classical_worst_case: 64 });
+    expect(JSON.parse(cli(["plan", "--register", "full", "examples/herb-spiral.cnf", "--json"]).stdout)).toMatchObject({ iterations: null, classical_worst_case: 64 });
   });
   it("one of each is singular: 1 qubit", () => {
-    const r = cli(["plan", "-"], "p cnf 1 1\n1 0\n");
+    const r = cli(["plan", "--register", "full", "-"], "p cnf 1 1\n1 0\n");
     expect(r.stdout).toContain("search register: 1 qubit, N = 2^1 = 2");
   });
   it("says when every assignment works, and when classical sampling is cheaper", () => {
-    expect(cli(["plan", "-"], "p cnf 3 0\n").stdout).toContain("no search is needed");
-    expect(cli(["plan", "-"], "p cnf 3 1\n1 2 3 0\n").stdout).toContain("a classical random guess is cheaper");
+    expect(cli(["plan", "--register", "full", "-"], "p cnf 3 0\n").stdout).toContain("no search is needed");
+    expect(cli(["plan", "--register", "full", "-"], "p cnf 3 1\n1 2 3 0\n").stdout).toContain("a classical random guess is cheaper");
   });
   it("JSON for an unknown M holds the schedule and the expected calls by M, as the text does", () => {
-    const doc = JSON.parse(cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--json", "--simulate", "7"]).stdout);
+    const doc = JSON.parse(cli(["plan", "--register", "full", "examples/launch-rota.cnf", "--solutions", "unknown", "--json", "--simulate", "7"]).stdout);
     expect(doc.schedule[0]).toEqual({ round: 0, bound: 1, log2_bound: 0, choices: 1, log2_choices: 0 });
     expect(doc.schedule).toHaveLength(doc.schedule_last_round + 1);
     expect(doc.expected_oracle_calls_by_solutions.map((r: { solutions: number }) => r.solutions)).toEqual(Array.from({ length: 13 }, (_, e) => 2 ** e));
-    const text = cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown"]).stdout;
+    const text = cli(["plan", "--register", "full", "examples/launch-rota.cnf", "--solutions", "unknown"]).stdout;
     for (const r of doc.expected_oracle_calls_by_solutions) {
       expect(text).toContain(`M = ${r.solutions === 1 ? 1 : `2^${r.log2_solutions} = ${r.solutions}`}: `);
     }
     expect(doc.sequence.length).toBeGreaterThan(doc.schedule_last_round);
   });
   it("prints the schedule for an unknown M and a seeded sequence of iteration counts", () => {
-    const r = cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--simulate", "7"]);
+    const r = cli(["plan", "--register", "full", "examples/launch-rota.cnf", "--solutions", "unknown", "--simulate", "7"]);
     expect(r.stdout).toMatch(/lambda = 1\.2/);
     expect(r.stdout).toMatch(/^ +0 +1 +0\.\.0$/m);
     expect(r.stdout).toMatch(/^iteration counts to run, rounds 0\.\.\d+ \(seed 7\): (\d+ )+\d+$/m);
-    expect(cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--simulate", "7"]).stdout).toBe(r.stdout);
+    expect(cli(["plan", "--register", "full", "examples/launch-rota.cnf", "--solutions", "unknown", "--simulate", "7"]).stdout).toBe(r.stdout);
   });
   it("plots the success probability as SVG, marking k", () => {
     const out = join(dir, "plot.svg");
-    expect(cli(["plan", "examples/launch-rota.cnf", "--plot", out]).code).toBe(0);
+    expect(cli(["plan", "--register", "full", "examples/launch-rota.cnf", "--plot", out]).code).toBe(0);
     const svg = readFileSync(out, "utf8");
     const xml = checkXml(svg);
     expect(xml.ok).toBe(true);
@@ -82,12 +83,12 @@ describe("clausegate plan", { timeout: 60_000 }, () => {
     expect(countClass(svg, "point")).toBe(16); // j = 0..16 (2k+2), one of them the chosen point
   });
   it("writes the plot before printing, so a plot that cannot be written leaves standard output empty", () => {
-    const r = cli(["plan", "examples/launch-rota.cnf", "--plot", join(dir, "no-such-folder", "p.svg")]);
+    const r = cli(["plan", "--register", "full", "examples/launch-rota.cnf", "--plot", join(dir, "no-such-folder", "p.svg")]);
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
   });
   it("refuses --plot without M before printing anything", () => {
-    const r = cli(["plan", "examples/launch-rota.cnf", "--solutions", "unknown", "--plot", join(dir, "none.svg")]);
+    const r = cli(["plan", "--register", "full", "examples/launch-rota.cnf", "--solutions", "unknown", "--plot", join(dir, "none.svg")]);
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
@@ -96,7 +97,7 @@ describe("clausegate plan", { timeout: 60_000 }, () => {
 
 describe("clausegate plan at any size", { timeout: 60_000 }, () => {
   it("prints exact integers: N = 2^60 = 1152921504606846976, k and N - M + 1 in full", () => {
-    const r = cli(["plan", "-", "--solutions", "1"], "p cnf 60 0\n");
+    const r = cli(["plan", "--register", "full", "-", "--solutions", "1"], "p cnf 60 0\n");
     expect(r.code).toBe(0);
     expect(r.stdout).toContain("N = 2^60 = 1152921504606846976");
     expect(r.stdout).toContain("; 1152921504606846976 in the worst case");
@@ -104,41 +105,42 @@ describe("clausegate plan at any size", { timeout: 60_000 }, () => {
     expect(r.stdout).toContain("k = floor(pi / (4 theta)) = 843314856");
   });
   it("JSON: whole numbers above 2^53 are decimal strings, above 2^1024 null with log2", () => {
-    const doc = JSON.parse(cli(["plan", "-", "--solutions", "7", "--json"], "p cnf 200 0\n").stdout);
+    const doc = JSON.parse(cli(["plan", "--register", "full", "-", "--solutions", "7", "--json"], "p cnf 200 0\n").stdout);
     // k for M = 7 of 2^200 from mpmath 1.3.0 at 600 bits.
     expect(doc.iterations).toBe("376305380284707550202764859524");
     expect(doc.n_assignments).toBe((1n << 200n).toString());
     expect(doc.failure_probability / 4.23109628814536e-60).toBeCloseTo(1, 9);
-    const huge = JSON.parse(cli(["plan", "-", "--solutions", "3", "--json"], "p cnf 5000 0\n").stdout);
+    const huge = JSON.parse(cli(["plan", "--register", "full", "-", "--solutions", "3", "--json"], "p cnf 5000 0\n").stdout);
     expect(huge).toMatchObject({ n_assignments: null, log2_n_assignments: 5000, iterations: null, success_probability: 1, failure_probability: null });
     expect(huge.log2_iterations).toBeCloseTo(Math.log2(Math.PI / 4) + (5000 - Math.log2(3)) / 2, 9);
   });
   it("plans a header declaring 2^31 - 1 variables, counting only the variables that occur", () => {
     const input = "p cnf 2147483647 2\n1 2 0\n-1 5 0\n";
-    const r = cli(["plan", "-"], input);
+    const r = cli(["plan", "--register", "full", "-"], input);
     expect(r.code).toBe(0);
     expect(r.stdout).toContain("N = 2^2147483647");
     expect(r.stdout).toMatch(/^iterations: k = floor\(pi \/ \(4 theta\)\) = 1$/m); // M/N = 4/8
     expect(r.stdout).not.toMatch(/Infinity|NaN/);
-    const unknown = cli(["plan", "-", "--solutions", "unknown"], input);
+    const unknown = cli(["plan", "--register", "full", "-", "--solutions", "unknown"], input);
     expect(unknown.code).toBe(0);
     expect(unknown.stdout).not.toMatch(/Infinity|NaN/);
-    const one = cli(["plan", "-", "--solutions", "1"], input);
+    const one = cli(["plan", "--register", "full", "-", "--solutions", "1"], input);
     expect(one.stdout).toMatch(/k = floor\(pi \/ \(4 theta\)\) = about 2\^1073741823\.15/);
   });
-  it("plan --reduce on a 2^31 - 1 header: the JSON maps register bits, fixed and free variables", () => {
-    const r = cli(["plan", "-", "--reduce", "--json"], "p cnf 2147483647 3\n1 2 0\n-1 5 0\n7 0\n");
-    expect(r.code).toBe(0);
-    const doc = JSON.parse(r.stdout);
-    expect(doc).toMatchObject({ variables: 2147483647, search_qubits: 3, solutions: 4 });
-    expect(doc.reduction.register).toEqual([{ bit: 0, variable: 1 }, { bit: 1, variable: 2 }, { bit: 2, variable: 5 }]);
-    expect(doc.reduction.fixed).toEqual([{ variable: 7, value: true }]);
-    expect(doc.reduction.free).toEqual([{ first: 3, last: 4 }, { first: 6, last: 6 }, { first: 8, last: 2147483647 }]);
-    expect(doc.reduction.free_count).toBe(2147483647 - 4);
+  it("plan (free register) on a 2^31 - 1 header: the JSON names the register's variables, the fixed ones and the rest", () => {
+    for (const args of [["--no-structure"], ["--no-structure", "--reduce"]]) {
+      const r = cli(["plan", "-", ...args, "--json"], "p cnf 2147483647 3\n1 2 0\n-1 5 0\n7 0\n");
+      expect(r.code).toBe(0);
+      const doc = JSON.parse(r.stdout);
+      expect(doc).toMatchObject({ variables: 2147483647, search_qubits: 3, solutions: 4, register_mode: "free", structure: false, register: [1, 2, 5] });
+      expect(doc.completion.fixed).toEqual([{ variable: 7, value: true }]);
+      expect(doc.completion.definitions).toEqual([]);
+      expect(doc.completion.other_variables).toBe(2147483647 - 4);
+    }
   });
   it("plots a huge k as a sampled curve, marking only k", () => {
     const out = join(dir, "huge.svg");
-    expect(cli(["plan", "-", "--solutions", "7", "--plot", out], "p cnf 200 0\n").code).toBe(0);
+    expect(cli(["plan", "--register", "full", "-", "--solutions", "7", "--plot", out], "p cnf 200 0\n").code).toBe(0);
     const svg = readFileSync(out, "utf8");
     expect(checkXml(svg).ok).toBe(true);
     expect(countClass(svg, "point")).toBe(0);
@@ -152,7 +154,7 @@ describe("clausegate search", { timeout: 60_000 }, () => {
   it("writes the search circuit and a whole-run report (wide and lean side by side)", () => {
     const out = join(dir, "s.qasm");
     const rep = join(dir, "s.json");
-    const r = cli(["search", "examples/launch-rota.cnf", "-o", out, "--report", rep, "--uncompute", "measured"]);
+    const r = cli(["search", "--register", "full", "examples/launch-rota.cnf", "-o", out, "--report", rep, "--uncompute", "measured"]);
     expect(r.code).toBe(0);
     const qasm = readFileSync(out, "utf8");
     expect(qasm).toContain("12 search qubits, 7 iterations");
@@ -171,7 +173,7 @@ describe("clausegate search", { timeout: 60_000 }, () => {
     const theta = Math.asin(Math.sqrt(49 / 4096)); // launch-rota: 49 models of 12 variables
     for (const K of [0, 1, 3, 7, 20]) {
       const rep = join(dir, `k${K}.json`);
-      expect(cli(["search", "examples/launch-rota.cnf", "--iterations", String(K), "--report", rep, "-o", join(dir, `k${K}.qasm`)]).code).toBe(0);
+      expect(cli(["search", "--register", "full", "examples/launch-rota.cnf", "--iterations", String(K), "--report", rep, "-o", join(dir, `k${K}.qasm`)]).code).toBe(0);
       const report = JSON.parse(readFileSync(rep, "utf8"));
       const P = Math.sin((2 * K + 1) * theta) ** 2;
       expect(report.iterations).toBe(K);
@@ -192,7 +194,7 @@ describe("clausegate search", { timeout: 60_000 }, () => {
   });
   it("--solutions M sets the success probability of the report", () => {
     const rep = join(dir, "m.json");
-    expect(cli(["search", "examples/launch-rota.cnf", "--iterations", "2", "--solutions", "7", "--report", rep, "-o", join(dir, "m.qasm")]).code).toBe(0);
+    expect(cli(["search", "--register", "full", "examples/launch-rota.cnf", "--iterations", "2", "--solutions", "7", "--report", rep, "-o", join(dir, "m.qasm")]).code).toBe(0);
     const report = JSON.parse(readFileSync(rep, "utf8"));
     const P = Math.sin(5 * Math.asin(Math.sqrt(7 / 4096))) ** 2;
     expect(report.plan).toMatchObject({ solutions: 7, solutions_source: "given" });
@@ -202,7 +204,7 @@ describe("clausegate search", { timeout: 60_000 }, () => {
     const cnf = readDimacs(readFileSync("examples/launch-rota.cnf")).cnf!;
     for (const K of [1, 3]) {
       const rep = join(dir, `sim${K}.json`);
-      expect(cli(["search", "examples/launch-rota.cnf", "--iterations", String(K), "--report", rep, "-o", join(dir, `sim${K}.qasm`)]).code).toBe(0);
+      expect(cli(["search", "--register", "full", "examples/launch-rota.cnf", "--iterations", String(K), "--report", rep, "-o", join(dir, `sim${K}.qasm`)]).code).toBe(0);
       const report = JSON.parse(readFileSync(rep, "utf8"));
       const c = compileSearch(cnf, { basis: "mcx", iterations: K, measure: false });
       const run = runSparse(c, [basisTerm(c.qubits, [])], seededRandom(K));
@@ -217,60 +219,61 @@ describe("clausegate search", { timeout: 60_000 }, () => {
   it("leaves the expected totals null, saying why, when M is unknown or 0", () => {
     const chain = `p cnf 40 39\n${Array.from({ length: 39 }, (_, i) => `${i + 1} ${i + 2} 0`).join("\n")}\n`;
     const rep = join(dir, "u.json");
-    expect(cli(["search", "-", "--iterations", "1", "--report", rep, "-o", join(dir, "u.qasm")], chain).code).toBe(0);
+    expect(cli(["search", "--register", "full", "-", "--iterations", "1", "--report", rep, "-o", join(dir, "u.qasm")], chain).code).toBe(0);
     const report = JSON.parse(readFileSync(rep, "utf8"));
     expect(report.plan).toBeNull();
     expect(report.plan_note).toContain("unknown");
     expect(report.costs[0].expected_t_count).toBeNull();
     const unsat = join(dir, "z.json");
-    expect(cli(["search", "examples/herb-spiral.cnf", "--iterations", "1", "--report", unsat, "-o", join(dir, "z.qasm")]).code).toBe(0);
+    expect(cli(["search", "--register", "full", "examples/herb-spiral.cnf", "--iterations", "1", "--report", unsat, "-o", join(dir, "z.qasm")]).code).toBe(0);
     const z = JSON.parse(readFileSync(unsat, "utf8"));
     expect(z.plan).toMatchObject({ solutions: 0, optimal_iterations: null, success_probability: 0, expected_runs: null });
     expect(z.costs[0].expected_runs).toBeNull();
   });
-  it("reduces the search register and maps each bit back to its variable", () => {
+  it("searches the free register (without structure: unit propagation and unused variables only) and names each qubit's variable", () => {
     const rep = join(dir, "r.json");
-    const r = cli(["search", "-", "--reduce", "--report", rep], "p cnf 5 3\n1 0\n-1 2 3 0\n3 -4 0\n");
+    const r = cli(["search", "-", "--no-structure", "--report", rep], "p cnf 5 3\n1 0\n-1 2 3 0\n3 -4 0\n");
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^qubit\[3\] vars;$/m);
+    expect(r.stdout).toContain("// search register: free (vars[i] is variable 2 3 4; of 5: 1 fixed by unit propagation, 1 in no open clause; structure recovery off)");
     const report = JSON.parse(readFileSync(rep, "utf8"));
-    expect(report.reduction.register).toEqual([{ bit: 0, variable: 2 }, { bit: 1, variable: 3 }, { bit: 2, variable: 4 }]);
-    expect(report.reduction.fixed).toEqual([{ variable: 1, value: true }]);
-    expect(report.reduction.free).toEqual([{ first: 5, last: 5 }]);
+    expect(report).toMatchObject({ register_mode: "free", structure: false, register: [2, 3, 4], search_qubits: 3 });
+    expect(report.completion.fixed).toEqual([{ variable: 1, value: true }]);
+    expect(report.completion.other_variables).toBe(1);
   });
   it("refuses to search an unsatisfiable formula (exit 3) unless told how many iterations", () => {
-    expect(cli(["search", "examples/herb-spiral.cnf"]).code).toBe(3);
-    expect(cli(["search", "examples/herb-spiral.cnf", "--iterations", "1"]).code).toBe(0);
+    expect(cli(["search", "--register", "full", "examples/herb-spiral.cnf"]).code).toBe(3);
+    expect(cli(["search", "--register", "full", "examples/herb-spiral.cnf", "--iterations", "1"]).code).toBe(0);
   });
   it("estimates the size before building and refuses with it (exit 2, one line)", () => {
-    const max = cli(["search", "examples/launch-rota.cnf", "--iterations", "1048576"]);
+    const max = cli(["search", "--register", "full", "examples/launch-rota.cnf", "--iterations", "1048576"]);
     expect(max.code).toBe(2);
     expect(max.stdout).toBe("");
     expect(max.stderr.trim().split("\n")).toHaveLength(1);
     expect(max.stderr).toMatch(/more than \d+ gates; clausegate search builds at most \d+; hint: --iterations \d+ or fewer fits, or clausegate plan/);
-    const est = cli(["search", "examples/launch-rota.cnf", "--iterations", "60000"]);
+    const est = cli(["search", "--register", "full", "examples/launch-rota.cnf", "--iterations", "60000"]);
     expect(est.code).toBe(2);
     expect(est.stderr).toMatch(/about \d+ gates on \d+ qubits \(60000 iterations of about \d+ gates\)/);
-    const report = cli(["search", "examples/launch-rota.cnf", "--iterations", "20000", "--report", join(dir, "big.json")]);
+    const report = cli(["search", "--register", "full", "examples/launch-rota.cnf", "--iterations", "20000", "--report", join(dir, "big.json")]);
     expect(report.code).toBe(2);
     expect(report.stderr).toMatch(/Clifford\+T circuit of about \d+ gates/);
   });
   it("refuses a plan's huge k with exit 2 (not 70), pointing to clausegate plan", () => {
-    const r = cli(["search", "-", "--solutions", "1"], "p cnf 60 0\n");
+    const r = cli(["search", "--register", "full", "-", "--solutions", "1"], "p cnf 60 0\n");
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/the plan's k = 843314856 iterations is more than clausegate search builds .*clausegate plan/);
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
   });
-  it("searches a reduced 2^31 - 1 header", () => {
-    const r = cli(["search", "-", "--reduce"], "p cnf 2147483647 2\n1 2 0\n-1 5 0\n");
+  it("searches a 2^31 - 1 header over its free register", () => {
+    const r = cli(["search", "-", "--no-structure"], "p cnf 2147483647 2\n1 2 0\n-1 5 0\n");
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^qubit\[3\] vars;$/m);
   });
   it("help and behaviour agree: no --kind, exit 3 documented", () => {
-    const help = cli(["search", "--help"]).stdout;
+    const help = cli(["search", "--register", "full", "--help"]).stdout;
     expect(help).not.toContain("--kind");
     expect(help).toContain("3 when the formula is unsatisfiable");
-    const r = cli(["search", "examples/launch-rota.cnf", "--kind", "flag"]);
+    const r = cli(["search", "--register", "full", "examples/launch-rota.cnf", "--kind", "flag"]);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/^clausegate search: error: --kind is not an option of search.*; hint: /);
   });
@@ -289,6 +292,14 @@ describe("clausegate draw", { timeout: 60_000 }, () => {
     expect(countClass(svg, "ctrl-on") + countClass(svg, "ctrl-off")).toBe(8 * 1 + 4 * 2 + 4);
     expect(svg).toContain(">vars[0]</text>");
     expect(svg).toContain(">work[3]</text>");
+    // --no-structure: the clause construction. Six clauses of two literals, computed and
+    // uncomputed: 12 ANDs of 2 controls, 12 targets, and the root over the 6 clause bits.
+    const plain = join(dir, "o-plain.svg");
+    expect(cli(["draw", "examples/allotment-pair.cnf", "--basis", "mcx", "--no-structure", "-o", plain]).code).toBe(0);
+    const p = readFileSync(plain, "utf8");
+    expect(countClass(p, "target")).toBe(12);
+    expect(countClass(p, "ctrl-on") + countClass(p, "ctrl-off")).toBe(12 * 2 + 6);
+    expect(p).toContain(">work[5]</text>");
   });
   it("draws a search circuit with measurements", () => {
     const out = join(dir, "s.svg");

@@ -18,7 +18,7 @@ describe("clausegate verify", () => {
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout)).toEqual({
       verified: true, method: "exhaustive", simulator: "state-vector", assignments: 4096, models: 4, non_models: 4092,
-      model_search: null, falsifying: 0, random_samples: 0, notes: [], counterexample: null,
+      model_search: null, falsifying: 0, random_samples: 0, notes: [], register: "full", counterexample: null,
     });
   });
   it("verifies a circuit file in OpenQASM 3 and in JSON", () => {
