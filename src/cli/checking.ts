@@ -1,6 +1,6 @@
 /** Running a verification and wording its result, shared by `verify` and `oracle --verify`. */
 import {
-  DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT, verifyOracle, type Circuit, type Cnf, type VerifyResult,
+  DEFAULT_EXHAUSTIVE_LIMIT, exhaustiveInReach, MAX_EXHAUSTIVE_LIMIT, proveOracle, verifyOracle, type Circuit, type Cnf, type OracleProof, type VerifyResult,
 } from "../internal.js";
 import { displayName, progress } from "./io.js";
 import { intOption } from "./options.js";
@@ -12,6 +12,11 @@ export interface VerifyFlags {
   models?: number;
   conflictLimit?: number;
   seed: number;
+  /**
+   * `prove`: a proof or nothing (--prove); `sample`: simulation only (--sample); `auto`: exhaustive
+   * simulation when in reach, else a proof, else sampled simulation.
+   */
+  mode: "prove" | "sample" | "auto";
 }
 
 export const VERIFY_ARGS = {
@@ -20,6 +25,8 @@ export const VERIFY_ARGS = {
   models: { type: "string" },
   "conflict-limit": { type: "string" },
   seed: { type: "string" },
+  prove: { type: "boolean" },
+  sample: { type: "boolean" },
 } as const;
 
 export function verifyFlags(values: Record<string, string | boolean | undefined>): VerifyFlags {
@@ -33,6 +40,78 @@ export function verifyFlags(values: Record<string, string | boolean | undefined>
     ...(models === undefined ? {} : { models }),
     ...(conflictLimit === undefined ? {} : { conflictLimit }),
     seed: intOption(str("seed"), "--seed", 0, 2 ** 31 - 1) ?? 1,
+    mode: values.prove === true ? "prove" : values.sample === true ? "sample" : "auto",
+  };
+}
+
+/** What a check found: a proof (or refutation), a simulation, or both (a proof that fell back). */
+export interface CheckResult {
+  /** True when the circuit passed: proved, or (not under --prove) verified by simulation. */
+  readonly ok: boolean;
+  /** The proof attempt, or null when simulation sufficed (or --sample). */
+  readonly proof: OracleProof | null;
+  /** The simulation, or null when the proof decided. */
+  readonly simulation: VerifyResult | null;
+}
+
+/**
+ * Checks a circuit as the flags say: under --prove a proof (falling back to simulation, shown
+ * but not passing, when the proof is out of reach); by default exhaustive simulation when in
+ * reach, else a proof, else sampled simulation; under --sample simulation only.
+ */
+export async function runCheck(cnf: Cnf, circuit: Circuit, flags: VerifyFlags, kind?: "phase" | "flag"): Promise<CheckResult> {
+  if (flags.mode === "sample" || (flags.mode === "auto" && exhaustiveInReach(circuit, cnf.variables, flags.exhaustiveLimit))) {
+    const simulation = await runVerification(cnf, circuit, flags, kind);
+    return { ok: simulation.verified, proof: null, simulation };
+  }
+  const proof = proveOracle(cnf, circuit, { ...(kind ? { kind } : {}), ...(flags.conflictLimit !== undefined ? { conflictLimit: flags.conflictLimit } : {}) });
+  if (proof.status !== "unknown") return { ok: proof.proved, proof, simulation: null };
+  const simulation = await runVerification(cnf, circuit, flags, kind);
+  return { ok: flags.mode === "auto" && simulation.verified, proof, simulation };
+}
+
+const seconds = (s: number): string => `${s < 10 ? s.toFixed(2) : s.toFixed(1)} s`;
+const METHOD_WORDS: Record<string, string> = {
+  structural: "structural hashing (the miter is a constant)",
+  bdd: "a BDD over the clause nodes",
+  sat: "the CDCL solver",
+};
+
+/** Human-readable lines for a check. */
+export function checkLines(r: CheckResult, file: string): string[] {
+  const p = r.proof;
+  const lines: string[] = [];
+  if (p !== null && p.status !== "unknown") {
+    const how = `proof by ${METHOD_WORDS[p.method] ?? p.method}; miter ${plural(p.miter.variables, "variable")}, ${plural(p.miter.clauses, "clause")}; ${seconds(p.seconds)}`;
+    if (p.proved) return [`proved: every assignment, ${how}`];
+    const c = p.counterexample!;
+    lines.push(`mismatch: ${how}; confirmed by simulating the counterexample`, `counterexample: ${c.dimacs}`);
+    if (c.target !== undefined) lines.push(`target before: ${c.target ? 1 : 0}`);
+    if (c.outcomes.length > 0) lines.push(`measurement outcomes: ${c.outcomes.map((o) => (o ? 1 : 0)).join("")}`);
+    lines.push(`expected: ${c.expected}`, `circuit:  ${c.actual}`);
+    return lines;
+  }
+  if (p !== null) lines.push(`${p.message.replace(/^not proven: /, "not proven: ")} (after ${seconds(p.seconds)}); checked by simulation instead`);
+  if (r.simulation !== null) lines.push(...reportLines(r.simulation, file));
+  return lines;
+}
+
+/** A check as one JSON object (snake_case keys). */
+export function checkJson(r: CheckResult): object {
+  const p = r.proof;
+  if (p !== null && p.status !== "unknown") {
+    const c = p.counterexample;
+    return {
+      verified: p.proved, method: "proof", proof_method: p.method, miter: { variables: p.miter.variables, clauses: p.miter.clauses },
+      seconds: p.seconds, graph_nodes: p.graphNodes,
+      counterexample: c ? c.dimacs : null,
+      ...(c ? { expected: c.expected, actual: c.actual, outcomes: c.outcomes.map((o) => (o ? 1 : 0)), ...(c.target !== undefined ? { target: c.target ? 1 : 0 } : {}) } : {}),
+    };
+  }
+  return {
+    ...reportJson(r.simulation!),
+    verified: r.ok,
+    ...(p !== null ? { proof: { status: "not proven", reason: p.message.replace(/^not proven: /, ""), seconds: p.seconds, miter: p.miter } } : {}),
   };
 }
 

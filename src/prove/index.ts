@@ -28,6 +28,7 @@ import type { Cnf } from "../cnf/cnf.js";
 import { evaluate } from "../cnf/evaluate.js";
 import { CdclSolver } from "../cnf/solve.js";
 import type { Circuit } from "../ir/circuit.js";
+import { compileBitProgram } from "../sim/bitsim.js";
 import { failureOn, type OracleLayout } from "./confirm.js";
 import { FALSE, OUTCOME, TARGET, TRUE, VAR, type Graph } from "./graph.js";
 import { cutBddProof } from "./bdd.js";
@@ -257,4 +258,17 @@ function builderOf(g: Graph): FunctionBuilder {
     xor: (a, b) => g.xor(a, b),
     not: (l) => l ^ 1,
   };
+}
+
+/** The state-vector simulator checks every assignment only up to this many variables (as sim/verify.ts). */
+const STATE_VECTOR_EXHAUSTIVE = 12;
+
+/**
+ * True when simulation can check every assignment of `variables` variables under the exhaustive
+ * limit `limit`: the bit-parallel kernel runs the circuit (classical gates and X-basis erasure)
+ * up to `limit`, the state-vector simulator up to 12. Above that, verification proves instead.
+ */
+export function exhaustiveInReach(circuit: Circuit, variables: number, limit: number): boolean {
+  const classical = !("unsupported" in compileBitProgram(circuit));
+  return variables <= (classical ? limit : Math.min(limit, STATE_VECTOR_EXHAUSTIVE));
 }
