@@ -139,7 +139,7 @@ export interface OracleProof {
 const dimacsOf = (a: readonly boolean[]): string => `${a.map((on, v) => (on ? v + 1 : -(v + 1))).join(" ")}${a.length ? " " : ""}0`;
 
 /** Conflicts of the first, short SAT attempt (counterexamples are usually found at once). */
-const QUICK_CONFLICTS = 20_000;
+const QUICK_CONFLICTS = 3_000;
 
 /**
  * Proves that `circuit` is the phase or flag oracle of `cnf` for every assignment: the right
