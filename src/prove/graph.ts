@@ -135,9 +135,19 @@ export class Graph {
       const x = i < na ? (la === null ? a : la[i]!) : 0x7fffffff;
       const y = j < nb ? (lb === null ? b : lb[j]!) : 0x7fffffff;
       let v: number;
-      if (x < y) (v = x), i++;
-      else if (y < x) (v = y), j++;
-      else (v = x), i++, j++;
+      if (x < y) {
+        v = x;
+        i++;
+      }
+      else if (y < x) {
+        v = y;
+        j++;
+      }
+      else {
+        v = x;
+        i++;
+        j++;
+      }
       if (n > 0 && s[n - 1] === (v ^ 1)) return FALSE; // l and NOT l are adjacent when sorted
       s[n++] = v;
     }
@@ -314,10 +324,17 @@ export class Graph {
       const x = i < na ? (la === null ? a : la[i]!) : 0x7fffffff;
       const y = j < nb ? (lb === null ? b : lb[j]!) : 0x7fffffff;
       let v: number;
-      if (x < y) (v = x), i++;
-      else if (y < x) (v = y), j++;
+      if (x < y) {
+        v = x;
+        i++;
+      }
+      else if (y < x) {
+        v = y;
+        j++;
+      }
       else {
-        i++, j++; // l XOR l = 0
+        i++; // l XOR l = 0
+        j++;
         continue;
       }
       if (n > 0 && s[n - 1] === (v ^ 1)) {

@@ -38,11 +38,15 @@ import { coneSize, encodeCone } from "./tseitin.js";
 
 /** Builds Boolean functions in the prover's hashed graph (literals: `(node << 1) | complemented`). */
 export interface FunctionBuilder {
-  /** The constant false literal (0); true is 1. */
+  /** The constant false literal (0). */
   readonly FALSE: number;
+  /** The constant true literal (1). */
   readonly TRUE: number;
+  /** The AND of literals (true for none). */
   and(lits: ArrayLike<number>): number;
+  /** The OR of literals (false for none). */
   or(lits: ArrayLike<number>): number;
+  /** The XOR of two literals. */
   xor(a: number, b: number): number;
   /** The complement of a literal. */
   not(lit: number): number;

@@ -98,10 +98,17 @@ function xorForms(a: Form, b: Form): Form {
     const u = i < x.length ? x[i]! : 0x7fffffff;
     const v = j < y.length ? y[j]! : 0x7fffffff;
     let l: number;
-    if (u < v) (l = u), i++;
-    else if (v < u) (l = v), j++;
+    if (u < v) {
+        l = u;
+        i++;
+      }
+    else if (v < u) {
+        l = v;
+        j++;
+      }
     else {
-      i++, j++;
+      i++;
+      j++;
       continue;
     }
     if (out.length > 0 && out[out.length - 1] === (l ^ 1)) {
