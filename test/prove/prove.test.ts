@@ -146,6 +146,8 @@ describe("mutations of oracles with 60 to 200 variables: every harmful one rejec
   // the classical bases are proved or refuted outright; "unknown" (a Clifford+T mutant whose
   // Hadamards no longer close, or a measurement of an input-dependent value) must then be
   // rejected by the simulation fallback.
+  // Lean x clifford+t x unitary is left out: its proof is slow even when correct (README, "Limits").
+  const combos = COMBOS.filter((o) => !(o.strategy === "lean" && o.basis === "clifford+t" && o.uncompute === "unitary"));
   const sizes = [60, 100, 200];
   const plans = sizes.flatMap((n, i) => MUTATIONS.map((m, j) => ({ n, m, seed: 100 * i + j + 1 })));
   for (const { n, m, seed } of plans) {
@@ -153,7 +155,7 @@ describe("mutations of oracles with 60 to 200 variables: every harmful one rejec
       const cnf = randomKSat(n, 3 * n, 3, seed);
       const counts = { refuted: 0, harmless: 0, fallback: 0 };
       for (let k = 0; k < 2; k++) {
-        const o = COMBOS[(seed * 7 + k * 5) % COMBOS.length]!;
+        const o = combos[(seed * 7 + k * 5) % combos.length]!;
         const c = compileOracle(cnf, o).circuit;
         const mutated = mutate(c, m, seed * 7919 + k * 104729);
         if (mutated === null) continue;
