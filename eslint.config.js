@@ -25,6 +25,9 @@ const mayImport = {
   emit: ["ir"],
   cost: ["ir", "synth", "passes", "emit", "cnf"],
   sim: ["ir", "cnf", "structure"],
+  // The prover: symbolic simulation of circuits (ir), the formula and the solver (cnf), and the
+  // simulators to confirm a counterexample on one input (sim).
+  prove: ["ir", "cnf", "sim", "structure"],
   search: ["cnf", "ir", "synth", "count"],
   draw: ["ir", "search"],
   // The physical model takes plain numbers; cnf only for the classical evaluator's rate.

@@ -53,6 +53,8 @@ export { readCircuit } from "./ir/read.js";
 // Verifying.
 export type { VerifyOptions, VerifyResult, Counterexample, ModelSearchReport } from "./sim/verify.js";
 export { verifyOracle } from "./sim/verify.js";
+export type { ProveOptions, OracleProof, ProofCounterexample, ProofMethod, ExpectedFunction, FunctionBuilder } from "./prove/index.js";
+export { proveOracle } from "./prove/index.js";
 
 // Costing.
 export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle } from "./cost/index.js";

@@ -49,6 +49,9 @@ export { simulateClassical } from "./sim/bitsim.js";
 export type { VerifyOptions, VerifyResult, Counterexample, ModelSearchReport } from "./sim/verify.js";
 export { DEFAULT_CONFLICT_LIMIT } from "./cnf/findModels.js";
 export { verifyOracle, DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT } from "./sim/verify.js";
+export type { ProveOptions, OracleProof, ProofCounterexample, ProofMethod, ExpectedFunction, FunctionBuilder } from "./prove/index.js";
+export { proveOracle, exhaustiveInReach } from "./prove/index.js";
+export { expectedOfCompletion } from "./prove/completion.js";
 export type { CircuitReadResult } from "./ir/read.js";
 export type { SearchPlan, ScheduleRound, ScaledCount, Solutions, BigCount, Probability, ExpectedCalls } from "./search/plan.js";
 export {

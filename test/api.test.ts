@@ -11,7 +11,7 @@ const PUBLIC = [
   // emit and read back
   "emitQasm3", "emitQasm2", "emitJson", "qasm2Problem", "collect", "readCircuit",
   // verify
-  "verifyOracle",
+  "verifyOracle", "proveOracle",
   // cost
   "oracleResources", "costTable", "searchCosts", "countCircuit",
   // plan

@@ -1,6 +1,6 @@
 /** Running a verification and wording its result, shared by `verify` and `oracle --verify`. */
 import {
-  DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT, verifyOracle, type Circuit, type Cnf, type Completion, type VerifyResult,
+  completeAssignment, DEFAULT_EXHAUSTIVE_LIMIT, exhaustiveInReach, expectedOfCompletion, MAX_EXHAUSTIVE_LIMIT, proveOracle, verifyOracle, type Circuit, type Cnf, type Completion, type OracleProof, type VerifyResult,
 } from "../internal.js";
 import { displayName, progress } from "./io.js";
 import { intOption } from "./options.js";
@@ -12,6 +12,11 @@ export interface VerifyFlags {
   models?: number;
   conflictLimit?: number;
   seed: number;
+  /**
+   * `prove`: a proof or nothing (--prove); `sample`: simulation only (--sample); `auto`: exhaustive
+   * simulation when in reach, else a proof, else sampled simulation.
+   */
+  mode: "prove" | "sample" | "auto";
 }
 
 export const VERIFY_ARGS = {
@@ -20,6 +25,8 @@ export const VERIFY_ARGS = {
   models: { type: "string" },
   "conflict-limit": { type: "string" },
   seed: { type: "string" },
+  prove: { type: "boolean" },
+  sample: { type: "boolean" },
 } as const;
 
 export function verifyFlags(values: Record<string, string | boolean | undefined>): VerifyFlags {
@@ -33,6 +40,101 @@ export function verifyFlags(values: Record<string, string | boolean | undefined>
     ...(models === undefined ? {} : { models }),
     ...(conflictLimit === undefined ? {} : { conflictLimit }),
     seed: intOption(str("seed"), "--seed", 0, 2 ** 31 - 1) ?? 1,
+    mode: values.prove === true ? "prove" : values.sample === true ? "sample" : "auto",
+  };
+}
+
+/** What a check found: a proof (or refutation), a simulation, or both (a proof that fell back). */
+export interface CheckResult {
+  /** True when the circuit passed: proved, or (not under --prove) verified by simulation. */
+  readonly ok: boolean;
+  /** The proof attempt, or null when simulation sufficed (or --sample). */
+  readonly proof: OracleProof | null;
+  /** The simulation, or null when the proof decided. */
+  readonly simulation: VerifyResult | null;
+  /** A free register's completion rule: a proof's counterexample is then a register value. */
+  readonly completion?: Completion;
+}
+
+/**
+ * Checks a circuit as the flags say: under --prove a proof (falling back to simulation, shown
+ * but not passing, when the proof is out of reach); by default exhaustive simulation when in
+ * reach, else a proof, else sampled simulation; under --sample simulation only.
+ */
+export async function runCheck(cnf: Cnf, circuit: Circuit, flags: VerifyFlags, kind?: "phase" | "flag", completion?: Completion): Promise<CheckResult> {
+  const inputs = completion === undefined ? cnf.variables : completion.register.length;
+  if (flags.mode === "sample" || (flags.mode === "auto" && exhaustiveInReach(circuit, inputs, flags.exhaustiveLimit))) {
+    const simulation = await runVerification(cnf, circuit, flags, kind, completion);
+    return { ok: simulation.verified, proof: null, simulation };
+  }
+  // A free register is proven against the formula's projection: the completion rule built as a
+  // function of the register (fixed values, definitions in order, the clauses over them).
+  const proof = proveOracle(cnf, circuit, {
+    ...(kind ? { kind } : {}),
+    ...(flags.conflictLimit !== undefined ? { conflictLimit: flags.conflictLimit } : {}),
+    ...(completion !== undefined ? { expected: expectedOfCompletion(cnf, completion) } : {}),
+  });
+  const free = completion !== undefined ? { completion } : {};
+  if (proof.status !== "unknown") return { ok: proof.proved, proof, simulation: null, ...free };
+  const simulation = await runVerification(cnf, circuit, flags, kind, completion);
+  return { ok: flags.mode === "auto" && simulation.verified, proof, simulation, ...free };
+}
+
+const seconds = (s: number): string => `${s < 10 ? s.toFixed(2) : s.toFixed(1)} s`;
+const METHOD_WORDS: Record<string, string> = {
+  structural: "structural hashing (the miter is a constant)",
+  bdd: "a BDD over the clause nodes",
+  sat: "the CDCL solver",
+};
+
+/** Human-readable lines for a check. */
+export function checkLines(r: CheckResult, file: string): string[] {
+  const p = r.proof;
+  const lines: string[] = [];
+  if (p !== null && p.status !== "unknown") {
+    const how = `proof by ${METHOD_WORDS[p.method] ?? p.method}; miter ${plural(p.miter.variables, "variable")}, ${plural(p.miter.clauses, "clause")}; ${seconds(p.seconds)}`;
+    if (p.proved) return [`proved: every assignment, ${how}`];
+    const c = p.counterexample!;
+    lines.push(`mismatch: ${how}; confirmed by simulating the counterexample`);
+    if (r.completion !== undefined) {
+      const { register, completed } = registerCounterexample(r.completion, c.assignment);
+      lines.push(`counterexample: register value ${register} (register variables as literals), completed to ${completed}`);
+    } else lines.push(`counterexample: ${c.dimacs}`);
+    if (c.target !== undefined) lines.push(`target before: ${c.target ? 1 : 0}`);
+    if (c.outcomes.length > 0) lines.push(`measurement outcomes: ${c.outcomes.map((o) => (o ? 1 : 0)).join("")}`);
+    lines.push(`expected: ${c.expected}`, `circuit:  ${c.actual}`);
+    return lines;
+  }
+  if (p !== null) lines.push(`${p.message.replace(/^not proven: /, "not proven: ")} (after ${seconds(p.seconds)}); checked by simulation instead`);
+  if (r.simulation !== null) lines.push(...reportLines(r.simulation, file));
+  return lines;
+}
+
+/** A register value (the prover's inputs) as literals of the register's variables, and its completion as a DIMACS line. */
+function registerCounterexample(completion: Completion, value: readonly boolean[]): { register: string; completed: string } {
+  const register = Array.from(completion.register, (v, i) => (value[i] ? v : -v));
+  const full = completeAssignment(completion, value);
+  const completed = Array.from(full, (b, i) => (b ? i + 1 : -(i + 1)));
+  return { register: [...register, 0].join(" "), completed: [...completed, 0].join(" ") };
+}
+
+/** A check as one JSON object (snake_case keys). */
+export function checkJson(r: CheckResult): object {
+  const p = r.proof;
+  if (p !== null && p.status !== "unknown") {
+    const c = p.counterexample;
+    return {
+      verified: p.proved, method: "proof", proof_method: p.method, miter: { variables: p.miter.variables, clauses: p.miter.clauses },
+      seconds: p.seconds, graph_nodes: p.graphNodes,
+      counterexample: c ? (r.completion !== undefined ? registerCounterexample(r.completion, c.assignment).completed : c.dimacs) : null,
+      ...(c && r.completion !== undefined ? { counterexample_register: registerCounterexample(r.completion, c.assignment).register, counterexample_register_bits: c.assignment.map((b) => (b ? "1" : "0")).join("") } : {}),
+      ...(c ? { expected: c.expected, actual: c.actual, outcomes: c.outcomes.map((o) => (o ? 1 : 0)), ...(c.target !== undefined ? { target: c.target ? 1 : 0 } : {}) } : {}),
+    };
+  }
+  return {
+    ...reportJson(r.simulation!),
+    verified: r.ok,
+    ...(p !== null ? { proof: { status: "not proven", reason: p.message.replace(/^not proven: /, ""), seconds: p.seconds, miter: p.miter } } : {}),
   };
 }
 

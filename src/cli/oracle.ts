@@ -2,7 +2,7 @@
 import { parseArgs } from "node:util";
 import { compileOracle, costTable, oracleResources, reduceSearch, registerOf, type Cnf, type CostRow, type Oracle } from "../internal.js";
 import { checkCircuitSize, displayName, loadCnf, progress, writeAtomic } from "./io.js";
-import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
+import { checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
 import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { problemOfOracle, registerJson, registerText, structureJson, structureText, type SearchProblem } from "./register.js";
@@ -26,8 +26,11 @@ ${registerHelp("full")}
                               of each search qubit, register_mode and structure the options, recovered
                               what structure recovery gave, completion (free register) how a register
                               value completes to a model
-  --verify                    verify the oracle first (as clausegate verify); write only if it passes; takes
+  --verify                    verify the oracle first (as clausegate verify: simulation in reach, else a
+                              proof); write only if it passes; takes
                               verify's --exhaustive-limit, --samples, --models, --conflict-limit and --seed
+  --prove                     prove the oracle first (as clausegate verify --prove, any size); write only
+                              if the proof succeeds; takes --conflict-limit
   -h, --help                  show this help
 `;
 
@@ -101,11 +104,22 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   checkCircuitSize(cnf, file, "oracle");
   const oracle = compileOracle(cnf, options);
   noteSimplification(oracle, file);
-  if (values.verify) {
-    const r = await runVerification(cnf, oracle.circuit, flags, options.kind, options.register === "free" ? oracle.completion : undefined);
-    process.stderr.write(`${reportLines(r, file).join("\n")}\n`);
-    if (!r.verified) {
-      process.stderr.write(r.counterexample
+  const completionOf = options.register === "free" ? oracle.completion : undefined;
+  if (values.prove) {
+    const r = await runCheck(cnf, oracle.circuit, { ...flags, mode: "prove" }, options.kind, completionOf);
+    process.stderr.write(`${checkLines(r, file).join("\n")}\n`);
+    if (!r.ok) {
+      process.stderr.write(r.proof?.counterexample
+        ? "clausegate oracle: error: the oracle failed its proof; nothing was written; hint: please report this with the input\n"
+        : "clausegate oracle: error: the oracle was not proven; nothing was written; hint: raise --conflict-limit, or use --verify to check it by simulation\n");
+      return 1;
+    }
+  } else if (values.verify) {
+    // As clausegate verify: exhaustive simulation when in reach, else a proof (--sample: sampling).
+    const r = await runCheck(cnf, oracle.circuit, flags, options.kind, completionOf);
+    process.stderr.write(`${checkLines(r, file).join("\n")}\n`);
+    if (!r.ok) {
+      process.stderr.write(r.proof?.counterexample ?? r.simulation?.counterexample
         ? "clausegate oracle: error: the oracle failed verification; nothing was written; hint: please report this with the input\n"
         : "clausegate oracle: error: the verification was inconclusive; nothing was written; hint: raise --conflict-limit or --exhaustive-limit, or write without --verify\n");
       return 1;

@@ -6,7 +6,7 @@ import {
 } from "../internal.js";
 import { checkCircuitSize, loadCnf, UserError } from "./io.js";
 import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
-import { reportJson, reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
+import { checkJson, checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
 export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT [--kind phase|flag]] [options]
 
@@ -17,13 +17,18 @@ oracle options and checks the result. With it, reads a circuit clausegate wrote 
 OpenQASM 3 as clausegate emits it), after checking every field of every gate; only --kind of the
 oracle options applies then (the others shape a compilation, and are refused).
 
-All 2^n assignments are checked when n is at most the exhaustive limit (the bit-parallel
+All 2^n assignments are simulated when n is at most the exhaustive limit (the bit-parallel
 simulator, for mcx and toffoli circuits; the exact state-vector simulator, for Clifford+T
-circuits, up to 12 variables). Above it the check is sampled: satisfying assignments found by a
-CDCL solver (which also proves a formula unsatisfiable), assignments that falsify one clause
-each, and a seeded random sample. "verified" needs both satisfying and falsifying assignments
-checked, unless the formula has none of one kind; otherwise the exit code is 1 and the reason is
-printed.
+circuits, up to 12 variables). Above it the circuit is proved: run symbolically over all inputs
+at once, it must equal the formula's oracle (a miter of the two, shown unsatisfiable by
+structural hashing, a BDD or a CDCL solver); a Clifford+T circuit must reduce, Hadamard pair by
+Hadamard pair, to a classical one through the lowering's gadgets. A circuit that fails the proof
+gets a counterexample, confirmed by simulating that one input. When the proof is out of reach
+("not proven", with the reason: e.g. a Clifford+T circuit that no gadget matches) the check is
+sampled: satisfying assignments found by a CDCL solver (which also proves a formula
+unsatisfiable), assignments that falsify one clause each, and a seeded random sample.
+"verified" needs both satisfying and falsifying assignments checked, unless the formula has none
+of one kind; otherwise the exit code is 1 and the reason is printed.
 
 With --register free the oracle's search register holds only the free variables (see clausegate
 oracle --help), and it is checked against the formula's projection: it must mark a register value
@@ -44,11 +49,14 @@ ${registerHelp("full")}
   --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
   --conflict-limit N          conflicts the solver may spend finding them (default ${DEFAULT_CONFLICT_LIMIT})
   --seed S                    seed for samples, the solver and measurement outcomes (default 1)
-  --json                      print the result as one JSON object
+  --prove                     prove at any size (no exhaustive simulation); exit 0 only when proved
+  --sample                    simulate only: sample above the exhaustive limit instead of proving
+  --json                      print the result as one JSON object (a proof: method "proof",
+                              proof_method, miter {variables, clauses}, seconds, counterexample)
   -h, --help                  show this help
 
-Exit codes: 0 verified, 1 not verified (a mismatch, with the first counterexample printed, or a
-kind of input left unchecked, with the reason), 2 bad input or usage.
+Exit codes: 0 verified (proved), 1 not verified (a mismatch, with the counterexample printed; a
+kind of input left unchecked, with the reason; under --prove, not proven), 2 bad input or usage.
 `;
 
 /** Oracle options that shape a compilation: meaningless when the circuit is given. */
@@ -72,6 +80,9 @@ export async function verifyCommand(argv: string[]): Promise<number> {
     }
   }
   const flags = verifyFlags(values);
+  if (values.prove && values.sample) {
+    throw new UserError("clausegate verify: error: --prove and --sample ask for a proof and for sampling only; hint: give one of them");
+  }
   let kind: "phase" | "flag" | undefined;
   let options: ReturnType<typeof oracleOptions> | undefined;
   const reg = registerOptions(values, "full");
@@ -94,10 +105,10 @@ export async function verifyCommand(argv: string[]): Promise<number> {
     circuit = oracle.circuit;
     if (reg.register === "free") completion = oracle.completion;
   }
-  const r = await runVerification(cnf, circuit, flags, kind, completion);
-  if (values.json) process.stdout.write(`${JSON.stringify(reportJson(r))}\n`);
-  else process.stdout.write(`${reportLines(r, values.circuit ?? file).join("\n")}\n`);
-  return r.verified ? 0 : 1;
+  const r = await runCheck(cnf, circuit, flags, kind, completion);
+  if (values.json) process.stdout.write(`${JSON.stringify(checkJson(r))}\n`);
+  else process.stdout.write(`${checkLines(r, values.circuit ?? file).join("\n")}\n`);
+  return r.ok ? 0 : 1;
 }
 
 async function loadCircuit(path: string): Promise<Circuit> {

@@ -42,7 +42,8 @@ describe("defaults per command", { timeout: 120_000 }, () => {
   it("oracle, verify, cost and draw use the full register; plan, search and forecast the free one", () => {
     expect(cli(["oracle", LOCK]).stdout).toMatch(/^qubit\[40\] vars;$/m);
     expect(cli(["oracle", LOCK, "--register", "free"]).stdout).toMatch(/^qubit\[4\] vars;$/m);
-    expect(cli(["verify", LOCK]).stdout).toMatch(/^verified: sampled \(\d+ assignments, /); // 40 variables: above the exhaustive limit
+    expect(cli(["verify", LOCK]).stdout).toMatch(/^proved: every assignment, /); // 40 variables: above the exhaustive limit, so proved
+    expect(cli(["verify", LOCK, "--sample"]).stdout).toMatch(/^verified: sampled \(\d+ assignments, /);
     expect(cli(["cost", LOCK]).stdout).toContain("search register: 40 qubits, full (every declared variable");
     const svg = join(dir, "pair.svg");
     expect(cli(["draw", "examples/allotment-pair.cnf", "-o", svg]).code).toBe(0);
@@ -200,8 +201,12 @@ describe("oracle, verify and draw with a free register", { timeout: 120_000 }, (
       expect(r.code, `${args.join(" ")}: ${r.stdout}${r.stderr}`).toBe(0);
       expect(r.stdout).toMatch(/^verified: exhaustive \(16 register values, [\w-]+ simulator; free register, against the formula's projection\); 10 extending to a model, 6 not/);
     }
-    // Without structure the free register is 30 qubits: sampled, models from the solver projected.
-    const plain = cli(["verify", LOCK, "--register", "free", "--no-structure"]);
+    // Without structure the free register is 30 qubits: above the exhaustive limit, so proved
+    // against the projection; --sample samples, models from the solver projected.
+    const proved = cli(["verify", LOCK, "--register", "free", "--no-structure"]);
+    expect(proved.code, proved.stdout).toBe(0);
+    expect(proved.stdout).toMatch(/^proved: every assignment, /);
+    const plain = cli(["verify", LOCK, "--register", "free", "--no-structure", "--sample"]);
     expect(plain.code, plain.stdout).toBe(0);
     expect(plain.stdout).toMatch(/^verified: sampled \(\d+ register values, bit-parallel simulator; free register, against the formula's projection\)/);
     const doc = JSON.parse(cli(["verify", LOCK, "--register", "free", "--json"]).stdout);
@@ -236,6 +241,29 @@ describe("oracle, verify and draw with a free register", { timeout: 120_000 }, (
     const full = cli(["verify", LOCK, "--circuit", good]);
     expect(full.code).toBe(1);
     expect(full.stdout).toMatch(/has 4 qubits but the formula declares 40 variables/);
+  });
+  it("verify --prove proves a free-register oracle against the projection, and refutes the mutated one at a register value", () => {
+    const good = join(dir, "free-p.json");
+    expect(cli(["oracle", LOCK, "--register", "free", "--format", "json", "-o", good]).code).toBe(0);
+    const ok = cli(["verify", LOCK, "--circuit", good, "--register", "free", "--prove", "--json"]);
+    expect(ok.code).toBe(0);
+    expect(JSON.parse(ok.stdout)).toMatchObject({ verified: true, method: "proof" });
+    const doc = JSON.parse(readFileSync(good, "utf8"));
+    doc.gates.push({ op: "z", qubits: [0] });
+    const bad = join(dir, "bad-p.json");
+    writeFileSync(bad, JSON.stringify(doc));
+    const r = cli(["verify", LOCK, "--circuit", bad, "--register", "free", "--prove"]);
+    expect(r.code).toBe(1);
+    const m = /^counterexample: register value ((?:-?\d+ )+0) \(register variables as literals\), completed to ((?:-?\d+ )+0)$/m.exec(r.stdout);
+    expect(m, r.stdout).not.toBeNull();
+    const regLits = m![1]!.split(" ").map(Number).slice(0, -1);
+    expect(regLits.map(Math.abs)).toEqual([1, 2, 3, 4]);
+    expect(regLits[0]).toBe(1); // the stray Z acts where variable 1 is set
+    const value = regLits.map((l) => (l > 0 ? 1 : 0) as 0 | 1);
+    const model = completeModel(registerOf(lock, { register: "free" }), value);
+    expect(m![2]!.split(" ").map(Number).slice(0, -1).map((l) => (l > 0 ? 1 : 0))).toEqual(Array.from(model));
+    const json = JSON.parse(cli(["verify", LOCK, "--circuit", bad, "--register", "free", "--prove", "--json"]).stdout);
+    expect(json).toMatchObject({ verified: false, method: "proof", counterexample_register: m![1], counterexample: m![2] });
   });
   it("oracle --verify checks a free-register oracle against the projection before writing it", () => {
     const out = join(dir, "v.qasm");

@@ -69,8 +69,8 @@ describe("clausegate verify", () => {
     expect(r.code).toBe(1);
     expect(r.stdout).toMatch(/not an oracle for this formula: the search register vars has 4 qubits but the formula declares 12 variables/);
   });
-  it("samples above --exhaustive-limit and says so", () => {
-    const r = cli(["verify", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--models", "5", "--json"]);
+  it("with --sample, samples above --exhaustive-limit and says so", () => {
+    const r = cli(["verify", "--sample", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--models", "5", "--json"]);
     expect(r.code).toBe(0);
     const json = JSON.parse(r.stdout);
     expect(json).toMatchObject({ verified: true, method: "sampled", random_samples: 500, model_search: { method: "cdcl", status: "sat", found: 5, all: false } });
@@ -78,7 +78,7 @@ describe("clausegate verify", () => {
     expect(json.non_models).toBeGreaterThan(0);
     expect(json.models + json.non_models).toBe(json.assignments);
     // 524 = 500 random + 5 models + one assignment falsifying each of the 19 clauses.
-    const text = cli(["verify", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--models", "5"]);
+    const text = cli(["verify", "--sample", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--models", "5"]);
     expect(text.stdout).toMatch(/^verified: sampled \(524 assignments, bit-parallel simulator\); \d+ satisfying, \d+ not\nmodels: 5 found by the CDCL solver in \d+ conflicts?; also checked: 19 assignments falsifying one clause each, 500 random\n$/);
   });
 });
@@ -159,7 +159,7 @@ describe("clausegate verify --circuit refuses the options that only shape a comp
   });
 });
 
-describe.skipIf(!haveSatlib)("clausegate verify on SATLIB (Hoos & Stuetzle 2000) formulas, sampled", () => {
+describe.skipIf(!haveSatlib)("clausegate verify --sample on SATLIB (Hoos & Stuetzle 2000) formulas", () => {
   it("aim-50-1_6-yes1-1 (one model): the oracle without its phase gate fails with exit 1, even with 65536 samples", () => {
     const cnf = resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf");
     const out = join(dir, "aim.json");
@@ -169,24 +169,24 @@ describe.skipIf(!haveSatlib)("clausegate verify on SATLIB (Hoos & Stuetzle 2000)
     expect(marking).toHaveLength(1);
     const broken = join(dir, "aim-identity.json");
     writeFileSync(broken, lines.filter((l) => !l.startsWith('{"op":"mcz"')).join("\n").replace(",\n]}", "\n]}"));
-    const r = cli(["verify", cnf, "--circuit", broken, "--samples", "65536"]);
+    const r = cli(["verify", "--sample", cnf, "--circuit", broken, "--samples", "65536"]);
     expect(r.code).toBe(1);
     expect(r.stdout).toMatch(/^mismatch: sampled \(65569 assignments, bit-parallel simulator\)\ncounterexample: (-?\d+ ){50}0\nexpected: phase -1 \(the formula is satisfied\)/);
     expect(r.stdout).toMatch(/\nmodels: 1 found by the CDCL solver in \d+ conflicts? \(all there are\); also checked: 32 assignments falsifying one clause each, 65536 random\n$/);
-    const json = JSON.parse(cli(["verify", cnf, "--circuit", broken, "--json"]).stdout);
+    const json = JSON.parse(cli(["verify", "--sample", cnf, "--circuit", broken, "--json"]).stdout);
     expect(json).toMatchObject({ verified: false, method: "sampled", models: 1, model_search: { method: "cdcl", status: "sat", found: 1, all: true } });
-    expect(cli(["verify", cnf, "--circuit", out]).code).toBe(0);
+    expect(cli(["verify", "--sample", cnf, "--circuit", out]).code).toBe(0);
   });
   it("an unsatisfiable formula is verified on its unmarked inputs, and the output says why that suffices", () => {
-    const r = cli(["verify", resolve(SATLIB, "aim/aim-50-1_6-no-1.cnf"), "--basis", "mcx"]);
+    const r = cli(["verify", "--sample", resolve(SATLIB, "aim/aim-50-1_6-no-1.cnf"), "--basis", "mcx"]);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^verified: sampled \(4128 assignments, bit-parallel simulator\); 0 satisfying, 4128 not\nmodels: none, as the CDCL solver proved in \d+ conflicts?; .*\nnote: no models: the formula is unsatisfiable\n$/);
   });
   it("a solver out of budget: exit 1 and the reason, with a hint", () => {
-    const r = cli(["verify", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0"]);
+    const r = cli(["verify", "--sample", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0"]);
     expect(r.code).toBe(1);
     expect(r.stdout).toMatch(/^not verified: sampled .*; 0 satisfying, 4128 not\nreason: no satisfying assignment was checked: the CDCL solver spent its budget of 0 conflicts without finding one or proving that there is none; hint: raise --conflict-limit\n/);
-    const json = JSON.parse(cli(["verify", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0", "--json"]).stdout);
+    const json = JSON.parse(cli(["verify", "--sample", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0", "--json"]).stdout);
     expect(json).toMatchObject({ verified: false, counterexample: null, unchecked: expect.stringMatching(/^no satisfying assignment was checked/), model_search: { status: "unknown" } });
   });
 });

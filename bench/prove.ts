@@ -1,0 +1,101 @@
+/**
+ * The prover's bench (`npm run bench -- prove`, or `node dist/bench/prove.js [planted|million]`):
+ *   planted  planted random 3-SAT, 200 variables and 800 clauses: every kind x strategy x basis x
+ *            uncomputation compiled and proved, each timed (target: each under 60 s);
+ *   million  the 1,000,000-clause bench file (bench/out/random3sat-1m.cnf, the reader bench's
+ *            seeded formula), default construction (phase, wide, toffoli, unitary): compiled and
+ *            proved in a fresh process, timed, with peak memory (target: under 10 minutes).
+ * Prints figures; asserts nothing.
+ */
+import { execFileSync } from "node:child_process";
+import { existsSync, mkdirSync, readFileSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { cnfFromClauses, type Cnf } from "../src/cnf/cnf.js";
+import { scanDimacs } from "../src/cnf/scanner.js";
+import { compileOracle, type OracleOptions } from "../src/compile.js";
+import { proveOracle } from "../src/prove/index.js";
+import { seededRandom } from "../src/util/random.js";
+import { writeRandomCnf } from "./random.js";
+
+const here = dirname(fileURLToPath(import.meta.url));
+const out = join(here, "..", "..", "bench", "out");
+
+/** Planted random 3-SAT: clauses drawn at random, kept only when the hidden assignment satisfies them. */
+export function plantedCnf(n: number, m: number, seed: number): Cnf {
+  const r = seededRandom(seed);
+  const hidden = Array.from({ length: n }, () => r() < 0.5);
+  const clauses: number[][] = [];
+  while (clauses.length < m) {
+    const c: number[] = [];
+    while (c.length < 3) {
+      const v = 1 + Math.floor(r() * n);
+      if (c.some((l) => Math.abs(l) === v)) continue;
+      c.push(r() < 0.5 ? v : -v);
+    }
+    if (c.some((l) => hidden[Math.abs(l) - 1] === l > 0)) clauses.push(c);
+  }
+  return cnfFromClauses(n, clauses);
+}
+
+function benchPlanted(): void {
+  const cnf = plantedCnf(200, 800, 20261202);
+  console.log("proof of planted random 3-SAT, 200 variables, 800 clauses (seed 20261202): every construction");
+  console.log("  kind   strategy  basis       uncompute    gates  result   method      miter vars/clauses  compile    prove");
+  let worst = 0;
+  for (const kind of ["phase", "flag"] as const) {
+    for (const strategy of ["wide", "lean"] as const) {
+      for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
+        for (const uncompute of ["unitary", "measured"] as const) {
+          const o: OracleOptions = { kind, strategy, basis, uncompute };
+          const t0 = performance.now();
+          const c = compileOracle(cnf, o).circuit;
+          const compileS = (performance.now() - t0) / 1000;
+          const p = proveOracle(cnf, c, { kind });
+          worst = Math.max(worst, p.seconds);
+          const miter = `${p.miter.variables}/${p.miter.clauses}`;
+          console.log(`  ${kind.padEnd(6)} ${strategy.padEnd(9)} ${basis.padEnd(11)} ${uncompute.padEnd(9)} ${String(c.gates).padStart(8)}  ${p.status.padEnd(8)} ${p.method.padEnd(11)} ${miter.padStart(18)} ${compileS.toFixed(2).padStart(6)} s ${p.seconds.toFixed(2).padStart(7)} s${p.proved ? "" : `  (${p.message})`}`);
+        }
+      }
+    }
+  }
+  console.log(`  slowest proof: ${worst.toFixed(2)} s (target: each under 60 s)`);
+}
+
+/** The million-clause proof, in this process (run by benchMillion in a fresh one). */
+function proveMillionHere(file: string): void {
+  const t0 = performance.now();
+  const { cnf } = scanDimacs(readFileSync(file));
+  const tRead = performance.now();
+  const oracle = compileOracle(cnf!);
+  const tCompile = performance.now();
+  const p = proveOracle(cnf!, oracle.circuit);
+  const tProve = performance.now();
+  console.log(JSON.stringify({
+    gates: oracle.circuit.gates, status: p.status, method: p.method, miter: p.miter, graphNodes: p.graphNodes, message: p.message,
+    readS: (tRead - t0) / 1000, compileS: (tCompile - tRead) / 1000, proveS: (tProve - tCompile) / 1000,
+    peakMB: process.resourceUsage().maxRSS / 1024,
+  }));
+}
+
+function benchMillion(): void {
+  mkdirSync(out, { recursive: true });
+  const file = join(out, "random3sat-1m.cnf");
+  if (!existsSync(file)) writeRandomCnf(file, 234742, 1_000_000, 3, 20261201); // as the reader bench
+  const t0 = performance.now();
+  const line = execFileSync(process.execPath, [fileURLToPath(import.meta.url), "million-here", file], { encoding: "utf8", maxBuffer: 1 << 20 });
+  const wall = (performance.now() - t0) / 1000;
+  const r = JSON.parse(line) as { gates: number; status: string; method: string; miter: { variables: number; clauses: number }; graphNodes: number; message: string; readS: number; compileS: number; proveS: number; peakMB: number };
+  console.log(`proof of the 1,000,000-clause bench formula (${file}), default construction (phase, wide, toffoli, unitary):`);
+  console.log(`  ${r.gates} gates; ${r.status} (${r.method}; miter ${r.miter.variables} variables, ${r.miter.clauses} clauses; ${r.graphNodes} graph nodes)`);
+  console.log(`  read ${r.readS.toFixed(1)} s, compile ${r.compileS.toFixed(1)} s, prove ${r.proveS.toFixed(1)} s; whole process ${wall.toFixed(1)} s; peak ${r.peakMB.toFixed(0)} MB (target: under 10 minutes)`);
+}
+
+const part = process.argv[2];
+if (part === "million-here") proveMillionHere(process.argv[3]!);
+else if (import.meta.url === `file://${process.argv[1]}`) {
+  if (part === undefined || part === "planted") benchPlanted();
+  if (part === undefined || part === "million") benchMillion();
+}
+
+export { benchPlanted, benchMillion };
