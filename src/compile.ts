@@ -8,8 +8,10 @@ import { lower, type Basis, type Uncompute } from "./passes/lower.js";
 import { DEFAULT_PIPELINE } from "./passes/registry.js";
 import { reuseWork } from "./passes/reuseWork.js";
 import { runPasses } from "./passes/runner.js";
-import { searchCircuit } from "./search/build.js";
+import { diffusionCircuit, searchCircuit } from "./search/build.js";
 import { simplify, synthesize, type OracleKind, type SimplifiedCnf, type SimplifyReport, type Strategy } from "./synth/index.js";
+import { constructionName, parseConstruction, synthesizeConstruction, type Construction } from "./synth/construction.js";
+import { chooseAmong, costConstructions, countConstructionOracle, type Prefer } from "./cost/front.js";
 
 /** How to build an oracle. Every field has a default. */
 export interface OracleOptions {
@@ -25,6 +27,24 @@ export interface OracleOptions {
   readonly optimize?: boolean;
   /** Check the circuit's invariants after every pass, naming the pass that broke one. */
   readonly validatePasses?: boolean;
+  /**
+   * A construction by name, parameters included: `wide`, `lean`, `blocks-6` (one level of blocks
+   * of 6 clauses), `blocks-4x3` (two levels), `blocks-4-held-30` (30 clauses held as in wide, the
+   * rest in blocks of 4), `fanout-1` (wide with a CNOT copy per reading of a variable: logarithmic
+   * T-depth), `blocks-6-fanout-1`. Overrides `strategy`; a cost front names its points so.
+   */
+  readonly construction?: string;
+  /**
+   * A qubit budget (search, target and work qubits together): without `construction` or
+   * `strategy`, the cheapest construction (by `prefer`) within it is built; with one, it is
+   * checked against the budget.
+   */
+  readonly maxQubits?: number;
+  /**
+   * What cheapest means when a construction is chosen: `t-count` (default) or `t-depth`; ties go
+   * to the other, then to fewer qubits. Given without `maxQubits`, chooses among all candidates.
+   */
+  readonly prefer?: Prefer;
 }
 
 /** A compiled oracle. */
@@ -46,7 +66,10 @@ export interface Oracle {
   };
 }
 
-/** The defaults of {@link OracleOptions}: phase, wide, toffoli, unitary, optimized. */
+/**
+ * The defaults of {@link OracleOptions}: phase, wide, toffoli, unitary, optimized, no budget. A
+ * compiled oracle's `options.construction` names the construction it was built with.
+ */
 export const DEFAULT_ORACLE_OPTIONS: Required<OracleOptions> = {
   kind: "phase",
   strategy: "wide",
@@ -54,7 +77,67 @@ export const DEFAULT_ORACLE_OPTIONS: Required<OracleOptions> = {
   uncompute: "unitary",
   optimize: true,
   validatePasses: false,
+  construction: "wide",
+  maxQubits: Infinity,
+  prefer: "t-count",
 };
+
+/** How {@link planConstruction} settled the construction. */
+export type ConstructionPlan =
+  | {
+      readonly ok: true;
+      /** Constructions to build, best first: the first whose emitted circuit fits the budget is taken. */
+      readonly constructions: readonly Construction[];
+    }
+  | {
+      readonly ok: false;
+      /** What is wrong, one line. */
+      readonly message: string;
+      /** With a budget below every candidate: the smallest budget that works. */
+      readonly smallestQubits?: number;
+    };
+
+/**
+ * Settles which construction `options` ask for, without building anything: a named construction
+ * or strategy (checked against `maxQubits` when there is one), else, with `maxQubits` or
+ * `prefer`, the candidates within the budget, cheapest first. Returns what is wrong as data (an
+ * unknown name, a budget below every construction with the smallest that works).
+ *
+ * @example
+ * ```ts
+ * const plan = planConstruction(cnf, { maxQubits: 60 });
+ * if (!plan.ok) console.error(plan.message);
+ * ```
+ */
+export function planConstruction(cnf: Cnf, options: OracleOptions = {}, f: SimplifiedCnf = simplify(cnf)): ConstructionPlan {
+  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
+  const Q = options.maxQubits;
+  if (Q !== undefined && !(Q === Infinity || (Number.isSafeInteger(Q) && Q >= 0))) return { ok: false, message: `the qubit budget must be a whole number, got ${Q}` };
+  if (options.prefer !== undefined && options.prefer !== "t-count" && options.prefer !== "t-depth") return { ok: false, message: `prefer is t-count or t-depth, got ${String(options.prefer)}` };
+  let fixed: Construction | undefined;
+  if (options.construction !== undefined) {
+    const c = parseConstruction(options.construction);
+    if (typeof c === "string") return { ok: false, message: c };
+    fixed = c;
+  } else if (options.strategy !== undefined || (Q === undefined && options.prefer === undefined)) fixed = { family: o.strategy };
+  if (fixed !== undefined) {
+    if (Q === undefined || Q === Infinity) return { ok: true, constructions: [fixed] };
+    const r = countConstructionOracle(f, o.kind, fixed, "clifford+t", o.uncompute, o.optimize, false);
+    if (r.qubits > Q) return { ok: false, message: `the ${constructionName(fixed)} construction needs ${r.qubits} qubits, more than the budget of ${Q}`, smallestQubits: r.qubits };
+    return { ok: true, constructions: [fixed] };
+  }
+  const costs = costConstructions(cnf, { kind: o.kind, uncompute: o.uncompute, optimize: o.optimize });
+  const choice = chooseAmong(costs, Q ?? Infinity, o.prefer);
+  if (!choice.ok) {
+    return { ok: false, message: `no construction fits in ${Q} qubits; the smallest (${choice.smallest.construction}) needs ${choice.smallestQubits}`, smallestQubits: choice.smallestQubits };
+  }
+  return { ok: true, constructions: choice.ranked.map((c) => parseConstruction(c.construction) as Construction) };
+}
+
+/** The logical oracle of a construction. */
+function synthesizeFor(f: SimplifiedCnf, kind: OracleKind, c: Construction): Circuit {
+  return c.family === "wide" || c.family === "lean" ? synthesize(f, kind, c.family) : synthesizeConstruction(f, kind, c);
+}
 
 /** Lowers and optimizes a logical circuit (cost/built.ts repeats these steps; a test holds them equal). */
 function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: boolean, validate: boolean): Circuit {
@@ -72,19 +155,42 @@ function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: 
 }
 
 /**
- * Compiles a formula into an oracle circuit.
+ * Compiles a formula into an oracle circuit. With `maxQubits`, the circuit has at most that many
+ * qubits: throws RangeError when no construction fits (or a named one does not, or a name is
+ * unknown); {@link planConstruction} says so as data first.
  *
  * @example
  * ```ts
  * const oracle = compileOracle(cnfFromClauses(2, [[1, -2]]), { basis: "clifford+t", uncompute: "measured" });
+ * const small = compileOracle(cnf, { maxQubits: 60, uncompute: "measured" });
+ * small.options.construction; // e.g. "blocks-6"
  * ```
  */
 export function compileOracle(cnf: Cnf, options: OracleOptions = {}): Oracle {
-  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
   const simplified = simplify(cnf);
-  const logical = synthesize(simplified, o.kind, o.strategy);
-  const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
-  return { circuit, options: o, variables: cnf.variables, clauses: clauseCount(cnf), simplification: summary(simplified) };
+  const plan = planConstruction(cnf, options, simplified);
+  if (!plan.ok) throw new RangeError(plan.message);
+  const oracle = compilePlanned(cnf, options, plan, simplified);
+  if (oracle === null) throw new RangeError(`no construction's ${options.basis ?? DEFAULT_ORACLE_OPTIONS.basis} circuit fits in ${options.maxQubits} qubits`);
+  return oracle;
+}
+
+/**
+ * Compiles the first construction of a plan whose emitted circuit fits the budget (null: none
+ * does; the plan's figures are those of the Clifford+T circuit, which another basis may exceed).
+ */
+export function compilePlanned(cnf: Cnf, options: OracleOptions, plan: ConstructionPlan & { ok: true }, simplified: SimplifiedCnf = simplify(cnf)): Oracle | null {
+  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
+  const Q = options.maxQubits ?? Infinity;
+  for (const c of plan.constructions) {
+    const logical = synthesizeFor(simplified, o.kind, c);
+    const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
+    if (circuit.qubits > Q) continue;
+    return {
+      circuit, options: { ...o, construction: constructionName(c) }, variables: cnf.variables, clauses: clauseCount(cnf), simplification: summary(simplified),
+    };
+  }
+  return null;
 }
 
 function summary(s: SimplifiedCnf): Oracle["simplification"] {
@@ -109,7 +215,38 @@ export interface SearchOptions extends Omit<OracleOptions, "kind"> {
  * ```
  */
 export function compileSearch(cnf: Cnf, options: SearchOptions): Circuit {
-  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
-  const logical = searchCircuit(simplify(cnf), o.strategy, options.iterations, options.measure ?? true);
-  return finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
+  const r = searchConstruction(cnf, options);
+  if (!r.ok) throw new RangeError(r.message);
+  return r.circuit;
+}
+
+/**
+ * The construction of a compiled search: as {@link compileSearch} chooses it (the first of the
+ * plan whose search circuit fits).
+ */
+export function searchConstruction(cnf: Cnf, options: SearchOptions): { ok: true; construction: string; circuit: Circuit } | { ok: false; message: string; smallestQubits?: number } {
+  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options, kind: "phase" as const };
+  const f = simplify(cnf);
+  const plan = planConstruction(cnf, { ...options, kind: "phase" }, f);
+  const Q = options.maxQubits ?? Infinity;
+  // Oracle and diffusion take turns on the work wires: the search needs the larger of the two.
+  const withDiffusion = (n: number): number => Math.max(n, diffusionOnly(f.variables, o.basis, o.uncompute));
+  if (!plan.ok) {
+    if (plan.smallestQubits === undefined) return plan;
+    const s = withDiffusion(plan.smallestQubits);
+    return { ok: false, message: `no search circuit fits in ${Q} qubits; the smallest needs ${s} (the oracle's and the diffusion's work qubits included)`, smallestQubits: s };
+  }
+  let smallest = Infinity;
+  for (const c of plan.constructions) {
+    const circuit = finish(searchCircuit(f, c, options.iterations, options.measure ?? true), o.basis, o.uncompute, o.optimize, o.validatePasses);
+    if (circuit.qubits <= Q) return { ok: true, construction: constructionName(c), circuit };
+    smallest = Math.min(smallest, circuit.qubits);
+  }
+  const s = withDiffusion(smallest);
+  return { ok: false, message: `no search circuit fits in ${Q} qubits; the smallest needs ${s} (the oracle's and the diffusion's work qubits included)`, smallestQubits: s };
+}
+
+/** Qubits of the diffusion alone over n search qubits (its multi-controlled Z's tree). */
+function diffusionOnly(n: number, basis: Basis, uncompute: Uncompute): number {
+  return finish(diffusionCircuit(n), basis, uncompute, false, false).qubits;
 }

@@ -24,8 +24,17 @@ export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
 export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
-export type { Oracle, OracleOptions } from "./compile.js";
-export { compileOracle, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { Oracle, OracleOptions, ConstructionPlan } from "./compile.js";
+export { compileOracle, compilePlanned, planConstruction, searchConstruction, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type {
+  Construction, ConstructionFamily, ConstructionCost, ConstructionChoice, ConstructionRow, CostFront, FrontPoint, FrontOptions, Prefer,
+} from "./cost/front.js";
+export {
+  chooseConstruction, chooseAmong, constructionCandidates, constructionName, constructionRow, costConstructions, costFront, countConstructionOracle,
+  nonDominated, parseConstruction,
+} from "./cost/front.js";
+export type { FrontPlotInput } from "./draw/frontPlot.js";
+export { plotFrontSvg } from "./draw/frontPlot.js";
 export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle, EngineResult } from "./cost/index.js";
 export { costTable, countConstruction, oracleResources, searchCosts } from "./cost/index.js";
 export { PassError } from "./passes/runner.js";

@@ -7,7 +7,10 @@ import {
   type Solutions,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
-import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
+import {
+  basicOptions, choice, compileWithOptions, constructionLabel, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, settleSearchOptions,
+  type CliOracleOptions,
+} from "./options.js";
 import { checkFormat, writeCircuit } from "./circuits.js";
 
 
@@ -440,7 +443,7 @@ const iterationsWithin = (e: SizeEstimate, limit: number): number => Math.max(0,
  * that needs no compilation (each iteration has a diffusion of at least 2n + 2 gates), then from
  * the size of one compiled iteration; with a report, also the Clifford+T circuits it costs.
  */
-function checkSearchSize(file: string, cnf: Cnf, o: Required<OracleOptions>, K: number, report: boolean): void {
+function checkSearchSize(file: string, cnf: Cnf, o: CliOracleOptions, K: number, report: boolean): void {
   const n = cnf.variables;
   const hint = (fits: number): string => `hint: ${fits > 0 ? `--iterations ${fits} or fewer fits` : "no number of iterations fits"}, or clausegate plan ${displayName(file)} gives the numbers only`;
   const lower = K * (2 * n + 2) + 2 * n;
@@ -454,7 +457,7 @@ function checkSearchSize(file: string, cnf: Cnf, o: Required<OracleOptions>, K: 
   }
   if (!report) return;
   for (const strategy of ["wide", "lean"] as const) {
-    const ct = estimateSearch(cnf, { ...o, strategy, basis: "clifford+t" }, K);
+    const ct = estimateSearch(cnf, { ...basicOptions(o), strategy, basis: "clifford+t" }, K);
     if (ct.gates > MAX_SEARCH_GATES) {
       throw new UserError(`clausegate search: error: the report costs the ${strategy} Clifford+T circuit of about ${ct.gates} gates (${plural(K, "iteration")}); clausegate search costs at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(ct, MAX_SEARCH_GATES))} (or leave out --report)`);
     }
@@ -477,7 +480,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "search");
   const format = choice(values.format, "--format", ["qasm3", "qasm2", "json"] as const, "qasm3");
   if (values.kind !== undefined) throw new UserError("clausegate search: error: --kind is not an option of search: a search always uses the phase oracle; hint: leave out --kind");
-  const o = oracleOptions(values);
+  let o = oracleOptions(values);
   if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
   const original = await loadCnf(file);
   if (values.reduce !== true) checkCircuitSize(original, file, "search");
@@ -486,16 +489,17 @@ export async function searchCommand(argv: string[]): Promise<number> {
     throw new UserError(`${displayName(file)}: error: the reduced search register has ${cnf.variables} qubits; clausegate search builds at most ${MAX_CIRCUIT_VARIABLES}; hint: clausegate plan --reduce gives the numbers`);
   }
   const { K, solutions, plan } = await iterationsFor(cnf, values.iterations, values.solutions, "search", values.report !== undefined);
+  o = settleSearchOptions(cnf, o, "search");
   checkSearchSize(file, cnf, o, K, values.report !== undefined);
   const circuit = compileSearch(cnf, { ...o, iterations: K });
   checkFormat(circuit, format);
   const comments = [
     `clausegate search circuit: ${plural(cnf.variables, "search qubit")}, ${plural(K, "iteration")}`,
-    `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds vars[i]`,
+    `construction ${constructionLabel(o)}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds vars[i]`,
     ...(reduction ? [`reduced search register: vars[i] is DIMACS variable ${reduction.searched.map((v, i) => `${i}->${v}`).join(" ") || "(none)"}`] : []),
   ];
   if (values.report !== undefined) {
-    const report = wholeRunReport(original, cnf, K, solutions, plan, o.uncompute, reduction);
+    const report = { ...wholeRunReport(original, cnf, K, solutions, plan, o.uncompute, reduction), construction: constructionLabel(o) };
     writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`));
   }
   writeCircuit(circuit, format, comments, values.output);
@@ -545,18 +549,25 @@ function wholeRunReport(original: Cnf, cnf: Cnf, K: number, s: SolutionsFound | 
   };
 }
 
-/** Option sets tried when a drawing is refused, each with the flags that select it. */
-function drawCandidates(o: Required<OracleOptions>): { options: Required<OracleOptions>; flags: string[] }[] {
-  const out: { options: Required<OracleOptions>; flags: string[] }[] = [];
-  for (const strategy of ["wide", "lean"] as const) {
+/**
+ * Option sets tried when a drawing is refused, each with the flags that select it. A construction
+ * the options fix (by name or budget) stays; otherwise the strategy varies too.
+ */
+function drawCandidates(o: CliOracleOptions): { options: CliOracleOptions; flags: string[] }[] {
+  const out: { options: CliOracleOptions; flags: string[] }[] = [];
+  const fixed = o.construction !== undefined || o.maxQubits !== undefined || o.prefer !== undefined;
+  // A construction settled by a budget is drawn as it is (another basis only ever needs fewer qubits).
+  const { maxQubits: _budget, ...base } = o;
+  const current = o.strategy ?? "wide";
+  for (const strategy of fixed ? [undefined] : (["wide", "lean"] as const)) {
     for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
       for (const uncompute of ["unitary", "measured"] as const) {
         const flags = [
-          ...(strategy !== o.strategy ? [`--strategy ${strategy}`] : []),
+          ...(strategy !== undefined && strategy !== current ? [`--strategy ${strategy}`] : []),
           ...(basis !== o.basis ? [`--basis ${basis}`] : []),
           ...(uncompute !== o.uncompute ? [`--uncompute ${uncompute}`] : []),
         ];
-        if (flags.length > 0) out.push({ options: { ...o, strategy, basis, uncompute }, flags });
+        if (flags.length > 0) out.push({ options: { ...(o.construction !== undefined ? base : o), ...(strategy !== undefined ? { strategy } : {}), basis, uncompute }, flags });
       }
     }
   }
@@ -570,14 +581,14 @@ const fits = (c: Circuit): boolean => drawProblem(c) === null;
  * whose search register fits a diagram): fewest changed options first, then fewest gates; for a
  * search also fewer iterations.
  */
-function drawSuggestion(cnf: Cnf, o: Required<OracleOptions>, search: boolean, K: number): string {
+function drawSuggestion(cnf: Cnf, o: CliOracleOptions, search: boolean, K: number): string {
   const none = search
     ? `no strategy, basis or number of iterations draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate plan and clausegate cost give the numbers`
     : `no strategy, basis or uncomputation draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate cost gives the numbers, or draw a smaller formula`;
   if (cnf.variables > DRAW_LIMITS.qubits) return none;
   const found: { flags: string[]; circuit: Circuit }[] = [];
   const fewest = (): number => Math.min(Infinity, ...found.map((f) => f.flags.length));
-  const build = (opts: Required<OracleOptions>, k: number): Circuit => (search ? compileSearch(cnf, { ...opts, iterations: k }) : compileOracle(cnf, opts).circuit);
+  const build = (opts: CliOracleOptions, k: number): Circuit => (search ? compileSearch(cnf, { ...opts, iterations: k }) : compileOracle(cnf, opts).circuit);
   for (const c of drawCandidates(o)) {
     if (c.flags.length > fewest()) break;
     const circuit = build(c.options, K);
@@ -615,7 +626,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "draw");
   if (values.output === undefined) throw new UserError("clausegate draw: error: expected -o FILE.svg; hint: name the drawing's file, e.g. -o oracle.svg");
   if (values.iterations !== undefined && values.search !== true) throw new UserError("clausegate draw: error: --iterations sets the iterations of a search; hint: add --search, or leave out --iterations to draw the oracle");
-  const o = oracleOptions(values);
+  let o = oracleOptions(values);
   if (values.search && o.kind === "flag") throw new UserError("clausegate draw: error: a search uses the phase oracle; hint: leave out --kind flag, or leave out --search to draw the flag oracle");
   const cnf = await loadCnf(file);
   const what = values.search ? "search circuit" : "oracle";
@@ -633,11 +644,16 @@ export async function drawCommand(argv: string[]): Promise<number> {
     if (lower > DRAW_LIMITS.gates) {
       throw new UserError(`clausegate draw: error: refusing to draw: ${plural(K, "iteration")} on ${plural(cnf.variables, "qubit")} make more than ${lower} gates; diagrams stay readable up to ${DRAW_LIMITS.gates} gates; hint: ${drawSuggestion(cnf, o, true, K)}`);
     }
+    o = settleSearchOptions(cnf, o, "draw");
     circuit = compileSearch(cnf, { ...o, iterations: K });
-    title = `search for ${displayName(file)}: ${plural(K, "iteration")}, ${o.strategy}, ${o.basis}, ${o.uncompute}`;
+    title = `search for ${displayName(file)}: ${plural(K, "iteration")}, ${constructionLabel(o)}, ${o.basis}, ${o.uncompute}`;
   } else {
-    circuit = compileOracle(cnf, o).circuit;
-    title = `${o.kind} oracle for ${displayName(file)}: ${o.strategy}, ${o.basis}, ${o.uncompute}`;
+    const oracle = compileWithOptions(cnf, o, "draw");
+    // Suggestions keep the construction chosen, with the budget that chose it.
+    const { prefer: _prefer, strategy: _strategy, ...rest } = o;
+    o = { ...rest, construction: oracle.options.construction };
+    circuit = oracle.circuit;
+    title = `${o.kind} oracle for ${displayName(file)}: ${oracle.options.construction}, ${o.basis}, ${o.uncompute}`;
   }
   const problem = drawProblem(circuit);
   if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}; hint: ${drawSuggestion(cnf, o, values.search === true, K)}`);

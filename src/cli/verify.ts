@@ -2,10 +2,10 @@
 import { readFile } from "node:fs/promises";
 import { parseArgs } from "node:util";
 import {
-  compileOracle, DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, type Circuit,
+  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, type Circuit,
 } from "../internal.js";
 import { checkCircuitSize, loadCnf, UserError } from "./io.js";
-import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
+import { choice, compileWithOptions, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
 import { reportJson, reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
 export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT [--kind phase|flag]] [options]
@@ -28,8 +28,8 @@ printed.
 Options:
   --circuit FILE              the circuit to check (.json or OpenQASM 3)
 ${ORACLE_HELP}
-                              (--strategy, --basis, --uncompute, --no-optimize and
-                              --check-passes apply only without --circuit)
+                              (--strategy, --construction, --max-qubits, --prefer, --basis, --uncompute,
+                              --no-optimize and --check-passes apply only without --circuit)
   --exhaustive-limit N        check every assignment up to N variables (default ${DEFAULT_EXHAUSTIVE_LIMIT}, at most ${MAX_EXHAUSTIVE_LIMIT})
   --samples K                 random assignments to sample above the limit (default 4096; 256 for state vectors)
   --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
@@ -43,7 +43,7 @@ kind of input left unchecked, with the reason), 2 bad input or usage.
 `;
 
 /** Oracle options that shape a compilation: meaningless when the circuit is given. */
-const COMPILE_ONLY = ["strategy", "basis", "uncompute", "no-optimize", "check-passes"] as const;
+const COMPILE_ONLY = ["strategy", "construction", "max-qubits", "prefer", "basis", "uncompute", "no-optimize", "check-passes"] as const;
 
 export async function verifyCommand(argv: string[]): Promise<number> {
   const { values, positionals } = parseArgs({
@@ -73,7 +73,7 @@ export async function verifyCommand(argv: string[]): Promise<number> {
   }
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "verify");
-  const circuit = options === undefined ? await loadCircuit(values.circuit!) : compileOracle(cnf, options).circuit;
+  const circuit = options === undefined ? await loadCircuit(values.circuit!) : compileWithOptions(cnf, options, "verify").circuit;
   const r = await runVerification(cnf, circuit, flags, kind);
   if (values.json) process.stdout.write(`${JSON.stringify(reportJson(r))}\n`);
   else process.stdout.write(`${reportLines(r, values.circuit ?? file).join("\n")}\n`);

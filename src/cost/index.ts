@@ -20,6 +20,7 @@ import { builtCounts } from "./built.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction } from "./sources.js";
+import { constructionFamily, constructionName, countConstructionOracle, parseConstruction, type ConstructionFamily } from "./front.js";
 
 /** Options of the cost functions. */
 export interface CostOptions {
@@ -123,8 +124,10 @@ export interface ResourceReport {
   readonly clauses: number;
   /** The oracle's kind. */
   readonly kind: OracleKind;
-  /** Its strategy. */
-  readonly strategy: Strategy;
+  /** Its construction's family: wide, lean, blocks or fanout. */
+  readonly strategy: Strategy | ConstructionFamily;
+  /** Its construction, parameters included (e.g. `wide`, `blocks-6`, `fanout-1`). */
+  readonly construction: string;
   /** The basis it was emitted in. */
   readonly basis: Basis;
   /** How its temporary ANDs are uncomputed. */
@@ -168,6 +171,8 @@ export interface CompiledOracle {
     readonly kind: OracleKind;
     /** Wide or lean. */
     readonly strategy: Strategy;
+    /** The construction built (overrides strategy when given; see OracleOptions.construction). */
+    readonly construction?: string;
     /** The basis it was emitted in. */
     readonly basis: Basis;
     /** How temporary ANDs are uncomputed. */
@@ -412,12 +417,17 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
   const f = simplify(cnf);
   const logicals = new Logicals(f);
   const progress = new Progress(2, options.onProgress);
+  const named = o.construction === undefined ? null : parseConstruction(o.construction);
+  const construction = named === null || typeof named === "string" ? { family: o.strategy } as const : named;
   const counted = (basis: "toffoli" | "clifford+t"): { toffoliCount: number; tCount: number; tDepth: number; cnotCount: number } => {
     const step = progress.step(1);
     if (o.basis === basis) return emitted;
-    const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
+    // Constructions beyond wide and lean are counted by cost/front.ts (built when not exact and small).
+    if (construction.family === "blocks") return countConstructionOracle(f, o.kind, construction, basis, o.uncompute, o.optimize, basis === "clifford+t");
+    const strategy = construction.family;
+    const r = countOracle({ f, kind: o.kind, strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
     if (r.exact) return r;
-    return builtCounts(logicals.get(o.kind, o.strategy).c, basis, o.uncompute, o.optimize);
+    return builtCounts(logicals.get(o.kind, strategy).c, basis, o.uncompute, o.optimize);
   };
   const cliffordT = counted("clifford+t");
   const toffoli = counted("toffoli");
@@ -427,7 +437,8 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
     variables: oracle.variables,
     clauses: oracle.clauses,
     kind: o.kind,
-    strategy: o.strategy,
+    strategy: constructionFamily(construction),
+    construction: constructionName(construction),
     basis: o.basis,
     uncompute: o.uncompute,
     qubits: { search: reg("search"), work: reg("work"), target: reg("target"), total: oracle.circuit.qubits },

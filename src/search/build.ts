@@ -7,6 +7,7 @@
 import { CircuitBuilder, K, neg, pos, type Circuit } from "../ir/circuit.js";
 import type { SimplifiedCnf } from "../synth/simplify.js";
 import { synthesize, type Strategy } from "../synth/index.js";
+import { synthesizeConstruction, type Construction } from "../synth/construction.js";
 
 /** Appends the diffusion (reflection about the uniform superposition) over qubits 0..n-1. */
 export function diffusion(b: CircuitBuilder, n: number): void {
@@ -28,9 +29,9 @@ export function diffusionCircuit(n: number): Circuit {
  * The logical search circuit with `iterations` Grover iterations. Without `measure` the final
  * measurements are left out (to look at the state they would sample).
  */
-export function searchCircuit(f: SimplifiedCnf, strategy: Strategy, iterations: number, measure = true): Circuit {
+export function searchCircuit(f: SimplifiedCnf, strategy: Strategy | Construction, iterations: number, measure = true): Circuit {
   const n = f.variables;
-  const oracle = synthesize(f, "phase", strategy);
+  const oracle = typeof strategy === "string" ? synthesize(f, "phase", strategy) : synthesizeConstruction(f, "phase", strategy);
   const oracleWork = oracle.qubits - n;
   const b = new CircuitBuilder({ search: n, target: 0, clbits: n }, iterations * (oracle.gates + 3 * n + 2) + 2 * n);
   for (let q = 0; q < n; q++) b.add(K.h, pos(q));
