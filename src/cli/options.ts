@@ -137,6 +137,11 @@ export function constructionLabel(o: OracleOptions): string {
   return o.construction ?? o.strategy ?? (o.maxQubits !== undefined || o.prefer !== undefined ? "chosen" : "wide");
 }
 
+/** How comments and titles name a construction: "strategy wide" as before for wide and lean, else "construction NAME". */
+export function constructionPhrase(name: string): string {
+  return name === "wide" || name === "lean" ? `strategy ${name}` : `construction ${name}`;
+}
+
 /** The basic options alone (kind, basis, uncompute, optimize, checks): no construction, budget or preference. */
 export function basicOptions(o: CliOracleOptions): CliOracleOptions {
   return { kind: o.kind, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize, validatePasses: o.validatePasses };

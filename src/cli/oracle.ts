@@ -6,7 +6,7 @@ import {
 import { checkCircuitSize, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
 import { reportLines, runVerification, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
-import { choice, compileWithOptions, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
+import { choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions } from "./options.js";
 
 export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
 
@@ -63,7 +63,7 @@ function describe(o: Oracle): string[] {
   const { kind, construction, basis, uncompute } = o.options;
   return [
     `clausegate ${kind} oracle: ${o.variables} variables, ${o.clauses} clauses`,
-    `construction ${construction}, basis ${basis}, uncompute ${uncompute}${o.options.optimize ? "" : ", not optimized"}`,
+    `${constructionPhrase(construction)}, basis ${basis}, uncompute ${uncompute}${o.options.optimize ? "" : ", not optimized"}`,
   ];
 }
 

@@ -8,7 +8,7 @@ import {
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
 import {
-  basicOptions, choice, compileWithOptions, constructionLabel, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, settleSearchOptions,
+  basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, settleSearchOptions,
   type CliOracleOptions,
 } from "./options.js";
 import { checkFormat, writeCircuit } from "./circuits.js";
@@ -495,7 +495,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   checkFormat(circuit, format);
   const comments = [
     `clausegate search circuit: ${plural(cnf.variables, "search qubit")}, ${plural(K, "iteration")}`,
-    `construction ${constructionLabel(o)}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds vars[i]`,
+    `${constructionPhrase(constructionLabel(o))}, basis ${o.basis}, uncompute ${o.uncompute}; outcome[i] holds vars[i]`,
     ...(reduction ? [`reduced search register: vars[i] is DIMACS variable ${reduction.searched.map((v, i) => `${i}->${v}`).join(" ") || "(none)"}`] : []),
   ];
   if (values.report !== undefined) {
