@@ -188,18 +188,41 @@ export function constructionCandidates(f: SimplifiedCnf): Construction[] {
       }
     }
   }
-  const small = thin ? [2, 4] : [2, 3, 4, 5, 6, 8];
+  const small = thin ? [2, 4] : [2, 3, 4, 6, 8];
   for (const b1 of small) for (const b2 of small) if (b1 * b2 < m) blocks([b1, b2]);
-  for (const b1 of [2, 3, 4]) for (const b2 of [2, 3, 4]) for (const b3 of [2, 3, 4]) if (!thin && b1 * b2 * b3 < m) blocks([b1, b2, b3]);
+  for (const b1 of [2, 3]) for (const b2 of [2, 3]) for (const b3 of [2, 3]) if (!thin && b1 * b2 * b3 < m) blocks([b1, b2, b3]);
   if (reads > 1) for (const b of oneShown.filter((_, i) => i % 2 === 0)) blocks([b], 1);
   return out;
 }
 
-/** Counts constructions (by default every candidate) in Clifford+T. */
+/**
+ * The candidates' figures by formula and counting mode: choosing within several budgets, or
+ * compiling a search whose size is first estimated, counts a formula's candidates once. Keyed by
+ * the Cnf object (a formula is not changed once read).
+ */
+const counted = new WeakMap<Cnf, Map<string, ConstructionCost[]>>();
+
+/**
+ * Counts constructions (by default every candidate, each formula and mode once) in Clifford+T.
+ *
+ * @example
+ * ```ts
+ * const costs = costConstructions(cnf, { uncompute: "measured" });
+ * costs.find((c) => c.construction === "blocks-6")?.t_count;
+ * ```
+ */
 export function costConstructions(cnf: Cnf, options: FrontOptions = {}, candidates?: readonly Construction[]): ConstructionCost[] {
-  const f = simplify(cnf);
   const kind = options.kind ?? "phase";
   const uncompute = options.uncompute ?? "measured";
+  const key = `${kind} ${uncompute} ${options.optimize ?? true}`;
+  if (candidates === undefined) {
+    const known = counted.get(cnf)?.get(key);
+    if (known !== undefined) {
+      options.onProgress?.(1);
+      return known;
+    }
+  }
+  const f = simplify(cnf);
   const list = candidates ?? constructionCandidates(f);
   const out: ConstructionCost[] = [];
   for (let i = 0; i < list.length; i++) {
@@ -212,6 +235,11 @@ export function costConstructions(cnf: Cnf, options: FrontOptions = {}, candidat
     });
   }
   options.onProgress?.(1);
+  if (candidates === undefined) {
+    let byMode = counted.get(cnf);
+    if (byMode === undefined) counted.set(cnf, (byMode = new Map()));
+    byMode.set(key, out);
+  }
   return out;
 }
 
