@@ -97,8 +97,8 @@ export function oracleOptions(values: Record<string, string | boolean | undefine
 }
 
 /** What to do about a construction plan that failed, for the hint. */
-function planHint(o: OracleOptions, smallest: number | undefined): string {
-  if (smallest === undefined) return "see --help for the construction names";
+function planHint(o: OracleOptions, smallest: number | undefined, command: string): string {
+  if (smallest === undefined) return `see clausegate ${command} --help for the construction names`;
   if (o.construction !== undefined || o.strategy !== undefined) {
     return `give --max-qubits ${smallest} or more, or leave out --${o.construction !== undefined ? "construction" : "strategy"} to choose a construction within the budget`;
   }
@@ -111,7 +111,7 @@ function planHint(o: OracleOptions, smallest: number | undefined): string {
  */
 export function compileWithOptions(cnf: Cnf, o: CliOracleOptions, command: string): Oracle {
   const plan = planConstruction(cnf, o);
-  if (!plan.ok) throw new UserError(`clausegate ${command}: error: ${plan.message}; hint: ${planHint(o, plan.smallestQubits)}`);
+  if (!plan.ok) throw new UserError(`clausegate ${command}: error: ${plan.message}; hint: ${planHint(o, plan.smallestQubits, command)}`);
   const oracle = compilePlanned(cnf, o, plan);
   if (oracle === null) {
     throw new UserError(`clausegate ${command}: error: no construction's ${o.basis} circuit fits in ${o.maxQubits} qubits; hint: raise --max-qubits, or try --basis clifford+t`);
@@ -127,7 +127,7 @@ export function compileWithOptions(cnf: Cnf, o: CliOracleOptions, command: strin
 export function settleSearchOptions(cnf: Cnf, o: CliOracleOptions, command: string): CliOracleOptions {
   if (o.maxQubits === undefined && o.prefer === undefined && o.construction === undefined) return o;
   const r = searchConstruction(cnf, { ...o, iterations: 1 });
-  if (!r.ok) throw new UserError(`clausegate ${command}: error: ${r.message}; hint: ${planHint(o, r.smallestQubits)}`);
+  if (!r.ok) throw new UserError(`clausegate ${command}: error: ${r.message}; hint: ${planHint(o, r.smallestQubits, command)}`);
   const { prefer: _prefer, strategy: _strategy, ...rest } = o;
   return { ...rest, construction: r.construction };
 }
