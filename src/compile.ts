@@ -85,11 +85,13 @@ export const DEFAULT_ORACLE_OPTIONS: Required<OracleOptions> = {
 /** How {@link planConstruction} settled the construction. */
 export type ConstructionPlan =
   | {
+      /** The construction is settled. */
       readonly ok: true;
-      /** Constructions to build, best first: the first whose emitted circuit fits the budget is taken. */
-      readonly constructions: readonly Construction[];
+      /** Construction names to build, best first: the first whose emitted circuit fits the budget is taken. */
+      readonly constructions: readonly string[];
     }
   | {
+      /** Nothing fits, or a name is unknown. */
       readonly ok: false;
       /** What is wrong, one line. */
       readonly message: string;
@@ -109,7 +111,12 @@ export type ConstructionPlan =
  * if (!plan.ok) console.error(plan.message);
  * ```
  */
-export function planConstruction(cnf: Cnf, options: OracleOptions = {}, f: SimplifiedCnf = simplify(cnf)): ConstructionPlan {
+export function planConstruction(cnf: Cnf, options: OracleOptions = {}): ConstructionPlan {
+  return planWith(cnf, options, simplify(cnf));
+}
+
+/** {@link planConstruction} with the simplified formula at hand. */
+function planWith(cnf: Cnf, options: OracleOptions, f: SimplifiedCnf): ConstructionPlan {
   const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
   const Q = options.maxQubits;
   if (Q !== undefined && !(Q === Infinity || (Number.isSafeInteger(Q) && Q >= 0))) return { ok: false, message: `the qubit budget must be a whole number, got ${Q}` };
@@ -121,17 +128,17 @@ export function planConstruction(cnf: Cnf, options: OracleOptions = {}, f: Simpl
     fixed = c;
   } else if (options.strategy !== undefined || (Q === undefined && options.prefer === undefined)) fixed = { family: o.strategy };
   if (fixed !== undefined) {
-    if (Q === undefined || Q === Infinity) return { ok: true, constructions: [fixed] };
+    if (Q === undefined || Q === Infinity) return { ok: true, constructions: [constructionName(fixed)] };
     const r = countConstructionOracle(f, o.kind, fixed, "clifford+t", o.uncompute, o.optimize, false);
     if (r.qubits > Q) return { ok: false, message: `the ${constructionName(fixed)} construction needs ${r.qubits} qubits, more than the budget of ${Q}`, smallestQubits: r.qubits };
-    return { ok: true, constructions: [fixed] };
+    return { ok: true, constructions: [constructionName(fixed)] };
   }
   const costs = costConstructions(cnf, { kind: o.kind, uncompute: o.uncompute, optimize: o.optimize });
   const choice = chooseAmong(costs, Q ?? Infinity, o.prefer);
   if (!choice.ok) {
     return { ok: false, message: `no construction fits in ${Q} qubits; the smallest (${choice.smallest.construction}) needs ${choice.smallestQubits}`, smallestQubits: choice.smallestQubits };
   }
-  return { ok: true, constructions: choice.ranked.map((c) => parseConstruction(c.construction) as Construction) };
+  return { ok: true, constructions: choice.ranked.map((c) => c.construction) };
 }
 
 /** The logical oracle of a construction. */
@@ -168,7 +175,7 @@ function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: 
  */
 export function compileOracle(cnf: Cnf, options: OracleOptions = {}): Oracle {
   const simplified = simplify(cnf);
-  const plan = planConstruction(cnf, options, simplified);
+  const plan = planWith(cnf, options, simplified);
   if (!plan.ok) throw new RangeError(plan.message);
   const oracle = compilePlanned(cnf, options, plan, simplified);
   if (oracle === null) throw new RangeError(`no construction's ${options.basis ?? DEFAULT_ORACLE_OPTIONS.basis} circuit fits in ${options.maxQubits} qubits`);
@@ -182,7 +189,8 @@ export function compileOracle(cnf: Cnf, options: OracleOptions = {}): Oracle {
 export function compilePlanned(cnf: Cnf, options: OracleOptions, plan: ConstructionPlan & { ok: true }, simplified: SimplifiedCnf = simplify(cnf)): Oracle | null {
   const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
   const Q = options.maxQubits ?? Infinity;
-  for (const c of plan.constructions) {
+  for (const name of plan.constructions) {
+    const c = parseConstruction(name) as Construction;
     const logical = synthesizeFor(simplified, o.kind, c);
     const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
     if (circuit.qubits > Q) continue;
@@ -227,7 +235,7 @@ export function compileSearch(cnf: Cnf, options: SearchOptions): Circuit {
 export function searchConstruction(cnf: Cnf, options: SearchOptions): { ok: true; construction: string; circuit: Circuit } | { ok: false; message: string; smallestQubits?: number } {
   const o = { ...DEFAULT_ORACLE_OPTIONS, ...options, kind: "phase" as const };
   const f = simplify(cnf);
-  const plan = planConstruction(cnf, { ...options, kind: "phase" }, f);
+  const plan = planWith(cnf, { ...options, kind: "phase" }, f);
   const Q = options.maxQubits ?? Infinity;
   // Oracle and diffusion take turns on the work wires: the search needs the larger of the two.
   const withDiffusion = (n: number): number => Math.max(n, diffusionOnly(f.variables, o.basis, o.uncompute));
@@ -237,7 +245,8 @@ export function searchConstruction(cnf: Cnf, options: SearchOptions): { ok: true
     return { ok: false, message: `no search circuit fits in ${Q} qubits; the smallest needs ${s} (the oracle's and the diffusion's work qubits included)`, smallestQubits: s };
   }
   let smallest = Infinity;
-  for (const c of plan.constructions) {
+  for (const name of plan.constructions) {
+    const c = parseConstruction(name) as Construction;
     const circuit = finish(searchCircuit(f, c, options.iterations, options.measure ?? true), o.basis, o.uncompute, o.optimize, o.validatePasses);
     if (circuit.qubits <= Q) return { ok: true, construction: constructionName(c), circuit };
     smallest = Math.min(smallest, circuit.qubits);

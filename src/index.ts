@@ -36,8 +36,8 @@ export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
 export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
-export type { Oracle, OracleOptions, SearchOptions } from "./compile.js";
-export { compileOracle, compileSearch, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { Oracle, OracleOptions, SearchOptions, ConstructionPlan } from "./compile.js";
+export { compileOracle, compileSearch, DEFAULT_ORACLE_OPTIONS, planConstruction } from "./compile.js";
 
 // Emitting and reading circuits back.
 export type { Sink } from "./emit/sink.js";
@@ -55,6 +55,8 @@ export { verifyOracle } from "./sim/verify.js";
 // Costing.
 export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle } from "./cost/index.js";
 export { costTable, oracleResources, searchCosts } from "./cost/index.js";
+export type { ConstructionFamily, ConstructionCost, ConstructionChoice, CostFront, FrontPoint, FrontOptions, Prefer } from "./cost/front.js";
+export { costFront, chooseConstruction } from "./cost/front.js";
 export type { CircuitCounts } from "./emit/resources.js";
 export { countCircuit } from "./emit/resources.js";
 

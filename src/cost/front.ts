@@ -60,6 +60,7 @@ export interface FrontOptions {
 /** A choice within a budget. */
 export type ConstructionChoice =
   | {
+      /** A construction fits. */
       readonly ok: true;
       /** The chosen construction and its figures. */
       readonly chosen: ConstructionCost;
@@ -67,6 +68,7 @@ export type ConstructionChoice =
       readonly ranked: readonly ConstructionCost[];
     }
   | {
+      /** None fits. */
       readonly ok: false;
       /** The fewest qubits any candidate needs (the smallest budget that works). */
       readonly smallestQubits: number;
@@ -323,7 +325,14 @@ export interface CostFront {
   /** The non-dominated points (fewer qubits, T or T-depth), by qubits. */
   readonly points: FrontPoint[];
   /** wide, lean and the textbook reference, whether on the front or not. */
-  readonly references: { readonly wide: ConstructionCost; readonly lean: ConstructionCost; readonly textbook: ConstructionCost };
+  readonly references: {
+    /** Every clause bit held (fewest T). */
+    readonly wide: ConstructionCost;
+    /** The clause counter (fewest qubits of the two strategies). */
+    readonly lean: ConstructionCost;
+    /** One clause bit per clause with 7-T Toffoli V-chains, unitary (a reference, not an option). */
+    readonly textbook: ConstructionCost;
+  };
   /** Every candidate counted. */
   readonly candidates: ConstructionCost[];
 }
