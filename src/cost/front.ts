@@ -162,7 +162,9 @@ const THIN_ABOVE = 200_000;
  * (fanout-U for U below the most readings of a variable); one level of blocks of 2 to m/2
  * clauses (a geometric grid); blocks with a share of the clauses held; two and three levels of
  * small blocks; and one level of blocks with fan-out. A fixed list for a given formula, so a larger
- * budget only ever adds candidates (the T-count chosen never rises with the budget).
+ * budget only ever adds candidates (the T-count chosen never rises with the budget). Above
+ * 200,000 literals (each candidate a count of the whole oracle) the list is thinned to about a
+ * dozen: wide, lean, fanout-1, blocks of 2, 8, 32, ... clauses and blocks-8x8.
  */
 export function constructionCandidates(f: SimplifiedCnf): Construction[] {
   const { m, reads, literals } = shape(f);
@@ -172,14 +174,15 @@ export function constructionCandidates(f: SimplifiedCnf): Construction[] {
   const blocks = (sizes: number[], fanout = 0, held = 0): void => {
     out.push({ family: "blocks", plan: { sizes, fanout, held } });
   };
-  for (const u of thin ? [1, 4] : [1, 2, 3, 4, 6, 8, 12, 16, 24, 32]) if (u < reads) blocks([], u);
-  // One level: sizes 2..8, then about 1.25 times the last, below m.
+  for (const u of thin ? [1] : [1, 2, 3, 4, 6, 8, 12, 16, 24, 32]) if (u < reads) blocks([], u);
+  // One level: sizes 2..8, then about 1.25 times the last, below m (thinned: 2, 8, 32, ...).
   const one: number[] = [];
-  for (let b = 2; b < m; b = b < 8 ? b + 1 : Math.ceil(b * 1.25)) one.push(b);
-  const oneShown = thin ? one.filter((_, i) => i % 4 === 0) : one;
+  if (thin) for (let b = 2; b < m; b *= 4) one.push(b);
+  else for (let b = 2; b < m; b = b < 8 ? b + 1 : Math.ceil(b * 1.25)) one.push(b);
+  const oneShown = one;
   for (const b of oneShown) blocks([b]);
   // Held clauses: eighths of m beside blocks of a few sizes.
-  for (const b of thin ? [4] : [2, 3, 4, 6]) {
+  for (const b of thin ? [] : [2, 3, 4, 6]) {
     if (b >= m) continue;
     const seen = new Set<number>();
     for (let e = 1; e < 8; e++) {
@@ -190,10 +193,10 @@ export function constructionCandidates(f: SimplifiedCnf): Construction[] {
       }
     }
   }
-  const small = thin ? [2, 4] : [2, 3, 4, 6, 8];
+  const small = thin ? [8] : [2, 3, 4, 6, 8];
   for (const b1 of small) for (const b2 of small) if (b1 * b2 < m) blocks([b1, b2]);
   for (const b1 of [2, 3]) for (const b2 of [2, 3]) for (const b3 of [2, 3]) if (!thin && b1 * b2 * b3 < m) blocks([b1, b2, b3]);
-  if (reads > 1) for (const b of oneShown.filter((_, i) => i % 2 === 0)) blocks([b], 1);
+  if (reads > 1 && !thin) for (const b of oneShown.filter((_, i) => i % 2 === 0)) blocks([b], 1);
   return out;
 }
 
