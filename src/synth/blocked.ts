@@ -62,7 +62,18 @@ export function synthesizeBlocked(f: SimplifiedCnf, kind: OracleKind, plan: Bloc
   const levels = plan.sizes.length;
   const { b, target } = newOracle(f, kind, (f.lits.length + 2 * m) * (2 << Math.min(levels, 8)) + 16);
   if (trivial(b, f, kind, target)) return b.finish();
-  return new Blocked(b, checks, plan).oracle(kind, target);
+  conjoinChecks(b, kind, target, checks, plan);
+  return b.finish();
+}
+
+/**
+ * Emits, into a builder that already holds whatever the checks read (the search register, and
+ * any register a front end computed first and will clear after), the mark of "every check
+ * holds" by the blocked construction of `plan`, every work qubit it takes cleared again. With
+ * no checks the mark is unconditional (a phase of -1, or the target flipped).
+ */
+export function conjoinChecks(b: CircuitBuilder, kind: OracleKind, target: number, checks: Checks, plan: BlockPlan): void {
+  new Blocked(b, checks, plan).emit(kind, target);
 }
 
 class Blocked {
@@ -73,7 +84,7 @@ class Blocked {
     for (const s of plan.sizes) this.span.push(this.span[this.span.length - 1]! * Math.max(1, s));
   }
 
-  oracle(kind: OracleKind, target: number): Circuit {
+  emit(kind: OracleKind, target: number): void {
     const b = this.b;
     const m = this.checks.count;
     const top = this.plan.sizes.length;
@@ -92,7 +103,6 @@ class Blocked {
       this.erase(level, lo, hi, handles[i]!, level === 0 ? holder : null);
     }
     group?.release();
-    return b.finish();
   }
 
   /** Computes the node of `level` over checks [lo, hi). */

@@ -5,6 +5,8 @@ import { describe, expect, it } from "vitest";
 import { simplify } from "../../dist/src/synth/simplify.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
 import { synthesizeConstruction } from "../../dist/src/synth/construction.js";
+import { conjoinChecks } from "../../dist/src/synth/blocked.js";
+import { CircuitBuilder, K } from "../helpers/circuits.js";
 import {
   cnfFromClauses, compileOracle, constructionCandidates, constructionName, countCircuit, countConstructionOracle, oracleResources, parseConstruction,
   verifyOracle, type Cnf, type Construction,
@@ -97,6 +99,35 @@ describe("every candidate construction is an oracle for its formula", { timeout:
           const r = await verifyOracle(cnf, compileOracle(cnf, { construction, kind }).circuit, { kind });
           expect(r.verified).toBe(true);
         }
+      }
+    }
+  });
+});
+
+describe("checks other than clauses", () => {
+  it("conjoin like clauses: equalities x_a = x_b as parity checks, against their CNF", async () => {
+    // Each check's violated bit is x_a XOR x_b, computed by two CNOTs into a fresh qubit.
+    const pairs = [[0, 1], [1, 2], [3, 4], [2, 5], [4, 5]] as const;
+    const checks = {
+      count: pairs.length,
+      occurrences: (i: number) => ({ start: 2 * i, controls: [pairs[i]![0] << 1, pairs[i]![1] << 1] }),
+      compute(b: InstanceType<typeof CircuitBuilder>, i: number, out: [number, number[]][], holder: ((o: number, c: number) => number) | null) {
+        const w = b.newWork();
+        const via = (j: number): number => (holder === null ? pairs[i]![j]! << 1 : holder(2 * i + j, pairs[i]![j]! << 1));
+        for (const op of [[K.mcx, [via(0), w << 1]], [K.mcx, [via(1), w << 1]]] as [number, number[]][]) {
+          out.push(op);
+          b.addN(op[0], op[1]);
+        }
+        return w << 1;
+      },
+    };
+    const cnf = cnfFromClauses(6, pairs.flatMap(([a, b]) => [[a + 1, -(b + 1)], [-(a + 1), b + 1]]));
+    for (const plan of [{ sizes: [], fanout: 0 }, { sizes: [2], fanout: 0 }, { sizes: [2, 2], fanout: 1 }, { sizes: [2], fanout: 0, held: 2 }]) {
+      for (const kind of ["phase", "flag"] as const) {
+        const b = new CircuitBuilder({ search: 6, target: kind === "flag" ? 1 : 0 });
+        conjoinChecks(b, kind, 6, checks, plan);
+        const c = lowerAndOptimize(b.finish(), "toffoli", "measured", true);
+        expect((await verifyOracle(cnf, c, { kind })).verified, JSON.stringify(plan)).toBe(true);
       }
     }
   });
