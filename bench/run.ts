@@ -7,6 +7,7 @@
  *   npm run bench -- verify  exhaustive verification and the state-vector simulator
  *   npm run bench -- long-clause  one 100,000-literal clause through every stage
  *   npm run bench -- cost    the cost table of large formulas (counted, not built)
+ *   npm run bench -- front   the cost front and qubit budgets (bench/front.ts)
  */
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, statSync } from "node:fs";
@@ -25,6 +26,7 @@ import { runPasses } from "../src/passes/runner.js";
 import { verifyOracle } from "../src/sim/verify.js";
 import { simplify, synthesize } from "../src/synth/index.js";
 import { randomClauses, writeRandomCnf } from "./random.js";
+import { benchFront } from "./front.js";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, "..", "..");
@@ -233,3 +235,4 @@ if (only === undefined || only === "verify") await benchVerify();
 if (only === undefined || only === "compile") benchCompile();
 if (only === undefined || only === "count") await benchCount();
 if (only === undefined || only === "cost") benchCost();
+if (only === undefined || only === "front") benchFront();
