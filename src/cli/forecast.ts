@@ -9,7 +9,7 @@
 import { parseArgs } from "node:util";
 import {
   countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatSeconds, LOGICAL_ERROR_MODELS,
-  MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, clauseCount, constructionSearchCost,
+  MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, clauseCount, constructionSearchCost, parseConstruction,
   type Assumption, type Cnf, type Crossover, type Forecast, type ForecastInput, type ForecastPlotSeries, type LogLinearFit,
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
 } from "../internal.js";
@@ -605,7 +605,11 @@ export async function forecastCommand(argv: string[]): Promise<number> {
  * smallest that works.
  */
 function constructionFor(cnf: Cnf, file: string, o: CliOracleOptions, chooses: boolean): string | undefined {
-  if (!chooses) return o.construction;
+  if (!chooses) {
+    const named = o.construction === undefined ? undefined : parseConstruction(o.construction);
+    if (typeof named === "string") throw new UserError(`clausegate forecast: error: ${named}; hint: see clausegate oracle --help for the construction names`);
+    return o.construction;
+  }
   const r = searchConstruction(cnf, { ...o, basis: "clifford+t", iterations: 1, measure: false });
   if (!r.ok) {
     const hint = r.smallestQubits === undefined ? "see clausegate oracle --help for the construction names" : `give --max-qubits ${r.smallestQubits} or more`;

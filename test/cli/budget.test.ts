@@ -144,3 +144,67 @@ describe("budgets on the command line", { timeout: 120_000 }, () => {
     expect(s.code, s.stderr).toBe(0);
   });
 });
+
+describe("budgets with the free register and structure", { timeout: 120_000 }, () => {
+  it("cost --front --register free: the free register's points, each reproduced by oracle with its arguments", () => {
+    const r = cli(["cost", EX, "--front", "--json", "--register", "free"]);
+    expect(r.code, r.stderr).toBe(0);
+    const doc = JSON.parse(r.stdout) as { points: Point[]; register_mode: string; register: number[] };
+    expect(doc.register_mode).toBe("free");
+    expect(doc.register.length).toBeLessThan(12);
+    for (const p of doc.points) expect(p.options).toBe(`--construction ${p.construction} --basis clifford+t --uncompute measured --register free`);
+    for (const p of doc.points.filter((_, i) => i % 5 === 0)) {
+      const rep = join(dir, `free-${p.construction}.json`);
+      const o = cli(["oracle", EX, ...p.options.split(" "), "--report", rep, "-o", join(dir, "free.qasm")]);
+      expect(o.code, o.stderr).toBe(0);
+      const report = JSON.parse(readFileSync(rep, "utf8"));
+      expect([report.qubits.total, report.t_count, report.t_depth, report.construction, report.register_mode]).toEqual([p.qubits, p.t_count, p.t_depth, p.construction, "free"]);
+      expect(report.register).toEqual(doc.register);
+    }
+    // The smallest free-register point is below the smallest full-register one.
+    const full = JSON.parse(cli(["cost", EX, "--front", "--json"]).stdout) as { points: Point[] };
+    expect(doc.points[0]!.qubits).toBeLessThan(full.points[0]!.qubits);
+  });
+  it("cost --front --no-structure names --no-structure in the arguments", () => {
+    const r = cli(["cost", EX, "--front", "--json", "--no-structure"]);
+    expect(r.code, r.stderr).toBe(0);
+    for (const p of (JSON.parse(r.stdout) as { points: Point[] }).points) expect(p.options).toMatch(/ --no-structure$/);
+  });
+  it("cost --max-qubits --register free, oracle and verify --max-qubits --register free keep the budget", () => {
+    const c = cli(["cost", EX, "--max-qubits", "22", "--register", "free", "--json"]);
+    expect(c.code, c.stderr).toBe(0);
+    const doc = JSON.parse(c.stdout);
+    expect(doc.register_mode).toBe("free");
+    for (const row of doc.rows) expect(row.qubits).toBeLessThanOrEqual(22);
+    const rep = join(dir, "free-budget.json");
+    const o = cli(["oracle", EX, "--max-qubits", "22", "--register", "free", "--basis", "clifford+t", "--uncompute", "measured", "--report", rep, "-o", join(dir, "fb.qasm")]);
+    expect(o.code, o.stderr).toBe(0);
+    const report = JSON.parse(readFileSync(rep, "utf8"));
+    expect(report.qubits.total).toBeLessThanOrEqual(22);
+    expect(report.construction).toBe(doc.rows.find((x: { uncompute: string }) => x.uncompute === "measured").construction);
+    const v = cli(["verify", EX, "--max-qubits", "22", "--register", "free", "--json"]);
+    expect(v.code, v.stdout).toBe(0);
+    expect(JSON.parse(v.stdout).verified).toBe(true);
+  });
+  it("forecast --max-qubits: the chosen construction's search fits, and the construction and budget are assumptions", () => {
+    const r = cli(["forecast", EX, "--max-qubits", "24", "--json"]);
+    expect(r.code, r.stderr).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.register_mode).toBe("free");
+    expect(doc.logical.qubits).toBeLessThanOrEqual(24);
+    const named = (n: string) => doc.assumptions.find((a: { name: string }) => a.name === n);
+    expect(named("max_logical_qubits")).toMatchObject({ value: 24, source: expect.stringMatching(/^given \(--max-qubits\)/) });
+    expect(named("construction").source).toMatch(/^chosen: the cheapest construction by t-count whose one-iteration search circuit has at most 24 logical qubits/);
+    expect(named("oracle_options").value).toBe(`construction ${named("construction").value}, uncompute unitary, basis toffoli`);
+    // The same figures as a named construction gives.
+    const same = JSON.parse(cli(["forecast", EX, "--construction", named("construction").value, "--json"]).stdout);
+    expect(same.logical).toEqual(doc.logical);
+    expect(same.assumptions.find((a: { name: string }) => a.name === "construction").source).toBe("given (--construction)");
+    // Below every construction: exit 2, one line naming the smallest budget.
+    const tight = cli(["forecast", EX, "--max-qubits", "12"]);
+    expect(tight.code).toBe(2);
+    expect(tight.stdout).toBe("");
+    expect(tight.stderr.trimEnd().split("\n")).toHaveLength(1);
+    expect(tight.stderr).toMatch(/^examples\/launch-rota\.cnf: error: no search circuit fits in 12 qubits; the smallest needs \d+ .*; hint: give --max-qubits \d+ or more$/m);
+  });
+});

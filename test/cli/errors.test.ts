@@ -65,6 +65,12 @@ const cases: [string, string[], string?][] = [
   ["bad budget", ["oracle", EX, "--max-qubits", "0"]],
   ["cost --plot without --front", ["cost", EX, "--plot", join(dir, "f.svg")]],
   ["cost --front with a budget", ["cost", EX, "--front", "--max-qubits", "9"]],
+  // The budget options on forecast (issue 12 takes them), and with the register options.
+  ["forecast below the smallest budget", ["forecast", EX, "--max-qubits", "3"]],
+  ["forecast with a strategy and a construction", ["forecast", EX, "--strategy", "lean", "--construction", "wide"]],
+  ["forecast with no such construction", ["forecast", EX, "--construction", "blocks-1"]],
+  ["oracle below the smallest free-register budget", ["oracle", EX, "--register", "free", "--max-qubits", "1"]],
+  ["cost --front --register with a bad value", ["cost", EX, "--front", "--register", "half"]],
 ];
 
 describe("error shape", () => {
