@@ -2,15 +2,18 @@
  * The cost front and qubit budgets (npm run bench -- front, or node dist/bench/front.js): for a
  * seeded random 3-SAT formula of 20 variables and 90 clauses and for n-queens formulas, the
  * candidates counted, the non-dominated points, the targets of the budget issue, and the
- * construction chosen at a range of budgets. Prints figures; asserts nothing.
+ * construction chosen at a range of budgets; the same with structure recovery off, and a
+ * multiplier over the full and the free register (constructions composed with structure).
+ * Prints figures; asserts nothing.
  */
 import { fileURLToPath } from "node:url";
 import { cnfFromClauses, type Cnf } from "../src/cnf/cnf.js";
 import { compileOracle } from "../src/compile.js";
-import { chooseAmong, costConstructions, costFront } from "../src/cost/front.js";
+import { chooseAmong, costConstructions, costFront, type FrontOptions } from "../src/cost/front.js";
 import { countCircuit } from "../src/emit/resources.js";
 import { simplify } from "../src/synth/simplify.js";
 import { randomClauses } from "./random.js";
+import { multiplier } from "../test/helpers/encoders.js";
 
 /** n-queens, one variable per square: a queen in every row, no two attacking (as test/helpers/formulas.ts). */
 function queens(n: number): Cnf {
@@ -36,11 +39,14 @@ function shape(cnf: Cnf): { n: number; m: number; k: number } {
 
 const log2up = (x: number): number => Math.ceil(Math.log2(Math.max(1, x)));
 
-function report(label: string, cnf: Cnf, budgetsOf: (lean: number, wide: number) => number[]): void {
+/** The register options of a report, in words. */
+const registerWords = (o: Pick<FrontOptions, "register" | "structure">): string => `${o.register ?? "full"} register, structure ${o.structure === false ? "off" : "on"}`;
+
+function report(label: string, cnf: Cnf, budgetsOf: (lean: number, wide: number) => number[], reg: Pick<FrontOptions, "register" | "structure"> = {}): void {
   const { n, m, k } = shape(cnf);
-  console.log(`${label}: ${n} variables, ${m} clauses (width up to ${k}) after simplification`);
+  console.log(`${label} (${registerWords(reg)}): ${n} variables, ${m} clauses (width up to ${k}) after simplification`);
   const t0 = performance.now();
-  const front = costFront(cnf, { uncompute: "measured" });
+  const front = costFront(cnf, { uncompute: "measured", ...reg });
   const ms = performance.now() - t0;
   const { wide, lean, textbook } = front.references;
   console.log(`  front: ${front.points.length} of ${front.candidates.length} constructions not dominated; counted in ${(ms / 1000).toFixed(2)} s (measured uncomputation, Clifford+T)`);
@@ -48,13 +54,13 @@ function report(label: string, cnf: Cnf, budgetsOf: (lean: number, wide: number)
   const qTarget = n + 2 * Math.ceil(Math.sqrt(k * m)) + 2 * k;
   const within = front.points.filter((p) => p.qubits <= qTarget && p.t_count <= 3 * wide.t_count).sort((a, b) => a.t_count - b.t_count)[0];
   console.log(`  target: a point with qubits <= n + 2 ceil(sqrt(k m)) + 2k = ${qTarget} and T <= 3 x ${wide.t_count} = ${3 * wide.t_count}: ${within ? `${within.construction}, ${within.qubits} qubits, T ${within.t_count} (${(within.t_count / wide.t_count).toFixed(2)} x wide), T-depth ${within.t_depth}` : "none"}`);
-  const deep = compileOracle(cnf, { prefer: "t-depth", basis: "clifford+t", uncompute: "measured" });
+  const deep = compileOracle(cnf, { prefer: "t-depth", basis: "clifford+t", uncompute: "measured", ...reg });
   const bound = 2 * (log2up(k) + log2up(m)) + 2;
   const d = countCircuit(deep.circuit);
   console.log(`  target: depth preferred, no budget: ${deep.options.construction}, T-depth ${d.tDepth} (bound 2 (ceil(log2 k) + ceil(log2 m)) + 2 = ${bound}; wide ${wide.t_depth}), ${deep.circuit.qubits} qubits, T ${d.tCount}`);
-  const costs = costConstructions(cnf, { uncompute: "measured" });
+  const costs = costConstructions(cnf, { uncompute: "measured", ...reg });
   console.log("  budget -> chosen (prefer t-count) | (prefer t-depth):");
-  for (const Q of budgetsOf(lean.qubits, wide.qubits)) {
+  for (const Q of [...new Set(budgetsOf(lean.qubits, wide.qubits))].sort((a, b) => a - b)) {
     const a = chooseAmong(costs, Q, "t-count");
     const b = chooseAmong(costs, Q, "t-depth");
     const text = (c: typeof a): string => (c.ok ? `${c.chosen.construction} ${c.chosen.qubits} q, T ${c.chosen.t_count}, T-depth ${c.chosen.t_depth}` : `none (smallest ${c.smallestQubits})`);
@@ -65,8 +71,17 @@ function report(label: string, cnf: Cnf, budgetsOf: (lean: number, wide: number)
 export function benchFront(): void {
   report("random 3-SAT (bench/random.ts, seed 45)", cnfFromClauses(20, [...randomClauses(20, 90, 3, 45)]), () => [34, 35, 40, 45, 52, 60, 80, 100, 150, 200, 288, 400, 540]);
   // n-queens with one variable per square: 4-queens has 16 variables, 5-queens 25.
+  // Structure recovery finds the at-most-one groups of the queens formulas: with it and without.
   for (const q of [4, 5]) {
-    report(`${q}-queens`, queens(q), (lean, wide) => [lean - 1, lean, lean + 5, lean + 10, lean + 20, Math.round((lean + wide) / 2), wide, 2 * wide]);
+    for (const structure of [true, false]) {
+      report(`${q}-queens`, queens(q), (lean, wide) => [lean - 1, lean, lean + 5, lean + 10, lean + 20, Math.round((lean + wide) / 2), wide, 2 * wide], { structure });
+    }
+  }
+  // A 3 x 3 multiplier fixed to 35 (Tseitin-encoded): every construction over the recovered gates,
+  // on the full register and on the free one (2 search qubits, the other variables computed).
+  const mul = multiplier(3, 3, 35n);
+  for (const reg of [{ structure: false }, {}, { register: "free" as const }]) {
+    report("3 x 3 multiplier = 35", cnfFromClauses(mul.variables, mul.clauses), (lean, wide) => [lean - 1, lean, lean + 4, Math.round((lean + wide) / 2), wide], reg);
   }
   const big = cnfFromClauses(200, [...randomClauses(200, 850, 3, 7)]);
   const t0 = performance.now();
