@@ -55,7 +55,8 @@ export const ORACLE_HELP = `  --kind phase|flag           phase: |x> -> (-1)^f(x
                               bit stored and its clause bits erased), blocks-B1xB2... (blocks of blocks),
                               blocks-B-held-H (H clauses held as in wide), fanout-U (wide with CNOT copies
                               of each variable for every U readings: low T-depth), blocks-...-fanout-U;
-                              clausegate cost --front lists the ones worth having
+                              with recovered structure the blocks hold its checks (definitions, parities,
+                              groups, remaining clauses); clausegate cost --front lists the ones worth having
   --max-qubits Q              the cheapest construction whose qubits (search, work and target) are at most
                               Q; exit 2, naming the smallest Q that works, when none fits
   --prefer t-count|t-depth    what cheapest means (default t-count; ties go to the other, then to fewer
