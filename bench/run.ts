@@ -8,6 +8,7 @@
  *   npm run bench -- long-clause  one 100,000-literal clause through every stage
  *   npm run bench -- cost    the cost table of large formulas (counted, not built)
  *   npm run bench -- prove   the prover: every construction of a planted 200-variable formula, the million clauses
+ *   npm run bench -- front   the cost front and qubit budgets (bench/front.ts)
  */
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, statSync } from "node:fs";
@@ -27,6 +28,7 @@ import { verifyOracle } from "../src/sim/verify.js";
 import { simplify, synthesize } from "../src/synth/index.js";
 import { randomClauses, writeRandomCnf } from "./random.js";
 import { benchMillion, benchPlanted } from "./prove.js";
+import { benchFront } from "./front.js";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = join(here, "..", "..");
@@ -239,3 +241,4 @@ if (only === undefined || only === "prove") {
   benchPlanted();
   benchMillion();
 }
+if (only === undefined || only === "front") benchFront();

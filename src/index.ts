@@ -36,8 +36,8 @@ export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
 export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
-export type { Oracle, OracleOptions, SearchOptions, RegisterPlan } from "./compile.js";
-export { compileOracle, compileSearch, completeModel, registerOf, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { Oracle, OracleOptions, SearchOptions, RegisterPlan, ConstructionPlan } from "./compile.js";
+export { compileOracle, compileSearch, completeModel, registerOf, DEFAULT_ORACLE_OPTIONS, planConstruction } from "./compile.js";
 export type { RegisterMode, StructureSummary } from "./synth/index.js";
 export type { Completion } from "./structure/completion.js";
 
@@ -59,6 +59,8 @@ export { proveOracle } from "./prove/index.js";
 // Costing.
 export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle } from "./cost/index.js";
 export { costTable, oracleResources, searchCosts } from "./cost/index.js";
+export type { ConstructionFamily, ConstructionCost, ConstructionChoice, CostFront, FrontPoint, FrontOptions, Prefer } from "./cost/front.js";
+export { costFront, chooseConstruction } from "./cost/front.js";
 export type { CircuitCounts } from "./emit/resources.js";
 export { countCircuit } from "./emit/resources.js";
 

@@ -24,14 +24,23 @@ export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";
 export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/index.js";
-export type { Oracle, OracleOptions, RegisterPlan } from "./compile.js";
-export { compileOracle, completeModel, registerOf, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
+export type { Oracle, OracleOptions, RegisterPlan, ConstructionPlan } from "./compile.js";
+export { compileOracle, compilePlanned, completeModel, planConstruction, registerOf, searchConstruction, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
 export type { RegisterMode, StructureSummary, OraclePlan, StructuredFormula } from "./synth/index.js";
 export { planOracle, synthesizePlan, synthesizeStructured } from "./synth/index.js";
 export type { Completion } from "./structure/completion.js";
 export { completeAssignment, fullCompletion, isFullCompletion } from "./structure/completion.js";
+export type {
+  Construction, ConstructionFamily, ConstructionCost, ConstructionChoice, ConstructionRow, CostFront, FrontPoint, FrontOptions, Prefer,
+} from "./cost/front.js";
+export {
+  chooseConstruction, chooseAmong, constructionCandidates, constructionName, constructionRow, costConstructions, costFront, countConstructionOracle,
+  nonDominated, parseConstruction,
+} from "./cost/front.js";
+export type { FrontPlotInput } from "./draw/frontPlot.js";
+export { plotFrontSvg } from "./draw/frontPlot.js";
 export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle, EngineResult } from "./cost/index.js";
-export { costTable, countConstruction, oracleResources, searchCosts } from "./cost/index.js";
+export { constructionSearchCost, costTable, countConstruction, oracleResources, searchCosts } from "./cost/index.js";
 export { PassError } from "./passes/runner.js";
 export type { Sink } from "./emit/sink.js";
 export { collect } from "./emit/sink.js";

@@ -7,13 +7,13 @@ const PUBLIC = [
   // read and write formulas, count models
   "readDimacs", "readDimacsFile", "readDimacsWithGrammar", "writeDimacs", "cnfFromClauses", "clausesOf", "formatDiagnostic", "countModels",
   // compile
-  "compileOracle", "compileSearch", "completeModel", "registerOf", "DEFAULT_ORACLE_OPTIONS", "GATE_KINDS",
+  "compileOracle", "compileSearch", "completeModel", "registerOf", "DEFAULT_ORACLE_OPTIONS", "GATE_KINDS", "planConstruction",
   // emit and read back
   "emitQasm3", "emitQasm2", "emitJson", "qasm2Problem", "collect", "readCircuit",
   // verify
   "verifyOracle", "proveOracle",
   // cost
-  "oracleResources", "costTable", "searchCosts", "countCircuit",
+  "oracleResources", "costTable", "searchCosts", "countCircuit", "costFront", "chooseConstruction",
   // plan
   "planSearch", "bbhtRounds", "bbhtExpectedCalls", "EXACT_BITS",
   // forecast

@@ -9,12 +9,12 @@
 import { parseArgs } from "node:util";
 import {
   countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatSeconds, LOGICAL_ERROR_MODELS,
-  MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchCosts, clauseCount,
+  MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, clauseCount, constructionSearchCost, parseConstruction,
   type Assumption, type Cnf, type Crossover, type Forecast, type ForecastInput, type ForecastPlotSeries, type LogLinearFit,
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
-import { choice, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
+import { choice, oracleOptions, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
 import { registerText, searchProblem } from "./register.js";
 import { printLater } from "./output.js";
 
@@ -53,6 +53,13 @@ the number of variables, and where a quantum line crosses the classical one (an 
 Options:
 ${registerHelp("free")}
   --strategy wide|lean        oracle strategy (default wide: fewest T)
+  --construction NAME         the oracle's construction instead (as clausegate oracle --construction:
+                              blocks-B, blocks-B1xB2, blocks-B-held-H, fanout-U, ...)
+  --max-qubits Q              the cheapest construction whose one-iteration search circuit (search, work
+                              qubits; Clifford+T) has at most Q logical qubits; exit 2, naming the smallest
+                              Q that works, when none fits
+  --prefer t-count|t-depth    what cheapest means (default t-count); without --max-qubits, among every
+                              construction
   --uncompute unitary|measured
                               unitary inverse (default) or measurement and fix-up (Gidney 2018)
   --basis mcx|toffoli|clifford+t
@@ -113,7 +120,7 @@ interface Gathered {
  * Undefined M = 0: nothing to search for.
  */
 export async function forecastInputOf(
-  cnf: Cnf, strategy: Strategy, uncompute: Uncompute, registerOptions: { register: RegisterMode; structure: boolean } = { register: "free", structure: true },
+  cnf: Cnf, strategy: Strategy, uncompute: Uncompute, registerOptions: { register: RegisterMode; structure: boolean } = { register: "free", structure: true }, construction?: string,
 ): Promise<Gathered | { unsatisfiable: true } | { tooLarge: number }> {
   const problem = searchProblem(cnf, registerOptions);
   if (problem.n > MAX_FORECAST_QUBITS) return { tooLarge: problem.n };
@@ -124,7 +131,10 @@ export async function forecastInputOf(
   const plan = planSearch(problem.n, M);
   // k as a double: exact below 2^53, and beyond that the model's times are estimates anyway.
   const k = plan.iterations === undefined ? 0 : plan.iterations.exact !== undefined ? Number(plan.iterations.exact) : 2 ** plan.iterations.log2;
-  const costs = searchCosts(cnf, 1, plan.successProbability, uncompute, registerOptions).find((c) => c.strategy === strategy)!;
+  // A named construction (or one chosen within a budget) is costed by itself; else the strategy's row.
+  const costs = construction !== undefined
+    ? constructionSearchCost(cnf, construction, 1, plan.successProbability, uncompute, registerOptions)
+    : searchCosts(cnf, 1, plan.successProbability, uncompute, registerOptions).find((c) => c.strategy === strategy)!;
   const work = (p: { t_count: number; t_depth: number; toffoli_count: number; cnot_count: number; depth: number }) => ({
     tCount: p.t_count, tDepth: p.t_depth, toffoliCount: p.toffoli_count, cnotCount: p.cnot_count, depth: p.depth,
   });
@@ -139,7 +149,7 @@ export async function forecastInputOf(
       iteration: work(costs.circuit),
       iterations: k,
       successProbability: plan.successProbability,
-      source: `clausegate: Clifford+T lowering of a one-iteration search circuit (strategy ${strategy}, uncompute ${uncompute}, ${problem.mode} register${registerOptions.structure ? "" : ", no structure"}); k and P from the Grover plan over N = 2^${problem.n} with ${solutionsText} (Boyer, Brassard, Hoyer & Tapp 1998)`,
+      source: `clausegate: Clifford+T lowering of a one-iteration search circuit (${construction === undefined || construction === "wide" || construction === "lean" ? `strategy ${construction ?? strategy}` : `construction ${construction}`}, uncompute ${uncompute}, ${problem.mode} register${registerOptions.structure ? "" : ", no structure"}); k and P from the Grover plan over N = 2^${problem.n} with ${solutionsText} (Boyer, Brassard, Hoyer & Tapp 1998)`,
     },
     searchQubits: problem.n,
     register,
@@ -476,6 +486,7 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     options: {
       ...REGISTER_ARGS,
       strategy: { type: "string" }, basis: { type: "string" }, uncompute: { type: "string" },
+      construction: { type: "string" }, "max-qubits": { type: "string" }, prefer: { type: "string" },
       "error-rate": { type: "string" }, "cycle-time": { type: "string" }, "reaction-time": { type: "string" },
       "failure-budget": { type: "string" }, "logical-model": { type: "string" }, "classical-time": { type: "string" },
       json: { type: "boolean" }, plot: { type: "string" }, help: { type: "boolean", short: "h" },
@@ -487,10 +498,12 @@ export async function forecastCommand(argv: string[]): Promise<number> {
   }
   if (positionals.length === 0) throw new UserError("clausegate forecast: error: expected one or more input files (or - for standard input); hint: see clausegate forecast --help");
   if (positionals.filter((p) => p === "-").length > 1) throw new UserError("clausegate forecast: error: standard input (-) can be read only once; hint: name the files");
-  const reg = registerOptions(values, "free");
-  const strategy = choice(values.strategy, "--strategy", ["wide", "lean"] as const, "wide");
-  const uncompute = choice(values.uncompute, "--uncompute", ["unitary", "measured"] as const, "unitary");
-  const basis = choice(values.basis, "--basis", ["mcx", "toffoli", "clifford+t"] as const, "toffoli");
+  // The oracle options as the other commands read them (--strategy against --construction, ...).
+  const oracle: CliOracleOptions = oracleOptions(values, "free");
+  const reg = { register: oracle.register, structure: oracle.structure };
+  const strategy = oracle.strategy ?? "wide";
+  const { uncompute, basis } = oracle;
+  const chooses = oracle.maxQubits !== undefined || oracle.prefer !== undefined;
   const logicalModel = choice(values["logical-model"], "--logical-model", Object.keys(LOGICAL_ERROR_MODELS) as LogicalErrorModelName[], "fowler-gidney-2018");
   const machine: Partial<Machine> = {};
   const p = realOption(values["error-rate"], "--error-rate", MAX_TABULATED_ERROR_RATE, `${MAX_TABULATED_ERROR_RATE} (the distillation table's highest rate)`);
@@ -516,14 +529,16 @@ export async function forecastCommand(argv: string[]): Promise<number> {
   for (const [i, file] of positionals.entries()) {
     const cnf = await loadCnf(file);
     checkCircuitSize(cnf, file, "forecast");
-    const gathered = await forecastInputOf(cnf, strategy, uncompute, reg);
+    const construction = constructionFor(cnf, file, oracle, chooses);
+    const gathered = await forecastInputOf(cnf, strategy, uncompute, reg, construction);
     if ("tooLarge" in gathered) {
       throw new UserError(`${displayName(file)}: error: the search register would have ${gathered.tooLarge} qubits; forecast works with at most ${MAX_FORECAST_QUBITS} (N = 2^n must fit a double); hint: ${reg.register === "full" ? "try --register free (the default), or " : ""}declare only the variables the formula uses`);
     }
     const measured = measureEvaluationRate(cnf, MEASURE_SECONDS);
     const solverSeconds = solver?.[i];
     const extra: Assumption[] = [
-      { name: "oracle_options", value: `strategy ${strategy}, uncompute ${uncompute}, basis ${basis}`, source: `${values.strategy || values.uncompute || values.basis ? "given" : "default"}; the model always uses the Clifford+T lowering (a T gate consumes one magic state), whatever the basis` },
+      { name: "oracle_options", value: `${construction === undefined ? `strategy ${strategy}` : `construction ${construction}`}, uncompute ${uncompute}, basis ${basis}`, source: `${values.strategy || values.construction || values.uncompute || values.basis ? "given" : "default"}; the model always uses the Clifford+T lowering (a T gate consumes one magic state), whatever the basis` },
+      ...constructionAssumptions(oracle, construction),
       {
         name: "search_register", value: `${reg.register}${reg.structure ? "" : ", no structure"}`,
         source: `${values.register !== undefined || values["no-structure"] ? "given" : "default (the free register, as clausegate plan and search)"}; ${reg.register === "free" ? "the variables left free by unit propagation and structure recovery; the oracle computes the others" : "every declared variable"}`,
@@ -581,4 +596,41 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     writeAtomic(values.plot, (w) => w(svg), "the plot");
   }
   return unsatisfiable ? EXIT_UNSATISFIABLE : 0;
+}
+
+/**
+ * The construction a forecast costs: the one named, or (with --max-qubits or --prefer) the
+ * cheapest whose one-iteration Clifford+T search circuit fits the budget, as clausegate search
+ * settles it; undefined for the strategy's row. A budget nothing meets is a usage error naming the
+ * smallest that works.
+ */
+function constructionFor(cnf: Cnf, file: string, o: CliOracleOptions, chooses: boolean): string | undefined {
+  if (!chooses) {
+    const named = o.construction === undefined ? undefined : parseConstruction(o.construction);
+    if (typeof named === "string") throw new UserError(`clausegate forecast: error: ${named}; hint: see clausegate oracle --help for the construction names`);
+    return o.construction;
+  }
+  const r = searchConstruction(cnf, { ...o, basis: "clifford+t", iterations: 1, measure: false });
+  if (!r.ok) {
+    const hint = r.smallestQubits === undefined ? "see clausegate oracle --help for the construction names" : `give --max-qubits ${r.smallestQubits} or more`;
+    throw new UserError(`${displayName(file)}: error: ${r.message}; hint: ${hint}`);
+  }
+  return r.construction;
+}
+
+/** The budget options in the assumptions: the construction costed, and the budget and preference that chose it. */
+function constructionAssumptions(o: CliOracleOptions, construction: string | undefined): Assumption[] {
+  if (construction === undefined) return [];
+  const chosen = o.construction === undefined;
+  const budget = o.maxQubits !== undefined ? `whose one-iteration search circuit has at most ${o.maxQubits} logical qubits` : "among every candidate";
+  return [
+    {
+      name: "construction", value: construction,
+      source: chosen
+        ? `chosen: the cheapest construction by ${o.prefer ?? "t-count"} ${budget} (Clifford+T, as clausegate search --max-qubits chooses it)`
+        : `given (--construction)${o.maxQubits !== undefined ? ", its one-iteration search circuit checked against --max-qubits" : ""}`,
+    },
+    ...(o.maxQubits !== undefined ? [{ name: "max_logical_qubits", value: o.maxQubits, source: "given (--max-qubits): search, work qubits of the search circuit" }] : []),
+    ...(o.prefer !== undefined ? [{ name: "prefer", value: o.prefer, source: "given (--prefer)" }] : []),
+  ];
 }

@@ -1,11 +1,16 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
 import { parseArgs } from "node:util";
-import { compileOracle, costTable, oracleResources, reduceSearch, registerOf, type Cnf, type CostRow, type Oracle } from "../internal.js";
-import { checkCircuitSize, displayName, loadCnf, progress, writeAtomic } from "./io.js";
+import {
+  chooseAmong, constructionRow, costConstructions, costFront, costTable, oracleResources, plotFrontSvg, reduceSearch, registerOf, type Cnf, type ConstructionCost,
+  type CostRow, type Oracle, type RegisterMode,
+} from "../internal.js";
+import { checkCircuitSize, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
 import { checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
-import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
-import { problemOfOracle, registerJson, registerText, structureJson, structureText, type SearchProblem } from "./register.js";
+import {
+  choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions,
+} from "./options.js";
+import { problemOfOracle, registerJson, registerText, searchProblem, structureJson, structureText, type SearchProblem } from "./register.js";
 
 export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
 
@@ -35,6 +40,8 @@ ${registerHelp("full")}
 `;
 
 export const costHelp = `Usage: clausegate cost FILE|- [--kind phase|flag] [--register full|free] [--no-structure] [--json]
+       clausegate cost FILE|- --max-qubits Q [--prefer t-count|t-depth] [--uncompute U] [--kind K] [--register R] [--no-structure] [--json]
+       clausegate cost FILE|- --front [--json] [--plot FILE.svg] [--kind K] [--uncompute U] [--basis B] [--register R] [--no-structure]
 
 Prints what an oracle for the formula costs, one row per strategy and uncomputation, with the
 structure recovered from the clauses (gate definitions, parities, one-hot groups compiled natively)
@@ -46,21 +53,40 @@ circuits (memory for a few numbers per qubit); a row the counting cannot make ex
 bound"; "exact": false in --json). When recovery finds nothing, the rows with structure would repeat
 those without it and are left out (said in a note; "recovered": {"used": false} in --json).
 
+With --max-qubits: the construction clausegate oracle --max-qubits Q builds, one row per
+uncomputation (or the one given). With --front: every construction clausegate knows for the
+formula (wide, lean, blocks of clauses at one to three levels, held clauses, fan-out copies) is
+counted, and the non-dominated points (no other has at most as many qubits, T gates and T-depth
+and fewer of one) are printed with the oracle arguments that reproduce each exactly. Counting
+every candidate takes as long as some hundred oracles.
+
 Options:
   --kind phase|flag           the oracle's kind (default phase)
 ${registerHelp("full")}
-                              (with it, cost shows the rows without structure only)
+                              (without --front or --max-qubits, cost shows the rows without structure
+                              only; with them, the constructions of the clauses alone)
   --json                      print JSON: variables, clauses, kind, register_mode, register (the DIMACS
                               variable of each search qubit), recovered, rows (each with structure:
-                              true|false)
+                              true|false); --front: points, each with qubits, t_count, t_depth,
+                              construction, options; and the references
+  --max-qubits Q              the cheapest construction within Q qubits; exit 2 naming the smallest Q that works
+  --prefer t-count|t-depth    what cheapest means (default t-count; ties: the other, then qubits)
+  --front                     the cost front (qubits, T-count, T-depth)
+  --plot FILE.svg             with --front: T-count and T-depth against qubits, wide, lean and textbook marked
+  --uncompute unitary|measured
+                              with --front or --max-qubits: the uncomputation counted (--front: default
+                              measured, which never costs more T; --max-qubits: both unless given)
+  --basis mcx|toffoli|clifford+t
+                              with --front: the basis the points' arguments name (default clifford+t, whose
+                              emitted circuit has exactly the figures; the figures are Clifford+T's anyway)
   -h, --help                  show this help
 `;
 
 function describe(o: Oracle, cnf: Cnf): string[] {
-  const { kind, strategy, basis, uncompute } = o.options;
+  const { kind, construction, basis, uncompute } = o.options;
   return [
     `clausegate ${kind} oracle: ${o.variables} variables, ${o.clauses} clauses`,
-    `strategy ${strategy}, basis ${basis}, uncompute ${uncompute}${o.options.optimize ? "" : ", not optimized"}`,
+    `${constructionPhrase(construction)}, basis ${basis}, uncompute ${uncompute}${o.options.optimize ? "" : ", not optimized"}`,
     `search register: ${registerText(problemOfOracle(cnf, o), true)}`,
     `structure: ${structureText(o.structure)}`,
   ];
@@ -102,7 +128,7 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   const options = oracleOptions(values);
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "oracle");
-  const oracle = compileOracle(cnf, options);
+  const oracle = compileWithOptions(cnf, options, "oracle");
   noteSimplification(oracle, file);
   const completionOf = options.register === "free" ? oracle.completion : undefined;
   if (values.prove) {
@@ -145,7 +171,10 @@ export async function costCommand(argv: string[]): Promise<number> {
   const { values, positionals } = parseArgs({
     args: argv,
     allowPositionals: true,
-    options: { kind: { type: "string" }, ...REGISTER_ARGS, json: { type: "boolean" }, help: { type: "boolean", short: "h" } },
+    options: {
+      kind: { type: "string" }, ...REGISTER_ARGS, json: { type: "boolean" }, front: { type: "boolean" }, plot: { type: "string" }, "max-qubits": { type: "string" },
+      prefer: { type: "string" }, uncompute: { type: "string" }, basis: { type: "string" }, help: { type: "boolean", short: "h" },
+    },
   });
   if (values.help) {
     process.stdout.write(costHelp);
@@ -154,8 +183,22 @@ export async function costCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "cost");
   const kind = choice(values.kind, "--kind", ["phase", "flag"], "phase");
   const reg = registerOptions(values, "full");
+  if (values.plot !== undefined && !values.front) throw new UserError("clausegate cost: error: --plot draws the cost front; hint: add --front");
+  if (values.front && values["max-qubits"] !== undefined) throw new UserError("clausegate cost: error: --front lists every budget's best point and --max-qubits one budget's; hint: give one of them");
+  if (values.prefer !== undefined && values["max-qubits"] === undefined) throw new UserError("clausegate cost: error: --prefer chooses within --max-qubits; hint: add --max-qubits Q (or see every point with --front)");
+  if (values.basis !== undefined && !values.front) throw new UserError("clausegate cost: error: --basis only names the basis in --front's arguments (the figures are those of the Clifford+T circuit); hint: add --front or leave out --basis");
+  if (values.uncompute !== undefined && !values.front && values["max-qubits"] === undefined) {
+    throw new UserError("clausegate cost: error: the table shows both uncomputations; hint: leave out --uncompute, or add --front or --max-qubits");
+  }
+  const uncompute = values.uncompute === undefined ? undefined : choice(values.uncompute, "--uncompute", ["unitary", "measured"] as const, "measured");
+  const basis = values.basis === undefined ? undefined : choice(values.basis, "--basis", ["mcx", "toffoli", "clifford+t"] as const, "clifford+t");
+  const maxQubits = intOption(values["max-qubits"], "--max-qubits", 1, 1 << 30);
+  const prefer = choice(values.prefer, "--prefer", ["t-count", "t-depth"] as const, "t-count");
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "cost");
+  const head = `${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${cnf.clauseStart.length - 1} clauses`;
+  if (values.front) return frontCommand(cnf, file, head, { kind, uncompute: uncompute ?? "measured", basis: basis ?? "clifford+t", json: values.json === true, plot: values.plot, ...reg });
+  if (maxQubits !== undefined) return budgetCommand(cnf, head, { kind, uncompute, maxQubits, prefer, json: values.json === true, ...reg });
   // What recovery gives (the register too): rows with structure only when it gives something.
   const withStructure = reg.structure ? registerOf(cnf, { register: reg.register, structure: true }) : undefined;
   const recovered = withStructure?.structure ?? null;
@@ -195,19 +238,106 @@ export async function costCommand(argv: string[]): Promise<number> {
   }
   // A column for rows whose figures are upper bounds, only when there is one.
   const bounds = rows.some((r) => !r.exact);
-  const head = ["strategy", "uncompute", "structure", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth", ...(bounds ? ["figures"] : [])];
+  const headCells = ["strategy", "uncompute", "structure", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth", ...(bounds ? ["figures"] : [])];
   const body = rows.map((r) => [
     ...[r.strategy, r.uncompute, r.strategy === "textbook" ? "-" : r.structure ? "yes" : "no", r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String),
     ...(bounds ? [r.exact ? "exact" : "upper bound"] : []),
   ]);
-  const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
-  const line = (cells: string[]): string => cells.map((c, i) => (i < 3 ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join("  ");
-  process.stdout.write(`${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${clauses} clauses\n`);
+  process.stdout.write(`${head}\n`);
   for (const p of reg.register === "free" ? problems : problems.slice(0, 1)) {
     const which = reg.register === "free" && both ? (p.structure ? " (rows with structure)" : " (rows without structure)") : "";
     process.stdout.write(`search register${which}: ${p.n} qubit${p.n === 1 ? "" : "s"}, ${registerText(p)}\n`);
   }
   process.stdout.write(`structure: ${structureText(recovered)}${recovered !== null && !recovered.used ? " (the rows with structure would repeat those below)" : ""}\n`);
-  process.stdout.write(`${line(head)}\n${body.map(line).join("\n")}\n`);
+  process.stdout.write(`${table(headCells, body, (i) => i < 3)}\n`);
+  return 0;
+}
+
+/** Lines of a table: columns where `left(i)` left-aligned, the others right-aligned. */
+function table(head: string[], body: string[][], left: (column: number) => boolean): string {
+  const widths = head.map((h, i) => Math.max(h.length, ...body.map((b) => b[i]!.length)));
+  const line = (cells: string[]): string => cells.map((c, i) => (left(i) ? c.padEnd(widths[i]!) : c.padStart(widths[i]!))).join("  ").trimEnd();
+  return [line(head), ...body.map(line)].join("\n");
+}
+
+/** `cost --front`: the non-dominated constructions, as a table, JSON or a plot. */
+/** The register options of a cost run. */
+interface RegisterChoice {
+  readonly register: RegisterMode;
+  readonly structure: boolean;
+}
+
+/** The register line of `cost --front` and `cost --max-qubits`, and its JSON fields (the oracle's register and what recovery gave). */
+function registerOfCost(cnf: Cnf, o: RegisterChoice): { text: string; json: Record<string, unknown> } {
+  const p = searchProblem(cnf, o);
+  const recovered = o.structure ? registerOf(cnf, o).structure : null;
+  const { register_mode, register } = registerJson(p);
+  return {
+    text: `search register: ${p.n} qubit${p.n === 1 ? "" : "s"}, ${registerText(p)}\nstructure: ${structureText(recovered)}`,
+    json: { register_mode, register, recovered: structureJson(recovered) },
+  };
+}
+
+function frontCommand(cnf: Cnf, file: string, head: string, o: RegisterChoice & { kind: "phase" | "flag"; uncompute: "unitary" | "measured"; basis: string; json: boolean; plot: string | undefined }): number {
+  const bar = progress("costing constructions");
+  let front;
+  try {
+    front = costFront(cnf, { kind: o.kind, uncompute: o.uncompute, basis: o.basis, register: o.register, structure: o.structure, onProgress: bar.update });
+  } finally {
+    bar.stop();
+  }
+  if (o.plot !== undefined) {
+    const svg = plotFrontSvg({
+      title: `cost front: ${displayName(file)} (${o.kind}, ${o.uncompute} uncomputation, ${o.register} register${o.structure ? "" : ", no structure"}, Clifford+T)`,
+      points: front.points,
+      candidates: front.candidates,
+      references: [front.references.wide, front.references.lean, front.references.textbook].map((r) => ({ label: r.construction, qubits: r.qubits, t_count: r.t_count, t_depth: r.t_depth })),
+    });
+    writeAtomic(o.plot, (w) => w(svg), "the plot");
+  }
+  const reg = registerOfCost(cnf, o);
+  if (o.json) {
+    const ref = (r: ConstructionCost) => ({ construction: r.construction, qubits: r.qubits, t_count: r.t_count, t_depth: r.t_depth });
+    const { wide, lean, textbook } = front.references;
+    process.stdout.write(`${JSON.stringify({
+      variables: cnf.variables, clauses: cnf.clauseStart.length - 1, kind: o.kind, uncompute: o.uncompute, points: front.points,
+      references: { wide: ref(wide), lean: ref(lean), textbook: ref(textbook) }, ...reg.json,
+    }, null, 2)}\n`);
+    return 0;
+  }
+  const rows = front.points.map((p) => [String(p.qubits), String(p.t_count), String(p.t_depth), p.construction, p.options]);
+  process.stdout.write(`${head}\n${reg.text}\ncost front: ${front.points.length} of ${front.candidates.length} constructions are not dominated (${o.uncompute} uncomputation; Clifford+T figures)\n`);
+  process.stdout.write(`${table(["qubits", "T-count", "T-depth", "construction", "oracle arguments"], rows, (i) => i >= 3)}\n`);
+  return 0;
+}
+
+/** `cost --max-qubits`: the construction chosen within the budget, per uncomputation. */
+function budgetCommand(cnf: Cnf, head: string, o: RegisterChoice & { kind: "phase" | "flag"; uncompute: "unitary" | "measured" | undefined; maxQubits: number; prefer: "t-count" | "t-depth"; json: boolean }): number {
+  const modes = o.uncompute === undefined ? (["unitary", "measured"] as const) : [o.uncompute];
+  const bar = progress("costing constructions");
+  const rows = [];
+  try {
+    for (const uncompute of modes) {
+      const choice = chooseAmong(costConstructions(cnf, { kind: o.kind, uncompute, register: o.register, structure: o.structure }), o.maxQubits, o.prefer);
+      if (!choice.ok) {
+        throw new UserError(`clausegate cost: error: no construction fits in ${o.maxQubits} qubits; the smallest (${choice.smallest.construction}) needs ${choice.smallestQubits}; hint: give --max-qubits ${choice.smallestQubits} or more`);
+      }
+      rows.push(constructionRow(cnf, o.kind, choice.chosen, uncompute, o));
+    }
+  } finally {
+    bar.stop();
+  }
+  const reg = registerOfCost(cnf, o);
+  if (o.json) {
+    process.stdout.write(`${JSON.stringify({ variables: cnf.variables, clauses: cnf.clauseStart.length - 1, kind: o.kind, max_qubits: o.maxQubits, prefer: o.prefer, ...reg.json, rows }, null, 2)}\n`);
+    return 0;
+  }
+  const bounds = rows.some((r) => !r.exact);
+  const body = rows.map((r) => [
+    ...[r.construction, r.uncompute, r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String),
+    ...(bounds ? [r.exact ? "exact" : "upper bound"] : []),
+  ]);
+  process.stdout.write(`${head}\n${reg.text}\nwithin ${o.maxQubits} qubits, preferring ${o.prefer}:\n`);
+  process.stdout.write(`${table(["construction", "uncompute", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth", ...(bounds ? ["figures"] : [])], body, (i) => i < 2)}\n`);
   return 0;
 }

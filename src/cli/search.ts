@@ -8,7 +8,10 @@ import {
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
 import { printLater } from "./output.js";
-import { choice, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
+import {
+  basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
+  registerHelp, registerOptions, settleSearchOptions, type CliOracleOptions,
+} from "./options.js";
 import { checkFormat, writeCircuit } from "./circuits.js";
 import { registerJson, registerText, searchProblem, type SearchProblem } from "./register.js";
 import { checkShots, completionLines, COMPLETE_ARGS, shotLines, SHOTS_HELP, shotsOptions } from "./shots.js";
@@ -452,7 +455,7 @@ const iterationsWithin = (e: SizeEstimate, limit: number): number => Math.max(0,
  * that needs no compilation (each iteration has a diffusion of at least 2n + 2 gates), then from
  * the size of one compiled iteration; with a report, also the Clifford+T circuits it costs.
  */
-function checkSearchSize(file: string, cnf: Cnf, n: number, o: Required<OracleOptions>, K: number, report: boolean): void {
+function checkSearchSize(file: string, cnf: Cnf, n: number, o: CliOracleOptions, K: number, report: boolean): void {
   const hint = (fits: number): string => `hint: ${fits > 0 ? `--iterations ${fits} or fewer fits` : "no number of iterations fits"}, or clausegate plan ${displayName(file)} gives the numbers only`;
   const lower = K * (2 * n + 2) + 2 * n;
   if (lower > MAX_SEARCH_GATES) {
@@ -465,7 +468,7 @@ function checkSearchSize(file: string, cnf: Cnf, n: number, o: Required<OracleOp
   }
   if (!report) return;
   for (const strategy of ["wide", "lean"] as const) {
-    const ct = estimateSearch(cnf, { ...o, strategy, basis: "clifford+t" }, K);
+    const ct = estimateSearch(cnf, { ...basicOptions(o), strategy, basis: "clifford+t" }, K);
     if (ct.gates > MAX_SEARCH_GATES) {
       throw new UserError(`clausegate search: error: the report costs the ${strategy} Clifford+T circuit of about ${ct.gates} gates (${plural(K, "iteration")}); clausegate search costs at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(ct, MAX_SEARCH_GATES))} (or leave out --report)`);
     }
@@ -488,7 +491,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "search");
   const format = choice(values.format, "--format", ["qasm3", "qasm2", "json"] as const, "qasm3");
   if (values.kind !== undefined) throw new UserError("clausegate search: error: --kind is not an option of search: a search always uses the phase oracle; hint: leave out --kind");
-  const o = oracleOptions(values, "free");
+  let o = oracleOptions(values, "free");
   const sampling = shotsOptions(values);
   if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
   const original = await loadCnf(file);
@@ -504,13 +507,14 @@ export async function searchCommand(argv: string[]): Promise<number> {
     return r.allModels ? 0 : 1;
   }
   const { K, solutions, plan } = await iterationsFor(problem, values.iterations, values.solutions, "search", values.report !== undefined);
+  o = settleSearchOptions(original, o, "search");
   checkSearchSize(file, original, problem.n, o, K, values.report !== undefined);
   if (sampling.shots !== undefined) checkShots(file, original, problem, o, K);
   const circuit = compileSearch(original, { ...o, iterations: K });
   checkFormat(circuit, format);
   const comments = [
     `clausegate search circuit: ${plural(problem.n, "search qubit")}, ${plural(K, "iteration")}`,
-    `strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}${o.structure ? "" : ", no structure"}; outcome[i] holds vars[i]`,
+    `${constructionPhrase(constructionLabel(o))}, basis ${o.basis}, uncompute ${o.uncompute}${o.structure ? "" : ", no structure"}; outcome[i] holds vars[i]`,
     `search register: ${registerText(problem, true)}`,
     ...(problem.mode === "free" ? ["a measured value completes to a model: register variables as measured, fixed ones forced, defined ones computed in order, others 0 (clausegate search --complete BITS)"] : []),
   ];
@@ -534,7 +538,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
  * expected at the success probability of those K iterations, sin^2((2K+1) theta), with theta from
  * M (--solutions or the exact count). K need not be the plan's k.
  */
-function wholeRunReport(original: Cnf, problem: SearchProblem, K: number, s: SolutionsFound | undefined, plan: SearchPlan | undefined, o: Required<OracleOptions>) {
+function wholeRunReport(original: Cnf, problem: SearchProblem, K: number, s: SolutionsFound | undefined, plan: SearchPlan | undefined, o: CliOracleOptions) {
   const built = s?.M !== undefined ? successAfterIterations(problem.n, s.M, K) : undefined;
   const costs = searchCosts(original, K, built?.success ?? 0, o.uncompute, { register: o.register, structure: o.structure });
   const runsLog2 = built ? -built.log2Success : Infinity;
@@ -568,22 +572,31 @@ function wholeRunReport(original: Cnf, problem: SearchProblem, K: number, s: Sol
       expected_toffoli_count: jsonReal(c.expected_toffoli_count),
       expected_depth: jsonReal(c.expected_depth),
     })),
+    // The circuit's construction (its costs above are those of wide and lean).
+    construction: constructionLabel(o),
     ...registerJson(problem),
   };
 }
 
-/** Option sets tried when a drawing is refused, each with the flags that select it. */
-function drawCandidates(o: Required<OracleOptions>): { options: Required<OracleOptions>; flags: string[] }[] {
-  const out: { options: Required<OracleOptions>; flags: string[] }[] = [];
-  for (const strategy of ["wide", "lean"] as const) {
+/**
+ * Option sets tried when a drawing is refused, each with the flags that select it. A construction
+ * the options fix (by name or budget) stays; otherwise the strategy varies too.
+ */
+function drawCandidates(o: CliOracleOptions): { options: CliOracleOptions; flags: string[] }[] {
+  const out: { options: CliOracleOptions; flags: string[] }[] = [];
+  const fixed = o.construction !== undefined || o.maxQubits !== undefined || o.prefer !== undefined;
+  // A construction settled by a budget is drawn as it is (another basis only ever needs fewer qubits).
+  const { maxQubits: _budget, ...base } = o;
+  const current = o.strategy ?? "wide";
+  for (const strategy of fixed ? [undefined] : (["wide", "lean"] as const)) {
     for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
       for (const uncompute of ["unitary", "measured"] as const) {
         const flags = [
-          ...(strategy !== o.strategy ? [`--strategy ${strategy}`] : []),
+          ...(strategy !== undefined && strategy !== current ? [`--strategy ${strategy}`] : []),
           ...(basis !== o.basis ? [`--basis ${basis}`] : []),
           ...(uncompute !== o.uncompute ? [`--uncompute ${uncompute}`] : []),
         ];
-        if (flags.length > 0) out.push({ options: { ...o, strategy, basis, uncompute }, flags });
+        if (flags.length > 0) out.push({ options: { ...(o.construction !== undefined ? base : o), ...(strategy !== undefined ? { strategy } : {}), basis, uncompute }, flags });
       }
     }
   }
@@ -597,14 +610,14 @@ const fits = (c: Circuit): boolean => drawProblem(c) === null;
  * whose search register fits a diagram): fewest changed options first, then fewest gates; for a
  * search also fewer iterations.
  */
-function drawSuggestion(cnf: Cnf, n: number, o: Required<OracleOptions>, search: boolean, K: number): string {
+function drawSuggestion(cnf: Cnf, n: number, o: CliOracleOptions, search: boolean, K: number): string {
   const none = search
     ? `no strategy, basis or number of iterations draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate plan and clausegate cost give the numbers`
     : `no strategy, basis or uncomputation draws it within ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; clausegate cost gives the numbers, or draw a smaller formula`;
   if (n > DRAW_LIMITS.qubits) return none;
   const found: { flags: string[]; circuit: Circuit }[] = [];
   const fewest = (): number => Math.min(Infinity, ...found.map((f) => f.flags.length));
-  const build = (opts: Required<OracleOptions>, k: number): Circuit => (search ? compileSearch(cnf, { ...opts, iterations: k }) : compileOracle(cnf, opts).circuit);
+  const build = (opts: CliOracleOptions, k: number): Circuit => (search ? compileSearch(cnf, { ...opts, iterations: k }) : compileOracle(cnf, opts).circuit);
   for (const c of drawCandidates(o)) {
     if (c.flags.length > fewest()) break;
     const circuit = build(c.options, K);
@@ -642,7 +655,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "draw");
   if (values.output === undefined) throw new UserError("clausegate draw: error: expected -o FILE.svg; hint: name the drawing's file, e.g. -o oracle.svg");
   if (values.iterations !== undefined && values.search !== true) throw new UserError("clausegate draw: error: --iterations sets the iterations of a search; hint: add --search, or leave out --iterations to draw the oracle");
-  const o = oracleOptions(values);
+  let o = oracleOptions(values);
   if (values.search && o.kind === "flag") throw new UserError("clausegate draw: error: a search uses the phase oracle; hint: leave out --kind flag, or leave out --search to draw the flag oracle");
   const cnf = await loadCnf(file);
   const what = values.search ? "search circuit" : "oracle";
@@ -664,11 +677,16 @@ export async function drawCommand(argv: string[]): Promise<number> {
     if (lower > DRAW_LIMITS.gates) {
       throw new UserError(`clausegate draw: error: refusing to draw: ${plural(K, "iteration")} on ${plural(n, "qubit")} make more than ${lower} gates; diagrams stay readable up to ${DRAW_LIMITS.gates} gates; hint: ${drawSuggestion(cnf, n, o, true, K)}`);
     }
+    o = settleSearchOptions(cnf, o, "draw");
     circuit = compileSearch(cnf, { ...o, iterations: K });
-    title = `search for ${displayName(file)}: ${plural(K, "iteration")}, ${o.strategy}, ${o.basis}, ${o.uncompute}${registerWords}`;
+    title = `search for ${displayName(file)}: ${plural(K, "iteration")}, ${constructionLabel(o)}, ${o.basis}, ${o.uncompute}${registerWords}`;
   } else {
-    circuit = compileOracle(cnf, o).circuit;
-    title = `${o.kind} oracle for ${displayName(file)}: ${o.strategy}, ${o.basis}, ${o.uncompute}${registerWords}`;
+    const oracle = compileWithOptions(cnf, o, "draw");
+    // Suggestions keep the construction chosen, with the budget that chose it.
+    const { prefer: _prefer, strategy: _strategy, ...rest } = o;
+    o = { ...rest, construction: oracle.options.construction };
+    circuit = oracle.circuit;
+    title = `${o.kind} oracle for ${displayName(file)}: ${oracle.options.construction}, ${o.basis}, ${o.uncompute}${registerWords}`;
   }
   const problem = drawProblem(circuit);
   if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}; hint: ${drawSuggestion(cnf, n, o, values.search === true, K)}`);

@@ -73,7 +73,7 @@ export function completionLines(file: string, cnf: Cnf, p: SearchProblem, raw: r
 }
 
 /** Refuses, before building, a simulation too large for --shots. */
-export function checkShots(file: string, cnf: Cnf, p: SearchProblem, o: Required<OracleOptions>, K: number): void {
+export function checkShots(file: string, cnf: Cnf, p: SearchProblem, o: OracleOptions, K: number): void {
   checkListable(file, cnf, "--shots");
   const free = p.mode === "full" ? "try --register free (the default), or " : "";
   if (p.n > MAX_SHOT_QUBITS) {
@@ -92,7 +92,7 @@ export function checkShots(file: string, cnf: Cnf, p: SearchProblem, o: Required
  * |0>, and mid-circuit measurements of the measured uncomputation leave the register's
  * distribution as it is). Draws `shots` values from it with `seed` and completes each.
  */
-export function shotLines(file: string, cnf: Cnf, p: SearchProblem, o: Required<OracleOptions>, K: number, shots: number, seed: number): string[] {
+export function shotLines(file: string, cnf: Cnf, p: SearchProblem, o: OracleOptions, K: number, shots: number, seed: number): string[] {
   const c = compileSearch(cnf, { ...o, iterations: K, measure: false });
   const random = seededRandom(seed);
   const run = runSparse(c, [basisTerm(c.qubits, [])], random);

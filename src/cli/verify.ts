@@ -2,10 +2,10 @@
 import { readFile } from "node:fs/promises";
 import { parseArgs } from "node:util";
 import {
-  compileOracle, DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, type Circuit, type Completion,
+  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, type Circuit, type Completion,
 } from "../internal.js";
 import { checkCircuitSize, loadCnf, UserError } from "./io.js";
-import { choice, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
+import { choice, compileWithOptions, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { checkJson, checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
 export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT [--kind phase|flag]] [options]
@@ -41,8 +41,8 @@ oracle gives with the same options).
 Options:
   --circuit FILE              the circuit to check (.json or OpenQASM 3)
 ${ORACLE_HELP}
-                              (--strategy, --basis, --uncompute, --no-optimize and
-                              --check-passes apply only without --circuit)
+                              (--strategy, --construction, --max-qubits, --prefer, --basis, --uncompute,
+                              --no-optimize and --check-passes apply only without --circuit)
 ${registerHelp("full")}
   --exhaustive-limit N        check every assignment up to N variables (default ${DEFAULT_EXHAUSTIVE_LIMIT}, at most ${MAX_EXHAUSTIVE_LIMIT})
   --samples K                 random assignments to sample above the limit (default 4096; 256 for state vectors)
@@ -60,7 +60,7 @@ kind of input left unchecked, with the reason; under --prove, not proven), 2 bad
 `;
 
 /** Oracle options that shape a compilation: meaningless when the circuit is given. */
-const COMPILE_ONLY = ["strategy", "basis", "uncompute", "no-optimize", "check-passes"] as const;
+const COMPILE_ONLY = ["strategy", "construction", "max-qubits", "prefer", "basis", "uncompute", "no-optimize", "check-passes"] as const;
 
 export async function verifyCommand(argv: string[]): Promise<number> {
   const { values, positionals } = parseArgs({
@@ -101,7 +101,7 @@ export async function verifyCommand(argv: string[]): Promise<number> {
     // The register the circuit claims: the one compileOracle gives with these options.
     if (reg.register === "free") completion = registerOf(cnf, reg).completion;
   } else {
-    const oracle = compileOracle(cnf, options);
+    const oracle = compileWithOptions(cnf, options, "verify");
     circuit = oracle.circuit;
     if (reg.register === "free") completion = oracle.completion;
   }

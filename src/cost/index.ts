@@ -15,11 +15,12 @@ import type { Cnf } from "../cnf/cnf.js";
 import type { Circuit } from "../ir/circuit.js";
 import { countCircuit } from "../emit/resources.js";
 import type { Basis, Uncompute } from "../passes/lower.js";
-import { planOracle, synthesizePlan, type AnyStrategy, type OracleKind, type OraclePlan, type RegisterMode, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
+import { planOracle, synthesizePlan, synthesizePlanned, type AnyStrategy, type OracleKind, type OraclePlan, type RegisterMode, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
 import { builtCounts } from "./built.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction, type OracleOps } from "./sources.js";
+import { constructionFamily, constructionName, countConstructionOracle, parseConstruction, type ConstructionFamily } from "./front.js";
 
 /** Options of the cost functions. */
 export interface CostOptions {
@@ -133,8 +134,10 @@ export interface ResourceReport {
   readonly clauses: number;
   /** The oracle's kind. */
   readonly kind: OracleKind;
-  /** Its strategy. */
-  readonly strategy: Strategy;
+  /** Its construction's family: wide, lean, blocks or fanout. */
+  readonly strategy: Strategy | ConstructionFamily;
+  /** Its construction, parameters included (e.g. `wide`, `blocks-6`, `fanout-1`). */
+  readonly construction: string;
   /** The basis it was emitted in. */
   readonly basis: Basis;
   /** How its temporary ANDs are uncomputed. */
@@ -180,6 +183,8 @@ export interface CompiledOracle {
     readonly kind: OracleKind;
     /** Wide or lean. */
     readonly strategy: Strategy;
+    /** The construction built (overrides strategy when given; see OracleOptions.construction). */
+    readonly construction?: string;
     /** The basis it was emitted in. */
     readonly basis: Basis;
     /** How temporary ANDs are uncomputed. */
@@ -440,12 +445,17 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
   const f = plan.clauses;
   const logicals = new Logicals(plan);
   const progress = new Progress(2, options.onProgress);
+  const named = o.construction === undefined ? null : parseConstruction(o.construction);
+  const construction = named === null || typeof named === "string" ? { family: o.strategy } as const : named;
   const counted = (basis: "toffoli" | "clifford+t"): { toffoliCount: number; tCount: number; tDepth: number; cnotCount: number } => {
     const step = progress.step(1);
     if (o.basis === basis) return emitted;
-    const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
+    // Constructions beyond wide and lean are counted by cost/front.ts (built when not exact and small).
+    if (construction.family === "blocks") return countConstructionOracle(plan, o.kind, construction, basis, o.uncompute, o.optimize, basis === "clifford+t");
+    const strategy = construction.family;
+    const r = countOracle({ f, kind: o.kind, strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
     if (r.exact) return r;
-    return builtCounts(logicals.get(o.kind, o.strategy).c, basis, o.uncompute, o.optimize);
+    return builtCounts(logicals.get(o.kind, strategy).c, basis, o.uncompute, o.optimize);
   };
   const cliffordT = counted("clifford+t");
   const toffoli = counted("toffoli");
@@ -455,7 +465,8 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
     variables: oracle.variables,
     clauses: oracle.clauses,
     kind: o.kind,
-    strategy: o.strategy,
+    strategy: constructionFamily(construction),
+    construction: constructionName(construction),
     basis: o.basis,
     uncompute: o.uncompute,
     qubits: { search: reg("search"), work: reg("work"), target: reg("target"), total: oracle.circuit.qubits },
@@ -496,50 +507,90 @@ function builtPart(logical: Circuit, uncompute: Uncompute): [PartCost, boolean] 
 export function searchCosts(cnf: Cnf, iterations: number, successProbability: number, uncompute: Uncompute, options: CostOptions = {}): SearchCost[] {
   const plan = planOf(cnf, options);
   const f = plan.clauses;
-  // The search register: the plan's (all variables, or the free ones).
-  const n = plan.structured === null ? f.variables : plan.register.length;
-  const runs = successProbability > 0 ? 1 / successProbability : Infinity;
   const logicals = new Logicals(plan);
   const strategies = ["wide", "lean"] as const;
   const oracleWeight = (s: Strategy): number => weight(f, s, true) + weight(f, s, false);
   const total = strategies.reduce((sum, s) => sum + (2 + iterations) * oracleWeight(s), 0);
   const progress = new Progress(total, options.onProgress);
   const costs = strategies.map((strategy): SearchCost => {
+    const n = searchRegister(plan);
     const ops = logicals.structured(strategy) ? replayOps(logicals.get("phase", strategy).c, n) : phaseOracleOps(f, strategy, () => logicals.get("phase", strategy).c);
-    const both = (emit: (low: LoweringStream, ids: VirtualIds, p?: Fraction) => void, w: number, lag?: number): [EngineResult, EngineResult] => {
-      const p1 = progress.step(w / 2);
-      const p2 = progress.step(w / 2);
-      return [
-        countOps(n, "clifford+t", uncompute, true, (low, ids) => emit(low, ids, p1), lag),
-        countOps(n, "toffoli", uncompute, false, (low, ids) => emit(low, ids, p2), lag),
-      ];
-    };
-    const [oct, otof] = both((low, ids, p) => ops(low, ids, p), oracleWeight(strategy));
-    const [dct, dtof] = both((low) => diffusionOps(n, low), 1);
-    // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
-    // templates, so that the cancellations at those seams stay inside the window.
-    const lag = Math.min(MAX_LAG, 2 ** Math.ceil(Math.log2(2 * (oct.instances + dct.instances) + DEFAULT_LAG)));
-    const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight(strategy), lag);
-    let oracle = part(oct, otof);
-    let diffusion = part(dct, dtof);
-    let whole = part(wct, wtof);
-    if (!oracle[1] && oct.instances <= BUILD_LIMIT) oracle = builtPart(logicals.get("phase", strategy).c, uncompute);
-    const recorded = (emit: (sink: LogicalRecorder, ids: VirtualIds) => void): Circuit => {
-      const rec = new LogicalRecorder(n, n, 0);
-      emit(rec, new VirtualIds(n));
-      return rec.finish();
-    };
-    if (!diffusion[1] && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
-    if (!whole[1] && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
-    const c = whole[0];
-    return {
-      strategy, uncompute, iterations, oracle: oracle[0], diffusion: diffusion[0], circuit: c, expected_runs: runs,
-      expected_t_count: c.t_count * runs, expected_toffoli_count: c.toffoli_count * runs, expected_depth: c.depth * runs,
-      exact: oracle[1] && diffusion[1] && whole[1],
-    };
+    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy).c, oracleWeight(strategy), iterations, successProbability, uncompute, progress);
   });
   progress.emit(1);
   return costs;
+}
+
+/** The search register of a plan: all variables, or the free ones. */
+function searchRegister(plan: OraclePlan): number {
+  return plan.structured === null ? plan.clauses.variables : plan.register.length;
+}
+
+/**
+ * What a whole search costs with one named construction (see OracleOptions.construction): as
+ * {@link searchCosts} does for wide and lean, for any construction over the oracle plan the
+ * options give (its `strategy` is the construction's family).
+ *
+ * @example
+ * ```ts
+ * constructionSearchCost(cnf, "blocks-6", 1, 1, "measured", { register: "free" }).circuit.t_count;
+ * ```
+ */
+export function constructionSearchCost(
+  cnf: Cnf, construction: string, iterations: number, successProbability: number, uncompute: Uncompute, options: CostOptions = {},
+): Omit<SearchCost, "strategy"> & { readonly strategy: ConstructionFamily; readonly construction: string } {
+  const c = parseConstruction(construction);
+  if (typeof c === "string") throw new RangeError(c);
+  const plan = planOf(cnf, options);
+  const n = searchRegister(plan);
+  const logical = synthesizePlanned(plan, "phase", c);
+  const w = 2 * (4 * logical.gates + 1);
+  const progress = new Progress((2 + iterations) * w, options.onProgress);
+  const cost = searchCostOf(constructionFamily(c), n, replayOps(logical, n), () => logical, w, iterations, successProbability, uncompute, progress);
+  progress.emit(1);
+  return { ...cost, construction: constructionName(c) };
+}
+
+/**
+ * One search's costs from its phase oracle as a stream: one oracle, one diffusion, the circuit of
+ * one run (each counted, built when the counting is not exact and the circuit is small), and the
+ * totals over the expected runs.
+ */
+function searchCostOf<S extends Strategy | ConstructionFamily>(
+  strategy: S, n: number, ops: OracleOps, logical: () => Circuit, oracleWeight: number, iterations: number, successProbability: number, uncompute: Uncompute, progress: Progress,
+): Omit<SearchCost, "strategy"> & { readonly strategy: S } {
+  const runs = successProbability > 0 ? 1 / successProbability : Infinity;
+  const both = (emit: (low: LoweringStream, ids: VirtualIds, p?: Fraction) => void, w: number, lag?: number): [EngineResult, EngineResult] => {
+    const p1 = progress.step(w / 2);
+    const p2 = progress.step(w / 2);
+    return [
+      countOps(n, "clifford+t", uncompute, true, (low, ids) => emit(low, ids, p1), lag),
+      countOps(n, "toffoli", uncompute, false, (low, ids) => emit(low, ids, p2), lag),
+    ];
+  };
+  const [oct, otof] = both((low, ids, p) => ops(low, ids, p), oracleWeight);
+  const [dct, dtof] = both((low) => diffusionOps(n, low), 1);
+  // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
+  // templates, so that the cancellations at those seams stay inside the window.
+  const lag = Math.min(MAX_LAG, 2 ** Math.ceil(Math.log2(2 * (oct.instances + dct.instances) + DEFAULT_LAG)));
+  const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight, lag);
+  let oracle = part(oct, otof);
+  let diffusion = part(dct, dtof);
+  let whole = part(wct, wtof);
+  if (!oracle[1] && oct.instances <= BUILD_LIMIT) oracle = builtPart(logical(), uncompute);
+  const recorded = (emit: (sink: LogicalRecorder, ids: VirtualIds) => void): Circuit => {
+    const rec = new LogicalRecorder(n, n, 0);
+    emit(rec, new VirtualIds(n));
+    return rec.finish();
+  };
+  if (!diffusion[1] && dct.instances <= BUILD_LIMIT) diffusion = builtPart(recorded((sink) => diffusionOps(n, sink)), uncompute);
+  if (!whole[1] && wct.instances <= BUILD_LIMIT) whole = builtPart(recorded((sink, ids) => searchOps(n, ops, iterations, true, sink, ids)), uncompute);
+  const c = whole[0];
+  return {
+    strategy, uncompute, iterations, oracle: oracle[0], diffusion: diffusion[0], circuit: c, expected_runs: runs,
+    expected_t_count: c.t_count * runs, expected_toffoli_count: c.toffoli_count * runs, expected_depth: c.depth * runs,
+    exact: oracle[1] && diffusion[1] && whole[1],
+  };
 }
 
 /** The oracle plan the cost options ask for (structure on and a full register by default, as compileOracle). */

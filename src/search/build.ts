@@ -7,6 +7,7 @@
 import { CircuitBuilder, K, neg, pos, type Circuit } from "../ir/circuit.js";
 import type { SimplifiedCnf } from "../synth/simplify.js";
 import { synthesize, type Strategy } from "../synth/index.js";
+import { synthesizeConstruction, type Construction } from "../synth/construction.js";
 
 /** Appends the diffusion (reflection about the uniform superposition) over qubits 0..n-1. */
 export function diffusion(b: CircuitBuilder, n: number): void {
@@ -28,13 +29,14 @@ export function diffusionCircuit(n: number): Circuit {
  * The logical search circuit with `iterations` Grover iterations. Without `measure` the final
  * measurements are left out (to look at the state they would sample).
  */
-export function searchCircuit(f: SimplifiedCnf, strategy: Strategy, iterations: number, measure = true): Circuit {
-  return searchAround(synthesize(f, "phase", strategy), f.variables, iterations, measure);
+export function searchCircuit(f: SimplifiedCnf, strategy: Strategy | Construction, iterations: number, measure = true): Circuit {
+  const oracle = typeof strategy === "string" ? synthesize(f, "phase", strategy) : synthesizeConstruction(f, "phase", strategy);
+  return searchAround(oracle, f.variables, iterations, measure);
 }
 
 /**
  * The logical search circuit around a given logical phase oracle whose search register is qubits
- * 0..n-1 (what {@link searchCircuit} does for a clause oracle; compile.ts for structured ones).
+ * 0..n-1 (what {@link searchCircuit} does for a clause oracle; compile.ts for the oracle of any plan).
  */
 export function searchAround(oracle: Circuit, n: number, iterations: number, measure = true): Circuit {
   const oracleWork = oracle.qubits - n;

@@ -15,6 +15,8 @@ export { simplify } from "./simplify.js";
 export type { OraclePlan, RegisterMode, StructureSummary, StructuredFormula } from "./plan.js";
 export { planOracle } from "./plan.js";
 export { synthesizeStructured } from "./structured.js";
+export type { Construction, ConstructionFamily } from "./construction.js";
+export { constructionFamily, constructionName, parseConstruction, planShape, synthesizeConstruction, synthesizePlanned } from "./construction.js";
 
 /** How clauses become gates: `wide` keeps every clause bit (fewest T), `lean` counts violated clauses (fewest qubits). */
 export type Strategy = "wide" | "lean";

@@ -23,13 +23,18 @@
  *    and a mark input). Exactly-one adds "p_g = 1" (under at most one, the parity is the count),
  *    which is CNOTs only, instead of the g-input at-least-one clause;
  *  - a remaining clause: as the wide strategy does, an AND of its literals' negations.
+ * The blocked and fan-out constructions (construction.ts) conjoin the same checks in blocks, a
+ * group split into one check per conflict bit (each with its own prefix parity: CNOTs only, so the
+ * conflict ANDs share no qubit and run in parallel).
  * `wide` keeps every violated bit and marks "none violated" with one multi-controlled gate, then
  * uncomputes everything in reverse. `lean` adds each check's violated bits into a counter and
  * uncomputes the check at once (synth/lean.ts's counter), marks "counter = 0", then runs
  * everything backwards; computed definitions stay until the end.
  */
 import { CircuitBuilder, K, pos, type Circuit } from "../ir/circuit.js";
-import { mark, type OracleKind } from "./common.js";
+import { conjoinChecks, type BlockPlan } from "./blocked.js";
+import type { Checks as BlockChecks, Holder } from "./checks.js";
+import { mark, type Op, type OracleKind } from "./common.js";
 import type { StructuredFormula } from "./plan.js";
 import type { SimplifiedCnf } from "./simplify.js";
 
@@ -119,11 +124,17 @@ class Checks {
   readonly segBit = new IntList();
   /** Operations before this index compute definitions and stay until the end. */
   persistentEnd = 0;
+  /** Qubits below this index exist before the first check: the search register, target and computed definitions. */
+  persistentQubits = 0;
   /** Some check can never hold: the formula is unsatisfiable. */
   unsat = false;
   private readonly scratch: number[] = [];
 
-  constructor(readonly b: CircuitBuilder) {}
+  /**
+   * @param split one check per conflict bit (each with its own prefix parity) instead of one
+   *   running parity per group: what the blocked and fan-out constructions conjoin (see group()).
+   */
+  constructor(readonly b: CircuitBuilder, readonly split = false) {}
 
   beginSegment(): void {
     this.segOp.push(this.ops.n);
@@ -247,9 +258,26 @@ class Checks {
       if (exactlyOne) this.clause(members);
       return;
     }
+    const g = members.length;
+    if (this.split) {
+      // Conflict bit i on its own: c_i = (x1 XOR ... XOR x_(i-1)) AND x_i, each prefix parity in
+      // its own qubit (CNOTs only). The same values as the running parity's, but no two conflict
+      // ANDs share a qubit, so they run in parallel (T-depth of one two-input AND), and each is a
+      // check of its own for the blocked constructions, as a pairwise clause would be. Exactly
+      // one adds the parity of all members as one more check.
+      for (let i = 1; i < g; i++) {
+        if (i > 1) this.beginSegment();
+        const prefix = this.xor(members.slice(0, i));
+        this.failWhen(this.and([prefix.signal, members[i]!]).signal);
+      }
+      if (exactlyOne) {
+        this.beginSegment();
+        this.failWhen(negate(this.xor(members).signal));
+      }
+      return;
+    }
     const acc = this.b.newWork();
     let polarity = 0;
-    const g = members.length;
     for (let i = 0; i < g; i++) {
       const s = members[i]!;
       if (i >= 1) {
@@ -313,10 +341,10 @@ export function clauseAnds(c: SimplifiedCnf): number {
 }
 
 /** The checks of a structured formula (see the file comment), recorded, with their violated bits. */
-function collectChecks(f: StructuredFormula, b: CircuitBuilder): Checks {
+function collectChecks(f: StructuredFormula, b: CircuitBuilder, splitGroups = false): Checks {
   const s = f.structure;
   const n = f.register.length;
-  const checks = new Checks(b);
+  const checks = new Checks(b, splitGroups);
   const N = s.variables;
   // Variables neither on the register, constant nor defined take 0 (see Completion, rule 5).
   const sig = new Int32Array(N + 1).fill(FALSE);
@@ -365,6 +393,7 @@ function collectChecks(f: StructuredFormula, b: CircuitBuilder): Checks {
   for (let d = defs.length - 1; d >= 0; d--) if (!computed[d] || needed[defs[d]!.variable]) defs[d]!.inputs.forEach(need);
   for (let d = 0; d < defs.length; d++) if (computed[d] && needed[defs[d]!.variable]) sig[defs[d]!.variable] = value(defs[d]!).signal;
   checks.persistentEnd = checks.ops.n;
+  checks.persistentQubits = b.qubits;
   for (let d = 0; d < defs.length; d++) {
     if (computed[d]) continue;
     checks.beginSegment();
@@ -477,4 +506,170 @@ function count(b: CircuitBuilder, counter: readonly number[], bit: number, down:
     out.push(K.unand, [input, q(i - 1), pos(carries[i - 1]!)]);
   }
   out.push(K.mcx, [bit, pos(counter[0]!)]);
+}
+
+/**
+ * The structured formula's checks as the generic checks of synth/checks.ts, so that the blocked
+ * and fan-out constructions of synth/blocked.ts conjoin them as they conjoin clauses. Each
+ * segment (a checked definition, a parity, one conflict bit of a group split as in group(), a
+ * remaining clause) is one check; violated bits of one segment, were there several, would be
+ * joined by one temporary AND of their negations inside the check, which costs what those bits
+ * would have cost as inputs of the block's tree or of the mark. A violated bit read straight from a search qubit or a
+ * computed definition is kept by one check only (the others would repeat a mark input); one wanted
+ * both ways makes the formula unsatisfiable, as in `wide`.
+ *
+ * Qubits of the recorded operations below `persistentQubits` (search register, target, computed
+ * definitions) are the builder's, mapped once; those a check computes into are fresh on every
+ * computation (a block is computed again to be erased). Occurrences are the reads of those
+ * outside qubits (controls, and outside violated bits) in recorded order, for fan-out copies.
+ */
+class SegmentChecks implements BlockChecks {
+  readonly count: number;
+  /** Per check: its segment, and its kept violated bits (recorded encoding). */
+  private readonly segments: number[] = [];
+  private readonly bits: number[][] = [];
+  /** Per check: the index of its first occurrence. */
+  private readonly starts: number[] = [];
+  /** False when two checks want one outside bit both ways. */
+  readonly satisfiable: boolean;
+
+  constructor(private readonly checks: Checks, private readonly outside: (op: number) => number) {
+    const seen = new Set<number>();
+    let satisfiable = true;
+    let occurrences = 0;
+    const segments = checks.segOp.n - 1;
+    for (let sgm = 0; sgm < segments; sgm++) {
+      const kept: number[] = [];
+      for (let v = checks.segBit.a[sgm]!; v < checks.segBit.a[sgm + 1]!; v++) {
+        const bit = checks.violated.a[v]!;
+        if (this.isOutside(bit)) {
+          if (seen.has(bit)) continue;
+          if (seen.has(bit ^ 1)) satisfiable = false;
+          seen.add(bit);
+        }
+        kept.push(bit);
+      }
+      if (kept.length === 0) continue;
+      this.segments.push(sgm);
+      this.bits.push(kept);
+      this.starts.push(occurrences);
+      occurrences += this.reads(sgm, kept).length;
+    }
+    this.count = this.segments.length;
+    this.satisfiable = satisfiable;
+  }
+
+  private isOutside(op: number): boolean {
+    return op >>> 1 < this.checks.persistentQubits;
+  }
+
+  /** The outside reads of a segment, in recorded order: operation controls, then kept outside bits. */
+  private reads(sgm: number, kept: readonly number[]): number[] {
+    const ops = this.checks.ops;
+    const out: number[] = [];
+    for (let i = this.checks.segOp.a[sgm]!; i < this.checks.segOp.a[sgm + 1]!; i++) {
+      // Every recorded operation (and, cx) writes its last operand and reads the others.
+      for (let p = ops.starts[i]!; p + 1 < ops.starts[i + 1]!; p++) if (this.isOutside(ops.ops[p]!)) out.push(ops.ops[p]!);
+    }
+    for (const bit of kept) if (this.isOutside(bit)) out.push(bit);
+    return out;
+  }
+
+  occurrences(i: number): { start: number; controls: ArrayLike<number> } {
+    return { start: this.starts[i]!, controls: this.reads(this.segments[i]!, this.bits[i]!).map(this.outside) };
+  }
+
+  compute(b: CircuitBuilder, i: number, out: Op[], holder: Holder | null): number {
+    const sgm = this.segments[i]!;
+    const ops = this.checks.ops;
+    const fresh = new Map<number, number>();
+    let occurrence = this.starts[i]!;
+    const read = (op: number): number => {
+      if (!this.isOutside(op)) return inner(op);
+      const mapped = this.outside(op);
+      return holder === null ? mapped : holder(occurrence++, mapped);
+    };
+    const inner = (op: number): number => {
+      const q = op >>> 1;
+      let r = fresh.get(q);
+      if (r === undefined) fresh.set(q, (r = b.newWork()));
+      return (r << 1) | (op & 1);
+    };
+    for (let k = this.checks.segOp.a[sgm]!; k < this.checks.segOp.a[sgm + 1]!; k++) {
+      const operands: number[] = [];
+      const last = ops.starts[k + 1]! - 1;
+      for (let p = ops.starts[k]!; p < last; p++) operands.push(read(ops.ops[p]!));
+      operands.push(inner(ops.ops[last]!));
+      const op: Op = [ops.kinds[k]!, operands];
+      out.push(op);
+      b.addN(op[0], op[1]);
+    }
+    const bits = this.bits[i]!.map(read);
+    if (bits.length === 1) return bits[0]!;
+    // Violated when not every bit is clear: the negation of the AND of their negations.
+    const w = b.newWork();
+    const op: Op = [K.and, [...bits.map((v) => v ^ 1), pos(w)]];
+    out.push(op);
+    b.addN(op[0], op[1]);
+    return pos(w) | 1;
+  }
+}
+
+/**
+ * The structured formula's oracle by a blocked or fan-out construction (synth/blocked.ts's
+ * {@link conjoinChecks} over its checks): the computed definitions of a free register first,
+ * then the checks conjoined in blocks (or with fan-out copies), then the definitions uncomputed.
+ */
+export function synthesizeStructuredBlocked(f: StructuredFormula, kind: OracleKind, plan: BlockPlan): Circuit {
+  const n = f.register.length;
+  const layout = { search: n, target: kind === "flag" ? 1 : 0 };
+  const checks = collectChecks(f, new CircuitBuilder(layout, 4 * (f.structure.definitions.length + f.remaining.clauseStart.length) + 16), true);
+  if (checks.unsat) return new CircuitBuilder(layout).finish(); // f = 0: the identity
+  const target = n;
+  if (checks.violated.n === 0) {
+    const out = new CircuitBuilder(layout);
+    if (kind === "phase") out.add(K.gphase, 4);
+    else out.add(K.x, pos(target));
+    return out.finish();
+  }
+  const b = new CircuitBuilder(layout, 8 * checks.ops.n * (2 << Math.min(plan.sizes.length, 8)) + 16);
+  const base = n + layout.target;
+  // The computed definitions' qubits, the builder's own from the first use on.
+  const mapped = new Int32Array(Math.max(0, checks.persistentQubits - base)).fill(-1);
+  const outside = (op: number): number => {
+    const q = op >>> 1;
+    if (q < base) return op;
+    if (mapped[q - base]! < 0) mapped[q - base] = b.newWork();
+    return (mapped[q - base]! << 1) | (op & 1);
+  };
+  const generic = new SegmentChecks(checks, outside);
+  if (!generic.satisfiable) return new CircuitBuilder(layout).finish();
+  const prefix = new OpList();
+  prefix.append(checks.ops, 0, checks.persistentEnd, false);
+  prefix.emit(b, false, outside);
+  conjoinChecks(b, kind, target, generic, plan);
+  prefix.emit(b, true, outside);
+  return b.finish();
+}
+
+/** The shape the construction candidates are chosen by: checks, most reads of one qubit, all reads. */
+export function structuredShape(f: StructuredFormula): { m: number; reads: number; literals: number } {
+  const n = f.register.length;
+  const checks = collectChecks(f, new CircuitBuilder({ search: n, target: 0 }), true);
+  if (checks.unsat) return { m: 0, reads: 0, literals: 0 };
+  const generic = new SegmentChecks(checks, (op) => op);
+  const count = new Map<number, number>();
+  let reads = 0;
+  let literals = 0;
+  for (let i = 0; i < generic.count; i++) {
+    const { controls } = generic.occurrences(i);
+    literals += controls.length;
+    for (let j = 0; j < controls.length; j++) {
+      const q = controls[j]! >>> 1;
+      const r = (count.get(q) ?? 0) + 1;
+      count.set(q, r);
+      reads = Math.max(reads, r);
+    }
+  }
+  return { m: generic.count, reads, literals };
 }

@@ -53,6 +53,24 @@ const cases: [string, string[], string?][] = [
   ["search --seed without --shots", ["search", EX, "--seed", "2"]],
   ["search --shots of nothing", ["search", EX, "--shots", "0"]],
   ["search --shots over a register too wide to simulate", ["search", "examples/shed-lock.cnf", "--register", "full", "--shots", "2", "--iterations", "1"]],
+  ["oracle below the smallest budget", ["oracle", EX, "--max-qubits", "3"]],
+  ["verify below the smallest budget", ["verify", EX, "--max-qubits", "3"]],
+  ["cost below the smallest budget", ["cost", EX, "--max-qubits", "3"]],
+  ["search below the smallest budget", ["search", EX, "--max-qubits", "3", "--iterations", "1"]],
+  ["draw below the smallest budget", ["draw", EX, "--max-qubits", "3", "-o", join(dir, "b.svg")]],
+  ["a named construction over the budget", ["oracle", EX, "--construction", "fanout-1", "--max-qubits", "5"]],
+  ["no such construction", ["oracle", EX, "--construction", "blocks-1"]],
+  ["strategy and construction", ["oracle", EX, "--strategy", "lean", "--construction", "wide"]],
+  ["prefer with a construction", ["oracle", EX, "--prefer", "t-depth", "--construction", "wide"]],
+  ["bad budget", ["oracle", EX, "--max-qubits", "0"]],
+  ["cost --plot without --front", ["cost", EX, "--plot", join(dir, "f.svg")]],
+  ["cost --front with a budget", ["cost", EX, "--front", "--max-qubits", "9"]],
+  // The budget options on forecast (issue 12 takes them), and with the register options.
+  ["forecast below the smallest budget", ["forecast", EX, "--max-qubits", "3"]],
+  ["forecast with a strategy and a construction", ["forecast", EX, "--strategy", "lean", "--construction", "wide"]],
+  ["forecast with no such construction", ["forecast", EX, "--construction", "blocks-1"]],
+  ["oracle below the smallest free-register budget", ["oracle", EX, "--register", "free", "--max-qubits", "1"]],
+  ["cost --front --register with a bad value", ["cost", EX, "--front", "--register", "half"]],
 ];
 
 describe("error shape", () => {

@@ -25,10 +25,10 @@ describe("clausegate oracle", () => {
     expect(readFileSync(out, "utf8")).toMatch(/^OPENQASM 3\.0;[\s\S]*\nreset work\[\d+\];\n[\s\S]*;\n$/);
     const report = JSON.parse(readFileSync(rep, "utf8"));
     expect(Object.keys(report)).toEqual([
-      "variables", "clauses", "kind", "strategy", "basis", "uncompute", "qubits", "gates", "toffoli_count", "t_count",
+      "variables", "clauses", "kind", "strategy", "construction", "basis", "uncompute", "qubits", "gates", "toffoli_count", "t_count",
       "t_depth", "cnot_count", "depth", "measurements", "simplification", "register", "register_mode", "structure", "recovered", "completion",
     ]);
-    expect(report).toMatchObject({ variables: 12, clauses: 19, kind: "flag", strategy: "lean", basis: "clifford+t", uncompute: "measured" });
+    expect(report).toMatchObject({ variables: 12, clauses: 19, kind: "flag", strategy: "lean", construction: "lean", basis: "clifford+t", uncompute: "measured" });
     expect(report.qubits.search).toBe(12);
     expect(report.qubits.target).toBe(1);
     expect(report.qubits.total).toBe(report.qubits.search + report.qubits.work + report.qubits.target);
