@@ -60,6 +60,12 @@ export interface EngineOptions {
    * that meets more says so (secondNeeded) and must be run again with it.
    */
   readonly second?: boolean;
+  /**
+   * For a replay of one part of a circuit over a given context (see blocks.ts): a flag per wire
+   * whose gates before the first one put here exist but were left out. A walk that would go past
+   * them is noted (`truncatedHits`) instead of being taken as the start of the wire.
+   */
+  readonly truncated?: Uint8Array;
 }
 
 /** Figures of one circuit. */
@@ -191,6 +197,12 @@ export class CountingEngine implements InstanceSink {
   private flagBound: string | null = null;
   /** Set when the second cancel-inverses might change something (irrelevant if it never runs). */
   private flagSecond: string | null = null;
+  private readonly truncated: Uint8Array | null;
+  /** Wires where a walk reached the left-out part (see EngineOptions.truncated). */
+  readonly truncatedHits: number[] = [];
+  /** In restage: window events are the walk's own result, not a flag of the run. */
+  private probing = false;
+  private probeHit = false;
 
   constructor(opts: EngineOptions) {
     this.base = opts.base;
@@ -222,6 +234,7 @@ export class CountingEngine implements InstanceSink {
     this.sPrevSlot = new Int8Array(0);
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
     this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
+    this.truncated = opts.truncated ?? null;
   }
 
   /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
@@ -416,6 +429,122 @@ export class CountingEngine implements InstanceSink {
     return this.nextId;
   }
 
+  // ---- replaying one part over a given context (blocks.ts) -------------------------------
+
+  /**
+   * Puts an instance of the context: wires given directly (the engine must have been made with
+   * `base` above every wire used, lag Infinity), linked into the gate lists of the slots in `link`
+   * only, with the gates already cancelled and the stage-1 facts it had. Nothing is walked.
+   */
+  preload(t: number, w0: number, w1: number, w2: number, link: number, dead: number, mask1: number, recheck: number): number {
+    const id = this.nextId++;
+    if (id >= this.ringSize) this.growRing(this.ringSize * 2);
+    const x = id & this.ringMask;
+    this.rT[x] = t;
+    this.rW[x * 3] = w0;
+    this.rW[x * 3 + 1] = w1;
+    this.rW[x * 3 + 2] = w2;
+    this.rDead[x] = dead;
+    this.rMask1[x] = mask1;
+    this.rRecheck[x] = recheck;
+    for (let s = 0; s < 3; s++) {
+      this.rNext[x * 3 + s] = -1;
+      if (s >= SLOTS[t]! || ((link >>> s) & 1) === 0) {
+        this.rPrev[x * 3 + s] = -1;
+        continue;
+      }
+      const w = this.rW[x * 3 + s]!;
+      const p = this.wI[w * 4]!;
+      this.rPrev[x * 3 + s] = p;
+      this.rPrevSlot[x * 3 + s] = this.wI[w * 4 + 1]!;
+      if (p >= 0) this.rNext[(p & this.ringMask) * 3 + this.wI[w * 4 + 1]!] = id;
+      this.wI[w * 4] = id;
+      this.wI[w * 4 + 1] = s;
+      this.rSeq[x * 3 + s] = ++this.wI[w * 4 + 2]!;
+    }
+    return id;
+  }
+
+  /** Instances below `id` count as already through stage 2 and the tally (context instances). */
+  settledBelow(id: number): void {
+    this.done = id;
+  }
+
+  /** Stage 2 (and the tally, which a replay ignores) of the instances up to `id` inclusive. */
+  settleThrough(id: number): void {
+    while (this.done <= id) this.settle(this.done);
+  }
+
+  /**
+   * Stage 2 (see settle) of instance `id` now, for the gates a cancellation since its stage 1 (or
+   * since it was preloaded with mask1 = dead and no recheck) may let go further. Returns the gates
+   * walked and, among them, those that find a partner or reach the window diagonally (what settle
+   * would flag), as two masks. Sets no flag: the block counter keeps the latest result per gate.
+   */
+  restage(id: number): [walked: number, positive: number] {
+    const x = id & this.ringMask;
+    const t = this.rT[x]!;
+    const dead = this.rDead[x]!;
+    const later = dead ^ this.rMask1[x]!;
+    const again = this.rRecheck[x]!;
+    if (again === 0 && later === 0) return [0, 0];
+    let walked = 0;
+    let positive = 0;
+    const exits = exitingGates(t, dead);
+    for (let m = exits; m !== 0; m &= m - 1) {
+      const p = 31 - Math.clz32(m & -m);
+      if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
+      const e = GATE_START[t]! + p;
+      const kind = G_KIND[e]!;
+      if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+      walked |= 1 << p;
+      this.probing = true;
+      this.probeHit = false;
+      const found = this.findPartner(id, x, p) >= 0;
+      this.probing = false;
+      if (found || this.probeHit) positive |= 1 << p;
+    }
+    return [walked, positive];
+  }
+
+  /** Cancelled gates of instance `id` (kept in the ring). */
+  deadOf(id: number): number {
+    return this.rDead[id & this.ringMask]!;
+  }
+
+  /** Gates cancelled right after instance `id`'s own stage 1. */
+  mask1Of(id: number): number {
+    return this.rMask1[id & this.ringMask]!;
+  }
+
+  /** Gates of instance `id` whose walk stage 2 repeats. */
+  recheckOf(id: number): number {
+    return this.rRecheck[id & this.ringMask]!;
+  }
+
+  /** The last instance on wire w (-1: none) and its slot there, as id * 4 + slot. */
+  lastOn(w: number): number {
+    const id = this.wI[w * 4]!;
+    return id < 0 ? -1 : id * 4 + this.wI[w * 4 + 1]!;
+  }
+
+  /** The instance before `id` on the wire of its slot s, as id * 4 + slot (-1: none). */
+  prevOn(id: number, s: number): number {
+    const x = id & this.ringMask;
+    const p = this.rPrev[x * 3 + s]!;
+    return p < 0 ? -1 : p * 4 + this.rPrevSlot[x * 3 + s]!;
+  }
+
+  /** A cancellation reached an instance already counted (with settledBelow: a context instance). */
+  get reachedSettled(): boolean {
+    return this.lagShort;
+  }
+
+  /** Why the second cancel-inverses might act, or null. */
+  get secondReason(): string | null {
+    return this.flagSecond;
+  }
+
   // ---- the instance store ----------------------------------------------------------------
 
   /**
@@ -563,7 +692,10 @@ export class CountingEngine implements InstanceSink {
       }
       // The previous instance on this wire.
       const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-      if (prev < 0) return -1;
+      if (prev < 0) {
+        if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
+        return -1;
+      }
       const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
       const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
       if (pl === -1) {
@@ -578,6 +710,10 @@ export class CountingEngine implements InstanceSink {
   }
 
   private noteSecond(reason: string): void {
+    if (this.probing) {
+      this.probeHit = true;
+      return;
+    }
     if (this.flagSecond === null) this.flagSecond = reason;
   }
 
@@ -656,7 +792,10 @@ export class CountingEngine implements InstanceSink {
         }
         if (stop || cur <= hid) break;
         const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-        if (prev < 0) break;
+        if (prev < 0) {
+          if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
+          break;
+        }
         const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
         const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
         if (pl === -1) {

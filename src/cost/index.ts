@@ -16,7 +16,9 @@ import type { Circuit } from "../ir/circuit.js";
 import { countCircuit } from "../emit/resources.js";
 import type { Basis, Uncompute } from "../passes/lower.js";
 import { simplify, synthesize, type AnyStrategy, type OracleKind, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
+import { BlockCounter } from "./blocks.js";
 import { builtCounts } from "./built.js";
+import { LeanBlocks } from "./leanBlocks.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction } from "./sources.js";
@@ -201,7 +203,19 @@ interface Spec {
   readonly optimize: boolean;
   /** Depth and T-depth wanted (Clifford+T runs); Toffoli runs need counts only. */
   readonly levels: boolean;
+  /** How to count a lean oracle (see {@link CountEngine}); default "auto". */
+  readonly engine?: CountEngine;
 }
+
+/**
+ * How a lean oracle is counted: "blocks" by the block counter (blocks.ts: work per clause, exact,
+ * falling back to the engine where it cannot go on), "instances" by the engine instance by
+ * instance, "auto" by blocks from BLOCKS_FROM clauses on.
+ */
+export type CountEngine = "auto" | "blocks" | "instances";
+
+/** Clauses from which "auto" counts a lean oracle by blocks (below, the engine is as fast). */
+const BLOCKS_FROM = 64;
 
 /** Synthesized logical circuits kept for the runs that share them (wide and textbook oracles). */
 class Logicals {
@@ -275,6 +289,11 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   const logical = s.strategy === "lean" ? null : logicals.get(s.kind, s.strategy);
   const idCount = (logical?.c.qubits ?? base) + 1024;
   const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount };
+  if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || s.f.clauseStart.length - 1 >= BLOCKS_FROM)) {
+    const blocks = new LeanBlocks(s.f, s.kind, mode);
+    const r = new BlockCounter(blocks, { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run();
+    if (r !== null) return r;
+  }
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
     if (logical === null) leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
     else replayLogical(logical.c, base, low, ids, logical.last, progress);
@@ -372,12 +391,12 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
  */
 export function countConstruction(
   cnf: Cnf,
-  o: { readonly kind: OracleKind; readonly strategy: AnyStrategy; readonly basis: "toffoli" | "clifford+t"; readonly uncompute: Uncompute; readonly optimize?: boolean },
+  o: { readonly kind: OracleKind; readonly strategy: AnyStrategy; readonly basis: "toffoli" | "clifford+t"; readonly uncompute: Uncompute; readonly optimize?: boolean; readonly engine?: CountEngine },
   options: CostOptions = {},
 ): EngineResult {
   const f = simplify(cnf);
   const progress = new Progress(1, options.onProgress);
-  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true }, new Logicals(f), progress.step(1));
+  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true, engine: o.engine ?? "auto" }, new Logicals(f), progress.step(1));
   progress.emit(1);
   return r;
 }

@@ -115,6 +115,12 @@ export class LoweringStream implements LogicalSink {
     this.recordAt = r;
   }
 
+  /** Sets the pending flip of qubit q (to record one block of a stream in a given state; see blocks.ts). */
+  setFlipped(q: number, flipped: boolean): void {
+    this.room(q);
+    this.flipped[q] = flipped ? 1 : 0;
+  }
+
   // ---- logical operations ------------------------------------------------------------------
 
   /** A temporary AND of encoded controls into the fresh qubit t. */

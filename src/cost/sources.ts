@@ -117,83 +117,97 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
     else sink.single(T_X, target, false);
     return;
   }
-  const w = Math.ceil(Math.log2(m + 1));
+  const w = leanCounterWidth(m);
   const counter = new Int32Array(w);
   for (let j = 0; j < w; j++) counter[j] = ids.take();
-  const carries = new Int32Array(Math.max(0, w - 1));
   let maxK = 0;
   for (let i = 0; i < m; i++) maxK = Math.max(maxK, f.clauseStart[i + 1]! - f.clauseStart[i]!);
   const ctrls = new Int32Array(maxK);
+  const carries = new Int32Array(Math.max(0, w - 1));
   const step = Math.max(1, Math.floor(m / 50));
-  const clause = (i: number): { k: number; lits: Int32Array } => {
+  const clause = (i: number): Int32Array => {
     const s = f.clauseStart[i]!;
     const k = f.clauseStart[i + 1]! - s;
     for (let j = 0; j < k; j++) ctrls[j] = violatedBy(f.lits[s + j]!);
-    return { k, lits: ctrls.subarray(0, k) };
+    return ctrls.subarray(0, k);
   };
   for (let i = 0; i < m; i++) {
     if (progress && i % step === 0) progress(i / (2 * m));
-    const { k, lits } = clause(i);
-    let t = -1;
-    let bit: number;
-    if (k === 1) bit = lits[0]!;
-    else {
-      t = ids.take();
-      sink.and(lits, t);
-      bit = pos(t);
-    }
-    for (let j = 0; j + 1 < w; j++) carries[j] = ids.take();
-    // The increment (synth/lean.ts's increment).
-    let prev = bit;
-    for (let j = 0; j + 1 < w; j++) {
-      sink.andPair(prev, pos(counter[j]!), carries[j]!);
-      prev = pos(carries[j]!);
-    }
-    for (let j = w - 1; j >= 1; j--) {
-      sink.mcx1(pos(carries[j - 1]!), counter[j]!, false);
-      sink.unand(carries[j - 1]!, true);
-      ids.give(carries[j - 1]!);
-    }
-    sink.mcx1(bit, counter[0]!, false);
-    if (t >= 0) {
-      sink.unand(t, true);
-      ids.give(t);
-    }
+    leanForward(clause(i), counter, carries, sink, ids);
   }
-  const ok = Array.from(counter, (q) => pos(q) | 1); // fires when the counter is 0
-  if (kind === "phase") sink.mcz(ok);
-  else sink.mcx(ok, target, false);
+  leanMark(counter, kind, target, sink);
   // The forward part inverted: clause by clause from the last, each clause's operations reversed.
   for (let i = m - 1; i >= 0; i--) {
     if (progress && i % step === 0) progress(1 - i / (2 * m));
-    const { k, lits } = clause(i);
-    let t = -1;
-    let bit: number;
-    if (k === 1) bit = lits[0]!;
-    else {
-      t = ids.take();
-      sink.and(lits, t);
-      bit = pos(t);
-    }
-    for (let j = 0; j + 1 < w; j++) carries[j] = ids.take();
-    // Clause 0 comes last: there each counter qubit is used for the last time (its wire is then
-    // free for what follows, e.g. the next iteration of a search).
-    const last = i === 0;
-    sink.mcx1(bit, counter[0]!, last && w === 1);
-    for (let j = 1; j < w; j++) {
-      sink.andPair(j === 1 ? bit : pos(carries[j - 2]!), pos(counter[j - 1]!), carries[j - 1]!);
-      sink.mcx1(pos(carries[j - 1]!), counter[j]!, last && j === w - 1);
-    }
-    for (let j = w - 2; j >= 0; j--) {
-      sink.unand(carries[j]!, true, last ? 2 : 0);
-      ids.give(carries[j]!);
-    }
-    if (t >= 0) {
-      sink.unand(t, true);
-      ids.give(t);
-    }
+    leanBackward(clause(i), counter, carries, i === 0, sink, ids);
   }
   for (let j = 0; j < w; j++) ids.give(counter[j]!);
+}
+
+/** The counter width of the lean oracle of m clauses (synth/lean.ts). */
+export function leanCounterWidth(m: number): number {
+  return Math.ceil(Math.log2(m + 1));
+}
+
+/** The violated bit of a clause (encoded controls `lits`): the literal itself, or an AND into a fresh qubit (returned as t). */
+function clauseBitOf(lits: Int32Array, sink: LogicalSink, ids: VirtualIds): { bit: number; t: number } {
+  if (lits.length === 1) return { bit: lits[0]!, t: -1 };
+  const t = ids.take();
+  sink.and(lits, t);
+  return { bit: pos(t), t };
+}
+
+/** One clause of the forward part (`carries`: room for w - 1 ids): its violated bit, the increment (synth/lean.ts's increment), the clause uncomputed. */
+export function leanForward(lits: Int32Array, counter: Int32Array, carries: Int32Array, sink: LogicalSink, ids: VirtualIds): void {
+  const w = counter.length;
+  const { bit, t } = clauseBitOf(lits, sink, ids);
+  for (let j = 0; j + 1 < w; j++) carries[j] = ids.take();
+  let prev = bit;
+  for (let j = 0; j + 1 < w; j++) {
+    sink.andPair(prev, pos(counter[j]!), carries[j]!);
+    prev = pos(carries[j]!);
+  }
+  for (let j = w - 1; j >= 1; j--) {
+    sink.mcx1(pos(carries[j - 1]!), counter[j]!, false);
+    sink.unand(carries[j - 1]!, true);
+    ids.give(carries[j - 1]!);
+  }
+  sink.mcx1(bit, counter[0]!, false);
+  if (t >= 0) {
+    sink.unand(t, true);
+    ids.give(t);
+  }
+}
+
+/** The mark on counter = 0 (phase flip, or the target flipped). */
+export function leanMark(counter: Int32Array, kind: OracleKind, target: number, sink: LogicalSink): void {
+  const ok = Array.from(counter, (q) => pos(q) | 1); // fires when the counter is 0
+  if (kind === "phase") sink.mcz(ok);
+  else sink.mcx(ok, target, false);
+}
+
+/**
+ * One clause of the inverted part. `last`: clause 0, which comes last: there each counter qubit
+ * is used for the last time (its wire is then free for what follows, e.g. the next iteration of a
+ * search).
+ */
+export function leanBackward(lits: Int32Array, counter: Int32Array, carries: Int32Array, last: boolean, sink: LogicalSink, ids: VirtualIds): void {
+  const w = counter.length;
+  const { bit, t } = clauseBitOf(lits, sink, ids);
+  for (let j = 0; j + 1 < w; j++) carries[j] = ids.take();
+  sink.mcx1(bit, counter[0]!, last && w === 1);
+  for (let j = 1; j < w; j++) {
+    sink.andPair(j === 1 ? bit : pos(carries[j - 2]!), pos(counter[j - 1]!), carries[j - 1]!);
+    sink.mcx1(pos(carries[j - 1]!), counter[j]!, last && j === w - 1);
+  }
+  for (let j = w - 2; j >= 0; j--) {
+    sink.unand(carries[j]!, true, last ? 2 : 0);
+    ids.give(carries[j]!);
+  }
+  if (t >= 0) {
+    sink.unand(t, true);
+    ids.give(t);
+  }
 }
 
 /** search/build.ts's diffusion over qubits 0..n-1. */

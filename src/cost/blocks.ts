@@ -1,0 +1,1483 @@
+/**
+ * Counting a circuit made of repeated blocks (the lean oracle: one block per clause, each the same
+ * template sequence up to which qubits it uses) with work per block instead of per template
+ * instance, exactly as the counting engine (engine.ts) counts it instance by instance.
+ *
+ * The engine's result for a stream depends, for each block, only on the block and on what its
+ * walks can see: the recent instances on the wires it touches (cancel-inverses looks back at most
+ * WINDOW live gates per wire), the pending phase runs and the levels of those wires. So the
+ * counting runs as two state machines over the blocks, each with a memo:
+ *
+ * 1. Cancellation. The state holds, for every work wire, its instances back to 17 live gates
+ *    before the open (last) block, and the open block's instances on its search qubits; older
+ *    instances on a search qubit are reached, when a walk needs them, through the chain of blocks
+ *    that used the qubit before ("projections", refined on demand: the key first says nothing of
+ *    them; a replay whose walk reaches what the key left out asks for more). The state is
+ *    interned (the same tails with the same cancelled gates give the same id), so the key of a
+ *    block is a few numbers. A key seen before gives the next state, the wires the block's work
+ *    qubits get (work-qubit reuse), the final cancelled gates of the block before it (now out of
+ *    reach: a later cancellation into it would stop the block counting, see below) and whether the
+ *    second cancel-inverses might act. A new key is replayed: a small engine is given the state's
+ *    instances as context (engine.preload), the block is put into it, the open block goes through
+ *    stage 2, and the next state is read back.
+ * 2. Tally (depth, T-depth, merge-phases, counts) of each block once its cancelled gates are
+ *    final, over the same per-instance maps as the engine (transfer.ts). Levels are kept relative
+ *    to the highest level of the work wires the last block touched (interned with their pending
+ *    phase runs); a search qubit's level is stored as a number, and a block's map says how high it
+ *    may be without mattering (it enters the key exactly only when it does).
+ *
+ * Exactness: nothing is guessed. A replay sees everything the engine would see for that block,
+ * or says what it misses and is done again with more. When a cancellation would reach an instance
+ * of a block already tallied, the block counting stops (`null`) and the caller counts with the
+ * engine instead.
+ */
+import { CountingEngine, type EngineResult } from "./engine.js";
+import { Interner, KeyTable } from "./keyTable.js";
+import { FIRST_TOUCH, G_KIND, G_PHASE, GATE_START, gatesOf, LAST_TOUCH, SLOT_GATES, SLOTS, T_ERASE_HEAD, T_ERASE_TAIL, T_MEASURE, TEMPLATE_COUNT } from "./templates.js";
+import type { InstanceSink } from "./lowering.js";
+import { finalRun, NONE, transferOf } from "./transfer.js";
+import { K } from "../ir/kinds.js";
+
+// ---- shapes ------------------------------------------------------------------------------
+
+/**
+ * A block's template sequence over local references: 0..k-1 its search (or target) qubits,
+ * k..k+p-1 the persistent work qubits of the whole circuit (the lean counter), then the block's own
+ * work qubits, one reference per span (a qubit given back and taken again is a new reference).
+ */
+export interface Shape {
+  /** Template instances. */
+  readonly n: number;
+  readonly t: Uint8Array;
+  /** Local references per slot (n * 3; -1 where the template has no such slot). */
+  readonly ref: Int32Array;
+  /** Slots whose qubit is never used again after the instance (frees its wire). */
+  readonly dies: Uint8Array;
+  /** Search/target qubit references. */
+  readonly k: number;
+  /** Persistent references. */
+  readonly p: number;
+  /** All references. */
+  readonly refs: number;
+  /** Per qubit reference q < k: its instances in order, as j * 4 + slot. */
+  readonly onVar: Int32Array[];
+  /** Some instance measures or is conditioned on a measurement. */
+  readonly usesBit: boolean;
+}
+
+/** Records the instances a lowering puts, as a shape. Ids below k + p are the qubit and persistent references. */
+export class ShapeRecorder implements InstanceSink {
+  private readonly t: number[] = [];
+  private readonly ref: number[] = [];
+  private readonly dies: number[] = [];
+  private readonly current = new Map<number, number>();
+  private next: number;
+
+  constructor(private readonly k: number, private readonly p: number) {
+    this.next = k + p;
+  }
+
+  put(t: number, a: number, b: number, c: number, dies: number): void {
+    this.t.push(t);
+    const ids = [a, b, c];
+    for (let s = 0; s < 3; s++) {
+      const v = ids[s]!;
+      if (s >= SLOTS[t]! || v < 0) {
+        this.ref.push(-1);
+        continue;
+      }
+      if (v < this.k + this.p) {
+        this.ref.push(v);
+        continue;
+      }
+      let r = this.current.get(v);
+      if (r === undefined) this.current.set(v, (r = this.next++));
+      this.ref.push(r);
+    }
+    this.dies.push(dies);
+    // A span ends with the instance whose slot dies: the id taken again is a new reference.
+    for (let s = 0; s < SLOTS[t]!; s++) if ((dies >>> s) & 1 && ids[s]! >= this.k + this.p) this.current.delete(ids[s]!);
+  }
+
+  finish(): Shape {
+    const n = this.t.length;
+    const t = Uint8Array.from(this.t);
+    const ref = Int32Array.from(this.ref);
+    const onVar: number[][] = Array.from({ length: this.k }, () => []);
+    let usesBit = false;
+    for (let j = 0; j < n; j++) {
+      const tt = t[j]!;
+      if (tt === T_MEASURE || tt === T_ERASE_HEAD || tt === T_ERASE_TAIL) usesBit = true;
+      for (let s = 0; s < SLOTS[tt]!; s++) {
+        const r = ref[j * 3 + s]!;
+        if (r >= 0 && r < this.k) onVar[r]!.push(j * 4 + s);
+      }
+    }
+    return { n, t, ref, dies: Uint8Array.from(this.dies), k: this.k, p: this.p, refs: this.next, onVar: onVar.map((l) => Int32Array.from(l)), usesBit };
+  }
+}
+
+/**
+ * The blocks of a circuit, in order, for the block counter. Qubit references of a block are
+ * search or target qubits (their wire is the qubit); `occurrence` numbers each (block, slot) so
+ * that the counter can chain a qubit's uses.
+ */
+export interface BlockSource {
+  /** Blocks, the last included. */
+  readonly blocks: number;
+  /** Search and target qubits (their wires come first). */
+  readonly base: number;
+  /** Persistent work references (same in every shape). */
+  readonly persistent: number;
+  /** The shape of an id. */
+  shape(id: number): Shape;
+  /** Block b (called once per block, in order): its shape id; its qubits into `vars`. */
+  next(b: number, vars: Int32Array): number;
+  /** The qubits of an earlier block (random access) into `vars`. */
+  varsOf(b: number, vars: Int32Array): void;
+  /** Occurrence number of slot q of block b, in [0, occurrences): each (block, qubit slot) has its own. */
+  occurrence(b: number, q: number): number;
+  /** The block of an occurrence. */
+  blockOf(occurrence: number): number;
+  /** Occurrence numbers. */
+  readonly occurrences: number;
+  /** Largest k over shapes (sizes buffers). */
+  readonly maxK: number;
+}
+
+/** Options of the block counter: as the engine's. */
+export interface BlockOptions {
+  readonly optimize: boolean;
+  readonly levels: boolean;
+  readonly progress?: (fraction: number) => void;
+}
+
+// ---- constants -----------------------------------------------------------------------------
+
+/** Live gates kept per work wire before the open block: a walk sees at most WINDOW + 1 (clearBetween). */
+const KEEP_LIVE = 17;
+/** Age of an instance older than the block before the open one: identified by the driver (absolute). */
+const ANCIENT = -1;
+/** Instance numbers per block in an absolute identity b * SPAN + j. */
+const SPAN = 1 << 22;
+/** Depths of a qubit's chain a key may hold, in instances. */
+const DEPTHS = [0, 1, 2, 4, 8, 16, 32, 64, 1 << 30];
+const NEG = -1e15;
+
+/** Gates of each template on each slot, as a mask: SLOT_MASK[t * 3 + s]. */
+const SLOT_MASK = new Int32Array(TEMPLATE_COUNT * 3);
+for (let t = 0; t < TEMPLATE_COUNT; t++) for (let s = 0; s < 3; s++) for (const g of SLOT_GATES[t * 3 + s]!) SLOT_MASK[t * 3 + s]! |= 1 << g;
+
+function popcount(x: number): number {
+  x = x - ((x >>> 1) & 0x55555555);
+  x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+  return (Math.imul((x + (x >>> 4)) & 0x0f0f0f0f, 0x01010101) >>> 24);
+}
+
+// ---- the cancellation state ----------------------------------------------------------------
+
+/** A cancellation state, decoded. */
+interface CState {
+  /** Work wires so far. */
+  readonly W: number;
+  /** Free work wires, bottom to top. */
+  readonly free: Int32Array;
+  /** Persistent reference -> work wire (-1: none yet, or freed). */
+  readonly per: Int32Array;
+  /** Instances, in circuit order: ancient ones first, then the block before the open one, then the open block. */
+  readonly n: number;
+  readonly age: Int32Array;
+  readonly j: Int32Array;
+  readonly t: Uint8Array;
+  /** Per slot: work wire w >= 0, qubit group g as -2 - g, -1 none. */
+  readonly ref: Int32Array;
+  /** Per instance, the slots on whose wire tail it is. */
+  readonly link: Uint8Array;
+  readonly dead: Int32Array;
+  readonly mask1: Int32Array;
+  readonly recheck: Int32Array;
+  /** Qubit groups (distinct search/target qubits referred to). */
+  readonly G: number;
+  /** Per group: its slot in the open block, or -1. */
+  readonly hotSlot: Int32Array;
+  /** Per work wire: instances before its tail exist. */
+  readonly trunc: Uint8Array;
+  /** Ancient instances (the first ones). */
+  readonly ancient: number;
+  /** First instance of the open block. */
+  readonly openStart: number;
+  /** Instance index of (age, j) for ages 0 and 1 (built on demand). */
+  recent?: Map<number, number>;
+}
+
+function encodeState(s: CState): Int32Array {
+  const out: number[] = [s.W, s.free.length, ...s.free, s.per.length, ...s.per, s.n, s.G, ...s.hotSlot, ...s.trunc];
+  for (let x = 0; x < s.n; x++) {
+    out.push(s.age[x]!, s.j[x]!, s.t[x]!, s.ref[x * 3]!, s.ref[x * 3 + 1]!, s.ref[x * 3 + 2]!, s.link[x]!, s.dead[x]!, s.mask1[x]!, s.recheck[x]!);
+  }
+  return Int32Array.from(out);
+}
+
+function decodeState(a: Int32Array): CState {
+  let p = 0;
+  const W = a[p++]!;
+  const nf = a[p++]!;
+  const free = a.slice(p, p + nf);
+  p += nf;
+  const np = a[p++]!;
+  const per = a.slice(p, p + np);
+  p += np;
+  const n = a[p++]!;
+  const G = a[p++]!;
+  const hotSlot = a.slice(p, p + G);
+  p += G;
+  const trunc = Uint8Array.from(a.subarray(p, p + W));
+  p += W;
+  const age = new Int32Array(n);
+  const j = new Int32Array(n);
+  const t = new Uint8Array(n);
+  const ref = new Int32Array(n * 3);
+  const link = new Uint8Array(n);
+  const dead = new Int32Array(n);
+  const mask1 = new Int32Array(n);
+  const recheck = new Int32Array(n);
+  let ancient = 0;
+  let openStart = n;
+  for (let x = 0; x < n; x++) {
+    age[x] = a[p++]!;
+    j[x] = a[p++]!;
+    t[x] = a[p++]!;
+    ref[x * 3] = a[p++]!;
+    ref[x * 3 + 1] = a[p++]!;
+    ref[x * 3 + 2] = a[p++]!;
+    link[x] = a[p++]!;
+    dead[x] = a[p++]!;
+    mask1[x] = a[p++]!;
+    recheck[x] = a[p++]!;
+    if (age[x] === ANCIENT) ancient++;
+    if (age[x] === 0 && openStart === n) openStart = x;
+  }
+  return { W, free, per, n, age, j, t, ref, link, dead, mask1, recheck, G, hotSlot, trunc, ancient, openStart };
+}
+
+/** What one block does to the cancellation state (a memo entry). */
+interface CValue {
+  readonly next: number;
+  /** Work wire of each reference of the block (-1 for qubit references), interned. */
+  readonly phys: number;
+  /** Final cancelled gates of the open block's instances, interned (-1: no open block). */
+  readonly deadClass: number;
+  /** The second cancel-inverses might act. */
+  readonly second: boolean;
+  /** Per ancient instance of the next state: ancient index in this one (>= 0), or -1 - index of an instance of the block before the open one. */
+  readonly ancientSrc: Int32Array;
+  /** Per group of the next state: group of this one (>= 0), or -1 - slot of the block. */
+  readonly groupSrc: Int32Array;
+  /**
+   * Cancellations into older instances, (where, index, cancelled gates) each: where 0 an instance
+   * of the state (not of the open block: those are in deadClass), 1 a projection of the key.
+   */
+  readonly kills: Int32Array;
+  /** Stage-2 walks done, (where, index, gates walked, gates finding a partner) each; where 0, 1 as in kills. */
+  readonly stage2: Int32Array;
+}
+
+/** Ref codes of a projected instance in a key. */
+const R_NONE = -1;
+const R_OUT = -2;
+const rGroup = (g: number): number => -3 - g;
+
+/** A chain position of a key: a qubit of the block or of the open block whose older instances may be needed. */
+interface ChainPos {
+  /** Group of the state (-1: a qubit new to the state). */
+  group: number;
+  /** Slot of the block (-1: a qubit of the open block only). */
+  slot: number;
+  /** The qubit. */
+  qubit: number;
+  /** Latest occurrence to project from. */
+  start: number;
+  depth: number;
+}
+
+export class BlockCounter {
+  private readonly src: BlockSource;
+  private readonly opts: BlockOptions;
+  private readonly base: number;
+  // Cancellation state.
+  private readonly states = new Interner();
+  private readonly decoded: CState[] = [];
+  private readonly memo = new KeyTable();
+  private readonly values: CValue[] = [];
+  private readonly refines: Int32Array[] = [];
+  private readonly physes = new Interner();
+  private readonly deadClasses = new Interner();
+  private state = 0;
+  private ancientAbs = new Float64Array(0);
+  private groupQubit = new Int32Array(0);
+  // Per block: shape, wires, cancelled gates (for projections and the tally).
+  private readonly blockShape: Int32Array;
+  private readonly blockPhys: Int32Array;
+  private readonly blockDead: Int32Array;
+  private readonly prevOcc: Int32Array;
+  private readonly lastOcc: Int32Array;
+  private second = false;
+  /** Gates whose latest stage-2 walk found a partner: (block * SPAN + j) * 32 + gate -> block * SPAN + j. */
+  private readonly positive = new Map<number, number>();
+  /** The projections of the last key built with some (their blocks, for a value's updates). */
+  private lastProj: Projected[] = [];
+  /** Replays done (memo misses), for the tests and the bench. */
+  replays = 0;
+  private instances = 0;
+  // Tally.
+  private readonly tally: Tally;
+  private keyBuf = new Int32Array(256);
+
+  constructor(src: BlockSource, opts: BlockOptions) {
+    this.src = src;
+    this.opts = opts;
+    this.base = src.base;
+    this.blockShape = new Int32Array(src.blocks);
+    this.blockPhys = new Int32Array(src.blocks);
+    this.blockDead = new Int32Array(src.blocks).fill(-1);
+    this.prevOcc = new Int32Array(src.occurrences).fill(-1);
+    this.lastOcc = new Int32Array(src.base).fill(-1);
+    const empty: CState = {
+      W: 0, free: new Int32Array(0), per: new Int32Array(src.persistent).fill(-1), n: 0, age: new Int32Array(0), j: new Int32Array(0),
+      t: new Uint8Array(0), ref: new Int32Array(0), link: new Uint8Array(0), dead: new Int32Array(0), mask1: new Int32Array(0),
+      recheck: new Int32Array(0), G: 0, hotSlot: new Int32Array(0), trunc: new Uint8Array(0), ancient: 0, openStart: 0,
+    };
+    this.state = this.intern(empty);
+    this.tally = opts.levels ? new LevelTally(src, opts.optimize) : new CountTally(src);
+  }
+
+  private intern(s: CState): number {
+    const id = this.states.id(encodeState(s));
+    if (this.decoded.length === id) this.decoded.push(decodeState(this.states.get(id)));
+    return id;
+  }
+
+  /** Counts the whole circuit; null when the block counting cannot go on (count with the engine). */
+  run(): EngineResult | null {
+    const src = this.src;
+    const vars = new Int32Array(Math.max(1, src.maxK));
+    const step = Math.max(1, Math.floor(src.blocks / 100));
+    const progress = this.opts.progress;
+    // Pass 1: cancellations, block by block; a block's cancelled gates may still change later
+    // (a wire left idle is taken up again many blocks on).
+    for (let b = 0; b < src.blocks; b++) {
+      if (progress && b % step === 0) progress((0.8 * b) / src.blocks);
+      const sh = src.next(b, vars);
+      const v = this.transition(b, sh, vars);
+      if (v === null) return null;
+      this.blockShape[b] = sh;
+      this.blockPhys[b] = v.phys;
+      if (b > 0) this.blockDead[b - 1] = v.deadClass;
+      const shape = src.shape(sh);
+      this.instances += shape.n;
+      for (let q = 0; q < shape.k; q++) {
+        const o = src.occurrence(b, q);
+        this.prevOcc[o] = this.lastOcc[vars[q]!]!;
+        this.lastOcc[vars[q]!] = o;
+      }
+    }
+    // The last block: its stage 2 and cancelled gates (an empty block after it).
+    if (src.blocks > 0) {
+      const v = this.transition(src.blocks, -1, vars);
+      if (v === null) return null;
+      this.blockDead[src.blocks - 1] = v.deadClass;
+    }
+    // Pass 2: the tally, in circuit order, over the final cancelled gates.
+    for (let b = 0; b < src.blocks; b++) {
+      if (progress && b % step === 0) progress(0.8 + (0.2 * b) / src.blocks);
+      this.tallyBlock(b);
+    }
+    // The second cancel-inverses: a gate still alive whose latest stage-2 walk found a partner.
+    let positive = false;
+    for (const [g, blockJ] of this.positive) {
+      const b = Math.floor(blockJ / SPAN);
+      const j = blockJ % SPAN;
+      const dead = this.blockDead[b]! >= 0 ? this.deadClasses.get(this.blockDead[b]!)[j]! : 0;
+      if (((dead >>> (g % 32)) & 1) === 0) positive = true;
+    }
+    const r = this.tally.finish(this.decoded[this.state]!.W);
+    const secondBound = this.second || positive || r.vanished;
+    const exact = !(this.opts.optimize && r.phaseGates >= 2 && secondBound);
+    return {
+      qubits: this.base + this.decoded[this.state]!.W,
+      tCount: r.tCount,
+      tDepth: r.tDepth,
+      cnotCount: r.cnotCount,
+      toffoliCount: r.toffoliCount,
+      depth: r.depth,
+      measurements: r.measurements,
+      instances: this.instances,
+      exact,
+      upperBound: !exact,
+      reason: exact ? null : "the second cancel-inverses might cancel more",
+      historyShort: false,
+      lagShort: false,
+      secondNeeded: false,
+    };
+  }
+
+  private tallyBlock(b: number): void {
+    const vars = this.tallyVars;
+    this.src.varsOf(b, vars);
+    this.tally.block(this.blockShape[b]!, this.blockDead[b]!, this.blockPhys[b]!, this.physes.get(this.blockPhys[b]!), vars, this.deadClasses);
+  }
+  private readonly tallyVars = new Int32Array(256);
+
+  // ---- one block of the cancellation state machine ---------------------------------------
+
+  /** Block b (shape sh; -1: the empty block after the last) over the current state. */
+  private transition(b: number, sh: number, vars: Int32Array): CValue | null {
+    const S = this.decoded[this.state]!;
+    const shape = sh >= 0 ? this.src.shape(sh) : null;
+    const k = shape?.k ?? 0;
+    // Chain positions: the open block's qubits (hot groups), then the block's other qubits.
+    const pos: ChainPos[] = [];
+    const slotGroup = new Int32Array(k).fill(-1);
+    for (let q = 0; q < k; q++) {
+      for (let g = 0; g < S.G; g++) if (this.groupQubit[g] === vars[q]) slotGroup[q] = g;
+    }
+    for (let g = 0; g < S.G; g++) {
+      if (S.hotSlot[g]! < 0) continue;
+      let slot = -1;
+      for (let q = 0; q < k; q++) if (slotGroup[q] === g) slot = q;
+      const o = this.src.occurrence(b - 1, S.hotSlot[g]!);
+      pos.push({ group: g, slot, qubit: this.groupQubit[g]!, start: this.prevOcc[o]!, depth: 0 });
+    }
+    for (let q = 0; q < k; q++) {
+      const g = slotGroup[q]!;
+      if (g >= 0 && S.hotSlot[g]! >= 0) continue;
+      pos.push({ group: g, slot: q, qubit: vars[q]!, start: this.lastOcc[vars[q]!]!, depth: 0 });
+    }
+    for (let round = 0; ; round++) {
+      const n = this.buildKey(b, sh, k, slotGroup, pos);
+      let e = this.memo.get(this.keyBuf, n);
+      if (!pos.some((p) => p.depth > 0)) this.lastProj = [];
+      if (e === -1) {
+        this.replays++;
+        const proj = this.projections(b, S, pos);
+        const r = this.replay(b, S, shape, k, slotGroup, pos, proj);
+        if (r === null) return null;
+        if (r instanceof Int32Array) {
+          e = -2 - this.refines.length;
+          this.refines.push(r);
+        } else {
+          e = this.values.length;
+          this.values.push(r);
+        }
+        this.memo.set(this.keyBuf, n, e);
+      }
+      if (e >= 0) {
+        const v = this.values[e]!;
+        this.apply(b, S, v, vars, k);
+        return v;
+      }
+      // More of the chains named, then again.
+      const ask = this.refines[-2 - e]!;
+      let grew = false;
+      for (const p of ask) {
+        const c = pos[p]!;
+        const d = DEPTHS.indexOf(c.depth);
+        if (d + 1 < DEPTHS.length) {
+          c.depth = DEPTHS[d + 1]!;
+          grew = true;
+        }
+      }
+      if (!grew || round > 64) return this.giveUp(b, "a walk needs more than the chains hold");
+    }
+  }
+
+  private apply(b: number, S: CState, v: CValue, vars: Int32Array, k: number): void {
+    const N = this.decoded[v.next]!;
+    const abs = new Float64Array(N.ancient);
+    for (let x = 0; x < N.ancient; x++) {
+      const s = v.ancientSrc[x]!;
+      if (s >= 0) abs[x] = this.ancientAbs[s]!;
+      else {
+        const y = -1 - s;
+        abs[x] = (b - 1 - S.age[y]!) * SPAN + S.j[y]!;
+      }
+    }
+    const gq = new Int32Array(N.G);
+    for (let g = 0; g < N.G; g++) {
+      const s = v.groupSrc[g]!;
+      gq[g] = s >= 0 ? this.groupQubit[s]! : vars[-1 - s]!;
+    }
+    void k;
+    // Where the state's instances and the key's projections come from, as block * SPAN + j.
+    const absOf = (where: number, x: number): number => {
+      if (where === 1) return this.lastProj[x]!.block * SPAN + this.lastProj[x]!.j;
+      if (S.age[x] === ANCIENT) return this.ancientAbs[x]!;
+      return (b - 1 - S.age[x]!) * SPAN + S.j[x]!;
+    };
+    for (let i = 0; i < v.kills.length; i += 3) {
+      const a = absOf(v.kills[i]!, v.kills[i + 1]!);
+      const ob = Math.floor(a / SPAN);
+      const d = Int32Array.from(this.deadClasses.get(this.blockDead[ob]!));
+      d[a % SPAN] = v.kills[i + 2]!;
+      this.blockDead[ob] = this.deadClasses.id(d);
+    }
+    for (let i = 0; i < v.stage2.length; i += 4) {
+      const a = absOf(v.stage2[i]!, v.stage2[i + 1]!);
+      const walked = v.stage2[i + 2]!;
+      const pos = v.stage2[i + 3]!;
+      for (let m = walked; m !== 0; m &= m - 1) {
+        const p = 31 - Math.clz32(m & -m);
+        if ((pos >>> p) & 1) this.positive.set(a * 32 + p, a);
+        else this.positive.delete(a * 32 + p);
+      }
+    }
+    this.ancientAbs = abs;
+    this.groupQubit = gq;
+    this.state = v.next;
+    if (v.second) this.second = true;
+  }
+
+  /** The key of block b over the current state, with the chain depths asked for, into keyBuf; returns its length. */
+  private buildKey(b: number, sh: number, k: number, slotGroup: Int32Array, pos: ChainPos[]): number {
+    let n = 0;
+    const need = 8 + k + pos.length * 4;
+    if (this.keyBuf.length < need) this.keyBuf = new Int32Array(need * 2);
+    const key = this.keyBuf;
+    key[n++] = this.state;
+    key[n++] = sh;
+    for (let q = 0; q < k; q++) key[n++] = slotGroup[q]!;
+    key[n++] = pos.length;
+    let deep = false;
+    for (const p of pos) {
+      key[n++] = p.depth;
+      key[n++] = p.start >= 0 ? 1 : 0;
+      if (p.depth > 0) deep = true;
+    }
+    if (!deep) return n;
+    // Projections named in the key: their content.
+    const S = this.decoded[this.state]!;
+    const proj = this.projections(b, S, pos);
+    this.lastProj = proj.entries;
+    for (const e of proj.entries) {
+      if (n + 16 > key.length) {
+        const bigger = new Int32Array(key.length * 2);
+        bigger.set(key);
+        this.keyBuf = bigger;
+      }
+      const kb = this.keyBuf;
+      kb[n++] = e.kind;
+      kb[n++] = e.a;
+      kb[n++] = e.s;
+      kb[n++] = e.chain;
+      if (e.kind === 0) {
+        kb[n++] = e.t;
+        kb[n++] = e.r0;
+        kb[n++] = e.r1;
+        kb[n++] = e.r2;
+        kb[n++] = e.dead;
+        kb[n++] = e.pos;
+      }
+    }
+    for (const p of pos) {
+      if (this.keyBuf.length < n + 2) {
+        const bigger = new Int32Array(this.keyBuf.length * 2);
+        bigger.set(this.keyBuf);
+        this.keyBuf = bigger;
+      }
+      this.keyBuf[n++] = proj.more[pos.indexOf(p)]!;
+    }
+    return n;
+  }
+
+  /**
+   * The instances the key's chains name, newest first per chain: an instance of the state (kind
+   * 1, a = its index), one already named by an earlier chain (kind 2, a = its entry), or one known
+   * only through its block (kind 0, with what a walk along the qubit can see: its template, its
+   * slots' wires as key refs, its cancelled gates on that qubit, and where it stands among the
+   * state's instances).
+   */
+  private projections(b: number, S: CState, pos: ChainPos[]): { entries: Projected[]; more: Int32Array } {
+    const entries: Projected[] = [];
+    const more = new Int32Array(pos.length);
+    const seen = new Map<number, number>();
+    const vars = new Int32Array(Math.max(1, this.src.maxK));
+    for (let c = 0; c < pos.length; c++) {
+      const p = pos[c]!;
+      let left = p.depth;
+      let occ = p.start;
+      let pending: number[] = [];
+      let pi = 0;
+      let ob = -1;
+      while (left > 0) {
+        if (pi >= pending.length) {
+          if (occ < 0) break;
+          ob = this.src.blockOf(occ);
+          const shape = this.src.shape(this.blockShape[ob]!);
+          // The slot of this occurrence: the qubit's reference in that block.
+          this.src.varsOf(ob, vars);
+          let q0 = -1;
+          for (let q = 0; q < shape.k; q++) if (vars[q] === p.qubit) q0 = q;
+          pending = q0 < 0 ? [] : Array.from(shape.onVar[q0]!).reverse();
+          pi = 0;
+          occ = this.prevOcc[occ]!;
+          continue;
+        }
+        const js = pending[pi++]!;
+        left--;
+        const j = js >> 2;
+        const s = js & 3;
+        const absId = ob * SPAN + j;
+        const again = seen.get(absId);
+        if (again !== undefined) {
+          entries.push({ kind: 2, a: again, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, dead: 0, pos: 0, block: ob, j });
+          continue;
+        }
+        const inState = this.stateIndex(S, b, ob, j);
+        if (inState >= 0) {
+          seen.set(absId, entries.length);
+          entries.push({ kind: 1, a: inState, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, dead: 0, pos: 0, block: ob, j });
+          continue;
+        }
+        const shape = this.src.shape(this.blockShape[ob]!);
+        const phys = this.physes.get(this.blockPhys[ob]!);
+        const t = shape.t[j]!;
+        this.src.varsOf(ob, vars);
+        const r = [R_NONE, R_NONE, R_NONE];
+        for (let s2 = 0; s2 < SLOTS[t]!; s2++) {
+          const lr = shape.ref[j * 3 + s2]!;
+          if (lr < 0) continue;
+          if (lr < shape.k) {
+            const qb = vars[lr]!;
+            let code = R_OUT;
+            for (let g = 0; g < S.G; g++) if (this.groupQubit[g] === qb) code = rGroup(g);
+            if (code === R_OUT) for (let c2 = 0; c2 < pos.length; c2++) if (pos[c2]!.group < 0 && pos[c2]!.qubit === qb) code = rGroup(S.G + c2);
+            r[s2] = code;
+          } else r[s2] = phys[lr]!;
+        }
+        const dc = this.deadClasses.get(this.blockDead[ob]!);
+        seen.set(absId, entries.length);
+        entries.push({ kind: 0, a: 0, s, chain: c, t, r0: r[0]!, r1: r[1]!, r2: r[2]!, dead: dc[j]! & SLOT_MASK[t * 3 + s]!, pos: this.insertAt(S, b, ob, j), block: ob, j });
+      }
+      more[c] = pi < pending.length || occ >= 0 ? 1 : 0;
+    }
+    return { entries, more };
+  }
+
+  /** Index in the state of instance j of block ob (the open block is b - 1), or -1. */
+  private stateIndex(S: CState, b: number, ob: number, j: number): number {
+    const age = b - 1 - ob;
+    if (age <= 1) {
+      if (S.recent === undefined) {
+        S.recent = new Map();
+        for (let x = S.ancient; x < S.n; x++) S.recent.set(S.age[x]! * SPAN + S.j[x]!, x);
+      }
+      return S.recent.get(age * SPAN + j) ?? -1;
+    }
+    const absId = ob * SPAN + j;
+    for (let x = 0; x < S.ancient; x++) if (this.ancientAbs[x] === absId) return x;
+    return -1;
+  }
+
+  /** How many of the state's instances come before instance j of block ob (not in the state). */
+  private insertAt(S: CState, b: number, ob: number, j: number): number {
+    const age = b - 1 - ob;
+    const absId = ob * SPAN + j;
+    let x = 0;
+    while (x < S.ancient && this.ancientAbs[x]! < absId) x++;
+    if (age > 1) return x;
+    x = S.ancient;
+    while (x < S.n && (S.age[x]! > age || (S.age[x] === age && S.j[x]! < j))) x++;
+    return x;
+  }
+
+  // ---- a replay (memo miss) ---------------------------------------------------------------
+
+  /** Why the block counting stopped (for the tests and CG_BLOCKS_DEBUG). */
+  stopped: string | null = null;
+
+  private giveUp(b: number, why: string): null {
+    this.stopped = `block ${b}: ${why}`;
+    if (process.env.CG_BLOCKS_DEBUG) console.error(this.stopped);
+    return null;
+  }
+
+  /**
+   * Replays block b over the state with a small engine. Returns the memo value, the chain
+   * positions to deepen (their walks reached what the key left out), or null (a cancellation
+   * reached a block already tallied).
+   */
+  private replay(b: number, S: CState, shape: Shape | null, k: number, slotGroup: Int32Array, pos: ChainPos[], proj: { entries: Projected[]; more: Int32Array }): CValue | Int32Array | null {
+    const G = S.G;
+    // Wires of the replay: state groups, the block's new qubits, work wires, one "elsewhere".
+    const slotWire = new Int32Array(k);
+    for (let q = 0; q < k; q++) slotWire[q] = slotGroup[q]! >= 0 ? slotGroup[q]! : G + q;
+    // Chain positions without a group get a wire (a new qubit of the block).
+    const chainWire = pos.map((p) => (p.group >= 0 ? p.group : G + p.slot));
+    const maxW = S.W + (shape ? shape.refs : 0) + 1;
+    const offW = G + k;
+    const OUT = offW + maxW;
+    const nw = OUT + 1;
+    const truncated = new Uint8Array(nw);
+    for (let g = 0; g < G; g++) truncated[g] = 1;
+    for (let q = 0; q < k; q++) truncated[G + q] = 1;
+    for (let c = 0; c < pos.length; c++) truncated[chainWire[c]!] = proj.more[c]!;
+    for (let w = 0; w < S.W; w++) truncated[offW + w] = S.trunc[w]!;
+    truncated[OUT] = 1;
+    const eng = new CountingEngine({ base: nw, optimize: this.opts.optimize, levels: false, lag: Infinity, wires: nw, ids: nw + 1, second: true, truncated });
+    // Context: the state's instances with the projections inserted where they stand.
+    const extraLink = new Uint8Array(S.n);
+    const projLink = new Uint8Array(proj.entries.length);
+    for (let e = 0; e < proj.entries.length; e++) {
+      const p = proj.entries[e]!;
+      if (p.kind === 1) extraLink[p.a] = extraLink[p.a]! | (1 << p.s);
+      else if (p.kind === 2) {
+        const first = proj.entries[p.a]!;
+        if (first.kind === 1) extraLink[first.a] = extraLink[first.a]! | (1 << p.s);
+        else projLink[p.a] = projLink[p.a]! | (1 << p.s);
+      } else projLink[e] = projLink[e]! | (1 << p.s);
+    }
+    const keyWire = (code: number): number => {
+      if (code >= 0) return offW + code;
+      if (code === R_NONE || code === R_OUT) return OUT;
+      const g = -3 - code;
+      return g < G ? g : chainWire[g - G]!;
+    };
+    const stateWire = (code: number): number => (code >= 0 ? offW + code : code === -1 ? OUT : -2 - code);
+    const idOf = new Int32Array(S.n);
+    // Projected instances by insertion point, oldest first (chains are listed newest first).
+    const byPos: number[][] = Array.from({ length: S.n + 1 }, () => []);
+    for (let e = proj.entries.length - 1; e >= 0; e--) if (proj.entries[e]!.kind === 0) byPos[proj.entries[e]!.pos]!.push(e);
+    // Instances before the open block had their stage 2: preloaded as if just done (mask1 = dead),
+    // so that restage sees only what this block changes.
+    const projId = new Int32Array(proj.entries.length).fill(-1);
+    const putProjected = (e: number): void => {
+      const p = proj.entries[e]!;
+      projId[e] = eng.preload(p.t, keyWire(p.r0), keyWire(p.r1), keyWire(p.r2), projLink[e]!, p.dead, p.dead, 0);
+    };
+    for (let x = 0; x <= S.n; x++) {
+      for (const e of byPos[x]!) putProjected(e);
+      if (x === S.n) break;
+      const open = x >= S.openStart;
+      idOf[x] = eng.preload(S.t[x]!, stateWire(S.ref[x * 3]!), stateWire(S.ref[x * 3 + 1]!), stateWire(S.ref[x * 3 + 2]!), S.link[x]! | extraLink[x]!, S.dead[x]!, open ? S.mask1[x]! : S.dead[x]!, open ? S.recheck[x]! : 0);
+    }
+    const NP = eng.instances;
+    // Work-qubit reuse for the block (as engine.put: wires at first use, freed after the last).
+    const free = Array.from(S.free);
+    const per = Int32Array.from(S.per);
+    let W = S.W;
+    const phys = new Int32Array(shape ? shape.refs : 0).fill(-1);
+    const cur = new Int32Array(shape ? shape.refs : 0).fill(-1);
+    if (shape) {
+      for (let r = shape.k; r < shape.k + shape.p; r++) cur[r] = per[r - shape.k]!;
+      for (let j = 0; j < shape.n; j++) {
+        const t = shape.t[j]!;
+        const touch = FIRST_TOUCH[t]!;
+        for (let i = 0; i < touch.length; i++) {
+          const r = shape.ref[j * 3 + touch[i]!]!;
+          if (r < shape.k) continue;
+          if (cur[r]! < 0) {
+            cur[r] = free.length > 0 ? free.pop()! : W++;
+            if (r >= shape.k + shape.p) phys[r] = cur[r]!;
+            else per[r - shape.k] = cur[r]!;
+          }
+          if (phys[r]! < 0) phys[r] = cur[r]!;
+        }
+        const w3 = [0, 0, 0];
+        for (let s = 0; s < 3; s++) {
+          const r = shape.ref[j * 3 + s]!;
+          w3[s] = r < 0 ? OUT : r < shape.k ? slotWire[r]! : offW + cur[r]!;
+        }
+        eng.put(t, w3[0]!, w3[1]!, w3[2]!, 0);
+        const dies = shape.dies[j]!;
+        if (dies !== 0) {
+          const order = LAST_TOUCH[t]!;
+          for (let i = 0; i < order.length; i++) {
+            const s = order[i]!;
+            if (((dies >>> s) & 1) === 0) continue;
+            const r = shape.ref[j * 3 + s]!;
+            if (r < shape.k) continue;
+            free.push(cur[r]!);
+            cur[r] = -1;
+            if (r < shape.k + shape.p) per[r - shape.k] = -1;
+          }
+        }
+      }
+    }
+    // Stage 2 of the open block, and again for older instances a cancellation here may let walk
+    // further (the latest walk of a gate is the one that counts: see run).
+    const stage2: number[] = [];
+    for (let x = 0; x < S.n; x++) {
+      const [walked, positive] = eng.restage(idOf[x]!);
+      if (walked !== 0) stage2.push(0, x, walked, positive);
+    }
+    for (let e = 0; e < proj.entries.length; e++) {
+      if (projId[e]! < 0) continue;
+      const [walked, positive] = eng.restage(projId[e]!);
+      if (walked !== 0) stage2.push(1, e, walked, positive);
+    }
+    const kills: number[] = [];
+    for (let x = 0; x < S.openStart; x++) if (eng.deadOf(idOf[x]!) !== S.dead[x]) kills.push(0, x, eng.deadOf(idOf[x]!));
+    for (let e = 0; e < proj.entries.length; e++) {
+      if (projId[e]! >= 0 && eng.deadOf(projId[e]!) !== proj.entries[e]!.dead) {
+        // Only the gates on the projected qubit are known: a cancellation of another would be unseen.
+        return this.giveUp(b, "a cancellation reached a projected instance");
+      }
+    }
+    if (eng.truncatedHits.length > 0) {
+      const ask = new Set<number>();
+      for (const w of eng.truncatedHits) {
+        const c = chainWire.indexOf(w);
+        if (c < 0) return this.giveUp(b, `a walk reached the start of wire ${w} (groups ${G}, slots ${k}, work from ${offW})`);
+        ask.add(c);
+      }
+      return Int32Array.from(ask);
+    }
+    const total = eng.instances;
+    // The open block's final cancelled gates, in block order.
+    let deadClass = -1;
+    if (S.openStart < S.n) {
+      const d = new Int32Array(S.n - S.openStart);
+      for (let x = S.openStart; x < S.n; x++) d[S.j[x]!] = eng.deadOf(idOf[x]!);
+      deadClass = this.deadClasses.id(d);
+    }
+    // The next state: every work wire's tail (the block's instances and 17 live gates before), the
+    // block's qubits' instances of this block.
+    const stateOfId = new Int32Array(total).fill(-1);
+    for (let x = 0; x < S.n; x++) stateOfId[idOf[x]!] = x;
+    const keep = new Uint8Array(total);
+    const linkOf = new Uint8Array(total);
+    const trunc = new Uint8Array(W);
+    for (let w = 0; w < W; w++) {
+      let e = eng.lastOn(offW + w);
+      let live = 0;
+      while (e >= 0) {
+        const id = e >> 2;
+        const s = e & 3;
+        if (id < NP) {
+          if (live >= KEEP_LIVE) break;
+          if (stateOfId[id]! < 0) throw new Error("block counter: a projected instance on a work wire");
+          live += popcount(SLOT_MASK[S.t[stateOfId[id]!]! * 3 + s]! & ~eng.deadOf(id));
+        }
+        keep[id] = 1;
+        linkOf[id] = linkOf[id]! | (1 << s);
+        e = eng.prevOn(id, s);
+      }
+      trunc[w] = e >= 0 ? 1 : w < S.W ? S.trunc[w]! : 0;
+    }
+    for (let q = 0; q < k; q++) {
+      for (let e = eng.lastOn(slotWire[q]!); e >= 0 && e >> 2 >= NP; e = eng.prevOn(e >> 2, e & 3)) {
+        keep[e >> 2] = 1;
+        linkOf[e >> 2] = linkOf[e >> 2]! | (1 << (e & 3));
+      }
+    }
+    for (let id = NP; id < total; id++) keep[id] = 1;
+    // Instances of the next state in circuit order; groups numbered by first reference.
+    const nAge: number[] = [];
+    const nJ: number[] = [];
+    const nT: number[] = [];
+    const nRef: number[] = [];
+    const nLink: number[] = [];
+    const nDead: number[] = [];
+    const nMask1: number[] = [];
+    const nRecheck: number[] = [];
+    const ancientSrc: number[] = [];
+    const groupOfWire = new Map<number, number>();
+    const groupSrc: number[] = [];
+    const hot: number[] = [];
+    const groupFor = (wire: number): number => {
+      let g = groupOfWire.get(wire);
+      if (g === undefined) {
+        g = groupSrc.length;
+        groupOfWire.set(wire, g);
+        const slot = slotWire.indexOf(wire);
+        groupSrc.push(wire < G ? wire : -1 - slot);
+        hot.push(slot);
+      }
+      return g;
+    };
+    for (let id = 0; id < total; id++) {
+      if (!keep[id]) continue;
+      const x = stateOfId[id]!;
+      let age: number;
+      let j: number;
+      let t: number;
+      const refs = [-1, -1, -1];
+      if (x >= 0) {
+        age = S.age[x] === ANCIENT || S.age[x] === 1 ? ANCIENT : 1;
+        j = age === ANCIENT ? -1 : S.j[x]!;
+        t = S.t[x]!;
+        if (age === ANCIENT) ancientSrc.push(S.age[x] === ANCIENT ? ancientIndex(S, x) : -1 - x);
+        for (let s = 0; s < 3; s++) {
+          const c = S.ref[x * 3 + s]!;
+          refs[s] = c >= 0 ? c : c === -1 ? -1 : -2 - groupFor(-2 - c);
+        }
+      } else {
+        j = id - NP;
+        age = 0;
+        t = shape!.t[j]!;
+        for (let s = 0; s < 3; s++) {
+          const r = shape!.ref[j * 3 + s]!;
+          refs[s] = r < 0 ? -1 : r < shape!.k ? -2 - groupFor(slotWire[r]!) : phys[r]! >= 0 ? phys[r]! : -1;
+        }
+      }
+      nAge.push(age);
+      nJ.push(j);
+      nT.push(t);
+      nRef.push(refs[0]!, refs[1]!, refs[2]!);
+      nLink.push(linkOf[id]!);
+      nDead.push(eng.deadOf(id));
+      nMask1.push(age === 0 ? eng.mask1Of(id) : 0);
+      nRecheck.push(age === 0 ? eng.recheckOf(id) : 0);
+    }
+    // A block qubit with no instance still gets its group (the next block may share it).
+    for (let q = 0; q < k; q++) groupFor(slotWire[q]!);
+    const N: CState = {
+      W, free: Int32Array.from(free), per, n: nAge.length, age: Int32Array.from(nAge), j: Int32Array.from(nJ), t: Uint8Array.from(nT),
+      ref: Int32Array.from(nRef), link: Uint8Array.from(nLink), dead: Int32Array.from(nDead), mask1: Int32Array.from(nMask1),
+      recheck: Int32Array.from(nRecheck), G: groupSrc.length, hotSlot: Int32Array.from(hot), trunc, ancient: ancientSrc.length,
+      openStart: 0,
+    };
+    const next = this.intern(N);
+    return {
+      next, phys: this.physes.id(phys), deadClass, second: eng.secondReason !== null,
+      ancientSrc: Int32Array.from(ancientSrc), groupSrc: Int32Array.from(groupSrc), kills: Int32Array.from(kills), stage2: Int32Array.from(stage2),
+    };
+  }
+}
+
+function ancientIndex(S: CState, x: number): number {
+  // Ancient instances come first, in order: the index is x itself.
+  void S;
+  return x;
+}
+
+interface Projected {
+  kind: number;
+  a: number;
+  s: number;
+  chain: number;
+  t: number;
+  r0: number;
+  r1: number;
+  r2: number;
+  dead: number;
+  pos: number;
+  block: number;
+  j: number;
+}
+
+// ---- the tally ----------------------------------------------------------------------------
+
+interface TallyResult {
+  tCount: number;
+  cnotCount: number;
+  toffoliCount: number;
+  measurements: number;
+  phaseGates: number;
+  depth: number;
+  tDepth: number;
+  vanished: boolean;
+}
+
+interface Tally {
+  block(shape: number, deadClass: number, physId: number, phys: Int32Array, vars: Int32Array, deads: Interner): void;
+  finish(workWires: number): TallyResult;
+}
+
+/** Counts only (a toffoli-basis run): the live gates of each block, as engine.settle without levels. */
+class CountTally implements Tally {
+  private readonly memo = new KeyTable();
+  private readonly rows: number[][] = [];
+  private readonly key = new Int32Array(2);
+  private readonly sum = [0, 0, 0, 0, 0];
+
+  constructor(private readonly src: BlockSource) {}
+
+  block(shape: number, deadClass: number, _physId: number, _phys: Int32Array, _vars: Int32Array, deads: Interner): void {
+    this.key[0] = shape;
+    this.key[1] = deadClass;
+    let e = this.memo.get(this.key, 2);
+    if (e < 0) {
+      const sh = this.src.shape(shape);
+      const dead = deadClass >= 0 ? deads.get(deadClass) : new Int32Array(sh.n);
+      const row = [0, 0, 0, 0, 0];
+      for (let j = 0; j < sh.n; j++) {
+        const t = sh.t[j]!;
+        const base = GATE_START[t]!;
+        for (let p = 0; p < gatesOf(t); p++) {
+          if ((dead[j]! >>> p) & 1) continue;
+          const kk = G_KIND[base + p]!;
+          if (kk === K.t || kk === K.tdg) row[0]!++;
+          else if (kk === K.cx || kk === K.cz) row[1]!++;
+          else if (kk === K.ccx) row[2]!++;
+          else if (kk === K.measure) row[3]!++;
+          if (G_PHASE[base + p]! >= 0) row[4]!++;
+        }
+      }
+      e = this.rows.length;
+      this.rows.push(row);
+      this.memo.set(this.key, 2, e);
+    }
+    const row = this.rows[e]!;
+    for (let i = 0; i < 5; i++) this.sum[i]! += row[i]!;
+  }
+
+  finish(): TallyResult {
+    const [tCount, cnotCount, toffoliCount, measurements, phaseGates] = this.sum as [number, number, number, number, number];
+    return { tCount, cnotCount, toffoliCount, measurements, phaseGates, depth: 0, tDepth: 0, vanished: false };
+  }
+}
+
+/** A level state, decoded: the work wires the last block touched (and the classical bit, wire -1), relative to the highest. */
+interface LState {
+  readonly n: number;
+  readonly wire: Int32Array;
+  readonly rel: Int32Array;
+  readonly relT: Int32Array;
+  readonly pend: Uint8Array;
+  /** Index of a wire in this state (built on demand). */
+  at?: Map<number, number>;
+}
+
+/** A block's effect on the levels (a memo entry). Inputs: the block's wires not in the state ("cold"). */
+interface LValue {
+  readonly next: number;
+  readonly dL: number;
+  readonly dT: number;
+  /** Per cold input: how high (relative to the state's reference) it may be without reaching a state wire's level. */
+  readonly tauL: Float64Array;
+  readonly tauT: Float64Array;
+  /** Per qubit of the block: its level from the state's wires (relative; NEG: none) and per cold input the path length (NEG: none). */
+  readonly outL: Float64Array;
+  readonly outT: Float64Array;
+  readonly dl: Float64Array;
+  readonly dt: Float64Array;
+  readonly outPend: Uint8Array;
+  /** State wires the block does not touch: (wire, rel, relT, pend) each, to store as numbers. */
+  readonly demote: Int32Array;
+  readonly counts: Float64Array;
+  readonly vanished: boolean;
+}
+
+const BIT = -1;
+const DOM = -2147483648;
+
+/** Levels, merge-phases and counts of each block (engine.settle with levels), block by block. */
+class LevelTally implements Tally {
+  private readonly states = new Interner();
+  private readonly decoded: LState[] = [];
+  private readonly memo = new KeyTable();
+  private readonly values: LValue[] = [];
+  private state: number;
+  private ref = 0;
+  private refT = 0;
+  private varL: Float64Array;
+  private varT: Float64Array;
+  private varP: Uint8Array;
+  private workL = new Float64Array(64);
+  private workT = new Float64Array(64);
+  private workP = new Uint8Array(64);
+  private bitL = 0;
+  private bitT = 0;
+  private readonly sum = [0, 0, 0, 0, 0];
+  private vanished = false;
+  private key = new Int32Array(64);
+
+  constructor(private readonly src: BlockSource, private readonly optimize: boolean) {
+    this.varL = new Float64Array(src.base);
+    this.varT = new Float64Array(src.base);
+    this.varP = new Uint8Array(src.base);
+    this.state = this.intern({ n: 0, wire: new Int32Array(0), rel: new Int32Array(0), relT: new Int32Array(0), pend: new Uint8Array(0) });
+  }
+
+  private intern(s: LState): number {
+    const a = new Int32Array(1 + 4 * s.n);
+    a[0] = s.n;
+    for (let i = 0; i < s.n; i++) {
+      a[1 + i] = s.wire[i]!;
+      a[1 + s.n + i] = s.rel[i]!;
+      a[1 + 2 * s.n + i] = s.relT[i]!;
+      a[1 + 3 * s.n + i] = s.pend[i]!;
+    }
+    const id = this.states.id(a);
+    if (id === this.decoded.length) this.decoded.push(s);
+    return id;
+  }
+
+  private room(w: number): void {
+    if (w < this.workL.length) return;
+    const n = Math.max(w + 1, this.workL.length * 2);
+    const l = new Float64Array(n);
+    l.set(this.workL);
+    this.workL = l;
+    const t = new Float64Array(n);
+    t.set(this.workT);
+    this.workT = t;
+    const p = new Uint8Array(n);
+    p.set(this.workP);
+    this.workP = p;
+  }
+
+  block(shapeId: number, deadClass: number, physId: number, phys: Int32Array, vars: Int32Array, deads: Interner): void {
+    const sh = this.src.shape(shapeId);
+    const S = this.decoded[this.state]!;
+    if (S.at === undefined) {
+      S.at = new Map();
+      for (let i = 0; i < S.n; i++) S.at.set(S.wire[i]!, i);
+    }
+    // The block's wires: qubits, work wires in order of first use, the bit; which are cold.
+    const inputs = blockInputs(sh, phys);
+    const cold: number[] = [];
+    for (let i = 0; i < inputs.length; i++) {
+      const w = inputs[i]!;
+      if (w.kind !== 1 || !S.at.has(w.id)) {
+        if (w.kind === 2 && S.at.has(BIT)) continue;
+        cold.push(i);
+      }
+    }
+    let n = 0;
+    const need = 8 + cold.length * 3;
+    if (this.key.length < need) this.key = new Int32Array(need * 2);
+    const key = this.key;
+    key[n++] = this.state;
+    key[n++] = shapeId;
+    key[n++] = deadClass;
+    key[n++] = physId;
+    const pends = new Uint8Array(cold.length);
+    for (let c = 0; c < cold.length; c++) key[n++] = pends[c] = this.pendOf(inputs[cold[c]!]!, vars);
+    const n0 = n;
+    let e = this.memo.get(key, n);
+    let exact: Float64Array | null = null;
+    if (e < 0) {
+      e = this.values.length;
+      this.values.push(this.compute(sh, deadClass, phys, deads, inputs, cold, pends, null));
+      this.memo.set(key, n, e);
+    }
+    let v = this.values[e]!;
+    // The cold inputs must not reach the state's wires above what the entry assumed.
+    let ok = true;
+    for (let c = 0; c < cold.length; c++) {
+      const [l, t] = this.levelOf(inputs[cold[c]!]!, vars);
+      if (l - this.ref > v.tauL[c]! || t - this.refT > v.tauT[c]!) ok = false;
+    }
+    if (!ok) {
+      exact = new Float64Array(cold.length * 2);
+      n = n0;
+      for (let c = 0; c < cold.length; c++) {
+        const [l, t] = this.levelOf(inputs[cold[c]!]!, vars);
+        const rl = l - this.ref;
+        const rt = t - this.refT;
+        exact[c * 2] = rl <= v.tauL[c]! ? NEG : rl;
+        exact[c * 2 + 1] = rt <= v.tauT[c]! ? NEG : rt;
+        key[n++] = exact[c * 2] === NEG ? DOM : rl;
+        key[n++] = exact[c * 2 + 1] === NEG ? DOM : rt;
+      }
+      e = this.memo.get(key, n);
+      if (e < 0) {
+        e = this.values.length;
+        this.values.push(this.compute(sh, deadClass, phys, deads, inputs, cold, pends, exact));
+        this.memo.set(key, n, e);
+      }
+      v = this.values[e]!;
+      for (let c = 0; c < cold.length; c++) {
+        if (exact[c * 2] !== NEG && exact[c * 2 + 1] !== NEG) continue;
+        const [l, t] = this.levelOf(inputs[cold[c]!]!, vars);
+        if ((exact[c * 2] === NEG && l - this.ref > v.tauL[c]!) || (exact[c * 2 + 1] === NEG && t - this.refT > v.tauT[c]!)) {
+          throw new Error("block counter: a level assumed below its bound is not");
+        }
+      }
+    }
+    // Qubit outputs (from the inputs before any is written).
+    const k = sh.k;
+    const outL = new Float64Array(k);
+    const outT = new Float64Array(k);
+    for (let q = 0; q < k; q++) {
+      let l = v.outL[q]! === NEG ? NEG : v.outL[q]! + this.ref;
+      let t = v.outT[q]! === NEG ? NEG : v.outT[q]! + this.refT;
+      for (let c = 0; c < cold.length; c++) {
+        const dl = v.dl[q * cold.length + c]!;
+        const dt = v.dt[q * cold.length + c]!;
+        if (dl === NEG && dt === NEG) continue;
+        const [il, it] = this.levelOf(inputs[cold[c]!]!, vars);
+        if (dl !== NEG && il + dl > l) l = il + dl;
+        if (dt !== NEG && it + dt > t) t = it + dt;
+      }
+      outL[q] = l;
+      outT[q] = t;
+    }
+    for (let q = 0; q < k; q++) {
+      const qb = vars[q]!;
+      if (outL[q] !== NEG) this.varL[qb] = outL[q]!;
+      if (outT[q] !== NEG) this.varT[qb] = outT[q]!;
+      this.varP[qb] = v.outPend[q]!;
+    }
+    for (let i = 0; i < v.demote.length; i += 4) {
+      const w = v.demote[i]!;
+      const l = v.demote[i + 1]! + this.ref;
+      const t = v.demote[i + 2]! + this.refT;
+      if (w === BIT) {
+        this.bitL = l;
+        this.bitT = t;
+        continue;
+      }
+      this.room(w);
+      this.workL[w] = l;
+      this.workT[w] = t;
+      this.workP[w] = v.demote[i + 3]!;
+    }
+    this.ref += v.dL;
+    this.refT += v.dT;
+    this.state = v.next;
+    for (let i = 0; i < 5; i++) this.sum[i]! += v.counts[i]!;
+    if (v.vanished) this.vanished = true;
+  }
+
+  private pendOf(w: Input, vars: Int32Array): number {
+    if (w.kind === 0) return this.varP[vars[w.id]!]!;
+    if (w.kind === 1) {
+      this.room(w.id);
+      return this.workP[w.id]!;
+    }
+    return 0;
+  }
+
+  private levelOf(w: Input, vars: Int32Array): [number, number] {
+    if (w.kind === 0) return [this.varL[vars[w.id]!]!, this.varT[vars[w.id]!]!];
+    if (w.kind === 1) {
+      this.room(w.id);
+      return [this.workL[w.id]!, this.workT[w.id]!];
+    }
+    return [this.bitL, this.bitT];
+  }
+
+  /**
+   * The block's effect, computed instance by instance as engine.settle does, with each level a
+   * max-plus vector: a number from the state's wires and the cold inputs given exactly, and a path
+   * length from each other cold input.
+   */
+  private compute(sh: Shape, deadClass: number, phys: Int32Array, deads: Interner, inputs: Input[], cold: number[], pends: Uint8Array, exact: Float64Array | null): LValue {
+    const S = this.decoded[this.state]!;
+    const C = cold.length;
+    const width = 1 + C;
+    const nIn = inputs.length;
+    const L: Float64Array[] = [];
+    const T: Float64Array[] = [];
+    const P = new Uint8Array(nIn);
+    const coldAt = new Int32Array(nIn).fill(-1);
+    for (let c = 0; c < C; c++) coldAt[cold[c]!] = c;
+    for (let i = 0; i < nIn; i++) {
+      const l = new Float64Array(width).fill(NEG);
+      const t = new Float64Array(width).fill(NEG);
+      const w = inputs[i]!;
+      const c = coldAt[i]!;
+      if (c < 0) {
+        const x = S.at!.get(w.kind === 2 ? BIT : w.id)!;
+        l[0] = S.rel[x]!;
+        t[0] = S.relT[x]!;
+        P[i] = S.pend[x]!;
+      } else {
+        if (exact !== null && exact[c * 2] !== NEG) l[0] = exact[c * 2]!;
+        else l[1 + c] = 0;
+        if (exact !== null && exact[c * 2 + 1] !== NEG) t[0] = exact[c * 2 + 1]!;
+        else t[1 + c] = 0;
+        P[i] = pends[c]!;
+      }
+      L.push(l);
+      T.push(t);
+    }
+    const bitIn = inputs.findIndex((w) => w.kind === 2);
+    const dead = deadClass >= 0 ? deads.get(deadClass) : new Int32Array(sh.n);
+    const counts = new Float64Array(5);
+    let vanished = false;
+    const negVec = new Float64Array(width).fill(NEG);
+    const slotIn = [0, 0, 0];
+    for (let j = 0; j < sh.n; j++) {
+      const t = sh.t[j]!;
+      const slots = SLOTS[t]!;
+      for (let s = 0; s < 3; s++) slotIn[s] = s < slots ? inputIndex(inputs, sh, phys, sh.ref[j * 3 + s]!) : -1;
+      const tr = transferOf(t, dead[j]!, slots > 0 ? P[slotIn[0]!]! : 0, slots > 1 ? P[slotIn[1]!]! : 0, slots > 2 ? P[slotIn[2]!]! : 0, this.optimize);
+      counts[0]! += tr.tCount;
+      counts[1]! += tr.cnotCount;
+      counts[2]! += tr.toffoliCount;
+      counts[3]! += tr.measurements;
+      counts[4]! += tr.phaseGates;
+      if (tr.vanished) vanished = true;
+      if (slots === 0) continue;
+      const l0 = L[slotIn[0]!]!;
+      const l1 = slots > 1 ? L[slotIn[1]!]! : negVec;
+      const l2 = slots > 2 ? L[slotIn[2]!]! : negVec;
+      const t0 = T[slotIn[0]!]!;
+      const t1 = slots > 1 ? T[slotIn[1]!]! : negVec;
+      const t2 = slots > 2 ? T[slotIn[2]!]! : negVec;
+      const lb = bitIn >= 0 ? L[bitIn]! : negVec;
+      const tb = bitIn >= 0 ? T[bitIn]! : negVec;
+      if (tr.bit !== null) {
+        if (bitIn < 0) throw new Error("block counter: a measurement in a block not marked as using the bit");
+        L[bitIn] = vecMaxPlus(tr.bit, 0, l0, l1, l2, lb, width);
+        T[bitIn] = vecMaxPlus(tr.bitT!, 0, t0, t1, t2, tb, width);
+      }
+      const n0 = vecMaxPlus(tr.d, 0, l0, l1, l2, lb, width);
+      const m0 = vecMaxPlus(tr.dt, 0, t0, t1, t2, tb, width);
+      let n1: Float64Array | null = null;
+      let m1: Float64Array | null = null;
+      let n2: Float64Array | null = null;
+      let m2: Float64Array | null = null;
+      if (slots > 1) {
+        n1 = vecMaxPlus(tr.d, 4, l0, l1, l2, lb, width);
+        m1 = vecMaxPlus(tr.dt, 4, t0, t1, t2, tb, width);
+      }
+      if (slots > 2) {
+        n2 = vecMaxPlus(tr.d, 8, l0, l1, l2, lb, width);
+        m2 = vecMaxPlus(tr.dt, 8, t0, t1, t2, tb, width);
+      }
+      L[slotIn[0]!] = n0;
+      T[slotIn[0]!] = m0;
+      P[slotIn[0]!] = tr.pendOut[0]!;
+      if (slots > 1) {
+        L[slotIn[1]!] = n1!;
+        T[slotIn[1]!] = m1!;
+        P[slotIn[1]!] = tr.pendOut[1]!;
+      }
+      if (slots > 2) {
+        L[slotIn[2]!] = n2!;
+        T[slotIn[2]!] = m2!;
+        P[slotIn[2]!] = tr.pendOut[2]!;
+      }
+    }
+    // Outputs: work wires and the bit go to the next state; qubits are stored as numbers.
+    const tauL = new Float64Array(C).fill(Infinity);
+    const tauT = new Float64Array(C).fill(Infinity);
+    let dL = NEG;
+    let dT = NEG;
+    for (let i = 0; i < nIn; i++) {
+      if (inputs[i]!.kind === 0) continue;
+      const l = L[i]!;
+      const t = T[i]!;
+      for (let c = 0; c < C; c++) {
+        if (l[1 + c]! !== NEG) tauL[c] = Math.min(tauL[c]!, l[0]! === NEG ? -Infinity : l[0]! - l[1 + c]!);
+        if (t[1 + c]! !== NEG) tauT[c] = Math.min(tauT[c]!, t[0]! === NEG ? -Infinity : t[0]! - t[1 + c]!);
+      }
+      if (l[0]! > dL) dL = l[0]!;
+      if (t[0]! > dT) dT = t[0]!;
+    }
+    const hotOut: { wire: number; l: number; t: number; p: number }[] = [];
+    for (let i = 0; i < nIn; i++) {
+      const w = inputs[i]!;
+      if (w.kind === 0) continue;
+      hotOut.push({ wire: w.kind === 2 ? BIT : w.id, l: L[i]![0]!, t: T[i]![0]!, p: P[i]! });
+    }
+    if (dL === NEG) dL = 0;
+    if (dT === NEG) dT = 0;
+    // T-levels of a state wire may be NEG only where the state's own are (never: they start at 0).
+    hotOut.sort((a, b) => a.wire - b.wire);
+    const touched = new Set(hotOut.map((h) => h.wire));
+    const demote: number[] = [];
+    for (let x = 0; x < S.n; x++) if (!touched.has(S.wire[x]!)) demote.push(S.wire[x]!, S.rel[x]!, S.relT[x]!, S.pend[x]!);
+    const next = this.intern({
+      n: hotOut.length,
+      wire: Int32Array.from(hotOut, (h) => h.wire),
+      rel: Int32Array.from(hotOut, (h) => (h.l === NEG ? DOM : h.l - dL)),
+      relT: Int32Array.from(hotOut, (h) => (h.t === NEG ? DOM : h.t - dT)),
+      pend: Uint8Array.from(hotOut, (h) => h.p),
+    });
+    const k = sh.k;
+    const outL = new Float64Array(k);
+    const outT = new Float64Array(k);
+    const dl = new Float64Array(k * C);
+    const dt = new Float64Array(k * C);
+    const outPend = new Uint8Array(k);
+    for (let q = 0; q < k; q++) {
+      outL[q] = L[q]![0]!;
+      outT[q] = T[q]![0]!;
+      outPend[q] = P[q]!;
+      for (let c = 0; c < C; c++) {
+        dl[q * C + c] = L[q]![1 + c]!;
+        dt[q * C + c] = T[q]![1 + c]!;
+      }
+    }
+    return { next, dL, dT, tauL, tauT, outL, outT, dl, dt, outPend, demote: Int32Array.from(demote), counts, vanished };
+  }
+
+  finish(workWires: number): TallyResult {
+    const S = this.decoded[this.state]!;
+    this.room(workWires);
+    for (let x = 0; x < S.n; x++) {
+      const w = S.wire[x]!;
+      if (w === BIT) continue;
+      this.workL[w] = S.rel[x]! + this.ref;
+      this.workT[w] = S.relT[x]! + this.refT;
+      this.workP[w] = S.pend[x]!;
+    }
+    let depth = 0;
+    let tDepth = 0;
+    const flush = (l: number, t: number, p: number): void => {
+      let L = l;
+      let T = t;
+      if (this.optimize) {
+        const run = finalRun(p);
+        L += run.gates;
+        T += run.tGates;
+        this.sum[0]! += run.tGates;
+      }
+      depth = Math.max(depth, L);
+      tDepth = Math.max(tDepth, T);
+    };
+    // In qubit order, as engine.finish (the order does not change the figures).
+    for (let q = 0; q < this.src.base; q++) flush(this.varL[q]!, this.varT[q]!, this.varP[q]!);
+    for (let w = 0; w < workWires; w++) flush(this.workL[w]!, this.workT[w]!, this.workP[w]!);
+    const [tCount, cnotCount, toffoliCount, measurements, phaseGates] = this.sum as [number, number, number, number, number];
+    return { tCount, cnotCount, toffoliCount, measurements, phaseGates, depth, tDepth, vanished: this.vanished };
+  }
+}
+
+/** A wire of a block: a qubit slot (kind 0, id = slot), a work wire (kind 1, id = wire), the bit (kind 2). */
+interface Input {
+  readonly kind: number;
+  readonly id: number;
+}
+
+const inputCache = new WeakMap<Shape, Map<Int32Array, Input[]>>();
+
+function blockInputs(sh: Shape, phys: Int32Array): Input[] {
+  let m = inputCache.get(sh);
+  if (m === undefined) inputCache.set(sh, (m = new Map()));
+  let r = m.get(phys);
+  if (r !== undefined) return r;
+  r = [];
+  for (let q = 0; q < sh.k; q++) r.push({ kind: 0, id: q });
+  const seen = new Set<number>();
+  for (let j = 0; j < sh.n; j++) {
+    for (let s = 0; s < SLOTS[sh.t[j]!]!; s++) {
+      const lr = sh.ref[j * 3 + s]!;
+      if (lr < sh.k) continue;
+      const w = phys[lr]!;
+      if (!seen.has(w)) {
+        seen.add(w);
+        r.push({ kind: 1, id: w });
+      }
+    }
+  }
+  if (sh.usesBit) r.push({ kind: 2, id: 0 });
+  m.set(phys, r);
+  return r;
+}
+
+function inputIndex(inputs: Input[], sh: Shape, phys: Int32Array, lr: number): number {
+  if (lr < sh.k) return lr;
+  const w = phys[lr]!;
+  for (let i = sh.k; i < inputs.length; i++) if (inputs[i]!.kind === 1 && inputs[i]!.id === w) return i;
+  throw new Error("block counter: a work wire missing from the block's inputs");
+}
+
+/** max over inputs j of (in_j + o[k + j]) as a max-plus vector (NEG: no path). */
+function vecMaxPlus(o: Int32Array, k: number, a: Float64Array, b: Float64Array, c: Float64Array, bit: Float64Array, width: number): Float64Array {
+  const r = new Float64Array(width).fill(NEG);
+  const ins = [a, b, c, bit];
+  for (let j = 0; j < 4; j++) {
+    const d = o[k + j]!;
+    if (d === NONE) continue;
+    const v = ins[j]!;
+    for (let i = 0; i < width; i++) if (v[i]! !== NEG && v[i]! + d > r[i]!) r[i] = v[i]! + d;
+  }
+  return r;
+}
