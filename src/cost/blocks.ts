@@ -33,7 +33,7 @@
  */
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { Interner, KeyTable } from "./keyTable.js";
-import { FIRST_TOUCH, G_KIND, G_PHASE, GATE_START, gatesOf, LAST_TOUCH, SLOT_GATES, SLOTS, T_ERASE_HEAD, T_ERASE_TAIL, T_MEASURE, TEMPLATE_COUNT } from "./templates.js";
+import { FIRST_TOUCH, G_KIND, G_PHASE, GATE_START, gatesOf, LAST_TOUCH, SLOT_GATES, SLOTS, T_ERASE_HEAD, T_ERASE_TAIL, T_MEASURE, T_X, TEMPLATE_COUNT } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
 import { finalRun, NONE, transferOf } from "./transfer.js";
 import { K } from "../ir/kinds.js";
@@ -63,6 +63,15 @@ export interface Shape {
   readonly onVar: Int32Array[];
   /** Some instance measures or is conditioned on a measurement. */
   readonly usesBit: boolean;
+  /**
+   * Per instance, the X instances before it. A state numbers an instance j - xBefore[j] (its
+   * canonical number): the X gates a block needs first vary from block to block, the rest not.
+   */
+  readonly xBefore: Int32Array;
+  /** Canonical number -> instance. */
+  readonly fromCanon: Int32Array;
+  /** The X instances, in order (an X instance's canonical number is -2 - its rank here). */
+  readonly xAt: Int32Array;
 }
 
 /** Records the instances a lowering puts, as a shape. Ids below k + p are the qubit and persistent references. */
@@ -113,7 +122,18 @@ export class ShapeRecorder implements InstanceSink {
         if (r >= 0 && r < this.k) onVar[r]!.push(j * 4 + s);
       }
     }
-    return { n, t, ref, dies: Uint8Array.from(this.dies), k: this.k, p: this.p, refs: this.next, onVar: onVar.map((l) => Int32Array.from(l)), usesBit };
+    const xBefore = new Int32Array(n);
+    const fromCanon: number[] = [];
+    const xAt: number[] = [];
+    for (let j = 0; j < n; j++) {
+      xBefore[j] = xAt.length;
+      if (t[j] === T_X) xAt.push(j);
+      else fromCanon.push(j);
+    }
+    return {
+      n, t, ref, dies: Uint8Array.from(this.dies), k: this.k, p: this.p, refs: this.next, onVar: onVar.map((l) => Int32Array.from(l)), usesBit,
+      xBefore, fromCanon: Int32Array.from(fromCanon), xAt: Int32Array.from(xAt),
+    };
   }
 }
 
@@ -168,6 +188,13 @@ const NEG = -1e15;
 const SLOT_MASK = new Int32Array(TEMPLATE_COUNT * 3);
 for (let t = 0; t < TEMPLATE_COUNT; t++) for (let s = 0; s < 3; s++) for (const g of SLOT_GATES[t * 3 + s]!) SLOT_MASK[t * 3 + s]! |= 1 << g;
 
+/** The slots touched by the gates in `mask` of template t, as a mask. */
+function gatesOnSlots(t: number, mask: number): number {
+  let slots = 0;
+  for (let s = 0; s < 3; s++) if (SLOT_MASK[t * 3 + s]! & mask) slots |= 1 << s;
+  return slots;
+}
+
 function popcount(x: number): number {
   x = x - ((x >>> 1) & 0x55555555);
   x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
@@ -187,6 +214,7 @@ interface CState {
   /** Instances, in circuit order: ancient ones first, then the block before the open one, then the open block. */
   readonly n: number;
   readonly age: Int32Array;
+  /** Canonical number in its block (see Shape.xBefore; an X instance -2 - its rank among them); -1 for ancient instances. */
   readonly j: Int32Array;
   readonly t: Uint8Array;
   /** Per slot: work wire w >= 0, qubit group g as -2 - g, -1 none. */
@@ -430,34 +458,34 @@ export class BlockCounter {
 
   // ---- one block of the cancellation state machine ---------------------------------------
 
+  /** Instance number of canonical number jc in block ob. */
+  private trueJ(ob: number, jc: number): number {
+    const shape = this.src.shape(this.blockShape[ob]!);
+    return jc >= 0 ? shape.fromCanon[jc]! : shape.xAt[-2 - jc]!;
+  }
+
   /** Block b (shape sh; -1: the empty block after the last) over the current state. */
   private transition(b: number, sh: number, vars: Int32Array): CValue | null {
     const S = this.decoded[this.state]!;
     const shape = sh >= 0 ? this.src.shape(sh) : null;
     const k = shape?.k ?? 0;
-    // Chain positions: the open block's qubits (hot groups), then the block's other qubits.
-    const pos: ChainPos[] = [];
-    const slotGroup = new Int32Array(k).fill(-1);
+    const slotGroup = this.slotGroup.length >= k ? this.slotGroup : (this.slotGroup = new Int32Array(k * 2));
     for (let q = 0; q < k; q++) {
+      slotGroup[q] = -1;
       for (let g = 0; g < S.G; g++) if (this.groupQubit[g] === vars[q]) slotGroup[q] = g;
     }
-    for (let g = 0; g < S.G; g++) {
-      if (S.hotSlot[g]! < 0) continue;
-      let slot = -1;
-      for (let q = 0; q < k; q++) if (slotGroup[q] === g) slot = q;
-      const o = this.src.occurrence(b - 1, S.hotSlot[g]!);
-      pos.push({ group: g, slot, qubit: this.groupQubit[g]!, start: this.prevOcc[o]!, depth: 0 });
-    }
-    for (let q = 0; q < k; q++) {
-      const g = slotGroup[q]!;
-      if (g >= 0 && S.hotSlot[g]! >= 0) continue;
-      pos.push({ group: g, slot: q, qubit: vars[q]!, start: this.lastOcc[vars[q]!]!, depth: 0 });
-    }
+    // The key without chains: the state, the block, which of its qubits the state knows.
+    let n = 0;
+    const key = this.keyBuf;
+    key[n++] = this.state;
+    key[n++] = sh;
+    for (let q = 0; q < k; q++) key[n++] = slotGroup[q]!;
+    let e = this.memo.get(key, n);
+    let pos: ChainPos[] | null = null;
+    this.lastProj = [];
     for (let round = 0; ; round++) {
-      const n = this.buildKey(b, sh, k, slotGroup, pos);
-      let e = this.memo.get(this.keyBuf, n);
-      if (!pos.some((p) => p.depth > 0)) this.lastProj = [];
       if (e === -1) {
+        pos ??= this.chains(b, S, k, slotGroup, vars);
         this.replays++;
         const proj = this.projections(b, S, pos);
         const r = this.replay(b, S, shape, k, slotGroup, pos, proj);
@@ -473,10 +501,11 @@ export class BlockCounter {
       }
       if (e >= 0) {
         const v = this.values[e]!;
-        this.apply(b, S, v, vars, k);
+        this.apply(b, S, v, vars);
         return v;
       }
-      // More of the chains named, then again.
+      // Deeper into the chains named, then again.
+      pos ??= this.chains(b, S, k, slotGroup, vars);
       const ask = this.refines[-2 - e]!;
       let grew = false;
       for (const p of ask) {
@@ -488,113 +517,124 @@ export class BlockCounter {
         }
       }
       if (!grew || round > 64) return this.giveUp(b, "a walk needs more than the chains hold");
+      n = this.chainKey(b, S, k, pos);
+      e = this.memo.get(this.keyBuf, n);
     }
   }
+  private slotGroup = new Int32Array(64);
 
-  private apply(b: number, S: CState, v: CValue, vars: Int32Array, k: number): void {
-    const N = this.decoded[v.next]!;
-    const abs = new Float64Array(N.ancient);
-    for (let x = 0; x < N.ancient; x++) {
-      const s = v.ancientSrc[x]!;
-      if (s >= 0) abs[x] = this.ancientAbs[s]!;
-      else {
-        const y = -1 - s;
-        abs[x] = (b - 1 - S.age[y]!) * SPAN + S.j[y]!;
-      }
+  /** The chain positions of block b: the open block's qubits (hot groups), then the block's other qubits. */
+  private chains(b: number, S: CState, k: number, slotGroup: Int32Array, vars: Int32Array): ChainPos[] {
+    const pos: ChainPos[] = [];
+    for (let g = 0; g < S.G; g++) {
+      if (S.hotSlot[g]! < 0) continue;
+      let slot = -1;
+      for (let q = 0; q < k; q++) if (slotGroup[q] === g) slot = q;
+      const o = this.src.occurrence(b - 1, S.hotSlot[g]!);
+      pos.push({ group: g, slot, qubit: this.groupQubit[g]!, start: this.prevOcc[o]!, depth: 0 });
     }
-    const gq = new Int32Array(N.G);
+    for (let q = 0; q < k; q++) {
+      const g = slotGroup[q]!;
+      if (g >= 0 && S.hotSlot[g]! >= 0) continue;
+      pos.push({ group: g, slot: q, qubit: vars[q]!, start: this.lastOcc[vars[q]!]!, depth: 0 });
+    }
+    return pos;
+  }
+
+  private apply(b: number, S: CState, v: CValue, vars: Int32Array): void {
+    const N = this.decoded[v.next]!;
+    const before = this.ancientAbs;
+    if (N.ancient > 0 || this.ancientAbs.length > 0) {
+      const abs = new Float64Array(N.ancient);
+      for (let x = 0; x < N.ancient; x++) {
+        const s = v.ancientSrc[x]!;
+        if (s >= 0) abs[x] = before[s]!;
+        else {
+          const y = -1 - s;
+          const ob = b - 1 - S.age[y]!;
+          abs[x] = ob * SPAN + this.trueJ(ob, S.j[y]!);
+        }
+      }
+      this.ancientAbs = abs;
+    }
+    const gq = this.spareGroups.length >= N.G ? this.spareGroups : new Int32Array(N.G * 2);
     for (let g = 0; g < N.G; g++) {
       const s = v.groupSrc[g]!;
       gq[g] = s >= 0 ? this.groupQubit[s]! : vars[-1 - s]!;
     }
-    void k;
-    // Where the state's instances and the key's projections come from, as block * SPAN + j.
-    const absOf = (where: number, x: number): number => {
-      if (where === 1) return this.lastProj[x]!.block * SPAN + this.lastProj[x]!.j;
-      if (S.age[x] === ANCIENT) return this.ancientAbs[x]!;
-      return (b - 1 - S.age[x]!) * SPAN + S.j[x]!;
-    };
-    for (let i = 0; i < v.kills.length; i += 3) {
-      const a = absOf(v.kills[i]!, v.kills[i + 1]!);
-      const ob = Math.floor(a / SPAN);
-      const d = Int32Array.from(this.deadClasses.get(this.blockDead[ob]!));
-      d[a % SPAN] = v.kills[i + 2]!;
-      this.blockDead[ob] = this.deadClasses.id(d);
-    }
-    for (let i = 0; i < v.stage2.length; i += 4) {
-      const a = absOf(v.stage2[i]!, v.stage2[i + 1]!);
-      const walked = v.stage2[i + 2]!;
-      const pos = v.stage2[i + 3]!;
-      for (let m = walked; m !== 0; m &= m - 1) {
-        const p = 31 - Math.clz32(m & -m);
-        if ((pos >>> p) & 1) this.positive.set(a * 32 + p, a);
-        else this.positive.delete(a * 32 + p);
+    this.spareGroups = this.groupQubit;
+    this.groupQubit = gq;
+    if (v.kills.length > 0 || v.stage2.length > 0) {
+      // Where the state's instances and the key's projections come from, as block * SPAN + j.
+      const absOf = (where: number, x: number): number => {
+        if (where === 1) return this.lastProj[x]!.block * SPAN + this.lastProj[x]!.j;
+        if (S.age[x] === ANCIENT) return before[x]!;
+        const ob = b - 1 - S.age[x]!;
+        return ob * SPAN + this.trueJ(ob, S.j[x]!);
+      };
+      for (let i = 0; i < v.kills.length; i += 3) {
+        const a = absOf(v.kills[i]!, v.kills[i + 1]!);
+        const ob = Math.floor(a / SPAN);
+        const d = Int32Array.from(this.deadClasses.get(this.blockDead[ob]!));
+        d[a % SPAN] = v.kills[i + 2]!;
+        this.blockDead[ob] = this.deadClasses.id(d);
+      }
+      for (let i = 0; i < v.stage2.length; i += 4) {
+        const a = absOf(v.stage2[i]!, v.stage2[i + 1]!);
+        const walked = v.stage2[i + 2]!;
+        const hit = v.stage2[i + 3]!;
+        for (let m = walked; m !== 0; m &= m - 1) {
+          const p = 31 - Math.clz32(m & -m);
+          if ((hit >>> p) & 1) this.positive.set(a * 32 + p, a);
+          else this.positive.delete(a * 32 + p);
+        }
       }
     }
-    this.ancientAbs = abs;
-    this.groupQubit = gq;
     this.state = v.next;
     if (v.second) this.second = true;
   }
+  private spareGroups = new Int32Array(0);
 
-  /** The key of block b over the current state, with the chain depths asked for, into keyBuf; returns its length. */
-  private buildKey(b: number, sh: number, k: number, slotGroup: Int32Array, pos: ChainPos[]): number {
-    let n = 0;
-    const need = 8 + k + pos.length * 4;
-    if (this.keyBuf.length < need) this.keyBuf = new Int32Array(need * 2);
-    const key = this.keyBuf;
-    key[n++] = this.state;
-    key[n++] = sh;
-    for (let q = 0; q < k; q++) key[n++] = slotGroup[q]!;
-    key[n++] = pos.length;
-    let deep = false;
-    for (const p of pos) {
-      key[n++] = p.depth;
-      key[n++] = p.start >= 0 ? 1 : 0;
-      if (p.depth > 0) deep = true;
-    }
-    if (!deep) return n;
-    // Projections named in the key: their content.
-    const S = this.decoded[this.state]!;
+  /** The key with the chains' depths and what they name, into keyBuf; returns its length. */
+  private chainKey(b: number, S: CState, k: number, pos: ChainPos[]): number {
     const proj = this.projections(b, S, pos);
     this.lastProj = proj.entries;
-    for (const e of proj.entries) {
-      if (n + 16 > key.length) {
-        const bigger = new Int32Array(key.length * 2);
-        bigger.set(key);
-        this.keyBuf = bigger;
-      }
-      const kb = this.keyBuf;
-      kb[n++] = e.kind;
-      kb[n++] = e.a;
-      kb[n++] = e.s;
-      kb[n++] = e.chain;
-      if (e.kind === 0) {
-        kb[n++] = e.t;
-        kb[n++] = e.r0;
-        kb[n++] = e.r1;
-        kb[n++] = e.r2;
-        kb[n++] = e.dead;
-        kb[n++] = e.pos;
-      }
+    let n = 2 + k;
+    const need = n + 2 * pos.length + 12 * proj.entries.length + 4;
+    if (this.keyBuf.length < need) {
+      const bigger = new Int32Array(need * 2);
+      bigger.set(this.keyBuf.subarray(0, n));
+      this.keyBuf = bigger;
     }
-    for (const p of pos) {
-      if (this.keyBuf.length < n + 2) {
-        const bigger = new Int32Array(this.keyBuf.length * 2);
-        bigger.set(this.keyBuf);
-        this.keyBuf = bigger;
+    const key = this.keyBuf;
+    key[n++] = -1; // marks a key with chains
+    for (let c = 0; c < pos.length; c++) {
+      key[n++] = pos[c]!.depth;
+      key[n++] = pos[c]!.depth > 0 ? proj.more[c]! : -1;
+    }
+    for (const e of proj.entries) {
+      key[n++] = e.kind;
+      key[n++] = e.a;
+      key[n++] = e.s;
+      key[n++] = e.chain;
+      if (e.kind === 0) {
+        key[n++] = e.t;
+        key[n++] = e.r0;
+        key[n++] = e.r1;
+        key[n++] = e.r2;
+        key[n++] = e.mask;
+        key[n++] = e.pos;
       }
-      this.keyBuf[n++] = proj.more[pos.indexOf(p)]!;
     }
     return n;
   }
 
   /**
-   * The instances the key's chains name, newest first per chain: an instance of the state (kind
-   * 1, a = its index), one already named by an earlier chain (kind 2, a = its entry), or one known
-   * only through its block (kind 0, with what a walk along the qubit can see: its template, its
-   * slots' wires as key refs, its cancelled gates on that qubit, and where it stands among the
-   * state's instances).
+   * The gates the key's chains name: per chain, the first `depth` live gates on the qubit before
+   * the open block, newest first, by instance: an instance of the state (kind 1, a = its index:
+   * all of it is known), one already named by an earlier chain (kind 2, a = its entry), or one
+   * known only through its block (kind 0: its template, the wires of the slots its named gates
+   * touch as key refs, the named gates, and where it stands among the state's instances).
    */
   private projections(b: number, S: CState, pos: ChainPos[]): { entries: Projected[]; more: Int32Array } {
     const entries: Projected[] = [];
@@ -605,60 +645,95 @@ export class BlockCounter {
       const p = pos[c]!;
       let left = p.depth;
       let occ = p.start;
-      let pending: number[] = [];
-      let pi = 0;
-      let ob = -1;
-      while (left > 0) {
-        if (pi >= pending.length) {
-          if (occ < 0) break;
-          ob = this.src.blockOf(occ);
-          const shape = this.src.shape(this.blockShape[ob]!);
-          // The slot of this occurrence: the qubit's reference in that block.
-          this.src.varsOf(ob, vars);
-          let q0 = -1;
-          for (let q = 0; q < shape.k; q++) if (vars[q] === p.qubit) q0 = q;
-          pending = q0 < 0 ? [] : Array.from(shape.onVar[q0]!).reverse();
-          pi = 0;
-          occ = this.prevOcc[occ]!;
-          continue;
-        }
-        const js = pending[pi++]!;
-        left--;
-        const j = js >> 2;
-        const s = js & 3;
-        const absId = ob * SPAN + j;
-        const again = seen.get(absId);
-        if (again !== undefined) {
-          entries.push({ kind: 2, a: again, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, dead: 0, pos: 0, block: ob, j });
-          continue;
-        }
-        const inState = this.stateIndex(S, b, ob, j);
-        if (inState >= 0) {
-          seen.set(absId, entries.length);
-          entries.push({ kind: 1, a: inState, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, dead: 0, pos: 0, block: ob, j });
-          continue;
-        }
+      let exhausted = true;
+      while (left > 0 && occ >= 0) {
+        const ob = this.src.blockOf(occ);
+        occ = this.prevOcc[occ]!;
         const shape = this.src.shape(this.blockShape[ob]!);
-        const phys = this.physes.get(this.blockPhys[ob]!);
-        const t = shape.t[j]!;
         this.src.varsOf(ob, vars);
-        const r = [R_NONE, R_NONE, R_NONE];
-        for (let s2 = 0; s2 < SLOTS[t]!; s2++) {
-          const lr = shape.ref[j * 3 + s2]!;
-          if (lr < 0) continue;
-          if (lr < shape.k) {
-            const qb = vars[lr]!;
-            let code = R_OUT;
-            for (let g = 0; g < S.G; g++) if (this.groupQubit[g] === qb) code = rGroup(g);
-            if (code === R_OUT) for (let c2 = 0; c2 < pos.length; c2++) if (pos[c2]!.group < 0 && pos[c2]!.qubit === qb) code = rGroup(S.G + c2);
-            r[s2] = code;
-          } else r[s2] = phys[lr]!;
-        }
+        let q0 = -1;
+        for (let q = 0; q < shape.k; q++) if (vars[q] === p.qubit) q0 = q;
+        if (q0 < 0) continue;
         const dc = this.deadClasses.get(this.blockDead[ob]!);
-        seen.set(absId, entries.length);
-        entries.push({ kind: 0, a: 0, s, chain: c, t, r0: r[0]!, r1: r[1]!, r2: r[2]!, dead: dc[j]! & SLOT_MASK[t * 3 + s]!, pos: this.insertAt(S, b, ob, j), block: ob, j });
+        const list = shape.onVar[q0]!;
+        for (let i = list.length - 1; i >= 0; i--) {
+          const j = list[i]! >> 2;
+          const s = list[i]! & 3;
+          const t = shape.t[j]!;
+          const absId = ob * SPAN + j;
+          const again = seen.get(absId);
+          if (again !== undefined) {
+            entries.push({ kind: 2, a: again, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, mask: 0, pos: 0, block: ob, j });
+            const first = entries[again]!;
+            if (first.kind === 0) left -= popcount(first.mask & SLOT_MASK[t * 3 + s]!);
+            else left -= popcount(SLOT_MASK[t * 3 + s]! & ~dc[j]!);
+            if (left <= 0) {
+              exhausted = i === 0 && occ < 0;
+              break;
+            }
+            continue;
+          }
+          const inState = this.stateIndex(S, b, ob, j);
+          if (inState >= 0) {
+            seen.set(absId, entries.length);
+            entries.push({ kind: 1, a: inState, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, mask: 0, pos: 0, block: ob, j });
+            left -= popcount(SLOT_MASK[t * 3 + s]! & ~dc[j]!);
+            if (left <= 0) {
+              exhausted = i === 0 && occ < 0;
+              break;
+            }
+            continue;
+          }
+          // Its live gates on this qubit, newest first, up to what is left to name.
+          const gates = SLOT_GATES[t * 3 + s]!;
+          let mask = 0;
+          let g = gates.length - 1;
+          for (; g >= 0 && left > 0; g--) {
+            if ((dc[j]! >>> gates[g]!) & 1) continue;
+            mask |= 1 << gates[g]!;
+            left--;
+          }
+          // The wires of the slots those gates touch.
+          const phys = this.physes.get(this.blockPhys[ob]!);
+          const r = [R_NONE, R_NONE, R_NONE];
+          for (let s2 = 0; s2 < SLOTS[t]!; s2++) {
+            if ((gatesOnSlots(t, mask) & (1 << s2)) === 0) continue;
+            const lr = shape.ref[j * 3 + s2]!;
+            if (lr < 0) continue;
+            if (lr < shape.k) {
+              const qb = vars[lr]!;
+              let code = R_OUT;
+              for (let g2 = 0; g2 < S.G; g2++) if (this.groupQubit[g2] === qb) code = rGroup(g2);
+              if (code === R_OUT) for (let c2 = 0; c2 < pos.length; c2++) if (pos[c2]!.group < 0 && pos[c2]!.qubit === qb) code = rGroup(S.G + c2);
+              r[s2] = code;
+            } else r[s2] = phys[lr]!;
+          }
+          seen.set(absId, entries.length);
+          entries.push({ kind: 0, a: 0, s, chain: c, t, r0: r[0]!, r1: r[1]!, r2: r[2]!, mask, pos: 0, block: ob, j });
+          if (left <= 0) {
+            let rest = false;
+            for (; g >= 0; g--) if (((dc[j]! >>> gates[g]!) & 1) === 0) rest = true;
+            exhausted = !rest && i === 0 && occ < 0;
+            break;
+          }
+        }
       }
-      more[c] = pi < pending.length || occ >= 0 ? 1 : 0;
+      more[c] = exhausted && occ < 0 ? 0 : 1;
+      if (p.depth > 0 && left > 0) more[c] = 0;
+    }
+    // Where an instance known only through its block goes among the state's: it is older than
+    // every state instance on the other wires it touches (a work wire's tail is a suffix of its
+    // history; a qubit's linked state instances are the open block's), so only the state
+    // instances of its own chains, older than it, must come first.
+    for (let c = 0; c < pos.length; c++) {
+      let after = 0;
+      for (let e = entries.length - 1; e >= 0; e--) {
+        const x = entries[e]!;
+        if (x.chain !== c) continue;
+        const first = x.kind === 2 ? entries[x.a]! : x;
+        if (first.kind === 1) after = first.a + 1;
+        else first.pos = Math.max(first.pos, after);
+      }
     }
     return { entries, more };
   }
@@ -667,27 +742,17 @@ export class BlockCounter {
   private stateIndex(S: CState, b: number, ob: number, j: number): number {
     const age = b - 1 - ob;
     if (age <= 1) {
+      const shape = this.src.shape(this.blockShape[ob]!);
+      const jc = shape.t[j] === T_X ? -2 - shape.xBefore[j]! : j - shape.xBefore[j]!;
       if (S.recent === undefined) {
         S.recent = new Map();
         for (let x = S.ancient; x < S.n; x++) S.recent.set(S.age[x]! * SPAN + S.j[x]!, x);
       }
-      return S.recent.get(age * SPAN + j) ?? -1;
+      return S.recent.get(age * SPAN + jc) ?? -1;
     }
     const absId = ob * SPAN + j;
     for (let x = 0; x < S.ancient; x++) if (this.ancientAbs[x] === absId) return x;
     return -1;
-  }
-
-  /** How many of the state's instances come before instance j of block ob (not in the state). */
-  private insertAt(S: CState, b: number, ob: number, j: number): number {
-    const age = b - 1 - ob;
-    const absId = ob * SPAN + j;
-    let x = 0;
-    while (x < S.ancient && this.ancientAbs[x]! < absId) x++;
-    if (age > 1) return x;
-    x = S.ancient;
-    while (x < S.n && (S.age[x]! > age || (S.age[x] === age && S.j[x]! < j))) x++;
-    return x;
   }
 
   // ---- a replay (memo miss) ---------------------------------------------------------------
@@ -703,15 +768,14 @@ export class BlockCounter {
 
   /**
    * Replays block b over the state with a small engine. Returns the memo value, the chain
-   * positions to deepen (their walks reached what the key left out), or null (a cancellation
-   * reached a block already tallied).
+   * positions to deepen (their walks reached what the key left out), or null (the block counting
+   * cannot go on).
    */
   private replay(b: number, S: CState, shape: Shape | null, k: number, slotGroup: Int32Array, pos: ChainPos[], proj: { entries: Projected[]; more: Int32Array }): CValue | Int32Array | null {
     const G = S.G;
     // Wires of the replay: state groups, the block's new qubits, work wires, one "elsewhere".
     const slotWire = new Int32Array(k);
     for (let q = 0; q < k; q++) slotWire[q] = slotGroup[q]! >= 0 ? slotGroup[q]! : G + q;
-    // Chain positions without a group get a wire (a new qubit of the block).
     const chainWire = pos.map((p) => (p.group >= 0 ? p.group : G + p.slot));
     const maxW = S.W + (shape ? shape.refs : 0) + 1;
     const offW = G + k;
@@ -720,21 +784,22 @@ export class BlockCounter {
     const truncated = new Uint8Array(nw);
     for (let g = 0; g < G; g++) truncated[g] = 1;
     for (let q = 0; q < k; q++) truncated[G + q] = 1;
-    for (let c = 0; c < pos.length; c++) truncated[chainWire[c]!] = proj.more[c]!;
+    for (let c = 0; c < pos.length; c++) truncated[chainWire[c]!] = pos[c]!.depth > 0 ? proj.more[c]! : 1;
     for (let w = 0; w < S.W; w++) truncated[offW + w] = S.trunc[w]!;
     truncated[OUT] = 1;
-    const eng = new CountingEngine({ base: nw, optimize: this.opts.optimize, levels: false, lag: Infinity, wires: nw, ids: nw + 1, second: true, truncated });
+    const eng = new CountingEngine({
+      base: nw, optimize: this.opts.optimize, levels: false, lag: Infinity, wires: nw, ids: nw + 1, second: true, truncated,
+      ring: S.n + proj.entries.length + (shape ? shape.n : 0) + 1,
+    });
     // Context: the state's instances with the projections inserted where they stand.
     const extraLink = new Uint8Array(S.n);
     const projLink = new Uint8Array(proj.entries.length);
     for (let e = 0; e < proj.entries.length; e++) {
       const p = proj.entries[e]!;
-      if (p.kind === 1) extraLink[p.a] = extraLink[p.a]! | (1 << p.s);
-      else if (p.kind === 2) {
-        const first = proj.entries[p.a]!;
-        if (first.kind === 1) extraLink[first.a] = extraLink[first.a]! | (1 << p.s);
-        else projLink[p.a] = projLink[p.a]! | (1 << p.s);
-      } else projLink[e] = projLink[e]! | (1 << p.s);
+      const first = p.kind === 2 ? proj.entries[p.a]! : p;
+      const at = p.kind === 2 ? p.a : e;
+      if (first.kind === 1) extraLink[first.a] = extraLink[first.a]! | (1 << p.s);
+      else projLink[at] = projLink[at]! | (1 << p.s);
     }
     const keyWire = (code: number): number => {
       if (code >= 0) return offW + code;
@@ -744,18 +809,26 @@ export class BlockCounter {
     };
     const stateWire = (code: number): number => (code >= 0 ? offW + code : code === -1 ? OUT : -2 - code);
     const idOf = new Int32Array(S.n);
-    // Projected instances by insertion point, oldest first (chains are listed newest first).
-    const byPos: number[][] = Array.from({ length: S.n + 1 }, () => []);
-    for (let e = proj.entries.length - 1; e >= 0; e--) if (proj.entries[e]!.kind === 0) byPos[proj.entries[e]!.pos]!.push(e);
-    // Instances before the open block had their stage 2: preloaded as if just done (mask1 = dead),
-    // so that restage sees only what this block changes.
-    const projId = new Int32Array(proj.entries.length).fill(-1);
-    const putProjected = (e: number): void => {
+    // Projected instances by insertion point (chains are listed newest first: put oldest first).
+    const byPos = new Map<number, number[]>();
+    for (let e = proj.entries.length - 1; e >= 0; e--) {
       const p = proj.entries[e]!;
-      projId[e] = eng.preload(p.t, keyWire(p.r0), keyWire(p.r1), keyWire(p.r2), projLink[e]!, p.dead, p.dead, 0);
-    };
+      if (p.kind !== 0) continue;
+      let l = byPos.get(p.pos);
+      if (l === undefined) byPos.set(p.pos, (l = []));
+      l.push(e);
+    }
+    // Instances before the open block had their stage 2: preloaded as if just done (mask1 = dead),
+    // so that restage sees only what this block changes. A projection is only its named gates.
+    const projId = new Int32Array(proj.entries.length).fill(-1);
     for (let x = 0; x <= S.n; x++) {
-      for (const e of byPos[x]!) putProjected(e);
+      const here = byPos.get(x);
+      if (here !== undefined) {
+        for (const e of here) {
+          const p = proj.entries[e]!;
+          projId[e] = eng.preload(p.t, keyWire(p.r0), keyWire(p.r1), keyWire(p.r2), projLink[e]!, ~p.mask, ~p.mask, 0);
+        }
+      }
       if (x === S.n) break;
       const open = x >= S.openStart;
       idOf[x] = eng.preload(S.t[x]!, stateWire(S.ref[x * 3]!), stateWire(S.ref[x * 3 + 1]!), stateWire(S.ref[x * 3 + 2]!), S.link[x]! | extraLink[x]!, S.dead[x]!, open ? S.mask1[x]! : S.dead[x]!, open ? S.recheck[x]! : 0);
@@ -777,8 +850,7 @@ export class BlockCounter {
           if (r < shape.k) continue;
           if (cur[r]! < 0) {
             cur[r] = free.length > 0 ? free.pop()! : W++;
-            if (r >= shape.k + shape.p) phys[r] = cur[r]!;
-            else per[r - shape.k] = cur[r]!;
+            if (r < shape.k + shape.p) per[r - shape.k] = cur[r]!;
           }
           if (phys[r]! < 0) phys[r] = cur[r]!;
         }
@@ -803,25 +875,19 @@ export class BlockCounter {
         }
       }
     }
-    // Stage 2 of the open block, and again for older instances a cancellation here may let walk
+    // A projection is known only by its named gates: a cancellation into it, or a walk of its own
+    // to repeat, would need the rest.
+    for (let e = 0; e < proj.entries.length; e++) {
+      const id = projId[e]!;
+      if (id < 0) continue;
+      if (eng.deadOf(id) !== ~proj.entries[e]!.mask || eng.recheckOf(id) !== 0) return this.giveUp(b, "a cancellation reached a projected instance");
+    }
+    // Stage 2 of the open block, and again for older instances a cancellation here lets walk
     // further (the latest walk of a gate is the one that counts: see run).
     const stage2: number[] = [];
     for (let x = 0; x < S.n; x++) {
       const [walked, positive] = eng.restage(idOf[x]!);
       if (walked !== 0) stage2.push(0, x, walked, positive);
-    }
-    for (let e = 0; e < proj.entries.length; e++) {
-      if (projId[e]! < 0) continue;
-      const [walked, positive] = eng.restage(projId[e]!);
-      if (walked !== 0) stage2.push(1, e, walked, positive);
-    }
-    const kills: number[] = [];
-    for (let x = 0; x < S.openStart; x++) if (eng.deadOf(idOf[x]!) !== S.dead[x]) kills.push(0, x, eng.deadOf(idOf[x]!));
-    for (let e = 0; e < proj.entries.length; e++) {
-      if (projId[e]! >= 0 && eng.deadOf(projId[e]!) !== proj.entries[e]!.dead) {
-        // Only the gates on the projected qubit are known: a cancellation of another would be unseen.
-        return this.giveUp(b, "a cancellation reached a projected instance");
-      }
     }
     if (eng.truncatedHits.length > 0) {
       const ask = new Set<number>();
@@ -832,16 +898,18 @@ export class BlockCounter {
       }
       return Int32Array.from(ask);
     }
+    const kills: number[] = [];
+    for (let x = 0; x < S.openStart; x++) if (eng.deadOf(idOf[x]!) !== S.dead[x]) kills.push(0, x, eng.deadOf(idOf[x]!));
     const total = eng.instances;
-    // The open block's final cancelled gates, in block order.
+    // The open block's final cancelled gates, in block order (its stage 2 is done).
     let deadClass = -1;
     if (S.openStart < S.n) {
-      const d = new Int32Array(S.n - S.openStart);
-      for (let x = S.openStart; x < S.n; x++) d[S.j[x]!] = eng.deadOf(idOf[x]!);
+      const d = new Int32Array(this.src.shape(this.blockShape[b - 1]!).n);
+      for (let x = S.openStart; x < S.n; x++) d[this.trueJ(b - 1, S.j[x]!)] = eng.deadOf(idOf[x]!);
       deadClass = this.deadClasses.id(d);
     }
-    // The next state: every work wire's tail (the block's instances and 17 live gates before), the
-    // block's qubits' instances of this block.
+    // The next state: every work wire's tail (the block's instances and 17 live gates before),
+    // the block's qubits' instances of this block.
     const stateOfId = new Int32Array(total).fill(-1);
     for (let x = 0; x < S.n; x++) stateOfId[idOf[x]!] = x;
     const keep = new Uint8Array(total);
@@ -855,8 +923,9 @@ export class BlockCounter {
         const s = e & 3;
         if (id < NP) {
           if (live >= KEEP_LIVE) break;
-          if (stateOfId[id]! < 0) throw new Error("block counter: a projected instance on a work wire");
-          live += popcount(SLOT_MASK[S.t[stateOfId[id]!]! * 3 + s]! & ~eng.deadOf(id));
+          const x = stateOfId[id]!;
+          if (x < 0) return this.giveUp(b, "a projected instance on a work wire");
+          live += popcount(SLOT_MASK[S.t[x]! * 3 + s]! & ~eng.deadOf(id));
         }
         keep[id] = 1;
         linkOf[id] = linkOf[id]! | (1 << s);
@@ -871,16 +940,7 @@ export class BlockCounter {
       }
     }
     for (let id = NP; id < total; id++) keep[id] = 1;
-    // Instances of the next state in circuit order; groups numbered by first reference.
-    const nAge: number[] = [];
-    const nJ: number[] = [];
-    const nT: number[] = [];
-    const nRef: number[] = [];
-    const nLink: number[] = [];
-    const nDead: number[] = [];
-    const nMask1: number[] = [];
-    const nRecheck: number[] = [];
-    const ancientSrc: number[] = [];
+    // Groups: the block's qubits first, in slot order, then the others in order of first reference.
     const groupOfWire = new Map<number, number>();
     const groupSrc: number[] = [];
     const hot: number[] = [];
@@ -895,6 +955,16 @@ export class BlockCounter {
       }
       return g;
     };
+    for (let q = 0; q < k; q++) groupFor(slotWire[q]!);
+    const nAge: number[] = [];
+    const nJ: number[] = [];
+    const nT: number[] = [];
+    const nRef: number[] = [];
+    const nLink: number[] = [];
+    const nDead: number[] = [];
+    const nMask1: number[] = [];
+    const nRecheck: number[] = [];
+    const ancientSrc: number[] = [];
     for (let id = 0; id < total; id++) {
       if (!keep[id]) continue;
       const x = stateOfId[id]!;
@@ -906,17 +976,18 @@ export class BlockCounter {
         age = S.age[x] === ANCIENT || S.age[x] === 1 ? ANCIENT : 1;
         j = age === ANCIENT ? -1 : S.j[x]!;
         t = S.t[x]!;
-        if (age === ANCIENT) ancientSrc.push(S.age[x] === ANCIENT ? ancientIndex(S, x) : -1 - x);
+        if (age === ANCIENT) ancientSrc.push(S.age[x] === ANCIENT ? x : -1 - x);
         for (let s = 0; s < 3; s++) {
           const c = S.ref[x * 3 + s]!;
           refs[s] = c >= 0 ? c : c === -1 ? -1 : -2 - groupFor(-2 - c);
         }
       } else {
-        j = id - NP;
+        const jj = id - NP;
         age = 0;
-        t = shape!.t[j]!;
+        t = shape!.t[jj]!;
+        j = t === T_X ? -2 - shape!.xBefore[jj]! : jj - shape!.xBefore[jj]!;
         for (let s = 0; s < 3; s++) {
-          const r = shape!.ref[j * 3 + s]!;
+          const r = shape!.ref[jj * 3 + s]!;
           refs[s] = r < 0 ? -1 : r < shape!.k ? -2 - groupFor(slotWire[r]!) : phys[r]! >= 0 ? phys[r]! : -1;
         }
       }
@@ -929,8 +1000,6 @@ export class BlockCounter {
       nMask1.push(age === 0 ? eng.mask1Of(id) : 0);
       nRecheck.push(age === 0 ? eng.recheckOf(id) : 0);
     }
-    // A block qubit with no instance still gets its group (the next block may share it).
-    for (let q = 0; q < k; q++) groupFor(slotWire[q]!);
     const N: CState = {
       W, free: Int32Array.from(free), per, n: nAge.length, age: Int32Array.from(nAge), j: Int32Array.from(nJ), t: Uint8Array.from(nT),
       ref: Int32Array.from(nRef), link: Uint8Array.from(nLink), dead: Int32Array.from(nDead), mask1: Int32Array.from(nMask1),
@@ -945,12 +1014,6 @@ export class BlockCounter {
   }
 }
 
-function ancientIndex(S: CState, x: number): number {
-  // Ancient instances come first, in order: the index is x itself.
-  void S;
-  return x;
-}
-
 interface Projected {
   kind: number;
   a: number;
@@ -960,7 +1023,8 @@ interface Projected {
   r0: number;
   r1: number;
   r2: number;
-  dead: number;
+  /** Kind 0: the gates named (the others are left out). */
+  mask: number;
   pos: number;
   block: number;
   j: number;

@@ -66,6 +66,8 @@ export interface EngineOptions {
    * them is noted (`truncatedHits`) instead of being taken as the start of the wire.
    */
   readonly truncated?: Uint8Array;
+  /** With lag Infinity: instances expected (sizes the ring once). */
+  readonly ring?: number;
 }
 
 /** Figures of one circuit. */
@@ -222,7 +224,7 @@ export class CountingEngine implements InstanceSink {
     this.rMask1 = new Int32Array(0);
     this.rSeq = new Int32Array(0);
     this.rRecheck = new Int32Array(0);
-    this.growRing(this.maxLag === Infinity ? 4096 : 0);
+    this.growRing(this.maxLag === Infinity ? (opts.ring ?? 4096) : 0);
     this.wI = new Int32Array(0);
     this.wL = new Float64Array(0);
     this.depth = opts.history ?? 1;
