@@ -159,6 +159,8 @@ export interface BlockSource {
   occurrence(b: number, q: number): number;
   /** The block of an occurrence. */
   blockOf(occurrence: number): number;
+  /** The qubit slot of an occurrence in its block. */
+  slotOf(occurrence: number): number;
   /** Occurrence numbers. */
   readonly occurrences: number;
   /** Largest k over shapes (sizes buffers). */
@@ -310,6 +312,8 @@ interface CValue {
   readonly stage2: Int32Array;
 }
 
+const NO_PROJECTIONS: Projected[] = [];
+
 /** Ref codes of a projected instance in a key. */
 const R_NONE = -1;
 const R_OUT = -2;
@@ -356,6 +360,8 @@ export class BlockCounter {
   private lastProj: Projected[] = [];
   /** Replays done (memo misses), for the tests and the bench. */
   replays = 0;
+  /** Milliseconds: when run started, pass 1 (cancellations, replays included), pass 2 (tally), replays. */
+  readonly timing = { start: 0, pass1: 0, pass2: 0, replay: 0 };
   private instances = 0;
   // Tally.
   private readonly tally: Tally;
@@ -387,6 +393,7 @@ export class BlockCounter {
 
   /** Counts the whole circuit; null when the block counting cannot go on (count with the engine). */
   run(): EngineResult | null {
+    this.timing.start = performance.now();
     const src = this.src;
     const vars = new Int32Array(Math.max(1, src.maxK));
     const step = Math.max(1, Math.floor(src.blocks / 100));
@@ -416,6 +423,7 @@ export class BlockCounter {
       this.blockDead[src.blocks - 1] = v.deadClass;
     }
     // Pass 2: the tally, in circuit order, over the final cancelled gates.
+    this.timing.pass1 = performance.now() - this.timing.start;
     for (let b = 0; b < src.blocks; b++) {
       if (progress && b % step === 0) progress(0.8 + (0.2 * b) / src.blocks);
       this.tallyBlock(b);
@@ -429,6 +437,7 @@ export class BlockCounter {
       if (((dead >>> (g % 32)) & 1) === 0) positive = true;
     }
     const r = this.tally.finish(this.decoded[this.state]!.W);
+    this.timing.pass2 = performance.now() - this.timing.start - this.timing.pass1;
     const secondBound = this.second || positive || r.vanished;
     const exact = !(this.opts.optimize && r.phaseGates >= 2 && secondBound);
     return {
@@ -482,13 +491,15 @@ export class BlockCounter {
     for (let q = 0; q < k; q++) key[n++] = slotGroup[q]!;
     let e = this.memo.get(key, n);
     let pos: ChainPos[] | null = null;
-    this.lastProj = [];
+    this.lastProj = NO_PROJECTIONS;
     for (let round = 0; ; round++) {
       if (e === -1) {
         pos ??= this.chains(b, S, k, slotGroup, vars);
         this.replays++;
+        const t0 = performance.now();
         const proj = this.projections(b, S, pos);
         const r = this.replay(b, S, shape, k, slotGroup, pos, proj);
+        this.timing.replay += performance.now() - t0;
         if (r === null) return null;
         if (r instanceof Int32Array) {
           e = -2 - this.refines.length;
@@ -525,27 +536,66 @@ export class BlockCounter {
 
   /** The chain positions of block b: the open block's qubits (hot groups), then the block's other qubits. */
   private chains(b: number, S: CState, k: number, slotGroup: Int32Array, vars: Int32Array): ChainPos[] {
-    const pos: ChainPos[] = [];
+    const pos = this.posList;
+    pos.length = 0;
+    const at = (group: number, slot: number, qubit: number, start: number): void => {
+      let p = this.posPool[pos.length];
+      if (p === undefined) this.posPool.push((p = { group, slot, qubit, start, depth: 0 }));
+      else {
+        p.group = group;
+        p.slot = slot;
+        p.qubit = qubit;
+        p.start = start;
+        p.depth = 0;
+      }
+      pos.push(p);
+    };
     for (let g = 0; g < S.G; g++) {
       if (S.hotSlot[g]! < 0) continue;
       let slot = -1;
       for (let q = 0; q < k; q++) if (slotGroup[q] === g) slot = q;
       const o = this.src.occurrence(b - 1, S.hotSlot[g]!);
-      pos.push({ group: g, slot, qubit: this.groupQubit[g]!, start: this.prevOcc[o]!, depth: 0 });
+      at(g, slot, this.groupQubit[g]!, this.prevOcc[o]!);
     }
     for (let q = 0; q < k; q++) {
       const g = slotGroup[q]!;
       if (g >= 0 && S.hotSlot[g]! >= 0) continue;
-      pos.push({ group: g, slot: q, qubit: vars[q]!, start: this.lastOcc[vars[q]!]!, depth: 0 });
+      at(g, q, vars[q]!, this.lastOcc[vars[q]!]!);
     }
     return pos;
   }
+  private readonly posList: ChainPos[] = [];
+  private readonly projVars = new Int32Array(256);
+  private readonly projPool: Projected[] = [];
+  private projUsed = 0;
+
+  private projEntry(kind: number, a: number, s: number, chain: number, t: number, r0: number, r1: number, r2: number, mask: number, block: number, j: number): Projected {
+    let e = this.projPool[this.projUsed];
+    if (e === undefined) this.projPool.push((e = { kind, a, s, chain, t, r0, r1, r2, mask, pos: 0, block, j }));
+    else {
+      e.kind = kind;
+      e.a = a;
+      e.s = s;
+      e.chain = chain;
+      e.t = t;
+      e.r0 = r0;
+      e.r1 = r1;
+      e.r2 = r2;
+      e.mask = mask;
+      e.pos = 0;
+      e.block = block;
+      e.j = j;
+    }
+    this.projUsed++;
+    return e;
+  }
+  private readonly posPool: ChainPos[] = [];
 
   private apply(b: number, S: CState, v: CValue, vars: Int32Array): void {
     const N = this.decoded[v.next]!;
     const before = this.ancientAbs;
-    if (N.ancient > 0 || this.ancientAbs.length > 0) {
-      const abs = new Float64Array(N.ancient);
+    if (N.ancient > 0 || S.ancient > 0) {
+      const abs = this.spareAbs.length >= N.ancient ? this.spareAbs : new Float64Array(N.ancient * 2);
       for (let x = 0; x < N.ancient; x++) {
         const s = v.ancientSrc[x]!;
         if (s >= 0) abs[x] = before[s]!;
@@ -555,6 +605,7 @@ export class BlockCounter {
           abs[x] = ob * SPAN + this.trueJ(ob, S.j[y]!);
         }
       }
+      this.spareAbs = before;
       this.ancientAbs = abs;
     }
     const gq = this.spareGroups.length >= N.G ? this.spareGroups : new Int32Array(N.G * 2);
@@ -565,24 +616,19 @@ export class BlockCounter {
     this.spareGroups = this.groupQubit;
     this.groupQubit = gq;
     if (v.kills.length > 0 || v.stage2.length > 0) {
-      // Where the state's instances and the key's projections come from, as block * SPAN + j.
-      const absOf = (where: number, x: number): number => {
-        if (where === 1) return this.lastProj[x]!.block * SPAN + this.lastProj[x]!.j;
-        if (S.age[x] === ANCIENT) return before[x]!;
-        const ob = b - 1 - S.age[x]!;
-        return ob * SPAN + this.trueJ(ob, S.j[x]!);
-      };
       for (let i = 0; i < v.kills.length; i += 3) {
-        const a = absOf(v.kills[i]!, v.kills[i + 1]!);
+        const a = this.absOf(b, S, before, v.kills[i]!, v.kills[i + 1]!);
         const ob = Math.floor(a / SPAN);
         const d = Int32Array.from(this.deadClasses.get(this.blockDead[ob]!));
         d[a % SPAN] = v.kills[i + 2]!;
         this.blockDead[ob] = this.deadClasses.id(d);
       }
       for (let i = 0; i < v.stage2.length; i += 4) {
-        const a = absOf(v.stage2[i]!, v.stage2[i + 1]!);
-        const walked = v.stage2[i + 2]!;
         const hit = v.stage2[i + 3]!;
+        // Nothing to record: no partner now, none found before.
+        if (hit === 0 && this.positive.size === 0) continue;
+        const a = this.absOf(b, S, before, v.stage2[i]!, v.stage2[i + 1]!);
+        const walked = v.stage2[i + 2]!;
         for (let m = walked; m !== 0; m &= m - 1) {
           const p = 31 - Math.clz32(m & -m);
           if ((hit >>> p) & 1) this.positive.set(a * 32 + p, a);
@@ -593,7 +639,16 @@ export class BlockCounter {
     this.state = v.next;
     if (v.second) this.second = true;
   }
+  /** Where an instance of the state (where 0) or a projection of the key (1) comes from, as block * SPAN + j. */
+  private absOf(b: number, S: CState, ancient: Float64Array, where: number, x: number): number {
+    if (where === 1) return this.lastProj[x]!.block * SPAN + this.lastProj[x]!.j;
+    if (S.age[x] === ANCIENT) return ancient[x]!;
+    const ob = b - 1 - S.age[x]!;
+    return ob * SPAN + this.trueJ(ob, S.j[x]!);
+  }
+
   private spareGroups = new Int32Array(0);
+  private spareAbs = new Float64Array(0);
 
   /** The key with the chains' depths and what they name, into keyBuf; returns its length. */
   private chainKey(b: number, S: CState, k: number, pos: ChainPos[]): number {
@@ -637,10 +692,12 @@ export class BlockCounter {
    * touch as key refs, the named gates, and where it stands among the state's instances).
    */
   private projections(b: number, S: CState, pos: ChainPos[]): { entries: Projected[]; more: Int32Array } {
-    const entries: Projected[] = [];
-    const more = new Int32Array(pos.length);
-    const seen = new Map<number, number>();
-    const vars = new Int32Array(Math.max(1, this.src.maxK));
+    const entries = this.projEntries;
+    entries.length = 0;
+    this.projUsed = 0;
+    if (this.projMore.length < pos.length) this.projMore = new Int32Array(pos.length * 2);
+    const more = this.projMore;
+    const vars = this.projVars;
     for (let c = 0; c < pos.length; c++) {
       const p = pos[c]!;
       let left = p.depth;
@@ -648,22 +705,21 @@ export class BlockCounter {
       let exhausted = true;
       while (left > 0 && occ >= 0) {
         const ob = this.src.blockOf(occ);
+        const q0 = this.src.slotOf(occ);
         occ = this.prevOcc[occ]!;
         const shape = this.src.shape(this.blockShape[ob]!);
-        this.src.varsOf(ob, vars);
-        let q0 = -1;
-        for (let q = 0; q < shape.k; q++) if (vars[q] === p.qubit) q0 = q;
-        if (q0 < 0) continue;
         const dc = this.deadClasses.get(this.blockDead[ob]!);
         const list = shape.onVar[q0]!;
+        let varsRead = false;
         for (let i = list.length - 1; i >= 0; i--) {
           const j = list[i]! >> 2;
           const s = list[i]! & 3;
           const t = shape.t[j]!;
           const absId = ob * SPAN + j;
-          const again = seen.get(absId);
-          if (again !== undefined) {
-            entries.push({ kind: 2, a: again, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, mask: 0, pos: 0, block: ob, j });
+          let again = -1;
+          for (let e = 0; e < entries.length; e++) if (entries[e]!.kind !== 2 && entries[e]!.block * SPAN + entries[e]!.j === absId) again = e;
+          if (again >= 0) {
+            entries.push(this.projEntry(2, again, s, c, 0, 0, 0, 0, 0, ob, j));
             const first = entries[again]!;
             if (first.kind === 0) left -= popcount(first.mask & SLOT_MASK[t * 3 + s]!);
             else left -= popcount(SLOT_MASK[t * 3 + s]! & ~dc[j]!);
@@ -675,8 +731,7 @@ export class BlockCounter {
           }
           const inState = this.stateIndex(S, b, ob, j);
           if (inState >= 0) {
-            seen.set(absId, entries.length);
-            entries.push({ kind: 1, a: inState, s, chain: c, t: 0, r0: 0, r1: 0, r2: 0, mask: 0, pos: 0, block: ob, j });
+            entries.push(this.projEntry(1, inState, s, c, 0, 0, 0, 0, 0, ob, j));
             left -= popcount(SLOT_MASK[t * 3 + s]! & ~dc[j]!);
             if (left <= 0) {
               exhausted = i === 0 && occ < 0;
@@ -695,21 +750,30 @@ export class BlockCounter {
           }
           // The wires of the slots those gates touch.
           const phys = this.physes.get(this.blockPhys[ob]!);
-          const r = [R_NONE, R_NONE, R_NONE];
+          const touched = gatesOnSlots(t, mask);
+          let r0 = R_NONE;
+          let r1 = R_NONE;
+          let r2 = R_NONE;
           for (let s2 = 0; s2 < SLOTS[t]!; s2++) {
-            if ((gatesOnSlots(t, mask) & (1 << s2)) === 0) continue;
+            if ((touched & (1 << s2)) === 0) continue;
             const lr = shape.ref[j * 3 + s2]!;
             if (lr < 0) continue;
+            let code: number;
             if (lr < shape.k) {
+              if (!varsRead) {
+                this.src.varsOf(ob, vars);
+                varsRead = true;
+              }
               const qb = vars[lr]!;
-              let code = R_OUT;
+              code = R_OUT;
               for (let g2 = 0; g2 < S.G; g2++) if (this.groupQubit[g2] === qb) code = rGroup(g2);
               if (code === R_OUT) for (let c2 = 0; c2 < pos.length; c2++) if (pos[c2]!.group < 0 && pos[c2]!.qubit === qb) code = rGroup(S.G + c2);
-              r[s2] = code;
-            } else r[s2] = phys[lr]!;
+            } else code = phys[lr]!;
+            if (s2 === 0) r0 = code;
+            else if (s2 === 1) r1 = code;
+            else r2 = code;
           }
-          seen.set(absId, entries.length);
-          entries.push({ kind: 0, a: 0, s, chain: c, t, r0: r[0]!, r1: r[1]!, r2: r[2]!, mask, pos: 0, block: ob, j });
+          entries.push(this.projEntry(0, 0, s, c, t, r0, r1, r2, mask, ob, j));
           if (left <= 0) {
             let rest = false;
             for (; g >= 0; g--) if (((dc[j]! >>> gates[g]!) & 1) === 0) rest = true;
@@ -735,8 +799,13 @@ export class BlockCounter {
         else first.pos = Math.max(first.pos, after);
       }
     }
-    return { entries, more };
+    this.projResult.entries = entries;
+    this.projResult.more = more;
+    return this.projResult;
   }
+  private readonly projEntries: Projected[] = [];
+  private projMore = new Int32Array(16);
+  private readonly projResult: { entries: Projected[]; more: Int32Array } = { entries: [], more: new Int32Array(0) };
 
   /** Index in the state of instance j of block ob (the open block is b - 1), or -1. */
   private stateIndex(S: CState, b: number, ob: number, j: number): number {
@@ -884,10 +953,11 @@ export class BlockCounter {
     }
     // Stage 2 of the open block, and again for older instances a cancellation here lets walk
     // further (the latest walk of a gate is the one that counts: see run).
+    // A first walk (the open block's) that finds nothing changes nothing: not recorded.
     const stage2: number[] = [];
     for (let x = 0; x < S.n; x++) {
       const [walked, positive] = eng.restage(idOf[x]!);
-      if (walked !== 0) stage2.push(0, x, walked, positive);
+      if (walked !== 0 && (positive !== 0 || x < S.openStart)) stage2.push(0, x, walked, positive);
     }
     if (eng.truncatedHits.length > 0) {
       const ask = new Set<number>();
@@ -1182,55 +1252,93 @@ class LevelTally implements Tally {
     this.workP = p;
   }
 
+  /** The cold inputs of a block over a state (cached per state, shape and wires). */
+  private layout(shapeId: number, physId: number, phys: Int32Array): Layout {
+    this.layoutKey[0] = this.state;
+    this.layoutKey[1] = shapeId;
+    this.layoutKey[2] = physId;
+    let e = this.layoutIds.get(this.layoutKey, 3);
+    if (e < 0) {
+      const S = this.decoded[this.state]!;
+      if (S.at === undefined) {
+        S.at = new Map();
+        for (let i = 0; i < S.n; i++) S.at.set(S.wire[i]!, i);
+      }
+      const sh = this.src.shape(shapeId);
+      const inputs = blockInputs(sh, phys);
+      const cold: number[] = [];
+      for (let i = 0; i < inputs.length; i++) {
+        const w = inputs[i]!;
+        if (w.kind === 0) cold.push(i);
+        else if (!S.at.has(w.kind === 2 ? BIT : w.id)) cold.push(i);
+      }
+      const kind = Int32Array.from(cold, (i) => inputs[i]!.kind);
+      const id = Int32Array.from(cold, (i) => inputs[i]!.id);
+      e = this.layouts.length;
+      this.layouts.push({ inputs, cold: Int32Array.from(cold), kind, id });
+      this.layoutIds.set(this.layoutKey, 3, e);
+    }
+    return this.layouts[e]!;
+  }
+  private readonly layoutIds = new KeyTable();
+  private readonly layouts: Layout[] = [];
+  private readonly layoutKey = new Int32Array(3);
+  private coldL = new Float64Array(64);
+  private coldT = new Float64Array(64);
+
   block(shapeId: number, deadClass: number, physId: number, phys: Int32Array, vars: Int32Array, deads: Interner): void {
     const sh = this.src.shape(shapeId);
-    const S = this.decoded[this.state]!;
-    if (S.at === undefined) {
-      S.at = new Map();
-      for (let i = 0; i < S.n; i++) S.at.set(S.wire[i]!, i);
-    }
-    // The block's wires: qubits, work wires in order of first use, the bit; which are cold.
-    const inputs = blockInputs(sh, phys);
-    const cold: number[] = [];
-    for (let i = 0; i < inputs.length; i++) {
-      const w = inputs[i]!;
-      if (w.kind !== 1 || !S.at.has(w.id)) {
-        if (w.kind === 2 && S.at.has(BIT)) continue;
-        cold.push(i);
-      }
+    const lay = this.layout(shapeId, physId, phys);
+    const C = lay.cold.length;
+    if (this.coldL.length < C) {
+      this.coldL = new Float64Array(C * 2);
+      this.coldT = new Float64Array(C * 2);
     }
     let n = 0;
-    const need = 8 + cold.length * 3;
-    if (this.key.length < need) this.key = new Int32Array(need * 2);
+    if (this.key.length < 8 + C * 3) this.key = new Int32Array(16 + C * 6);
     const key = this.key;
     key[n++] = this.state;
     key[n++] = shapeId;
     key[n++] = deadClass;
     key[n++] = physId;
-    const pends = new Uint8Array(cold.length);
-    for (let c = 0; c < cold.length; c++) key[n++] = pends[c] = this.pendOf(inputs[cold[c]!]!, vars);
+    // Cold inputs: their pending phase runs (in the key) and levels (checked against the entry).
+    for (let c = 0; c < C; c++) {
+      const kind = lay.kind[c]!;
+      const id = lay.id[c]!;
+      let p = 0;
+      if (kind === 0) {
+        const q = vars[id]!;
+        p = this.varP[q]!;
+        this.coldL[c] = this.varL[q]!;
+        this.coldT[c] = this.varT[q]!;
+      } else if (kind === 1) {
+        this.room(id);
+        p = this.workP[id]!;
+        this.coldL[c] = this.workL[id]!;
+        this.coldT[c] = this.workT[id]!;
+      } else {
+        this.coldL[c] = this.bitL;
+        this.coldT[c] = this.bitT;
+      }
+      key[n++] = p;
+    }
     const n0 = n;
     let e = this.memo.get(key, n);
-    let exact: Float64Array | null = null;
     if (e < 0) {
       e = this.values.length;
-      this.values.push(this.compute(sh, deadClass, phys, deads, inputs, cold, pends, null));
+      this.values.push(this.compute(sh, deadClass, phys, deads, lay, key.slice(4, n0), null));
       this.memo.set(key, n, e);
     }
     let v = this.values[e]!;
     // The cold inputs must not reach the state's wires above what the entry assumed.
     let ok = true;
-    for (let c = 0; c < cold.length; c++) {
-      const [l, t] = this.levelOf(inputs[cold[c]!]!, vars);
-      if (l - this.ref > v.tauL[c]! || t - this.refT > v.tauT[c]!) ok = false;
-    }
+    for (let c = 0; c < C; c++) if (this.coldL[c]! - this.ref > v.tauL[c]! || this.coldT[c]! - this.refT > v.tauT[c]!) ok = false;
     if (!ok) {
-      exact = new Float64Array(cold.length * 2);
+      const exact = new Float64Array(C * 2);
       n = n0;
-      for (let c = 0; c < cold.length; c++) {
-        const [l, t] = this.levelOf(inputs[cold[c]!]!, vars);
-        const rl = l - this.ref;
-        const rt = t - this.refT;
+      for (let c = 0; c < C; c++) {
+        const rl = this.coldL[c]! - this.ref;
+        const rt = this.coldT[c]! - this.refT;
         exact[c * 2] = rl <= v.tauL[c]! ? NEG : rl;
         exact[c * 2 + 1] = rt <= v.tauT[c]! ? NEG : rt;
         key[n++] = exact[c * 2] === NEG ? DOM : rl;
@@ -1239,40 +1347,30 @@ class LevelTally implements Tally {
       e = this.memo.get(key, n);
       if (e < 0) {
         e = this.values.length;
-        this.values.push(this.compute(sh, deadClass, phys, deads, inputs, cold, pends, exact));
+        this.values.push(this.compute(sh, deadClass, phys, deads, lay, key.slice(4, n0), exact));
         this.memo.set(key, n, e);
       }
       v = this.values[e]!;
-      for (let c = 0; c < cold.length; c++) {
-        if (exact[c * 2] !== NEG && exact[c * 2 + 1] !== NEG) continue;
-        const [l, t] = this.levelOf(inputs[cold[c]!]!, vars);
-        if ((exact[c * 2] === NEG && l - this.ref > v.tauL[c]!) || (exact[c * 2 + 1] === NEG && t - this.refT > v.tauT[c]!)) {
+      for (let c = 0; c < C; c++) {
+        if ((exact[c * 2] === NEG && this.coldL[c]! - this.ref > v.tauL[c]!) || (exact[c * 2 + 1] === NEG && this.coldT[c]! - this.refT > v.tauT[c]!)) {
           throw new Error("block counter: a level assumed below its bound is not");
         }
       }
     }
-    // Qubit outputs (from the inputs before any is written).
+    // Qubit outputs, from the inputs read above.
     const k = sh.k;
-    const outL = new Float64Array(k);
-    const outT = new Float64Array(k);
     for (let q = 0; q < k; q++) {
       let l = v.outL[q]! === NEG ? NEG : v.outL[q]! + this.ref;
       let t = v.outT[q]! === NEG ? NEG : v.outT[q]! + this.refT;
-      for (let c = 0; c < cold.length; c++) {
-        const dl = v.dl[q * cold.length + c]!;
-        const dt = v.dt[q * cold.length + c]!;
-        if (dl === NEG && dt === NEG) continue;
-        const [il, it] = this.levelOf(inputs[cold[c]!]!, vars);
-        if (dl !== NEG && il + dl > l) l = il + dl;
-        if (dt !== NEG && it + dt > t) t = it + dt;
+      for (let c = 0; c < C; c++) {
+        const dl = v.dl[q * C + c]!;
+        const dt = v.dt[q * C + c]!;
+        if (dl !== NEG && this.coldL[c]! + dl > l) l = this.coldL[c]! + dl;
+        if (dt !== NEG && this.coldT[c]! + dt > t) t = this.coldT[c]! + dt;
       }
-      outL[q] = l;
-      outT[q] = t;
-    }
-    for (let q = 0; q < k; q++) {
       const qb = vars[q]!;
-      if (outL[q] !== NEG) this.varL[qb] = outL[q]!;
-      if (outT[q] !== NEG) this.varT[qb] = outT[q]!;
+      if (l !== NEG) this.varL[qb] = l;
+      if (t !== NEG) this.varT[qb] = t;
       this.varP[qb] = v.outPend[q]!;
     }
     for (let i = 0; i < v.demote.length; i += 4) {
@@ -1296,31 +1394,15 @@ class LevelTally implements Tally {
     if (v.vanished) this.vanished = true;
   }
 
-  private pendOf(w: Input, vars: Int32Array): number {
-    if (w.kind === 0) return this.varP[vars[w.id]!]!;
-    if (w.kind === 1) {
-      this.room(w.id);
-      return this.workP[w.id]!;
-    }
-    return 0;
-  }
-
-  private levelOf(w: Input, vars: Int32Array): [number, number] {
-    if (w.kind === 0) return [this.varL[vars[w.id]!]!, this.varT[vars[w.id]!]!];
-    if (w.kind === 1) {
-      this.room(w.id);
-      return [this.workL[w.id]!, this.workT[w.id]!];
-    }
-    return [this.bitL, this.bitT];
-  }
-
   /**
    * The block's effect, computed instance by instance as engine.settle does, with each level a
    * max-plus vector: a number from the state's wires and the cold inputs given exactly, and a path
    * length from each other cold input.
    */
-  private compute(sh: Shape, deadClass: number, phys: Int32Array, deads: Interner, inputs: Input[], cold: number[], pends: Uint8Array, exact: Float64Array | null): LValue {
+  private compute(sh: Shape, deadClass: number, phys: Int32Array, deads: Interner, lay: Layout, pends: Int32Array, exact: Float64Array | null): LValue {
     const S = this.decoded[this.state]!;
+    const inputs = lay.inputs;
+    const cold = lay.cold;
     const C = cold.length;
     const width = 1 + C;
     const nIn = inputs.length;
@@ -1492,6 +1574,14 @@ class LevelTally implements Tally {
     const [tCount, cnotCount, toffoliCount, measurements, phaseGates] = this.sum as [number, number, number, number, number];
     return { tCount, cnotCount, toffoliCount, measurements, phaseGates, depth, tDepth, vanished: this.vanished };
   }
+}
+
+/** The inputs of a block over a level state: all, and those not in the state (kind and id of each). */
+interface Layout {
+  readonly inputs: Input[];
+  readonly cold: Int32Array;
+  readonly kind: Int32Array;
+  readonly id: Int32Array;
 }
 
 /** A wire of a block: a qubit slot (kind 0, id = slot), a work wire (kind 1, id = wire), the bit (kind 2). */

@@ -45,6 +45,8 @@ export class LeanBlocks implements BlockSource {
   private readonly flipped: Uint8Array;
   private readonly finVars: Int32Array;
   private readonly shapes: Shape[] = [];
+  /** Clause of each literal position. */
+  private readonly clauseOfPos: Int32Array;
   private readonly shapeIds = new Map<number, number>();
 
   constructor(f: SimplifiedCnf, kind: OracleKind, mode: LoweringMode) {
@@ -67,6 +69,8 @@ export class LeanBlocks implements BlockSource {
     for (let i = this.m - 1; i >= 0; i--) {
       for (let p = f.clauseStart[i]!; p < f.clauseStart[i + 1]!; p++) lastWant[Math.abs(f.lits[p]!) - 1] = violatedBy(f.lits[p]!) & 1;
     }
+    this.clauseOfPos = new Int32Array(this.L);
+    for (let i = 0; i < this.m; i++) this.clauseOfPos.fill(i, f.clauseStart[i]!, f.clauseStart[i + 1]!);
     const fin: number[] = [];
     for (let q = 0; q < this.n; q++) if (lastWant[q] === 1) fin.push(q);
     this.finVars = Int32Array.from(fin);
@@ -145,23 +149,20 @@ export class LeanBlocks implements BlockSource {
   }
 
   blockOf(o: number): number {
-    if (o < this.L) return this.clauseAt(o);
-    if (o < 2 * this.L) return 2 * this.m - 1 - this.clauseAt(o - this.L);
+    if (o < this.L) return this.clauseOfPos[o]!;
+    if (o < 2 * this.L) return 2 * this.m - 1 - this.clauseOfPos[o - this.L]!;
     if (o === 2 * this.L) return this.m;
     return 2 * this.m + (o - 2 * this.L - 1);
   }
 
-  /** The clause holding literal position p. */
-  private clauseAt(p: number): number {
-    const cs = this.f.clauseStart;
-    let lo = 0;
-    let hi = this.m - 1;
-    while (lo < hi) {
-      const mid = (lo + hi + 1) >> 1;
-      if (cs[mid]! <= p) lo = mid;
-      else hi = mid - 1;
+  slotOf(o: number): number {
+    if (o < this.L) return o - this.f.clauseStart[this.clauseOfPos[o]!]!;
+    if (o < 2 * this.L) return o - this.L - this.f.clauseStart[this.clauseOfPos[o - this.L]!]!;
+    if (o === 2 * this.L) {
+      const c = this.m - 1;
+      return this.f.clauseStart[c + 1]! - this.f.clauseStart[c]!;
     }
-    return lo;
+    return 0;
   }
 
   private shapeFor(dir: number, k: number, x: number): number {
