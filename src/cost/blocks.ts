@@ -72,6 +72,8 @@ export interface Shape {
   readonly fromCanon: Int32Array;
   /** The X instances, in order (an X instance's canonical number is -2 - its rank here). */
   readonly xAt: Int32Array;
+  /** Qubit slots that get an X (a mask; slots above 30 are left out). */
+  readonly xSlots: number;
 }
 
 /** Records the instances a lowering puts, as a shape. Ids below k + p are the qubit and persistent references. */
@@ -125,14 +127,17 @@ export class ShapeRecorder implements InstanceSink {
     const xBefore = new Int32Array(n);
     const fromCanon: number[] = [];
     const xAt: number[] = [];
+    let xSlots = 0;
     for (let j = 0; j < n; j++) {
       xBefore[j] = xAt.length;
-      if (t[j] === T_X) xAt.push(j);
-      else fromCanon.push(j);
+      if (t[j] === T_X) {
+        xAt.push(j);
+        if (ref[j * 3]! < Math.min(this.k, 31)) xSlots |= 1 << ref[j * 3]!;
+      } else fromCanon.push(j);
     }
     return {
       n, t, ref, dies: Uint8Array.from(this.dies), k: this.k, p: this.p, refs: this.next, onVar: onVar.map((l) => Int32Array.from(l)), usesBit,
-      xBefore, fromCanon: Int32Array.from(fromCanon), xAt: Int32Array.from(xAt),
+      xBefore, fromCanon: Int32Array.from(fromCanon), xAt: Int32Array.from(xAt), xSlots,
     };
   }
 }
@@ -238,6 +243,8 @@ interface CState {
   readonly openStart: number;
   /** Instance index of (age, j) for ages 0 and 1 (built on demand). */
   recent?: Map<number, number>;
+  /** Per work wire, the oldest age on its tail (a large number for ancient; built on demand). */
+  oldest?: Int32Array;
 }
 
 function encodeState(s: CState): Int32Array {
@@ -376,6 +383,9 @@ export class BlockCounter {
     this.blockDead = new Int32Array(src.blocks).fill(-1);
     this.prevOcc = new Int32Array(src.occurrences).fill(-1);
     this.lastOcc = new Int32Array(src.base).fill(-1);
+    this.tagOcc = new Int32Array(src.base).fill(-2);
+    this.tagKills = new Int32Array(src.base);
+    this.tagTop = new Int32Array(src.base);
     const empty: CState = {
       W: 0, free: new Int32Array(0), per: new Int32Array(src.persistent).fill(-1), n: 0, age: new Int32Array(0), j: new Int32Array(0),
       t: new Uint8Array(0), ref: new Int32Array(0), link: new Uint8Array(0), dead: new Int32Array(0), mask1: new Int32Array(0),
@@ -489,12 +499,39 @@ export class BlockCounter {
     key[n++] = this.state;
     key[n++] = sh;
     for (let q = 0; q < k; q++) key[n++] = slotGroup[q]!;
+    // A qubit the block puts an X on first: that X's walk reads the qubit's newest gate before
+    // this block. When that gate is simple to name (see tagOf), the key names it right away.
+    const xs = shape === null ? 0 : shape.xSlots;
+    let fast = 0;
+    if (xs !== 0) {
+      const n0 = n;
+      key[n++] = -3;
+      for (let q = 0; q < k && q < 31; q++) {
+        if (((xs >>> q) & 1) === 0) continue;
+        const tag = slotGroup[q]! >= 0 ? -1 : this.tagOf(b, S, vars[q]!);
+        if (tag < 0) {
+          fast = 0;
+          n = n0;
+          break;
+        }
+        fast |= 1 << q;
+        key[n++] = tag;
+      }
+      if (fast !== 0 && !this.distinctTops(vars, fast, k)) {
+        fast = 0;
+        n = n0;
+      }
+    }
     let e = this.memo.get(key, n);
     let pos: ChainPos[] | null = null;
     this.lastProj = NO_PROJECTIONS;
     for (let round = 0; ; round++) {
       if (e === -1) {
-        pos ??= this.chains(b, S, k, slotGroup, vars);
+        if (pos === null) {
+          pos = this.chains(b, S, k, slotGroup, vars);
+          if (fast !== 0) for (const p of pos) if (p.slot >= 0 && p.slot < 31 && ((fast >>> p.slot) & 1) === 1) p.depth = 1;
+          if (fast !== 0) this.lastProj = this.projections(b, S, pos).entries;
+        }
         this.replays++;
         const t0 = performance.now();
         const proj = this.projections(b, S, pos);
@@ -516,7 +553,10 @@ export class BlockCounter {
         return v;
       }
       // Deeper into the chains named, then again.
-      pos ??= this.chains(b, S, k, slotGroup, vars);
+      if (pos === null) {
+        pos = this.chains(b, S, k, slotGroup, vars);
+        if (fast !== 0) for (const p of pos) if (p.slot >= 0 && p.slot < 31 && ((fast >>> p.slot) & 1) === 1) p.depth = 1;
+      }
       const ask = this.refines[-2 - e]!;
       let grew = false;
       for (const p of ask) {
@@ -533,6 +573,114 @@ export class BlockCounter {
     }
   }
   private slotGroup = new Int32Array(64);
+
+  /**
+   * A number naming the newest live gate on a qubit before block b, as a key's projection of
+   * depth 1 would (its template, slot, gate, the work wires of the slots it touches, whether
+   * more gates lie before it), or -1 when that is not simple: the gate is in an instance the state
+   * may hold (its block less than two blocks back, or a work wire's tail reaching that far back),
+   * touches another qubit, or the qubit's newest instance has no live gate on it. 0: no gate before.
+   * Cached per qubit until its next use or a later cancellation into an earlier block.
+   */
+  private tagOf(b: number, S: CState, qubit: number): number {
+    const occ = this.lastOcc[qubit]!;
+    if (occ < 0) return 0;
+    let top: number;
+    if (this.tagOcc[qubit] === occ && this.tagKills[qubit] === this.killCount) top = this.tagTop[qubit]!;
+    else {
+      top = this.computeTag(occ);
+      this.tagOcc[qubit] = occ;
+      this.tagKills[qubit] = this.killCount;
+      this.tagTop[qubit] = top;
+    }
+    if (top < 0) return -1;
+    const ob = this.src.blockOf(occ);
+    const age = b - 1 - ob;
+    if (age < 2) return -1;
+    // Not in the state: its work wires' tails do not reach back to it.
+    const t = this.tagWires[top * 2]!;
+    const w2 = this.tagWires[top * 2 + 1]!;
+    const oldest = (S.oldest ??= oldestAges(S));
+    if (t >= 0 && (t >= S.W || oldest[t]! >= age)) return -1;
+    if (w2 >= 0 && (w2 >= S.W || oldest[w2]! >= age)) return -1;
+    return top + 1;
+  }
+  private tagOcc = new Int32Array(0);
+  private tagKills = new Int32Array(0);
+  private tagTop = new Int32Array(0);
+  private tagWires: number[] = [];
+  private readonly tagIds = new KeyTable();
+  private readonly tagKey = new Int32Array(8);
+  /** Cancellations into blocks before the open one so far (a cached tag may then be stale). */
+  private killCount = 0;
+
+  /** The tag (see tagOf) of the newest live gate of an occurrence's qubit, or -1. */
+  private computeTag(occ: number): number {
+    const ob = this.src.blockOf(occ);
+    const q0 = this.src.slotOf(occ);
+    const shape = this.src.shape(this.blockShape[ob]!);
+    const dc = this.deadClasses.get(this.blockDead[ob]!);
+    const list = shape.onVar[q0]!;
+    if (list.length === 0) return -1;
+    const js = list[list.length - 1]!;
+    const j = js >> 2;
+    const s = js & 3;
+    const t = shape.t[j]!;
+    const gates = SLOT_GATES[t * 3 + s]!;
+    let g = gates.length - 1;
+    while (g >= 0 && ((dc[j]! >>> gates[g]!) & 1)) g--;
+    if (g < 0) return -1;
+    const mask = 1 << gates[g]!;
+    let more = list.length > 1 || this.prevOcc[occ]! >= 0 ? 1 : 0;
+    for (let g2 = g - 1; g2 >= 0; g2--) if (((dc[j]! >>> gates[g2]!) & 1) === 0) more = 1;
+    const touched = gatesOnSlots(t, mask);
+    const phys = this.physes.get(this.blockPhys[ob]!);
+    const key = this.tagKey;
+    key[0] = t;
+    key[1] = s;
+    key[2] = mask;
+    key[3] = key[4] = key[5] = R_NONE;
+    key[6] = more;
+    let w0 = -1;
+    let w1 = -1;
+    for (let s2 = 0; s2 < SLOTS[t]!; s2++) {
+      if ((touched & (1 << s2)) === 0) continue;
+      const lr = shape.ref[j * 3 + s2]!;
+      if (lr < 0) continue;
+      if (lr < shape.k) {
+        if (lr !== q0) return -1;
+        key[3 + s2] = -5;
+      } else {
+        key[3 + s2] = phys[lr]!;
+        if (w0 === -1) w0 = phys[lr]!;
+        else w1 = phys[lr]!;
+      }
+    }
+    let id = this.tagIds.get(key, 7);
+    if (id < 0) {
+      id = this.tagIds.size;
+      this.tagIds.set(key, 7, id);
+      this.tagWires.push(w0, w1);
+    }
+    return id;
+  }
+
+  /** Whether the newest instances of the fast qubits are distinct (a shared one would be one projection). */
+  private distinctTops(vars: Int32Array, fast: number, k: number): boolean {
+    let count = 0;
+    for (let q = 0; q < k && q < 31; q++) {
+      if (((fast >>> q) & 1) === 0) continue;
+      const occ = this.lastOcc[vars[q]!]!;
+      if (occ < 0) continue;
+      const ob = this.src.blockOf(occ);
+      const list = this.src.shape(this.blockShape[ob]!).onVar[this.src.slotOf(occ)]!;
+      const id = ob * SPAN + (list[list.length - 1]! >> 2);
+      for (let i = 0; i < count; i++) if (this.topSeen[i] === id) return false;
+      this.topSeen[count++] = id;
+    }
+    return true;
+  }
+  private readonly topSeen = new Float64Array(64);
 
   /** The chain positions of block b: the open block's qubits (hot groups), then the block's other qubits. */
   private chains(b: number, S: CState, k: number, slotGroup: Int32Array, vars: Int32Array): ChainPos[] {
@@ -616,6 +764,7 @@ export class BlockCounter {
     this.spareGroups = this.groupQubit;
     this.groupQubit = gq;
     if (v.kills.length > 0 || v.stage2.length > 0) {
+      if (v.kills.length > 0) this.killCount++;
       for (let i = 0; i < v.kills.length; i += 3) {
         const a = this.absOf(b, S, before, v.kills[i]!, v.kills[i + 1]!);
         const ob = Math.floor(a / SPAN);
@@ -1634,4 +1783,17 @@ function vecMaxPlus(o: Int32Array, k: number, a: Float64Array, b: Float64Array, 
     for (let i = 0; i < width; i++) if (v[i]! !== NEG && v[i]! + d > r[i]!) r[i] = v[i]! + d;
   }
   return r;
+}
+
+/** Per work wire of a state, the oldest age among the instances on its tail (ancient: a large number). */
+function oldestAges(S: CState): Int32Array {
+  const oldest = new Int32Array(S.W);
+  for (let x = 0; x < S.n; x++) {
+    const age = S.age[x] === ANCIENT ? 1 << 30 : S.age[x]!;
+    for (let s = 0; s < 3; s++) {
+      const w = S.ref[x * 3 + s]!;
+      if (w >= 0 && ((S.link[x]! >>> s) & 1) === 1 && age > oldest[w]!) oldest[w] = age;
+    }
+  }
+  return oldest;
 }
