@@ -183,8 +183,16 @@ export interface BlockOptions {
 
 /** Live gates kept per work wire before the open block: a walk sees at most WINDOW + 1 (clearBetween). */
 const KEEP_LIVE = 17;
-/** Age of an instance older than the block before the open one: identified by the driver (absolute). */
+/**
+ * Ages up to this are kept exactly in a state (a wire used in every block, the counter's top
+ * bit, has instances some 17 blocks old); an older instance is "ancient", identified by the
+ * driver (absolute), so that a wire left idle does not make a new state every block.
+ */
+const RECENT = Number(process.env.CG_RECENT ?? 24);
+/** Age of an ancient instance. */
 const ANCIENT = -1;
+/** Numbers per qubit in BlockCounter.qc. */
+const QC = 8;
 /** Instance numbers per block in an absolute identity b * SPAN + j. */
 const SPAN = 1 << 22;
 /** Depths of a qubit's chain a key may hold, in instances. */
@@ -241,7 +249,7 @@ interface CState {
   readonly ancient: number;
   /** First instance of the open block. */
   readonly openStart: number;
-  /** Instance index of (age, j) for ages 0 and 1 (built on demand). */
+  /** Instance index of (age, j) for ages 0 to RECENT (built on demand). */
   recent?: Map<number, number>;
   /** Per work wire, the oldest age on its tail (a large number for ancient; built on demand). */
   oldest?: Int32Array;
@@ -359,7 +367,8 @@ export class BlockCounter {
   private readonly blockPhys: Int32Array;
   private readonly blockDead: Int32Array;
   private readonly prevOcc: Int32Array;
-  private readonly lastOcc: Int32Array;
+  /** Per qubit (QC numbers each, one cache line): its latest occurrence, then its tag cache (see tagOf). */
+  private readonly qc: Int32Array;
   private second = false;
   /** Gates whose latest stage-2 walk found a partner: (block * SPAN + j) * 32 + gate -> block * SPAN + j. */
   private readonly positive = new Map<number, number>();
@@ -382,10 +391,8 @@ export class BlockCounter {
     this.blockPhys = new Int32Array(src.blocks);
     this.blockDead = new Int32Array(src.blocks).fill(-1);
     this.prevOcc = new Int32Array(src.occurrences).fill(-1);
-    this.lastOcc = new Int32Array(src.base).fill(-1);
-    this.tagOcc = new Int32Array(src.base).fill(-2);
-    this.tagKills = new Int32Array(src.base);
-    this.tagTop = new Int32Array(src.base);
+    this.qc = new Int32Array(src.base * QC).fill(-2);
+    for (let q = 0; q < src.base; q++) this.qc[q * QC] = -1;
     const empty: CState = {
       W: 0, free: new Int32Array(0), per: new Int32Array(src.persistent).fill(-1), n: 0, age: new Int32Array(0), j: new Int32Array(0),
       t: new Uint8Array(0), ref: new Int32Array(0), link: new Uint8Array(0), dead: new Int32Array(0), mask1: new Int32Array(0),
@@ -405,7 +412,8 @@ export class BlockCounter {
   run(): EngineResult | null {
     this.timing.start = performance.now();
     const src = this.src;
-    const vars = new Int32Array(Math.max(1, src.maxK));
+    let vars = new Int32Array(Math.max(1, src.maxK));
+    let prevVars = new Int32Array(Math.max(1, src.maxK));
     const step = Math.max(1, Math.floor(src.blocks / 100));
     const progress = this.opts.progress;
     // Pass 1: cancellations, block by block; a block's cancelled gates may still change later
@@ -417,14 +425,20 @@ export class BlockCounter {
       if (v === null) return null;
       this.blockShape[b] = sh;
       this.blockPhys[b] = v.phys;
-      if (b > 0) this.blockDead[b - 1] = v.deadClass;
+      if (b > 0) {
+        this.blockDead[b - 1] = v.deadClass;
+        this.noteTags(b - 1, prevVars);
+      }
       const shape = src.shape(sh);
       this.instances += shape.n;
       for (let q = 0; q < shape.k; q++) {
         const o = src.occurrence(b, q);
-        this.prevOcc[o] = this.lastOcc[vars[q]!]!;
-        this.lastOcc[vars[q]!] = o;
+        this.prevOcc[o] = this.qc[vars[q]! * QC]!;
+        this.qc[vars[q]! * QC] = o;
       }
+      const swap = prevVars;
+      prevVars = vars;
+      vars = swap;
     }
     // The last block: its stage 2 and cancelled gates (an empty block after it).
     if (src.blocks > 0) {
@@ -583,18 +597,25 @@ export class BlockCounter {
    * Cached per qubit until its next use or a later cancellation into an earlier block.
    */
   private tagOf(b: number, S: CState, qubit: number): number {
-    const occ = this.lastOcc[qubit]!;
+    const occ = this.qc[qubit * QC]!;
     if (occ < 0) return 0;
     let top: number;
-    if (this.tagOcc[qubit] === occ && this.tagKills[qubit] === this.killCount) top = this.tagTop[qubit]!;
-    else {
+    let ob: number;
+    const c = this.qc;
+    const at = qubit * QC;
+    if (c[at + 1] === occ && c[at + 2] === this.killCount) {
+      top = c[at + 3]!;
+      ob = c[at + 4]!;
+    } else {
+      ob = this.src.blockOf(occ);
       top = this.computeTag(occ);
-      this.tagOcc[qubit] = occ;
-      this.tagKills[qubit] = this.killCount;
-      this.tagTop[qubit] = top;
+      c[at + 1] = occ;
+      c[at + 2] = this.killCount;
+      c[at + 3] = top;
+      c[at + 4] = ob;
+      c[at + 5] = this.lastTopJ;
     }
     if (top < 0) return -1;
-    const ob = this.src.blockOf(occ);
     const age = b - 1 - ob;
     if (age < 2) return -1;
     // Not in the state: its work wires' tails do not reach back to it.
@@ -605,10 +626,43 @@ export class BlockCounter {
     if (w2 >= 0 && (w2 >= S.W || oldest[w2]! >= age)) return -1;
     return top + 1;
   }
-  private tagOcc = new Int32Array(0);
-  private tagKills = new Int32Array(0);
-  private tagTop = new Int32Array(0);
   private tagWires: number[] = [];
+  /** The instance of the gate tagIn last named. */
+  private lastTopJ = -1;
+
+  /** The tags of block b's qubits, now that its cancelled gates are known (they are computed per kind of block, once). */
+  private noteTags(b: number, vars: Int32Array): void {
+    const sh = this.blockShape[b]!;
+    const shape = this.src.shape(sh);
+    this.shapeTagKey[0] = sh;
+    this.shapeTagKey[1] = this.blockDead[b]!;
+    this.shapeTagKey[2] = this.blockPhys[b]!;
+    let e = this.shapeTagIds.get(this.shapeTagKey, 3);
+    if (e < 0) {
+      e = this.shapeTags.length;
+      this.shapeTags.push(Int32Array.from({ length: shape.k }, (_, q) => this.tagIn(shape, this.deadClasses.get(this.blockDead[b]!), this.physes.get(this.blockPhys[b]!), q, false)));
+      this.shapeTagIds.set(this.shapeTagKey, 3, e);
+    }
+    const tags = this.shapeTags[e]!;
+    const c = this.qc;
+    for (let q = 0; q < shape.k; q++) {
+      const occ = this.src.occurrence(b, q);
+      let tag = tags[q]!;
+      // Gates before this block on the qubit: the tag says so (when the block's own do not).
+      if (tag >= 0 && this.prevOcc[occ]! >= 0 && this.tagMore[tag] === 0) tag = this.tagIn(shape, this.deadClasses.get(this.blockDead[b]!), this.physes.get(this.blockPhys[b]!), q, true);
+      const at = vars[q]! * QC;
+      c[at + 1] = occ;
+      c[at + 2] = this.killCount;
+      c[at + 3] = tag;
+      c[at + 4] = b;
+      const list = shape.onVar[q]!;
+      c[at + 5] = list.length > 0 ? list[list.length - 1]! >> 2 : -1;
+    }
+  }
+  private readonly shapeTagIds = new KeyTable();
+  private readonly shapeTags: Int32Array[] = [];
+  private readonly shapeTagKey = new Int32Array(3);
+  private readonly tagMore: number[] = [];
   private readonly tagIds = new KeyTable();
   private readonly tagKey = new Int32Array(8);
   /** Cancellations into blocks before the open one so far (a cached tag may then be stale). */
@@ -617,13 +671,17 @@ export class BlockCounter {
   /** The tag (see tagOf) of the newest live gate of an occurrence's qubit, or -1. */
   private computeTag(occ: number): number {
     const ob = this.src.blockOf(occ);
-    const q0 = this.src.slotOf(occ);
     const shape = this.src.shape(this.blockShape[ob]!);
-    const dc = this.deadClasses.get(this.blockDead[ob]!);
+    return this.tagIn(shape, this.deadClasses.get(this.blockDead[ob]!), this.physes.get(this.blockPhys[ob]!), this.src.slotOf(occ), this.prevOcc[occ]! >= 0);
+  }
+
+  /** The tag of qubit slot q0's newest live gate in a block (shape, cancelled gates, wires); `before`: gates exist before the block. */
+  private tagIn(shape: Shape, dc: Int32Array, phys: Int32Array, q0: number, before: boolean): number {
     const list = shape.onVar[q0]!;
     if (list.length === 0) return -1;
     const js = list[list.length - 1]!;
     const j = js >> 2;
+    this.lastTopJ = j;
     const s = js & 3;
     const t = shape.t[j]!;
     const gates = SLOT_GATES[t * 3 + s]!;
@@ -631,10 +689,9 @@ export class BlockCounter {
     while (g >= 0 && ((dc[j]! >>> gates[g]!) & 1)) g--;
     if (g < 0) return -1;
     const mask = 1 << gates[g]!;
-    let more = list.length > 1 || this.prevOcc[occ]! >= 0 ? 1 : 0;
+    let more = list.length > 1 || before ? 1 : 0;
     for (let g2 = g - 1; g2 >= 0; g2--) if (((dc[j]! >>> gates[g2]!) & 1) === 0) more = 1;
     const touched = gatesOnSlots(t, mask);
-    const phys = this.physes.get(this.blockPhys[ob]!);
     const key = this.tagKey;
     key[0] = t;
     key[1] = s;
@@ -661,6 +718,7 @@ export class BlockCounter {
       id = this.tagIds.size;
       this.tagIds.set(key, 7, id);
       this.tagWires.push(w0, w1);
+      this.tagMore.push(more);
     }
     return id;
   }
@@ -670,11 +728,10 @@ export class BlockCounter {
     let count = 0;
     for (let q = 0; q < k && q < 31; q++) {
       if (((fast >>> q) & 1) === 0) continue;
-      const occ = this.lastOcc[vars[q]!]!;
-      if (occ < 0) continue;
-      const ob = this.src.blockOf(occ);
-      const list = this.src.shape(this.blockShape[ob]!).onVar[this.src.slotOf(occ)]!;
-      const id = ob * SPAN + (list[list.length - 1]! >> 2);
+      const at = vars[q]! * QC;
+      if (this.qc[at]! < 0) continue;
+      // tagOf just filled the cache for this qubit.
+      const id = this.qc[at + 4]! * SPAN + this.qc[at + 5]!;
       for (let i = 0; i < count; i++) if (this.topSeen[i] === id) return false;
       this.topSeen[count++] = id;
     }
@@ -708,7 +765,7 @@ export class BlockCounter {
     for (let q = 0; q < k; q++) {
       const g = slotGroup[q]!;
       if (g >= 0 && S.hotSlot[g]! >= 0) continue;
-      at(g, q, vars[q]!, this.lastOcc[vars[q]!]!);
+      at(g, q, vars[q]!, this.qc[vars[q]! * QC]!);
     }
     return pos;
   }
@@ -959,7 +1016,7 @@ export class BlockCounter {
   /** Index in the state of instance j of block ob (the open block is b - 1), or -1. */
   private stateIndex(S: CState, b: number, ob: number, j: number): number {
     const age = b - 1 - ob;
-    if (age <= 1) {
+    if (age <= RECENT) {
       const shape = this.src.shape(this.blockShape[ob]!);
       const jc = shape.t[j] === T_X ? -2 - shape.xBefore[j]! : j - shape.xBefore[j]!;
       if (S.recent === undefined) {
@@ -1192,7 +1249,7 @@ export class BlockCounter {
       let t: number;
       const refs = [-1, -1, -1];
       if (x >= 0) {
-        age = S.age[x] === ANCIENT || S.age[x] === 1 ? ANCIENT : 1;
+        age = S.age[x] === ANCIENT || S.age[x] === RECENT ? ANCIENT : S.age[x]! + 1;
         j = age === ANCIENT ? -1 : S.j[x]!;
         t = S.t[x]!;
         if (age === ANCIENT) ancientSrc.push(S.age[x] === ANCIENT ? x : -1 - x);
