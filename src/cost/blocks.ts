@@ -33,7 +33,7 @@
  */
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { Interner, KeyTable } from "./keyTable.js";
-import { FIRST_TOUCH, G_KIND, G_PHASE, GATE_START, gatesOf, LAST_TOUCH, SLOT_GATES, SLOTS, T_ERASE_HEAD, T_ERASE_TAIL, T_MEASURE, T_X, TEMPLATE_COUNT } from "./templates.js";
+import { FIRST_TOUCH, G_KIND, G_PHASE, G_ROLE, GATE_START, ROLE_OTHER, gatesOf, LAST_TOUCH, SLOT_GATES, SLOTS, T_ERASE_HEAD, T_ERASE_TAIL, T_MEASURE, T_X, TEMPLATE_COUNT } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
 import { finalRun, NONE, transferOf } from "./transfer.js";
 import { K } from "../ir/kinds.js";
@@ -201,7 +201,23 @@ const NEG = -1e15;
 
 /** Gates of each template on each slot, as a mask: SLOT_MASK[t * 3 + s]. */
 const SLOT_MASK = new Int32Array(TEMPLATE_COUNT * 3);
-for (let t = 0; t < TEMPLATE_COUNT; t++) for (let s = 0; s < 3; s++) for (const g of SLOT_GATES[t * 3 + s]!) SLOT_MASK[t * 3 + s]! |= 1 << g;
+/** Those that stop every walk along that slot's wire (role "other": H, measure, conditioned gates). */
+const SLOT_STOP = new Int32Array(TEMPLATE_COUNT * 3);
+for (let t = 0; t < TEMPLATE_COUNT; t++) {
+  for (let s = 0; s < 3; s++) {
+    for (const g of SLOT_GATES[t * 3 + s]!) {
+      SLOT_MASK[t * 3 + s]! |= 1 << g;
+      if (G_ROLE[(GATE_START[t]! + g) * 3 + s] === ROLE_OTHER) SLOT_STOP[t * 3 + s]! |= 1 << g;
+    }
+  }
+}
+/**
+ * A work wire's tail stops at the third live gate before the open block that stops every walk
+ * (a walk along the wire sees nothing beyond the first; two more allow for cancellations of the
+ * first ones), if that comes before KEEP_LIVE live gates. A walk that would need more makes the
+ * block counting stop (it is noticed: the wire is marked truncated).
+ */
+const KEEP_STOPS = 3;
 
 /** The slots touched by the gates in `mask` of template t, as a mask. */
 function gatesOnSlots(t: number, mask: number): number {
@@ -1194,14 +1210,17 @@ export class BlockCounter {
     for (let w = 0; w < W; w++) {
       let e = eng.lastOn(offW + w);
       let live = 0;
+      let stops = 0;
       while (e >= 0) {
         const id = e >> 2;
         const s = e & 3;
         if (id < NP) {
-          if (live >= KEEP_LIVE) break;
+          if (live >= KEEP_LIVE || stops >= KEEP_STOPS) break;
           const x = stateOfId[id]!;
           if (x < 0) return this.giveUp(b, "a projected instance on a work wire");
-          live += popcount(SLOT_MASK[S.t[x]! * 3 + s]! & ~eng.deadOf(id));
+          const alive = ~eng.deadOf(id);
+          live += popcount(SLOT_MASK[S.t[x]! * 3 + s]! & alive);
+          stops += popcount(SLOT_STOP[S.t[x]! * 3 + s]! & alive);
         }
         keep[id] = 1;
         linkOf[id] = linkOf[id]! | (1 << s);
