@@ -398,6 +398,10 @@ export class BlockCounter {
   // Tally.
   private readonly tally: Tally;
   private keyBuf = new Int32Array(256);
+  private rowBuf = new Int32Array(0);
+  private encBuf = new Int32Array(0);
+  /** The engine replays run on (reset for each). */
+  private engine: CountingEngine | null = null;
 
   constructor(src: BlockSource, opts: BlockOptions) {
     this.src = src;
@@ -1078,10 +1082,8 @@ export class BlockCounter {
     for (let c = 0; c < pos.length; c++) truncated[chainWire[c]!] = pos[c]!.depth > 0 ? proj.more[c]! : 1;
     for (let w = 0; w < S.W; w++) truncated[offW + w] = S.trunc[w]!;
     truncated[OUT] = 1;
-    const eng = new CountingEngine({
-      base: nw, optimize: this.opts.optimize, levels: false, lag: Infinity, wires: nw, ids: nw + 1, second: true, truncated,
-      ring: S.n + proj.entries.length + (shape ? shape.n : 0) + 1,
-    });
+    const eng = (this.engine ??= new CountingEngine({ base: nw, optimize: this.opts.optimize, levels: false, lag: Infinity, wires: nw, ids: 1024, second: true, truncated, ring: 1024 }));
+    eng.resetReplay(nw, truncated);
     // Context: the state's instances with the projections inserted where they stand.
     const extraLink = new Uint8Array(S.n);
     const projLink = new Uint8Array(proj.entries.length);
@@ -1251,57 +1253,62 @@ export class BlockCounter {
       return g;
     };
     for (let q = 0; q < k; q++) groupFor(slotWire[q]!);
-    const nAge: number[] = [];
-    const nJ: number[] = [];
-    const nT: number[] = [];
-    const nRef: number[] = [];
-    const nLink: number[] = [];
-    const nDead: number[] = [];
-    const nMask1: number[] = [];
-    const nRecheck: number[] = [];
+    // The instances' rows (age, j, template, refs, link, dead, mask1, recheck), in circuit order.
+    if (this.rowBuf.length < total * 10) this.rowBuf = new Int32Array(total * 20);
+    const rows = this.rowBuf;
+    let n = 0;
     const ancientSrc: number[] = [];
     for (let id = 0; id < total; id++) {
       if (!keep[id]) continue;
       const x = stateOfId[id]!;
+      const o = n * 10;
       let age: number;
-      let j: number;
-      let t: number;
-      const refs = [-1, -1, -1];
       if (x >= 0) {
         age = S.age[x] === ANCIENT || S.age[x] === RECENT ? ANCIENT : S.age[x]! + 1;
-        j = age === ANCIENT ? -1 : S.j[x]!;
-        t = S.t[x]!;
+        rows[o + 1] = age === ANCIENT ? -1 : S.j[x]!;
+        rows[o + 2] = S.t[x]!;
         if (age === ANCIENT) ancientSrc.push(S.age[x] === ANCIENT ? x : -1 - x);
         for (let s = 0; s < 3; s++) {
           const c = S.ref[x * 3 + s]!;
-          refs[s] = c >= 0 ? c : c === -1 ? -1 : -2 - groupFor(-2 - c);
+          rows[o + 3 + s] = c >= 0 ? c : c === -1 ? -1 : -2 - groupFor(-2 - c);
         }
       } else {
         const jj = id - NP;
         age = 0;
-        t = shape!.t[jj]!;
-        j = t === T_X ? -2 - shape!.xBefore[jj]! : jj - shape!.xBefore[jj]!;
+        const t = shape!.t[jj]!;
+        rows[o + 1] = t === T_X ? -2 - shape!.xBefore[jj]! : jj - shape!.xBefore[jj]!;
+        rows[o + 2] = t;
         for (let s = 0; s < 3; s++) {
           const r = shape!.ref[jj * 3 + s]!;
-          refs[s] = r < 0 ? -1 : r < shape!.k ? -2 - groupFor(slotWire[r]!) : phys[r]! >= 0 ? phys[r]! : -1;
+          rows[o + 3 + s] = r < 0 ? -1 : r < shape!.k ? -2 - groupFor(slotWire[r]!) : phys[r]! >= 0 ? phys[r]! : -1;
         }
       }
-      nAge.push(age);
-      nJ.push(j);
-      nT.push(t);
-      nRef.push(refs[0]!, refs[1]!, refs[2]!);
-      nLink.push(linkOf[id]!);
-      nDead.push(eng.deadOf(id));
-      nMask1.push(age === 0 ? eng.mask1Of(id) : 0);
-      nRecheck.push(age === 0 ? eng.recheckOf(id) : 0);
+      rows[o] = age;
+      rows[o + 6] = linkOf[id]!;
+      rows[o + 7] = eng.deadOf(id);
+      rows[o + 8] = age === 0 ? eng.mask1Of(id) : 0;
+      rows[o + 9] = age === 0 ? eng.recheckOf(id) : 0;
+      n++;
     }
-    const N: CState = {
-      W, free: Int32Array.from(free), per, n: nAge.length, age: Int32Array.from(nAge), j: Int32Array.from(nJ), t: Uint8Array.from(nT),
-      ref: Int32Array.from(nRef), link: Uint8Array.from(nLink), dead: Int32Array.from(nDead), mask1: Int32Array.from(nMask1),
-      recheck: Int32Array.from(nRecheck), G: groupSrc.length, hotSlot: Int32Array.from(hot), trunc, ancient: ancientSrc.length,
-      openStart: 0,
-    };
-    const next = this.intern(N);
+    // The next state's canonical numbers (encodeState's layout), written straight.
+    const G2 = groupSrc.length;
+    const size = 3 + free.length + per.length + 2 + G2 + W + 10 * n;
+    if (this.encBuf.length < size) this.encBuf = new Int32Array(size * 2);
+    const enc = this.encBuf;
+    let p = 0;
+    enc[p++] = W;
+    enc[p++] = free.length;
+    for (const f of free) enc[p++] = f;
+    enc[p++] = per.length;
+    for (let i = 0; i < per.length; i++) enc[p++] = per[i]!;
+    enc[p++] = n;
+    enc[p++] = G2;
+    for (let g = 0; g < G2; g++) enc[p++] = hot[g]!;
+    for (let w = 0; w < W; w++) enc[p++] = trunc[w]!;
+    enc.set(rows.subarray(0, 10 * n), p);
+    p += 10 * n;
+    const next = this.states.id(enc, p);
+    if (this.decoded.length === next) this.decoded.push(decodeState(this.states.get(next)));
     return {
       next, phys: this.physes.id(phys), deadClass, second: eng.secondReason !== null,
       ancientSrc: Int32Array.from(ancientSrc), groupSrc: Int32Array.from(groupSrc), kills: Int32Array.from(kills), stage2: Int32Array.from(stage2),

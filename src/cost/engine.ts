@@ -126,7 +126,7 @@ for (let t = 0; t < TEMPLATE_COUNT; t++) {
 }
 
 export class CountingEngine implements InstanceSink {
-  private readonly base: number;
+  private base: number;
   private readonly optimize: boolean;
   private readonly levels: boolean;
   private readonly second: boolean;
@@ -199,7 +199,7 @@ export class CountingEngine implements InstanceSink {
   private flagBound: string | null = null;
   /** Set when the second cancel-inverses might change something (irrelevant if it never runs). */
   private flagSecond: string | null = null;
-  private readonly truncated: Uint8Array | null;
+  private truncated: Uint8Array | null;
   /** Wires where a walk reached the left-out part (see EngineOptions.truncated). */
   readonly truncatedHits: number[] = [];
   /** In restage: window events are the walk's own result, not a flag of the run. */
@@ -465,6 +465,34 @@ export class CountingEngine implements InstanceSink {
       this.rSeq[x * 3 + s] = ++this.wI[w * 4 + 2]!;
     }
     return id;
+  }
+
+  /**
+   * Starts a new replay on this engine (one made with lag Infinity; blocks.ts replays thousands of
+   * blocks): no instances, wires 0..base-1 empty, the given truncated flags. The arrays are kept.
+   */
+  resetReplay(base: number, truncated: Uint8Array): void {
+    this.base = base;
+    if (base + 64 > this.wireCap) this.growWires(base + 64);
+    this.wI.fill(0, 0, base * 4);
+    for (let w = 0; w < base; w++) this.wI[w * 4] = -1;
+    this.nextId = 0;
+    this.done = 0;
+    this.ringLow = 0;
+    this.freeTop = 0;
+    this.workWires = 0;
+    this.tCount = 0;
+    this.cnotCount = 0;
+    this.toffoliCount = 0;
+    this.measurements = 0;
+    this.phaseGates = 0;
+    this.flagHard = null;
+    this.historyShort = false;
+    this.lagShort = false;
+    this.flagBound = null;
+    this.flagSecond = null;
+    this.truncatedHits.length = 0;
+    this.truncated = truncated;
   }
 
   /** Instances below `id` count as already through stage 2 and the tally (context instances). */

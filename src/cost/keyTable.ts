@@ -91,18 +91,48 @@ export class KeyTable {
   }
 }
 
-/** An interning table: equal sequences get the same id, 0, 1, 2, ... in order of first sight; the sequences are kept. */
+/** An interning table: equal sequences get the same id, 0, 1, 2, ... in order of first sight; the sequences are kept (once). */
 export class Interner {
-  private readonly table = new KeyTable();
   private readonly kept: Int32Array[] = [];
+  private readonly hashes: number[] = [];
+  /** Slot -> id + 1 (0: empty). */
+  private slots = new Int32Array(256);
 
   /** The id of key[0..n). */
   id(key: Int32Array, n = key.length): number {
-    const v = this.table.get(key, n);
-    if (v >= 0) return v;
+    const h = hash(key, n);
+    const mask = this.slots.length - 1;
+    for (let s = h & mask; ; s = (s + 1) & mask) {
+      const e = this.slots[s]! - 1;
+      if (e < 0) break;
+      if (this.hashes[e] !== h) continue;
+      const k = this.kept[e]!;
+      if (k.length !== n) continue;
+      let same = true;
+      for (let i = 0; i < n; i++) {
+        if (k[i] !== key[i]) {
+          same = false;
+          break;
+        }
+      }
+      if (same) return e;
+    }
     const id = this.kept.length;
     this.kept.push(key.slice(0, n));
-    this.table.set(key, n, id);
+    this.hashes.push(h);
+    if (this.kept.length * 2 > this.slots.length) {
+      this.slots = new Int32Array(this.slots.length * 2);
+      const m = this.slots.length - 1;
+      for (let e = 0; e < this.kept.length; e++) {
+        let s = this.hashes[e]! & m;
+        while (this.slots[s] !== 0) s = (s + 1) & m;
+        this.slots[s] = e + 1;
+      }
+    } else {
+      let s = h & mask;
+      while (this.slots[s] !== 0) s = (s + 1) & mask;
+      this.slots[s] = id + 1;
+    }
     return id;
   }
 
