@@ -272,6 +272,14 @@ function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "t
 }
 
 const DEFAULT_LAG = 1 << 16;
+/**
+ * The window for the wide and textbook oracles: their cancellations are between neighbouring
+ * gates (a clause's AND and the mark's, the textbook's V-chains of consecutive clauses), and a
+ * short window keeps each wire's figures in cache until its instances are final (a million
+ * clauses have 3 million wires): a third less time than 65536. A longer reach makes the run
+ * fall short and go again with more (see run).
+ */
+const WIDE_LAG = 1 << 11;
 /** The longest window a search run asks for (its work wires come back one iteration later). */
 const MAX_LAG = 1 << 22;
 /** Memory for the copies kept per wire on a second run. */
@@ -288,7 +296,7 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // Ids: a replayed circuit's qubits, and a few for AND trees (given back when done).
   const logical = s.strategy === "lean" ? null : logicals.get(s.kind, s.strategy);
   const idCount = (logical?.c.qubits ?? base) + 1024;
-  const sizing = { lag: DEFAULT_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount };
+  const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount };
   if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || s.f.clauseStart.length - 1 >= BLOCKS_FROM)) {
     const blocks = new LeanBlocks(s.f, s.kind, mode);
     const r = new BlockCounter(blocks, { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run();
