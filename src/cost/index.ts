@@ -21,7 +21,7 @@ import { builtCounts } from "./built.js";
 import { LeanBlocks } from "./leanBlocks.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
-import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction } from "./sources.js";
+import { diffusionOps, leanOracle, LogicalRecorder, phaseOracleOps, searchOps, textbookOracle, wideOracle, type Fraction } from "./sources.js";
 
 /** Options of the cost functions. */
 export interface CostOptions {
@@ -217,26 +217,6 @@ export type CountEngine = "auto" | "blocks" | "instances";
 /** Clauses from which "auto" counts a lean oracle by blocks (below, the engine is as fast). */
 const BLOCKS_FROM = 64;
 
-/** Synthesized logical circuits kept for the runs that share them (wide and textbook oracles). */
-class Logicals {
-  private readonly kept = new Map<string, { c: Circuit; last: Int32Array }>();
-  constructor(private readonly f: SimplifiedCnf) {}
-  get(kind: OracleKind, strategy: AnyStrategy): { c: Circuit; last: Int32Array } {
-    const key = `${kind} ${strategy}`;
-    let v = this.kept.get(key);
-    if (v === undefined) {
-      const c = synthesize(this.f, kind, strategy);
-      v = { c, last: lastUses(c) };
-      this.kept.set(key, v);
-    }
-    return v;
-  }
-  /** Lets go of the circuits no longer needed (a million clauses' wide oracle is some 50 MB). */
-  keepOnly(strategy: AnyStrategy): void {
-    for (const key of [...this.kept.keys()]) if (!key.endsWith(` ${strategy}`)) this.kept.delete(key);
-  }
-}
-
 /**
  * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
@@ -286,7 +266,7 @@ const MAX_LAG = 1 << 22;
 const HISTORY_BYTES = 256 << 20;
 
 /** Counts one oracle construction with the engine. */
-function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
+function countOracle(s: Spec, progress?: Fraction): EngineResult {
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
   const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
   // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
@@ -294,8 +274,9 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // clause), so keeping a few instances per wire costs little there.
   const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
   // Ids: a replayed circuit's qubits, and a few for AND trees (given back when done).
-  const logical = s.strategy === "lean" ? null : logicals.get(s.kind, s.strategy);
-  const idCount = (logical?.c.qubits ?? base) + 1024;
+  // Ids: work qubits live at once (a wide or textbook oracle keeps one per clause until the
+  // mark), and a few for AND trees (given back when done).
+  const idCount = base + (s.strategy === "lean" ? 0 : s.f.clauseStart.length) + 1024;
   const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount };
   if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || s.f.clauseStart.length - 1 >= BLOCKS_FROM)) {
     const blocks = new LeanBlocks(s.f, s.kind, mode);
@@ -303,8 +284,9 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
     if (r !== null) return r;
   }
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
-    if (logical === null) leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
-    else replayLogical(logical.c, base, low, ids, logical.last, progress);
+    // The oracles are streamed as synthesis would build them (sources.ts; a test holds them equal).
+    const stream = s.strategy === "lean" ? leanOracle : s.strategy === "wide" ? wideOracle : textbookOracle;
+    stream(s.f, s.kind, low, ids, s.f.variables, progress);
   }, sizing);
 }
 
@@ -365,16 +347,14 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
  */
 export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOptions = {}): CostRow[] {
   const f = simplify(cnf);
-  const logicals = new Logicals(f);
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
   const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
-    logicals.keepOnly(strategy);
     const spec = { f, kind, strategy, uncompute, optimize: true };
-    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
-    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
+    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, progress.step(weight(f, strategy, true)));
+    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, progress.step(weight(f, strategy, false)));
     if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
-    const logical = logicals.get(kind, strategy).c;
+    const logical = synthesize(f, kind, strategy);
     const bc = builtCounts(logical, "clifford+t", uncompute, true, strategy === "textbook");
     const bt = builtCounts(logical, "toffoli", uncompute, true, strategy === "textbook");
     return {
@@ -404,7 +384,7 @@ export function countConstruction(
 ): EngineResult {
   const f = simplify(cnf);
   const progress = new Progress(1, options.onProgress);
-  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true, engine: o.engine ?? "auto" }, new Logicals(f), progress.step(1));
+  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true, engine: o.engine ?? "auto" }, progress.step(1));
   progress.emit(1);
   return r;
 }
@@ -437,14 +417,13 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
   const o = oracle.options;
   const emitted = countCircuit(oracle.circuit);
   const f = simplify(cnf);
-  const logicals = new Logicals(f);
   const progress = new Progress(2, options.onProgress);
   const counted = (basis: "toffoli" | "clifford+t"): { toffoliCount: number; tCount: number; tDepth: number; cnotCount: number } => {
     const step = progress.step(1);
     if (o.basis === basis) return emitted;
-    const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
+    const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, step);
     if (r.exact) return r;
-    return builtCounts(logicals.get(o.kind, o.strategy).c, basis, o.uncompute, o.optimize);
+    return builtCounts(synthesize(f, o.kind, o.strategy), basis, o.uncompute, o.optimize);
   };
   const cliffordT = counted("clifford+t");
   const toffoli = counted("toffoli");
@@ -495,13 +474,12 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
   const f = simplify(cnf);
   const n = cnf.variables;
   const runs = successProbability > 0 ? 1 / successProbability : Infinity;
-  const logicals = new Logicals(f);
   const strategies = ["wide", "lean"] as const;
   const oracleWeight = (s: Strategy): number => weight(f, s, true) + weight(f, s, false);
   const total = strategies.reduce((sum, s) => sum + (2 + iterations) * oracleWeight(s), 0);
   const progress = new Progress(total, options.onProgress);
   const costs = strategies.map((strategy): SearchCost => {
-    const ops = phaseOracleOps(f, strategy, () => logicals.get("phase", strategy).c);
+    const ops = phaseOracleOps(f, strategy);
     const both = (emit: (low: LoweringStream, ids: VirtualIds, p?: Fraction) => void, w: number, lag?: number): [EngineResult, EngineResult] => {
       const p1 = progress.step(w / 2);
       const p2 = progress.step(w / 2);
