@@ -273,7 +273,12 @@ export class CountingEngine implements InstanceSink {
     const buf = new ArrayBuffer(cap * this.ws * 4);
     const wb = new Int32Array(buf);
     wb.set(this.wb);
-    for (let w = this.wireCap; w < cap; w++) this.clearWire(wb, w);
+    // A new buffer is zeroed: only the "none" marks are written.
+    for (let w = this.wireCap; w < cap; w++) {
+      const o = w * this.ws;
+      wb[o] = -1;
+      for (let i = 0; i < this.depth; i++) wb[o + 8 + 8 * i] = -1;
+    }
     this.wb = wb;
     this.wbf = new Float64Array(buf);
     this.wireCap = cap;
@@ -568,9 +573,10 @@ export class CountingEngine implements InstanceSink {
     for (let s = 0; s < SLOTS[t]!; s++) {
       const w = this.rW[x * 3 + s]!;
       const next = this.rNext[x * 3 + s]!;
-      // Kept when fewer than `depth` instances came after it on w, or the next one on w is not
+      // Kept when fewer than `depth` instances came after it on w (with one copy: when it is the
+      // last on w, which its link says without reading w's record), or the next one on w is not
       // through stage 2 yet (whose walks start here).
-      const keep = this.wb[w * this.ws + 2]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
+      const keep = (d === 1 ? next === -1 : this.wb[w * this.ws + 2]! - this.rSeq[x * 3 + s]! < d) || next >= this.done;
       if (!keep) continue;
       // Newest first: shift the older copies of this wire down.
       const wb = this.wb;
