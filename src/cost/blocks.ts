@@ -188,7 +188,7 @@ const KEEP_LIVE = 17;
  * bit, has instances some 17 blocks old); an older instance is "ancient", identified by the
  * driver (absolute), so that a wire left idle does not make a new state every block.
  */
-const RECENT = Number(process.env.CG_RECENT ?? 24);
+const RECENT = 24;
 /** Age of an ancient instance. */
 const ANCIENT = -1;
 /** Replays allowed before their share of the blocks is checked against REPLAY_SHARE. */
@@ -556,6 +556,17 @@ export class BlockCounter {
         }
         fast |= 1 << q;
         key[n++] = tag;
+        // The other qubits the named gate touches (a Toffoli's second control, a conditioned
+        // CZ's partner): which of the state's or the block's qubits they are, if any.
+        const at = vars[q]! * QC;
+        for (let o = 6; o < 8; o++) {
+          const other = this.qc[at + o]!;
+          if (other < 0) continue;
+          let code = -2;
+          for (let g = 0; g < S.G; g++) if (this.groupQubit[g] === other) code = -3 - g;
+          if (code === -2) for (let q2 = 0; q2 < k; q2++) if (vars[q2] === other) code = -100 - q2;
+          key[n++] = code;
+        }
       }
       if (fast !== 0 && !this.distinctTops(vars, fast, k)) {
         fast = 0;
@@ -640,6 +651,12 @@ export class BlockCounter {
       c[at + 3] = top;
       c[at + 4] = ob;
       c[at + 5] = this.lastTopJ;
+      c[at + 6] = c[at + 7] = -1;
+      if (top >= 0 && (this.tagOthers[top * 2]! >= 0 || this.tagOthers[top * 2 + 1]! >= 0)) {
+        this.src.varsOf(ob, this.projVars);
+        if (this.tagOthers[top * 2]! >= 0) c[at + 6] = this.projVars[this.tagOthers[top * 2]!]!;
+        if (this.tagOthers[top * 2 + 1]! >= 0) c[at + 7] = this.projVars[this.tagOthers[top * 2 + 1]!]!;
+      }
     }
     if (top < 0) return -1;
     const age = b - 1 - ob;
@@ -653,8 +670,11 @@ export class BlockCounter {
     return top + 1;
   }
   private tagWires: number[] = [];
-  /** The instance of the gate tagIn last named. */
+  /** The instance of the gate tagIn last named, and the qubit slots of its block it touches besides (-1: none). */
   private lastTopJ = -1;
+  private readonly lastOthers = new Int32Array(2);
+  /** Per tag: the other qubit slots its gate touches (two each, -1: none). */
+  private readonly tagOthers: number[] = [];
 
   /** The tags of block b's qubits, now that its cancelled gates are known (they are computed per kind of block, once). */
   private noteTags(b: number, vars: Int32Array): void {
@@ -683,6 +703,8 @@ export class BlockCounter {
       c[at + 4] = b;
       const list = shape.onVar[q]!;
       c[at + 5] = list.length > 0 ? list[list.length - 1]! >> 2 : -1;
+      c[at + 6] = tag >= 0 && this.tagOthers[tag * 2]! >= 0 ? vars[this.tagOthers[tag * 2]!]! : -1;
+      c[at + 7] = tag >= 0 && this.tagOthers[tag * 2 + 1]! >= 0 ? vars[this.tagOthers[tag * 2 + 1]!]! : -1;
     }
   }
   private readonly shapeTagIds = new KeyTable();
@@ -708,6 +730,7 @@ export class BlockCounter {
     const js = list[list.length - 1]!;
     const j = js >> 2;
     this.lastTopJ = j;
+    this.lastOthers[0] = this.lastOthers[1] = -1;
     const s = js & 3;
     const t = shape.t[j]!;
     const gates = SLOT_GATES[t * 3 + s]!;
@@ -731,8 +754,13 @@ export class BlockCounter {
       const lr = shape.ref[j * 3 + s2]!;
       if (lr < 0) continue;
       if (lr < shape.k) {
-        if (lr !== q0) return -1;
-        key[3 + s2] = -5;
+        if (lr === q0) key[3 + s2] = -5;
+        else {
+          // Another qubit of that block: named by slot here; by who it is in the key (see transition).
+          key[3 + s2] = -10 - lr;
+          if (this.lastOthers[0] === -1) this.lastOthers[0] = lr;
+          else this.lastOthers[1] = lr;
+        }
       } else {
         key[3 + s2] = phys[lr]!;
         if (w0 === -1) w0 = phys[lr]!;
@@ -745,6 +773,7 @@ export class BlockCounter {
       this.tagIds.set(key, 7, id);
       this.tagWires.push(w0, w1);
       this.tagMore.push(more);
+      this.tagOthers.push(this.lastOthers[0]!, this.lastOthers[1]!);
     }
     return id;
   }
@@ -1058,12 +1087,11 @@ export class BlockCounter {
 
   // ---- a replay (memo miss) ---------------------------------------------------------------
 
-  /** Why the block counting stopped (for the tests and CG_BLOCKS_DEBUG). */
+  /** Why the block counting stopped (for the tests and the bench), or null. */
   stopped: string | null = null;
 
   private giveUp(b: number, why: string): null {
     this.stopped = `block ${b}: ${why}`;
-    if (process.env.CG_BLOCKS_DEBUG) console.error(this.stopped);
     return null;
   }
 

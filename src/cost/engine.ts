@@ -68,6 +68,17 @@ export interface EngineOptions {
   readonly truncated?: Uint8Array;
   /** With lag Infinity: instances expected (sizes the ring once). */
   readonly ring?: number;
+  /**
+   * A holder for the per-wire records' memory, shared by the runs of one cost table: a run takes
+   * the buffer left by the one before (a million clauses' wide oracle needs some 200 MB of them)
+   * instead of allocating its own while the last one waits for the garbage collector.
+   */
+  readonly wireMemory?: WireMemory;
+}
+
+/** See EngineOptions.wireMemory. */
+export interface WireMemory {
+  buffer: ArrayBuffer | null;
 }
 
 /** Figures of one circuit. */
@@ -174,6 +185,7 @@ export class CountingEngine implements InstanceSink {
   private readonly depth: number;
 
   private wireCap = 0;
+  private readonly wireMemory: WireMemory | null;
 
   // Virtual ids -> wires.
   private wireOf: Int32Array = new Int32Array(1024).fill(-1);
@@ -226,6 +238,7 @@ export class CountingEngine implements InstanceSink {
     this.ws = 8 + 8 * this.depth;
     this.wb = new Int32Array(0);
     this.wbf = new Float64Array(0);
+    this.wireMemory = opts.wireMemory ?? null;
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
     this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
     this.truncated = opts.truncated ?? null;
@@ -269,9 +282,19 @@ export class CountingEngine implements InstanceSink {
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
     // Growing by half: these tables are the engine's largest (a wide oracle has a wire per literal).
-    const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
-    const buf = new ArrayBuffer(cap * this.ws * 4);
-    const wb = new Int32Array(buf);
+    let cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
+    const held = this.wireMemory?.buffer ?? null;
+    let buf: ArrayBuffer;
+    if (this.wireCap === 0 && held !== null && held.byteLength >= cap * this.ws * 4) {
+      // The buffer of an earlier run: all of it, cleared.
+      buf = held;
+      cap = Math.floor(held.byteLength / (this.ws * 4));
+      new Int32Array(buf).fill(0);
+    } else {
+      buf = new ArrayBuffer(cap * this.ws * 4);
+      if (this.wireMemory !== null) this.wireMemory.buffer = buf;
+    }
+    const wb = new Int32Array(buf, 0, cap * this.ws);
     wb.set(this.wb);
     // A new buffer is zeroed: only the "none" marks are written.
     for (let w = this.wireCap; w < cap; w++) {
@@ -280,7 +303,7 @@ export class CountingEngine implements InstanceSink {
       for (let i = 0; i < this.depth; i++) wb[o + 8 + 8 * i] = -1;
     }
     this.wb = wb;
-    this.wbf = new Float64Array(buf);
+    this.wbf = new Float64Array(buf, 0, (cap * this.ws) >> 1);
     this.wireCap = cap;
   }
 

@@ -19,7 +19,7 @@ import { simplify, synthesize, type AnyStrategy, type OracleKind, type Simplifie
 import { BlockCounter } from "./blocks.js";
 import { builtCounts } from "./built.js";
 import { LeanBlocks } from "./leanBlocks.js";
-import { CountingEngine, type EngineResult } from "./engine.js";
+import { CountingEngine, type EngineResult, type WireMemory } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, leanOracle, LogicalRecorder, phaseOracleOps, searchOps, textbookOracle, wideOracle, type Fraction } from "./sources.js";
 
@@ -205,6 +205,8 @@ interface Spec {
   readonly levels: boolean;
   /** How to count a lean oracle (see {@link CountEngine}); default "auto". */
   readonly engine?: CountEngine;
+  /** Wire-record memory shared with the other runs of the same cost table. */
+  readonly wireMemory?: WireMemory;
 }
 
 /**
@@ -222,16 +224,16 @@ const BLOCKS_FROM = 64;
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
  * where nothing can fall short: a shortfall never reaches a result.
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
   // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
   // without the second cancel-inverses, which the pipeline then skips.
   let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
     const ids = new VirtualIds(base);
-    const low = new LoweringStream(engine, ids, mode, sizing.ids);
+    const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024);
     emit(low, ids);
     low.finish();
     const r = engine.finish();
@@ -277,7 +279,10 @@ function countOracle(s: Spec, progress?: Fraction): EngineResult {
   // Ids: work qubits live at once (a wide or textbook oracle keeps one per clause until the
   // mark), and a few for AND trees (given back when done).
   const idCount = base + (s.strategy === "lean" ? 0 : s.f.clauseStart.length) + 1024;
-  const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount };
+  // A wide oracle keeps each clause's AND record (3 numbers per 2-input AND, 2 more per record)
+  // until the mark.
+  const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
+  const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount, records, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
   if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || s.f.clauseStart.length - 1 >= BLOCKS_FROM)) {
     const blocks = new LeanBlocks(s.f, s.kind, mode);
     const r = new BlockCounter(blocks, { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run();
@@ -348,9 +353,10 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
 export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOptions = {}): CostRow[] {
   const f = simplify(cnf);
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
+  const wireMemory: WireMemory = { buffer: null };
   const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
-    const spec = { f, kind, strategy, uncompute, optimize: true };
+    const spec = { f, kind, strategy, uncompute, optimize: true, wireMemory };
     const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, progress.step(weight(f, strategy, true)));
     const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, progress.step(weight(f, strategy, false)));
     if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);

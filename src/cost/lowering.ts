@@ -96,12 +96,16 @@ export class LoweringStream implements LogicalSink {
   private readonly toffoliAnds: boolean;
   private readonly pair = new Int32Array(2);
 
-  /** `qubits`: the ids expected (sizes the per-id tables once; they grow if need be). */
-  constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode, qubits = 1024) {
+  /**
+   * `qubits`: the ids expected (sizes the per-id tables once; they grow if need be); `records`:
+   * the numbers the live AND records may take (a wide oracle keeps every clause's until the mark).
+   */
+  constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode, qubits = 1024, records = 1024) {
     this.cliffordT = mode.basis === "clifford+t";
     this.measured = mode.uncompute === "measured";
     this.toffoliAnds = mode.toffoliAnds;
     this.room(qubits - 1);
+    if (records > this.records.length) this.records = new Int32Array(records);
   }
 
   private room(q: number): void {
