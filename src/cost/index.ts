@@ -341,8 +341,8 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
  * Costs of every strategy and uncomputation for one formula, plus the textbook reference
  * (one clause bit per clause, V-chains of 7-T Toffolis, unitary uncomputation). Counted, not
  * built: memory grows with the qubits (a few numbers per wire), not with the gates; time with
- * the gates (the lean rows of a million clauses dominate: minutes). Progress goes to
- * `options.onProgress`.
+ * the gates, except for the lean oracle, counted clause block by clause block with a memo (a
+ * million clauses: seconds per row). Progress goes to `options.onProgress`.
  *
  * @example
  * ```ts
