@@ -76,9 +76,10 @@ export interface EngineOptions {
   readonly wireMemory?: WireMemory;
 }
 
-/** See EngineOptions.wireMemory. */
+/** See EngineOptions.wireMemory (also the lowering's AND records: see RecordMemory). */
 export interface WireMemory {
   buffer: ArrayBuffer | null;
+  records: Int32Array<ArrayBuffer> | null;
 }
 
 /** Figures of one circuit. */

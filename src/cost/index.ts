@@ -233,7 +233,7 @@ function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "t
   for (let attempt = 0; ; attempt++) {
     const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
     const ids = new VirtualIds(base);
-    const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024);
+    const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
     emit(low, ids);
     low.finish();
     const r = engine.finish();
@@ -353,7 +353,7 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
 export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOptions = {}): CostRow[] {
   const f = simplify(cnf);
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
-  const wireMemory: WireMemory = { buffer: null };
+  const wireMemory: WireMemory = { buffer: null, records: null };
   const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
     const spec = { f, kind, strategy, uncompute, optimize: true, wireMemory };
