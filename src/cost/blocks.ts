@@ -1087,6 +1087,17 @@ export class BlockCounter {
 
   // ---- a replay (memo miss) ---------------------------------------------------------------
 
+  /** The chain positions whose wires a walk reached the start of (to deepen), or null when that was not a chain's wire. */
+  private deepen(b: number, hits: number[], chainWire: number[], G: number, k: number, offW: number): Int32Array | null {
+    const ask = new Set<number>();
+    for (const w of hits) {
+      const c = chainWire.indexOf(w);
+      if (c < 0) return this.giveUp(b, `a walk reached the start of wire ${w} (groups ${G}, slots ${k}, work from ${offW})`);
+      ask.add(c);
+    }
+    return Int32Array.from(ask);
+  }
+
   /** Why the block counting stopped (for the tests and the bench), or null. */
   stopped: string | null = null;
 
@@ -1187,6 +1198,8 @@ export class BlockCounter {
           w3[s] = r < 0 ? OUT : r < shape.k ? slotWire[r]! : offW + cur[r]!;
         }
         eng.put(t, w3[0]!, w3[1]!, w3[2]!, 0);
+        // A walk reached what the key left out: the replay is for nothing but that.
+        if (eng.truncatedHits.length > 0) break;
         const dies = shape.dies[j]!;
         if (dies !== 0) {
           const order = LAST_TOUCH[t]!;
@@ -1202,6 +1215,7 @@ export class BlockCounter {
         }
       }
     }
+    if (eng.truncatedHits.length > 0) return this.deepen(b, eng.truncatedHits, chainWire, G, k, offW);
     // A projection is known only by its named gates: a cancellation into it, or a walk of its own
     // to repeat, would need the rest.
     for (let e = 0; e < proj.entries.length; e++) {
@@ -1217,15 +1231,7 @@ export class BlockCounter {
       const [walked, positive] = eng.restage(idOf[x]!);
       if (walked !== 0 && (positive !== 0 || x < S.openStart)) stage2.push(0, x, walked, positive);
     }
-    if (eng.truncatedHits.length > 0) {
-      const ask = new Set<number>();
-      for (const w of eng.truncatedHits) {
-        const c = chainWire.indexOf(w);
-        if (c < 0) return this.giveUp(b, `a walk reached the start of wire ${w} (groups ${G}, slots ${k}, work from ${offW})`);
-        ask.add(c);
-      }
-      return Int32Array.from(ask);
-    }
+    if (eng.truncatedHits.length > 0) return this.deepen(b, eng.truncatedHits, chainWire, G, k, offW);
     const kills: number[] = [];
     for (let x = 0; x < S.openStart; x++) if (eng.deadOf(idOf[x]!) !== S.dead[x]) kills.push(0, x, eng.deadOf(idOf[x]!));
     const total = eng.instances;
