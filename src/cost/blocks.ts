@@ -1477,9 +1477,8 @@ class LevelTally implements Tally {
   private state: number;
   private ref = 0;
   private refT = 0;
-  private varL: Float64Array;
-  private varT: Float64Array;
-  private varP: Uint8Array;
+  /** Per qubit (three numbers, one cache line): level, T-level, pending phase run. */
+  private readonly qv: Float64Array;
   private workL = new Float64Array(64);
   private workT = new Float64Array(64);
   private workP = new Uint8Array(64);
@@ -1490,9 +1489,7 @@ class LevelTally implements Tally {
   private key = new Int32Array(64);
 
   constructor(private readonly src: BlockSource, private readonly optimize: boolean) {
-    this.varL = new Float64Array(src.base);
-    this.varT = new Float64Array(src.base);
-    this.varP = new Uint8Array(src.base);
+    this.qv = new Float64Array(src.base * 3);
     this.state = this.intern({ n: 0, wire: new Int32Array(0), rel: new Int32Array(0), relT: new Int32Array(0), pend: new Uint8Array(0) });
   }
 
@@ -1580,9 +1577,9 @@ class LevelTally implements Tally {
       let p = 0;
       if (kind === 0) {
         const q = vars[id]!;
-        p = this.varP[q]!;
-        this.coldL[c] = this.varL[q]!;
-        this.coldT[c] = this.varT[q]!;
+        p = this.qv[q * 3 + 2]!;
+        this.coldL[c] = this.qv[q * 3]!;
+        this.coldT[c] = this.qv[q * 3 + 1]!;
       } else if (kind === 1) {
         this.room(id);
         p = this.workP[id]!;
@@ -1641,9 +1638,9 @@ class LevelTally implements Tally {
         if (dt !== NEG && this.coldT[c]! + dt > t) t = this.coldT[c]! + dt;
       }
       const qb = vars[q]!;
-      if (l !== NEG) this.varL[qb] = l;
-      if (t !== NEG) this.varT[qb] = t;
-      this.varP[qb] = v.outPend[q]!;
+      if (l !== NEG) this.qv[qb * 3] = l;
+      if (t !== NEG) this.qv[qb * 3 + 1] = t;
+      this.qv[qb * 3 + 2] = v.outPend[q]!;
     }
     for (let i = 0; i < v.demote.length; i += 4) {
       const w = v.demote[i]!;
@@ -1841,7 +1838,7 @@ class LevelTally implements Tally {
       tDepth = Math.max(tDepth, T);
     };
     // In qubit order, as engine.finish (the order does not change the figures).
-    for (let q = 0; q < this.src.base; q++) flush(this.varL[q]!, this.varT[q]!, this.varP[q]!);
+    for (let q = 0; q < this.src.base; q++) flush(this.qv[q * 3]!, this.qv[q * 3 + 1]!, this.qv[q * 3 + 2]!);
     for (let w = 0; w < workWires; w++) flush(this.workL[w]!, this.workT[w]!, this.workP[w]!);
     const [tCount, cnotCount, toffoliCount, measurements, phaseGates] = this.sum as [number, number, number, number, number];
     return { tCount, cnotCount, toffoliCount, measurements, phaseGates, depth, tDepth, vanished: this.vanished };
