@@ -283,21 +283,27 @@ export class CountingEngine implements InstanceSink {
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
     // Growing by half: these tables are the engine's largest (a wide oracle has a wire per literal).
-    let cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
+    const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
     const held = this.wireMemory?.buffer ?? null;
     let buf: ArrayBuffer;
-    if (this.wireCap === 0 && held !== null && held.byteLength >= cap * this.ws * 4) {
-      // The buffer of an earlier run: all of it, cleared.
+    let fresh: boolean;
+    if (this.wb.length > 0 && this.wb.buffer.byteLength >= cap * this.ws * 4) {
+      // Room left in the buffer this run took from an earlier one.
+      buf = this.wb.buffer as ArrayBuffer;
+      fresh = false;
+    } else if (this.wireCap === 0 && held !== null && held.byteLength >= cap * this.ws * 4) {
+      // The buffer of an earlier run: the records used are cleared below, the rest when needed.
       buf = held;
-      cap = Math.floor(held.byteLength / (this.ws * 4));
-      new Int32Array(buf).fill(0);
+      fresh = false;
     } else {
       buf = new ArrayBuffer(cap * this.ws * 4);
+      fresh = true;
       if (this.wireMemory !== null) this.wireMemory.buffer = buf;
     }
     const wb = new Int32Array(buf, 0, cap * this.ws);
-    wb.set(this.wb);
-    // A new buffer is zeroed: only the "none" marks are written.
+    if (wb !== this.wb && this.wb.length > 0 && this.wb.buffer !== buf) wb.set(this.wb);
+    // New records: "none" marks (a buffer of an earlier run is cleared first; a new one is zeroed).
+    if (!fresh) wb.fill(0, this.wireCap * this.ws, cap * this.ws);
     for (let w = this.wireCap; w < cap; w++) {
       const o = w * this.ws;
       wb[o] = -1;
@@ -307,6 +313,7 @@ export class CountingEngine implements InstanceSink {
     this.wbf = new Float64Array(buf, 0, (cap * this.ws) >> 1);
     this.wireCap = cap;
   }
+
 
   /** An empty wire record: no instance, no copies. */
   private clearWire(wb: Int32Array, w: number): void {
