@@ -121,8 +121,8 @@ describe("the block counter gives the counting engine's figures on longer formul
     return clauses;
   }
 
-  it("random 3-SAT, 300 clauses (most blocks found in the memo)", () => {
-    const cnf = cnfFromClauses(60, randomFormula(11, 60, 300, 3, 3));
+  it("random 3-SAT, 200 clauses (most blocks found in the memo)", () => {
+    const cnf = cnfFromClauses(50, randomFormula(11, 50, 200, 3, 3));
     for (const c of COMBOS) sameAsEngine(cnf, c, "random 3-SAT");
     // The memo does the work: far fewer replays than blocks.
     const { replays, blocks } = byBlocks(cnf, { kind: "phase", basis: "clifford+t", uncompute: "unitary", optimize: true });
