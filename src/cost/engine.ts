@@ -60,6 +60,26 @@ export interface EngineOptions {
    * that meets more says so (secondNeeded) and must be run again with it.
    */
   readonly second?: boolean;
+  /**
+   * For a replay of one part of a circuit over a given context (see blocks.ts): a flag per wire
+   * whose gates before the first one put here exist but were left out. A walk that would go past
+   * them is noted (`truncatedHits`) instead of being taken as the start of the wire.
+   */
+  readonly truncated?: Uint8Array;
+  /** With lag Infinity: instances expected (sizes the ring once). */
+  readonly ring?: number;
+  /**
+   * A holder for the per-wire records' memory, shared by the runs of one cost table: a run takes
+   * the buffer left by the one before (a million clauses' wide oracle needs some 200 MB of them)
+   * instead of allocating its own while the last one waits for the garbage collector.
+   */
+  readonly wireMemory?: WireMemory;
+}
+
+/** See EngineOptions.wireMemory (also the lowering's AND records: see RecordMemory). */
+export interface WireMemory {
+  buffer: ArrayBuffer | null;
+  records: Int32Array<ArrayBuffer> | null;
 }
 
 /** Figures of one circuit. */
@@ -118,7 +138,7 @@ for (let t = 0; t < TEMPLATE_COUNT; t++) {
 }
 
 export class CountingEngine implements InstanceSink {
-  private readonly base: number;
+  private base: number;
   private readonly optimize: boolean;
   private readonly levels: boolean;
   private readonly second: boolean;
@@ -149,26 +169,24 @@ export class CountingEngine implements InstanceSink {
 
   // Wires.
   /**
-   * Per wire, interleaved so that one wire's data share a cache line (a wide oracle has millions
-   * of wires, visited in no order): wI[w * 4 + 0] its last instance (-1: none), + 1 that
-   * instance's slot on it, + 2 instances on it so far (see evict), + 3 its pending phase run
-   * (merge-phases); wL[w * 2] its level, + 1 its T-level.
+   * One record per wire, ws ints from w * ws, so that what an instance needs of a wire is one or
+   * two cache lines (a wide oracle has millions of wires, visited in no order): + 0 its last
+   * instance (-1: none), + 1 that instance's slot on it, + 2 instances on it so far (see evict),
+   * + 3 its pending phase run (merge-phases), + 4..5 its level and + 6..7 its T-level (float64,
+   * through wbf), then `depth` copies of instances that left the ring, 8 ints each, newest first
+   * (+ 0 id, -1 none; + 1 template; + 2..4 wires; + 5 cancelled gates; + 6 previous instance on
+   * the wire; + 7 its slot): a walk along a wire seldom used may need the last few instances on
+   * it long after they left.
    */
-  private wI: Int32Array;
-  private wL: Float64Array;
-  /**
-   * Copies of instances that left the ring, per wire: entry w * depth + i, newest first. A walk
-   * along a wire seldom used may need the last few instances on it long after they left.
-   */
+  private wb: Int32Array;
+  private wbf: Float64Array;
+  /** Ints per wire record in wb. */
+  private readonly ws: number;
+  /** Copies kept per wire. */
   private readonly depth: number;
-  private sId: Int32Array;
-  private sT: Uint8Array;
-  private sW: Int32Array;
-  private sDead: Int32Array;
-  private sPrev: Int32Array;
-  private sPrevSlot: Int8Array;
 
   private wireCap = 0;
+  private readonly wireMemory: WireMemory | null;
 
   // Virtual ids -> wires.
   private wireOf: Int32Array = new Int32Array(1024).fill(-1);
@@ -191,6 +209,12 @@ export class CountingEngine implements InstanceSink {
   private flagBound: string | null = null;
   /** Set when the second cancel-inverses might change something (irrelevant if it never runs). */
   private flagSecond: string | null = null;
+  private truncated: Uint8Array | null;
+  /** Wires where a walk reached the left-out part (see EngineOptions.truncated). */
+  readonly truncatedHits: number[] = [];
+  /** In restage: window events are the walk's own result, not a flag of the run. */
+  private probing = false;
+  private probeHit = false;
 
   constructor(opts: EngineOptions) {
     this.base = opts.base;
@@ -210,18 +234,15 @@ export class CountingEngine implements InstanceSink {
     this.rMask1 = new Int32Array(0);
     this.rSeq = new Int32Array(0);
     this.rRecheck = new Int32Array(0);
-    this.growRing(this.maxLag === Infinity ? 4096 : 0);
-    this.wI = new Int32Array(0);
-    this.wL = new Float64Array(0);
+    this.growRing(this.maxLag === Infinity ? (opts.ring ?? 4096) : 0);
     this.depth = opts.history ?? 1;
-    this.sId = new Int32Array(0);
-    this.sT = new Uint8Array(0);
-    this.sW = new Int32Array(0);
-    this.sDead = new Int32Array(0);
-    this.sPrev = new Int32Array(0);
-    this.sPrevSlot = new Int8Array(0);
+    this.ws = 8 + 8 * this.depth;
+    this.wb = new Int32Array(0);
+    this.wbf = new Float64Array(0);
+    this.wireMemory = opts.wireMemory ?? null;
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
     this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
+    this.truncated = opts.truncated ?? null;
   }
 
   /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
@@ -263,33 +284,43 @@ export class CountingEngine implements InstanceSink {
     if (n <= this.wireCap) return;
     // Growing by half: these tables are the engine's largest (a wide oracle has a wire per literal).
     const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
-    const wi = new Int32Array(cap * 4);
-    wi.set(this.wI);
-    for (let w = this.wireCap; w < cap; w++) wi[w * 4] = -1;
-    this.wI = wi;
-    const wl = new Float64Array(cap * 2);
-    wl.set(this.wL);
-    this.wL = wl;
-    const d = this.depth;
-    const sid = new Int32Array(cap * d).fill(-1);
-    sid.set(this.sId);
-    this.sId = sid;
-    const st = new Uint8Array(cap * d);
-    st.set(this.sT);
-    this.sT = st;
-    const sw = new Int32Array(cap * d * 3);
-    sw.set(this.sW);
-    this.sW = sw;
-    const sd = new Int32Array(cap * d);
-    sd.set(this.sDead);
-    this.sDead = sd;
-    const sp = new Int32Array(cap * d);
-    sp.set(this.sPrev);
-    this.sPrev = sp;
-    const sps = new Int8Array(cap * d);
-    sps.set(this.sPrevSlot);
-    this.sPrevSlot = sps;
+    const held = this.wireMemory?.buffer ?? null;
+    let buf: ArrayBuffer;
+    let fresh: boolean;
+    if (this.wb.length > 0 && this.wb.buffer.byteLength >= cap * this.ws * 4) {
+      // Room left in the buffer this run took from an earlier one.
+      buf = this.wb.buffer as ArrayBuffer;
+      fresh = false;
+    } else if (this.wireCap === 0 && held !== null && held.byteLength >= cap * this.ws * 4) {
+      // The buffer of an earlier run: the records used are cleared below, the rest when needed.
+      buf = held;
+      fresh = false;
+    } else {
+      buf = new ArrayBuffer(cap * this.ws * 4);
+      fresh = true;
+      if (this.wireMemory !== null) this.wireMemory.buffer = buf;
+    }
+    const wb = new Int32Array(buf, 0, cap * this.ws);
+    if (wb !== this.wb && this.wb.length > 0 && this.wb.buffer !== buf) wb.set(this.wb);
+    // New records: "none" marks (a buffer of an earlier run is cleared first; a new one is zeroed).
+    if (!fresh) wb.fill(0, this.wireCap * this.ws, cap * this.ws);
+    for (let w = this.wireCap; w < cap; w++) {
+      const o = w * this.ws;
+      wb[o] = -1;
+      for (let i = 0; i < this.depth; i++) wb[o + 8 + 8 * i] = -1;
+    }
+    this.wb = wb;
+    this.wbf = new Float64Array(buf, 0, (cap * this.ws) >> 1);
     this.wireCap = cap;
+  }
+
+
+  /** An empty wire record: no instance, no copies. */
+  private clearWire(wb: Int32Array, w: number): void {
+    const o = w * this.ws;
+    wb.fill(0, o, o + this.ws);
+    wb[o] = -1;
+    for (let i = 0; i < this.depth; i++) wb[o + 8 + 8 * i] = -1;
   }
 
   private wireFor(v: number): number {
@@ -339,14 +370,14 @@ export class CountingEngine implements InstanceSink {
     const slots = SLOTS[t]!;
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
-      const p = this.wI[(w) * 4]!;
+      const p = this.wb[w * this.ws]!;
       this.rPrev[x * 3 + s] = p;
-      this.rPrevSlot[x * 3 + s] = this.wI[(w) * 4 + 1]!;
+      this.rPrevSlot[x * 3 + s] = this.wb[w * this.ws + 1]!;
       this.rNext[x * 3 + s] = -1;
-      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.wI[(w) * 4 + 1]!] = id;
-      this.wI[(w) * 4] = id;
-      this.wI[(w) * 4 + 1] = s;
-      this.rSeq[x * 3 + s] = ++this.wI[(w) * 4 + 2]!;
+      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.wb[w * this.ws + 1]!] = id;
+      this.wb[w * this.ws] = id;
+      this.wb[w * this.ws + 1] = s;
+      this.rSeq[x * 3 + s] = ++this.wb[w * this.ws + 2]!;
     }
     if (this.optimize) this.cancel(id, x);
     this.rMask1[x] = this.rDead[x]!;
@@ -378,14 +409,14 @@ export class CountingEngine implements InstanceSink {
     for (let w = 0; w < wires; w++) {
       if (this.levels && this.optimize) {
         // merge-phases' last flush, in qubit order.
-        const run = finalRun(this.wI[(w) * 4 + 3]!);
-        this.wL[(w) * 2]! += run.gates;
-        this.wL[(w) * 2 + 1]! += run.tGates;
+        const run = finalRun(this.wb[w * this.ws + 3]!);
+        this.wbf[((w * this.ws) >> 1) + 2]! += run.gates;
+        this.wbf[((w * this.ws) >> 1) + 3]! += run.tGates;
         this.tCount += run.tGates;
-        this.wI[(w) * 4 + 3] = 0;
+        this.wb[w * this.ws + 3] = 0;
       }
-      depth = Math.max(depth, this.wL[(w) * 2]!);
-      tDepth = Math.max(tDepth, this.wL[(w) * 2 + 1]!);
+      depth = Math.max(depth, this.wbf[((w * this.ws) >> 1) + 2]!);
+      tDepth = Math.max(tDepth, this.wbf[((w * this.ws) >> 1) + 3]!);
     }
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
@@ -416,6 +447,149 @@ export class CountingEngine implements InstanceSink {
     return this.nextId;
   }
 
+  // ---- replaying one part over a given context (blocks.ts) -------------------------------
+
+  /**
+   * Puts an instance of the context: wires given directly (the engine must have been made with
+   * `base` above every wire used, lag Infinity), linked into the gate lists of the slots in `link`
+   * only, with the gates already cancelled and the stage-1 facts it had. Nothing is walked.
+   */
+  preload(t: number, w0: number, w1: number, w2: number, link: number, dead: number, mask1: number, recheck: number): number {
+    const id = this.nextId++;
+    if (id >= this.ringSize) this.growRing(this.ringSize * 2);
+    const x = id & this.ringMask;
+    this.rT[x] = t;
+    this.rW[x * 3] = w0;
+    this.rW[x * 3 + 1] = w1;
+    this.rW[x * 3 + 2] = w2;
+    this.rDead[x] = dead;
+    this.rMask1[x] = mask1;
+    this.rRecheck[x] = recheck;
+    for (let s = 0; s < 3; s++) {
+      this.rNext[x * 3 + s] = -1;
+      if (s >= SLOTS[t]! || ((link >>> s) & 1) === 0) {
+        this.rPrev[x * 3 + s] = -1;
+        continue;
+      }
+      const w = this.rW[x * 3 + s]!;
+      const p = this.wb[w * this.ws]!;
+      this.rPrev[x * 3 + s] = p;
+      this.rPrevSlot[x * 3 + s] = this.wb[w * this.ws + 1]!;
+      if (p >= 0) this.rNext[(p & this.ringMask) * 3 + this.wb[w * this.ws + 1]!] = id;
+      this.wb[w * this.ws] = id;
+      this.wb[w * this.ws + 1] = s;
+      this.rSeq[x * 3 + s] = ++this.wb[w * this.ws + 2]!;
+    }
+    return id;
+  }
+
+  /**
+   * Starts a new replay on this engine (one made with lag Infinity; blocks.ts replays thousands of
+   * blocks): no instances, wires 0..base-1 empty, the given truncated flags. The arrays are kept.
+   */
+  resetReplay(base: number, truncated: Uint8Array): void {
+    this.base = base;
+    if (base + 64 > this.wireCap) this.growWires(base + 64);
+    for (let w = 0; w < base; w++) this.clearWire(this.wb, w);
+    this.nextId = 0;
+    this.done = 0;
+    this.ringLow = 0;
+    this.freeTop = 0;
+    this.workWires = 0;
+    this.tCount = 0;
+    this.cnotCount = 0;
+    this.toffoliCount = 0;
+    this.measurements = 0;
+    this.phaseGates = 0;
+    this.flagHard = null;
+    this.historyShort = false;
+    this.lagShort = false;
+    this.flagBound = null;
+    this.flagSecond = null;
+    this.truncatedHits.length = 0;
+    this.truncated = truncated;
+  }
+
+  /** Instances below `id` count as already through stage 2 and the tally (context instances). */
+  settledBelow(id: number): void {
+    this.done = id;
+  }
+
+  /** Stage 2 (and the tally, which a replay ignores) of the instances up to `id` inclusive. */
+  settleThrough(id: number): void {
+    while (this.done <= id) this.settle(this.done);
+  }
+
+  /**
+   * Stage 2 (see settle) of instance `id` now, for the gates a cancellation since its stage 1 (or
+   * since it was preloaded with mask1 = dead and no recheck) may let go further. Returns the gates
+   * walked and, among them, those that find a partner or reach the window diagonally (what settle
+   * would flag), as two masks. Sets no flag: the block counter keeps the latest result per gate.
+   */
+  restage(id: number): [walked: number, positive: number] {
+    const x = id & this.ringMask;
+    const t = this.rT[x]!;
+    const dead = this.rDead[x]!;
+    const later = dead ^ this.rMask1[x]!;
+    const again = this.rRecheck[x]!;
+    if (again === 0 && later === 0) return [0, 0];
+    let walked = 0;
+    let positive = 0;
+    const exits = exitingGates(t, dead);
+    for (let m = exits; m !== 0; m &= m - 1) {
+      const p = 31 - Math.clz32(m & -m);
+      if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
+      const e = GATE_START[t]! + p;
+      const kind = G_KIND[e]!;
+      if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+      walked |= 1 << p;
+      this.probing = true;
+      this.probeHit = false;
+      const found = this.findPartner(id, x, p) >= 0;
+      this.probing = false;
+      if (found || this.probeHit) positive |= 1 << p;
+    }
+    return [walked, positive];
+  }
+
+  /** Cancelled gates of instance `id` (kept in the ring). */
+  deadOf(id: number): number {
+    return this.rDead[id & this.ringMask]!;
+  }
+
+  /** Gates cancelled right after instance `id`'s own stage 1. */
+  mask1Of(id: number): number {
+    return this.rMask1[id & this.ringMask]!;
+  }
+
+  /** Gates of instance `id` whose walk stage 2 repeats. */
+  recheckOf(id: number): number {
+    return this.rRecheck[id & this.ringMask]!;
+  }
+
+  /** The last instance on wire w (-1: none) and its slot there, as id * 4 + slot. */
+  lastOn(w: number): number {
+    const id = this.wb[w * this.ws]!;
+    return id < 0 ? -1 : id * 4 + this.wb[w * this.ws + 1]!;
+  }
+
+  /** The instance before `id` on the wire of its slot s, as id * 4 + slot (-1: none). */
+  prevOn(id: number, s: number): number {
+    const x = id & this.ringMask;
+    const p = this.rPrev[x * 3 + s]!;
+    return p < 0 ? -1 : p * 4 + this.rPrevSlot[x * 3 + s]!;
+  }
+
+  /** A cancellation reached an instance already counted (with settledBelow: a context instance). */
+  get reachedSettled(): boolean {
+    return this.lagShort;
+  }
+
+  /** Why the second cancel-inverses might act, or null. */
+  get secondReason(): string | null {
+    return this.flagSecond;
+  }
+
   // ---- the instance store ----------------------------------------------------------------
 
   /**
@@ -430,40 +604,31 @@ export class CountingEngine implements InstanceSink {
     for (let s = 0; s < SLOTS[t]!; s++) {
       const w = this.rW[x * 3 + s]!;
       const next = this.rNext[x * 3 + s]!;
-      // Kept when fewer than `depth` instances came after it on w, or the next one on w is not
+      // Kept when fewer than `depth` instances came after it on w (with one copy: when it is the
+      // last on w, which its link says without reading w's record), or the next one on w is not
       // through stage 2 yet (whose walks start here).
-      const keep = this.wI[(w) * 4 + 2]! - this.rSeq[x * 3 + s]! < d || next >= this.done;
+      const keep = (d === 1 ? next === -1 : this.wb[w * this.ws + 2]! - this.rSeq[x * 3 + s]! < d) || next >= this.done;
       if (!keep) continue;
       // Newest first: shift the older copies of this wire down.
-      const b = w * d;
-      for (let i = d - 1; i > 0; i--) {
-        const from = b + i - 1;
-        const to = b + i;
-        this.sId[to] = this.sId[from]!;
-        this.sT[to] = this.sT[from]!;
-        this.sW[to * 3] = this.sW[from * 3]!;
-        this.sW[to * 3 + 1] = this.sW[from * 3 + 1]!;
-        this.sW[to * 3 + 2] = this.sW[from * 3 + 2]!;
-        this.sDead[to] = this.sDead[from]!;
-        this.sPrev[to] = this.sPrev[from]!;
-        this.sPrevSlot[to] = this.sPrevSlot[from]!;
-      }
-      this.sId[b] = old;
-      this.sT[b] = t;
-      this.sW[b * 3] = this.rW[x * 3]!;
-      this.sW[b * 3 + 1] = this.rW[x * 3 + 1]!;
-      this.sW[b * 3 + 2] = this.rW[x * 3 + 2]!;
-      this.sDead[b] = this.rDead[x]!;
-      this.sPrev[b] = this.rPrev[x * 3 + s]!;
-      this.sPrevSlot[b] = this.rPrevSlot[x * 3 + s]!;
+      const wb = this.wb;
+      const b = w * this.ws + 8;
+      if (d > 1) wb.copyWithin(b + 8, b, b + 8 * (d - 1));
+      wb[b] = old;
+      wb[b + 1] = t;
+      wb[b + 2] = this.rW[x * 3]!;
+      wb[b + 3] = this.rW[x * 3 + 1]!;
+      wb[b + 4] = this.rW[x * 3 + 2]!;
+      wb[b + 5] = this.rDead[x]!;
+      wb[b + 6] = this.rPrev[x * 3 + s]!;
+      wb[b + 7] = this.rPrevSlot[x * 3 + s]!;
     }
   }
 
-  /** Where instance `id` is kept, seen from wire w: ring index, -2 - copy index, or -1. */
+  /** Where instance `id` is kept, seen from wire w: ring index, -2 - the index of its copy in wb, or -1. */
   private locate(id: number, w: number): number {
     if (id >= this.ringLow) return id & this.ringMask;
-    const b = w * this.depth;
-    for (let i = 0; i < this.depth; i++) if (this.sId[b + i] === id) return -2 - (b + i);
+    const b = w * this.ws + 8;
+    for (let i = 0; i < this.depth; i++) if (this.wb[b + 8 * i] === id) return -2 - (b + 8 * i);
     return -1;
   }
 
@@ -496,7 +661,7 @@ export class CountingEngine implements InstanceSink {
         const hw = this.rW[x * 3 + G_OP[e * 3 + G_NQ[e]! - 1]!]!;
         const loc = this.locate(hid, hw);
         if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
-        else this.sDead[-2 - loc] = this.sDead[-2 - loc]! | (1 << hp);
+        else this.wb[3 - loc] = this.wb[3 - loc]! | (1 << hp);
         this.rDead[x] = this.rDead[x]! | (1 << p);
         if (hid < this.done) {
           this.lagShort = true;
@@ -542,9 +707,9 @@ export class CountingEngine implements InstanceSink {
     let slot = ts;
     let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
     for (;;) {
-      const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+      const ct = loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!;
       const list = SLOT_GATES[ct * 3 + slot]!;
-      const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
+      const dead = loc >= 0 ? this.rDead[loc]! : this.wb[3 - loc]!;
       for (; k >= 0; k--) {
         const hp = list[k]!;
         if ((dead >>> hp) & 1) continue;
@@ -562,9 +727,12 @@ export class CountingEngine implements InstanceSink {
         if (!this.commute(x, e, loc, f)) return -1;
       }
       // The previous instance on this wire.
-      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-      if (prev < 0) return -1;
-      const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.wb[4 - loc]!;
+      if (prev < 0) {
+        if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
+        return -1;
+      }
+      const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.wb[5 - loc]!;
       const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
       if (pl === -1) {
         this.unavailable();
@@ -573,11 +741,15 @@ export class CountingEngine implements InstanceSink {
       loc = pl;
       cur = prev;
       slot = ps;
-      k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
+      k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!) * 3 + slot]!.length - 1;
     }
   }
 
   private noteSecond(reason: string): void {
+    if (this.probing) {
+      this.probeHit = true;
+      return;
+    }
     if (this.flagSecond === null) this.flagSecond = reason;
   }
 
@@ -591,8 +763,8 @@ export class CountingEngine implements InstanceSink {
     if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
     const nq = G_NQ[e]!;
     if (G_NQ[f] !== nq) return false;
-    const wa = loc >= 0 ? this.rW : this.sW;
-    const xb = (loc >= 0 ? loc : -2 - loc) * 3;
+    const wa = loc >= 0 ? this.rW : this.wb;
+    const xb = loc >= 0 ? loc * 3 : -loc;
     for (let i = 0; i < nq; i++) {
       if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
     }
@@ -602,8 +774,8 @@ export class CountingEngine implements InstanceSink {
   /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
   private commute(x: number, e: number, loc: number, f: number): boolean {
     const nq = G_NQ[e]!;
-    const wa = loc >= 0 ? this.rW : this.sW;
-    const xb = (loc >= 0 ? loc : -2 - loc) * 3;
+    const wa = loc >= 0 ? this.rW : this.wb;
+    const xb = loc >= 0 ? loc * 3 : -loc;
     for (let i = 0; i < nq; i++) {
       const s = G_OP[e * 3 + i]!;
       const w = this.rW[x * 3 + s]!;
@@ -636,9 +808,9 @@ export class CountingEngine implements InstanceSink {
       let slot = s0;
       let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
       for (;;) {
-        const ct = loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!;
+        const ct = loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!;
         const list = SLOT_GATES[ct * 3 + slot]!;
-        const dead = loc >= 0 ? this.rDead[loc]! : this.sDead[-2 - loc]!;
+        const dead = loc >= 0 ? this.rDead[loc]! : this.wb[3 - loc]!;
         let stop = false;
         for (; k >= 0; k--) {
           const xp = list[k]!;
@@ -655,9 +827,12 @@ export class CountingEngine implements InstanceSink {
           if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
         }
         if (stop || cur <= hid) break;
-        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.sPrev[-2 - loc]!;
-        if (prev < 0) break;
-        const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.sPrevSlot[-2 - loc]!;
+        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.wb[4 - loc]!;
+        if (prev < 0) {
+          if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
+          break;
+        }
+        const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.wb[5 - loc]!;
         const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
         if (pl === -1) {
           this.unavailable();
@@ -666,7 +841,7 @@ export class CountingEngine implements InstanceSink {
         loc = pl;
         cur = prev;
         slot = ps;
-        k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.sT[-2 - loc]!) * 3 + slot]!.length - 1;
+        k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!) * 3 + slot]!.length - 1;
       }
     }
     return true;
@@ -717,7 +892,7 @@ export class CountingEngine implements InstanceSink {
     const w0 = this.rW[x * 3]!;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
     const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
-    const tr = transferOf(t, dead, slots > 0 ? this.wI[(w0) * 4 + 3]! : 0, w1 >= 0 ? this.wI[(w1) * 4 + 3]! : 0, w2 >= 0 ? this.wI[(w2) * 4 + 3]! : 0, this.optimize);
+    const tr = transferOf(t, dead, slots > 0 ? this.wb[w0 * this.ws + 3]! : 0, w1 >= 0 ? this.wb[w1 * this.ws + 3]! : 0, w2 >= 0 ? this.wb[w2 * this.ws + 3]! : 0, this.optimize);
     this.tCount += tr.tCount;
     this.cnotCount += tr.cnotCount;
     this.toffoliCount += tr.toffoliCount;
@@ -725,13 +900,17 @@ export class CountingEngine implements InstanceSink {
     this.phaseGates += tr.phaseGates;
     if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
     if (slots === 0) return;
-    const wl = this.wL;
-    const l0 = wl[w0 * 2]!;
-    const l1 = w1 >= 0 ? wl[w1 * 2]! : 0;
-    const l2 = w2 >= 0 ? wl[w2 * 2]! : 0;
-    const t0 = wl[w0 * 2 + 1]!;
-    const t1 = w1 >= 0 ? wl[w1 * 2 + 1]! : 0;
-    const t2 = w2 >= 0 ? wl[w2 * 2 + 1]! : 0;
+    const wl = this.wbf;
+    // Float64 indices of the wires' levels (T-level next).
+    const f0 = ((w0 * this.ws) >> 1) + 2;
+    const f1 = w1 >= 0 ? ((w1 * this.ws) >> 1) + 2 : -1;
+    const f2 = w2 >= 0 ? ((w2 * this.ws) >> 1) + 2 : -1;
+    const l0 = wl[f0]!;
+    const l1 = f1 >= 0 ? wl[f1]! : 0;
+    const l2 = f2 >= 0 ? wl[f2]! : 0;
+    const t0 = wl[f0 + 1]!;
+    const t1 = f1 >= 0 ? wl[f1 + 1]! : 0;
+    const t2 = f2 >= 0 ? wl[f2 + 1]! : 0;
     const lb = this.bitL;
     const tb = this.bitTL;
     if (tr.bit !== null) {
@@ -740,18 +919,18 @@ export class CountingEngine implements InstanceSink {
     }
     const d = tr.d;
     const dt = tr.dt;
-    wl[w0 * 2] = maxPlus(d, 0, l0, l1, l2, lb);
-    wl[w0 * 2 + 1] = maxPlus(dt, 0, t0, t1, t2, tb);
-    this.wI[(w0) * 4 + 3] = tr.pendOut[0]!;
+    wl[f0] = maxPlus(d, 0, l0, l1, l2, lb);
+    wl[f0 + 1] = maxPlus(dt, 0, t0, t1, t2, tb);
+    this.wb[w0 * this.ws + 3] = tr.pendOut[0]!;
     if (w1 >= 0) {
-      wl[w1 * 2] = maxPlus(d, 4, l0, l1, l2, lb);
-      wl[w1 * 2 + 1] = maxPlus(dt, 4, t0, t1, t2, tb);
-      this.wI[(w1) * 4 + 3] = tr.pendOut[1]!;
+      wl[f1] = maxPlus(d, 4, l0, l1, l2, lb);
+      wl[f1 + 1] = maxPlus(dt, 4, t0, t1, t2, tb);
+      this.wb[w1 * this.ws + 3] = tr.pendOut[1]!;
     }
     if (w2 >= 0) {
-      wl[w2 * 2] = maxPlus(d, 8, l0, l1, l2, lb);
-      wl[w2 * 2 + 1] = maxPlus(dt, 8, t0, t1, t2, tb);
-      this.wI[(w2) * 4 + 3] = tr.pendOut[2]!;
+      wl[f2] = maxPlus(d, 8, l0, l1, l2, lb);
+      wl[f2 + 1] = maxPlus(dt, 8, t0, t1, t2, tb);
+      this.wb[w2 * this.ws + 3] = tr.pendOut[2]!;
     }
   }
 }

@@ -16,10 +16,12 @@ import type { Circuit } from "../ir/circuit.js";
 import { countCircuit } from "../emit/resources.js";
 import type { Basis, Uncompute } from "../passes/lower.js";
 import { planOracle, synthesizePlan, synthesizePlanned, type AnyStrategy, type OracleKind, type OraclePlan, type RegisterMode, type SimplifiedCnf, type SimplifyReport, type Strategy } from "../synth/index.js";
+import { BlockCounter } from "./blocks.js";
 import { builtCounts } from "./built.js";
-import { CountingEngine, type EngineResult } from "./engine.js";
+import { LeanBlocks } from "./leanBlocks.js";
+import { CountingEngine, type EngineResult, type WireMemory } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
-import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, type Fraction, type OracleOps } from "./sources.js";
+import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, textbookOracle, wideOracle, type Fraction, type OracleOps } from "./sources.js";
 import { constructionFamily, constructionName, countConstructionOracle, parseConstruction, type ConstructionFamily } from "./front.js";
 
 /** Options of the cost functions. */
@@ -222,6 +224,10 @@ interface Spec {
   readonly optimize: boolean;
   /** Depth and T-depth wanted (Clifford+T runs); Toffoli runs need counts only. */
   readonly levels: boolean;
+  /** How to count a lean oracle (see {@link CountEngine}); default "auto". */
+  readonly engine?: CountEngine;
+  /** Wire-record memory shared with the other runs of the same cost table. */
+  readonly wireMemory?: WireMemory;
 }
 
 /**
@@ -252,20 +258,30 @@ class Logicals {
 }
 
 /**
+ * How a lean oracle is counted: "blocks" by the block counter (blocks.ts: work per clause, exact,
+ * falling back to the engine where it cannot go on), "instances" by the engine instance by
+ * instance, "auto" by blocks from BLOCKS_FROM clauses on.
+ */
+export type CountEngine = "auto" | "blocks" | "instances";
+
+/** Clauses from which "auto" counts a lean oracle by blocks (below, the engine is as fast). */
+const BLOCKS_FROM = 64;
+
+/**
  * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
  * where nothing can fall short: a shortfall never reaches a result.
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
   // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
   // without the second cancel-inverses, which the pipeline then skips.
   let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
     const ids = new VirtualIds(base);
-    const low = new LoweringStream(engine, ids, mode, sizing.ids);
+    const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
     emit(low, ids);
     low.finish();
     const r = engine.finish();
@@ -286,6 +302,14 @@ function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "t
 }
 
 const DEFAULT_LAG = 1 << 16;
+/**
+ * The window for the wide and textbook oracles: their cancellations are between neighbouring
+ * gates (a clause's AND and the mark's, the textbook's V-chains of consecutive clauses), and a
+ * short window keeps each wire's figures in cache until its instances are final (a million
+ * clauses have 3 million wires): a third less time than 65536. A longer reach makes the run
+ * fall short and go again with more (see run).
+ */
+const WIDE_LAG = 1 << 11;
 /** The longest window a search run asks for (its work wires come back one iteration later). */
 const MAX_LAG = 1 << 22;
 /** Memory for the copies kept per wire on a second run. */
@@ -293,21 +317,36 @@ const HISTORY_BYTES = 256 << 20;
 
 /** Counts one oracle construction with the engine. */
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
-  const streamed = s.strategy === "lean" && !logicals.structured(s.strategy);
-  // A structured oracle's search register is the plan's register, not the clauses' variables.
-  const logical = streamed ? null : logicals.get(s.kind, s.strategy);
-  const base = logical === null ? s.f.variables + (s.kind === "flag" ? 1 : 0) : logical.c.registers.reduce((q, r) => q + (r.role === "work" ? 0 : r.size), 0);
   const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
+  if (logicals.structured(s.strategy)) {
+    // A structured oracle is replayed from its logical circuit (small); its search register is
+    // the plan's register, not the clauses' variables.
+    const logical = logicals.get(s.kind, s.strategy);
+    const base = logical.c.registers.reduce((q, r) => q + (r.role === "work" ? 0 : r.size), 0);
+    const sizing = { lag: DEFAULT_LAG, history: 1, wires: base + logical.c.qubits + 64, ids: logical.c.qubits + 1024, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+    return run(base, s.optimize, s.levels, mode, (low, ids) => replayLogical(logical.c, base, low, ids, logical.last, progress), sizing);
+  }
+  const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
   // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
   // mark's tree); the lean oracle reuses a few, some of them seldom (a work qubit of a longer
   // clause), so keeping a few instances per wire costs little there.
-  const wires = base + (streamed ? 64 : logicals.structured(s.strategy) ? logical!.c.qubits + 64 : s.f.lits.length + 64);
-  // Ids: a replayed circuit's qubits, and a few for AND trees (given back when done).
-  const idCount = (logical?.c.qubits ?? base) + 1024;
-  const sizing = { lag: DEFAULT_LAG, history: streamed ? 4 : 1, wires, ids: idCount };
+  const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
+  // Ids: work qubits live at once (a wide or textbook oracle keeps one per clause until the
+  // mark), and a few for AND trees (given back when done).
+  const idCount = base + (s.strategy === "lean" ? 0 : s.f.clauseStart.length) + 1024;
+  // A wide oracle keeps each clause's AND record (3 numbers per 2-input AND, 2 more per record)
+  // until the mark.
+  const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
+  const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount, records, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+  if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || s.f.clauseStart.length - 1 >= BLOCKS_FROM)) {
+    const blocks = new LeanBlocks(s.f, s.kind, mode);
+    const r = new BlockCounter(blocks, { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run();
+    if (r !== null) return r;
+  }
   return run(base, s.optimize, s.levels, mode, (low, ids) => {
-    if (logical === null) leanOracle(s.f, s.kind, low, ids, s.f.variables, progress);
-    else replayLogical(logical.c, base, low, ids, logical.last, progress);
+    // The oracles are streamed as synthesis would build them (sources.ts; a test holds them equal).
+    const stream = s.strategy === "lean" ? leanOracle : s.strategy === "wide" ? wideOracle : textbookOracle;
+    stream(s.f, s.kind, low, ids, s.f.variables, progress);
   }, sizing);
 }
 
@@ -357,8 +396,8 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
  * Costs of every strategy and uncomputation for one formula, plus the textbook reference
  * (one clause bit per clause, V-chains of 7-T Toffolis, unitary uncomputation). Counted, not
  * built: memory grows with the qubits (a few numbers per wire), not with the gates; time with
- * the gates (the lean rows of a million clauses dominate: minutes). Progress goes to
- * `options.onProgress`.
+ * the gates, except for the lean oracle, counted clause block by clause block with a memo (a
+ * million clauses: seconds per row). Progress goes to `options.onProgress`.
  *
  * @example
  * ```ts
@@ -371,10 +410,11 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
   const f = oraclePlan.clauses;
   const logicals = new Logicals(oraclePlan);
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
+  const wireMemory: WireMemory = { buffer: null, records: null };
   const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
     logicals.keepOnly(strategy);
-    const spec = { f, kind, strategy, uncompute, optimize: true };
+    const spec = { f, kind, strategy, uncompute, optimize: true, wireMemory };
     const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
     const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
     if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
@@ -403,13 +443,13 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
  */
 export function countConstruction(
   cnf: Cnf,
-  o: { readonly kind: OracleKind; readonly strategy: AnyStrategy; readonly basis: "toffoli" | "clifford+t"; readonly uncompute: Uncompute; readonly optimize?: boolean },
+  o: { readonly kind: OracleKind; readonly strategy: AnyStrategy; readonly basis: "toffoli" | "clifford+t"; readonly uncompute: Uncompute; readonly optimize?: boolean; readonly engine?: CountEngine },
   options: CostOptions = {},
 ): EngineResult {
   const plan = planOf(cnf, options);
   const f = plan.clauses;
   const progress = new Progress(1, options.onProgress);
-  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true }, new Logicals(plan), progress.step(1));
+  const r = countOracle({ f, kind: o.kind, strategy: o.strategy, basis: o.basis, uncompute: o.uncompute, optimize: o.optimize ?? true, levels: true, engine: o.engine ?? "auto" }, new Logicals(plan), progress.step(1));
   progress.emit(1);
   return r;
 }
@@ -514,7 +554,7 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
   const progress = new Progress(total, options.onProgress);
   const costs = strategies.map((strategy): SearchCost => {
     const n = searchRegister(plan);
-    const ops = logicals.structured(strategy) ? replayOps(logicals.get("phase", strategy).c, n) : phaseOracleOps(f, strategy, () => logicals.get("phase", strategy).c);
+    const ops = logicals.structured(strategy) ? replayOps(logicals.get("phase", strategy).c, n) : phaseOracleOps(f, strategy);
     return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy).c, oracleWeight(strategy), iterations, successProbability, uncompute, progress);
   });
   progress.emit(1);

@@ -73,6 +73,14 @@ export class VirtualIds {
   }
 }
 
+/**
+ * A holder for the AND records' table, shared by the streams of one cost table (a wide oracle's
+ * records hold every clause's AND until the mark: some 30 MB for a million clauses).
+ */
+export interface RecordMemory {
+  records: Int32Array<ArrayBuffer> | null;
+}
+
 /** Which circuit the lowering produces. */
 export interface LoweringMode {
   /** `toffoli` or `clifford+t`. */
@@ -96,13 +104,22 @@ export class LoweringStream implements LogicalSink {
   private readonly toffoliAnds: boolean;
   private readonly pair = new Int32Array(2);
 
-  /** `qubits`: the ids expected (sizes the per-id tables once; they grow if need be). */
-  constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode, qubits = 1024) {
+  /**
+   * `qubits`: the ids expected (sizes the per-id tables once; they grow if need be); `records`:
+   * the numbers the live AND records may take (a wide oracle keeps every clause's until the mark).
+   */
+  constructor(private readonly out: InstanceSink, readonly ids: VirtualIds, mode: LoweringMode, qubits = 1024, records = 1024, memory?: RecordMemory) {
     this.cliffordT = mode.basis === "clifford+t";
     this.measured = mode.uncompute === "measured";
     this.toffoliAnds = mode.toffoliAnds;
     this.room(qubits - 1);
+    this.memory = memory ?? null;
+    const held = this.memory?.records ?? null;
+    if (held !== null && held.length >= records) this.records = held;
+    else if (records > this.records.length) this.records = new Int32Array(records);
+    if (this.memory !== null) this.memory.records = this.records;
   }
+  private readonly memory: RecordMemory | null;
 
   private room(q: number): void {
     if (q < this.flipped.length) return;
@@ -113,6 +130,12 @@ export class LoweringStream implements LogicalSink {
     const r = new Int32Array(n).fill(-1);
     r.set(this.recordAt);
     this.recordAt = r;
+  }
+
+  /** Sets the pending flip of qubit q (to record one block of a stream in a given state; see blocks.ts). */
+  setFlipped(q: number, flipped: boolean): void {
+    this.room(q);
+    this.flipped[q] = flipped ? 1 : 0;
   }
 
   // ---- logical operations ------------------------------------------------------------------
@@ -263,12 +286,19 @@ export class LoweringStream implements LogicalSink {
 
   // ---- as in lower.ts --------------------------------------------------------------------
 
+  /** A larger records table (the caller copies the live part); kept for the next stream when shared. */
+  private biggerRecords(need: number): Int32Array<ArrayBuffer> {
+    const r = new Int32Array(Math.max(need, Math.ceil(this.records.length * 1.5)));
+    if (this.memory !== null) this.memory.records = r;
+    return r;
+  }
+
   /** remember() for one or two triples without a list (the second when d >= 0). */
   private rememberOne(t: number, a: number, b: number, c: number, d: number, e: number, f: number): void {
     const two = d >= 0 ? 1 : 0;
     const need = this.top + 5 + 3 * two;
     if (need > this.records.length) {
-      const r = new Int32Array(Math.max(need, Math.ceil(this.records.length * 1.5)));
+      const r = this.biggerRecords(need);
       r.set(this.records.subarray(0, this.top));
       this.records = r;
     }
@@ -291,7 +321,7 @@ export class LoweringStream implements LogicalSink {
   private remember(t: number, copied: number, triples: readonly number[]): void {
     const need = this.top + 2 + triples.length;
     if (need > this.records.length) {
-      const r = new Int32Array(Math.max(need, Math.ceil(this.records.length * 1.5)));
+      const r = this.biggerRecords(need);
       r.set(this.records.subarray(0, this.top));
       this.records = r;
     }

@@ -11,7 +11,7 @@ import { searchCircuit } from "../../dist/src/search/build.js";
 import { lower } from "../../dist/src/passes/lower.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
 import { LoweringStream, VirtualIds, type InstanceSink, type LogicalSink } from "../../dist/src/cost/lowering.js";
-import { lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps } from "../../dist/src/cost/sources.js";
+import { leanOracle, LogicalRecorder, phaseOracleOps, searchOps, textbookOracle, wideOracle } from "../../dist/src/cost/sources.js";
 import { G_COND, G_KIND, G_NQ, G_OP, GATE_START, gatesOf, T_H, T_X } from "../../dist/src/cost/templates.js";
 import { GATE_KINDS } from "../../dist/src/ir/kinds.js";
 
@@ -147,12 +147,27 @@ describe("the streams are the pipeline's", () => {
     );
   });
 
+  it("the wide and textbook oracles generated clause by clause are synth/wide.ts's and synth/reference.ts's logical circuits", () => {
+    fc.assert(
+      fc.property(formula, fc.constantFrom("phase", "flag") as fc.Arbitrary<"phase" | "flag">, ({ n, clauses }, kind) => {
+        const f = simplify(cnfFromClauses(n, clauses));
+        const base = n + (kind === "flag" ? 1 : 0);
+        for (const [strategy, stream] of [["wide", wideOracle], ["textbook", textbookOracle]] as const) {
+          const sink = new Lines(base);
+          stream(f, kind, sink, new VirtualIds(base), n);
+          expect(sink.out, strategy).toEqual(logicalLines(synthesize(f, kind, strategy), base));
+        }
+      }),
+      { numRuns: 150 },
+    );
+  });
+
   it("the search stream is search/build.ts's logical circuit, for both strategies", () => {
     fc.assert(
       fc.property(formula, fc.integer({ min: 0, max: 3 }), fc.constantFrom("wide", "lean") as fc.Arbitrary<"wide" | "lean">, ({ n, clauses }, k, strategy) => {
         const f = simplify(cnfFromClauses(n, clauses));
         const sink = new Lines(n);
-        searchOps(n, phaseOracleOps(f, strategy, () => synthesize(f, "phase", strategy)), k, true, sink, new VirtualIds(n));
+        searchOps(n, phaseOracleOps(f, strategy), k, true, sink, new VirtualIds(n));
         expect(sink.out).toEqual(logicalLines(searchCircuit(f, strategy, k), n));
       }),
       { numRuns: 80 },
@@ -164,7 +179,7 @@ describe("the streams are the pipeline's", () => {
       fc.property(formula, fc.integer({ min: 0, max: 2 }), fc.constantFrom("wide", "lean") as fc.Arbitrary<"wide" | "lean">, ({ n, clauses }, k, strategy) => {
         const f = simplify(cnfFromClauses(n, clauses));
         const rec = new LogicalRecorder(n, n, 0);
-        searchOps(n, phaseOracleOps(f, strategy, () => synthesize(f, "phase", strategy)), k, true, rec, new VirtualIds(n));
+        searchOps(n, phaseOracleOps(f, strategy), k, true, rec, new VirtualIds(n));
         const c = rec.finish();
         const real = searchCircuit(f, strategy, k);
         expect(c.qubits).toBe(real.qubits);
@@ -188,8 +203,8 @@ describe("the streams are the pipeline's", () => {
                 const sink = new GateLines(base);
                 const ids = new VirtualIds(base);
                 const low = new LoweringStream(sink, ids, { basis, uncompute, toffoliAnds });
-                if (strategy === "lean") leanOracle(f, kind, low, ids, n);
-                else replayLogical(logical, base, low, ids, lastUses(logical));
+                const stream = strategy === "lean" ? leanOracle : strategy === "wide" ? wideOracle : textbookOracle;
+                stream(f, kind, low, ids, n);
                 low.finish();
                 const real = lower(logical, { basis, uncompute, ...(toffoliAnds ? { andGate: "toffoli" as const } : {}) });
                 // lower.ts restores flipped qubits at the end in qubit order; the replay in id

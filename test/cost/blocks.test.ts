@@ -1,0 +1,152 @@
+// The block counter (src/cost/blocks.ts) against the counting engine and the built circuits: it
+// counts the lean oracle clause by clause with a memo, and every figure (and the exact flag) must
+// be the engine's, which test/cost/counting.test.ts holds equal to the built circuit's. The cases
+// aim at what a memo could get wrong: seams between clauses sharing literals (same or opposite
+// polarity, same or other position), unit clauses and clauses of every width 1..6 (work wires left
+// idle for many clauses, then taken up again), duplicate literals, the mark's block, long runs of
+// equal clauses (instances ageing out of the kept window), flag and phase oracles, every basis,
+// uncomputation and optimizer setting.
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { cnfFromClauses, compileOracle, countCircuit, type Cnf } from "../helpers/lib.js";
+import { countConstruction } from "../../dist/src/cost/index.js";
+import { BlockCounter } from "../../dist/src/cost/blocks.js";
+import { LeanBlocks } from "../../dist/src/cost/leanBlocks.js";
+import { simplify } from "../../dist/src/synth/index.js";
+import { seededRandom } from "../../dist/src/util/random.js";
+
+type Kind = "phase" | "flag";
+type Basis = "toffoli" | "clifford+t";
+type Uncompute = "unitary" | "measured";
+interface Combo { kind: Kind; basis: Basis; uncompute: Uncompute; optimize: boolean }
+
+const COMBOS: Combo[] = [];
+for (const kind of ["phase", "flag"] as const) {
+  for (const basis of ["toffoli", "clifford+t"] as const) {
+    for (const uncompute of ["unitary", "measured"] as const) {
+      for (const optimize of [true, false]) COMBOS.push({ kind, basis, uncompute, optimize });
+    }
+  }
+}
+const FIGURES = ["qubits", "tCount", "tDepth", "cnotCount", "toffoliCount", "depth", "measurements", "exact", "instances"] as const;
+
+/** The block counter's figures (asserting it did not stop), and how many blocks it replayed. */
+function byBlocks(cnf: Cnf, c: Combo, levels = true): { r: Record<string, unknown>; replays: number; blocks: number } {
+  const f = simplify(cnf);
+  const src = new LeanBlocks(f, c.kind, { basis: c.basis, uncompute: c.uncompute, toffoliAnds: false });
+  const counter = new BlockCounter(src, { optimize: c.optimize, levels });
+  const r = counter.run();
+  expect(counter.stopped, "the block counter stopped").toBeNull();
+  expect(r).not.toBeNull();
+  return { r: r as unknown as Record<string, unknown>, replays: counter.replays, blocks: src.blocks };
+}
+
+function sameAsEngine(cnf: Cnf, c: Combo, label: string): void {
+  const byEngine = countConstruction(cnf, { kind: c.kind, strategy: "lean", basis: c.basis, uncompute: c.uncompute, optimize: c.optimize, engine: "instances" }, { structure: false }) as unknown as Record<string, unknown>;
+  const { r } = byBlocks(cnf, c);
+  for (const fig of FIGURES) expect(r[fig], `${fig}, ${JSON.stringify(c)}, ${label}`).toBe(byEngine[fig]);
+}
+
+function sameAsBuilt(cnf: Cnf, c: Combo, label: string): void {
+  const { r } = byBlocks(cnf, c);
+  // The block counter counts the clause construction (structure off).
+  const circuit = compileOracle(cnf, { kind: c.kind, strategy: "lean", basis: c.basis, uncompute: c.uncompute, optimize: c.optimize, structure: false }).circuit;
+  const k = countCircuit(circuit);
+  const built: Record<string, number> = { qubits: circuit.qubits, tCount: k.tCount, tDepth: k.tDepth, cnotCount: k.cnotCount, toffoliCount: k.toffoliCount, depth: k.depth, measurements: k.measurements };
+  expect(r.exact, `exact, ${JSON.stringify(c)}, ${label}`).toBe(true);
+  for (const fig of Object.keys(built)) expect(r[fig], `${fig}, ${JSON.stringify(c)}, ${label}`).toBe(built[fig]);
+}
+
+const literal = (n: number) => fc.integer({ min: 1, max: n }).chain((v) => fc.constantFrom(v, -v));
+
+/**
+ * Formulas whose clauses often share literals with the clause before (the same literal at the same
+ * or another position, or its negation), of width 1..6, some literal repeated within a clause.
+ */
+const seamy = fc.integer({ min: 2, max: 9 }).chain((n) =>
+  fc.array(
+    fc.record({ width: fc.integer({ min: 1, max: 6 }), share: fc.array(fc.tuple(fc.nat(5), fc.nat(5), fc.boolean()), { maxLength: 3 }), lits: fc.array(literal(n), { minLength: 6, maxLength: 6 }) }),
+    { minLength: 1, maxLength: 24 },
+  ).map((specs) => {
+    const clauses: number[][] = [];
+    for (const s of specs) {
+      const c = s.lits.slice(0, s.width);
+      const prev = clauses[clauses.length - 1];
+      if (prev !== undefined) for (const [from, to, flip] of s.share) if (from < prev.length && to < c.length) c[to] = flip ? -prev[from]! : prev[from]!;
+      clauses.push(c);
+    }
+    return { n, clauses };
+  }),
+);
+
+describe("the block counter gives the figures of the built circuits", () => {
+  it("on formulas whose clauses share literals with the one before, widths 1..6 (every kind, basis, uncomputation, optimizer setting)", () => {
+    fc.assert(
+      fc.property(seamy, ({ n, clauses }) => {
+        const cnf = cnfFromClauses(n, clauses);
+        if (!LeanBlocks.fits(simplify(cnf))) return;
+        for (const c of COMBOS) sameAsBuilt(cnf, c, JSON.stringify(clauses));
+      }),
+      { numRuns: 25 },
+    );
+  });
+
+  it("one clause of each width 1..6, alone and repeated with the polarity of one literal flipped", () => {
+    for (let k = 1; k <= 6; k++) {
+      const clause = Array.from({ length: k }, (_, i) => (i % 2 ? -(i + 1) : i + 1));
+      const flipped = clause.map((l, i) => (i === k - 1 ? -l : l));
+      for (const clauses of [[clause], [clause, flipped, clause]]) {
+        const cnf = cnfFromClauses(6, clauses);
+        if (!LeanBlocks.fits(simplify(cnf))) continue;
+        for (const c of COMBOS) sameAsBuilt(cnf, c, JSON.stringify(clauses));
+      }
+    }
+  });
+});
+
+describe("the block counter gives the counting engine's figures on longer formulas", () => {
+  /** Random clauses of widths in [lo, hi] over n variables; `repeatRun` copies a clause that many times in a row now and then. */
+  function randomFormula(seed: number, n: number, m: number, lo: number, hi: number, unitShare = 0): number[][] {
+    const r = seededRandom(seed);
+    const clauses: number[][] = [];
+    while (clauses.length < m) {
+      const k = r() < unitShare ? 1 : lo + Math.floor(r() * (hi - lo + 1));
+      const c: number[] = [];
+      while (c.length < k) {
+        const v = 1 + Math.floor(r() * n);
+        if (c.some((l) => Math.abs(l) === v)) continue;
+        c.push(r() < 0.5 ? v : -v);
+      }
+      clauses.push(c);
+    }
+    return clauses;
+  }
+
+  it("random 3-SAT, 200 clauses (most blocks found in the memo)", () => {
+    const cnf = cnfFromClauses(50, randomFormula(11, 50, 200, 3, 3));
+    for (const c of COMBOS) sameAsEngine(cnf, c, "random 3-SAT");
+    // The memo does the work: far fewer replays than blocks.
+    const { replays, blocks } = byBlocks(cnf, { kind: "phase", basis: "clifford+t", uncompute: "unitary", optimize: true });
+    expect(replays).toBeLessThan(blocks);
+  });
+
+  it("mixed widths 2..5 with some unit clauses: work wires idle for many clauses, then taken up again", () => {
+    const cnf = cnfFromClauses(40, randomFormula(12, 40, 250, 2, 5, 0.03));
+    if (!LeanBlocks.fits(simplify(cnf))) throw new Error("test formula became trivial");
+    for (const c of COMBOS) sameAsEngine(cnf, c, "mixed widths");
+  });
+
+  it("two-literal clauses over few variables (shared literals at every seam, as planning formulas have)", () => {
+    const cnf = cnfFromClauses(12, randomFormula(13, 12, 200, 2, 2));
+    if (!LeanBlocks.fits(simplify(cnf))) throw new Error("test formula became trivial");
+    for (const c of COMBOS) sameAsEngine(cnf, c, "two-literal clauses");
+  });
+
+  it("a wide clause now and then among narrow ones, and runs of clauses sharing their first two literals", () => {
+    const clauses = randomFormula(14, 30, 150, 2, 3);
+    for (let i = 10; i < clauses.length; i += 37) clauses[i] = randomFormula(100 + i, 30, 1, 6, 9)[0]!;
+    for (let i = 5; i + 4 < clauses.length; i += 29) for (let d = 1; d <= 4; d++) clauses[i + d] = [clauses[i]![0]!, clauses[i]![1]!, ...clauses[i + d]!.slice(2)];
+    const cnf = cnfFromClauses(30, clauses);
+    for (const c of COMBOS) sameAsEngine(cnf, c, "wide clauses and shared prefixes");
+  });
+});
