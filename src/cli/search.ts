@@ -2,7 +2,7 @@
 import { parseArgs } from "node:util";
 import {
   bbhtExpectedCalls, bbhtLastRound, bbhtRounds, bbhtSequence, BBHT_LAMBDA, compileOracle, compileSearch, countSolutions, DEFAULT_COUNT_LIMIT,
-  drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, searchCosts,
+  drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, searchCosts, constructionSearchCost,
   successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type ScheduleRound, type SearchPlan,
   type Solutions,
 } from "../internal.js";
@@ -467,8 +467,10 @@ function checkSearchSize(file: string, cnf: Cnf, n: number, o: CliOracleOptions,
     throw new UserError(`clausegate search: error: the circuit would have about ${e.gates} gates on ${plural(e.qubits, "qubit")} (${plural(K, "iteration")} of about ${e.perIteration} gates); clausegate search builds at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(e, MAX_SEARCH_GATES))}`);
   }
   if (!report) return;
-  for (const strategy of ["wide", "lean"] as const) {
-    const ct = estimateSearch(cnf, { ...basicOptions(o), strategy, basis: "clifford+t" }, K);
+  const named = o.construction !== undefined && o.construction !== "wide" && o.construction !== "lean" ? [o.construction] : [];
+  for (const strategy of ["wide", "lean", ...named]) {
+    const choice: { strategy: "wide" | "lean" } | { construction: string } = strategy === "wide" || strategy === "lean" ? { strategy } : { construction: strategy };
+    const ct = estimateSearch(cnf, { ...basicOptions(o), ...choice, basis: "clifford+t" }, K);
     if (ct.gates > MAX_SEARCH_GATES) {
       throw new UserError(`clausegate search: error: the report costs the ${strategy} Clifford+T circuit of about ${ct.gates} gates (${plural(K, "iteration")}); clausegate search costs at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(ct, MAX_SEARCH_GATES))} (or leave out --report)`);
     }
@@ -540,7 +542,13 @@ export async function searchCommand(argv: string[]): Promise<number> {
  */
 function wholeRunReport(original: Cnf, problem: SearchProblem, K: number, s: SolutionsFound | undefined, plan: SearchPlan | undefined, o: CliOracleOptions) {
   const built = s?.M !== undefined ? successAfterIterations(problem.n, s.M, K) : undefined;
-  const costs = searchCosts(original, K, built?.success ?? 0, o.uncompute, { register: o.register, structure: o.structure });
+  const costOptions = { register: o.register, structure: o.structure };
+  // Wide and lean always; the circuit's own construction beside them when it is another one.
+  const other = o.construction !== undefined && o.construction !== "wide" && o.construction !== "lean" ? o.construction : undefined;
+  const costs = [
+    ...searchCosts(original, K, built?.success ?? 0, o.uncompute, costOptions),
+    ...(other !== undefined ? [constructionSearchCost(original, other, K, built?.success ?? 0, o.uncompute, costOptions)] : []),
+  ];
   const runsLog2 = built ? -built.log2Success : Infinity;
   return {
     variables: original.variables,
@@ -572,7 +580,7 @@ function wholeRunReport(original: Cnf, problem: SearchProblem, K: number, s: Sol
       expected_toffoli_count: jsonReal(c.expected_toffoli_count),
       expected_depth: jsonReal(c.expected_depth),
     })),
-    // The circuit's construction (its costs above are those of wide and lean).
+    // The circuit's construction (costed above beside wide and lean when it is another one).
     construction: constructionLabel(o),
     ...registerJson(problem),
   };

@@ -208,3 +208,22 @@ describe("budgets with the free register and structure", { timeout: 120_000 }, (
     expect(tight.stderr).toMatch(/^examples\/launch-rota\.cnf: error: no search circuit fits in 12 qubits; the smallest needs \d+ .*; hint: give --max-qubits \d+ or more$/m);
   });
 });
+
+describe("search --report with a construction", { timeout: 120_000 }, () => {
+  it("costs the circuit's own construction beside wide and lean, with the oracle's figures", () => {
+    const rep = join(dir, "search-blocks.json");
+    const r = cli(["search", EX, "--construction", "blocks-2", "--iterations", "1", "--basis", "clifford+t", "-o", join(dir, "s.qasm"), "--report", rep]);
+    expect(r.code, r.stderr).toBe(0);
+    const report = JSON.parse(readFileSync(rep, "utf8"));
+    expect(report.construction).toBe("blocks-2");
+    expect(report.costs.map((c: { strategy: string }) => c.strategy)).toEqual(["wide", "lean", "blocks"]);
+    const row = report.costs[2];
+    expect(row.construction).toBe("blocks-2");
+    // The same oracle compiled alone (search's default register is the free one).
+    const orep = join(dir, "oracle-blocks.json");
+    expect(cli(["oracle", EX, "--register", "free", "--construction", "blocks-2", "--basis", "clifford+t", "-o", join(dir, "o.qasm"), "--report", orep]).code).toBe(0);
+    const oracle = JSON.parse(readFileSync(orep, "utf8"));
+    expect(row.oracle.t_count).toBe(oracle.t_count);
+    expect(row.oracle.qubits).toBe(oracle.qubits.total);
+  });
+});
