@@ -91,7 +91,8 @@ ${registerHelp("free")}
 ${SEARCH_ORACLE_HELP}
   --report FILE               the whole-run report (JSON): plan, costs of one oracle, one diffusion and the
                               whole circuit of K iterations, totals over the runs expected at the success
-                              probability of K iterations (sin^2((2K+1) theta)), wide and lean side by side;
+                              probability of K iterations (sin^2((2K+1) theta)), wide and lean side by side
+                              (and the circuit's own construction when it is another one);
                               register_mode, structure, register and completion as in clausegate plan --json
 ${SHOTS_HELP}
   -h, --help                  show this help
