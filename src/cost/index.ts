@@ -266,6 +266,13 @@ export type CountEngine = "auto" | "blocks" | "instances";
 
 /** Clauses from which "auto" counts a lean oracle by blocks (below, the engine is as fast). */
 const BLOCKS_FROM = 64;
+/**
+ * "auto" uses the block counter only when this is true. Off: a property test found a formula on
+ * which it counts 2 CNOTs fewer than the built circuit (test/cost/blocks.test.ts, the known
+ * mismatch), so the exact engine counts every lean row until that is fixed (`engine: "blocks"`
+ * still selects it, for the bench and the tests).
+ */
+const BLOCKS_IN_AUTO = false;
 
 /**
  * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
@@ -338,7 +345,7 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // until the mark.
   const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
   const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount, records, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
-  if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || s.f.clauseStart.length - 1 >= BLOCKS_FROM)) {
+  if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || (BLOCKS_IN_AUTO && s.f.clauseStart.length - 1 >= BLOCKS_FROM))) {
     const blocks = new LeanBlocks(s.f, s.kind, mode);
     const r = new BlockCounter(blocks, { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run();
     if (r !== null) return r;
