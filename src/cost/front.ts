@@ -15,6 +15,7 @@ import {
 } from "../synth/construction.js";
 import { planOracle, synthesize, type OracleKind, type OraclePlan, type RegisterMode, type SimplifiedCnf } from "../synth/index.js";
 import { builtCounts } from "./built.js";
+import type { CostRow } from "./index.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { lastUses, leanOracle, replayLogical } from "./sources.js";
@@ -288,26 +289,10 @@ export function chooseAmong(costs: readonly ConstructionCost[], maxQubits: numbe
   return { ok: false, smallestQubits: smallest.qubits, smallest };
 }
 
-/** A cost-table row of a construction: its Clifford+T figures and the Toffolis of its toffoli basis. */
-export interface ConstructionRow {
+/** A cost-table row of a construction: a {@link CostRow}'s figures, named by construction instead of strategy. */
+export interface ConstructionRow extends Omit<CostRow, "strategy"> {
   /** The construction, parameters included. */
   readonly construction: string;
-  /** How temporary ANDs are uncomputed. */
-  readonly uncompute: Uncompute;
-  /** Qubits of the Clifford+T circuit. */
-  readonly qubits: number;
-  /** Toffolis of the toffoli-basis circuit. */
-  readonly toffoli_count: number;
-  /** T gates. */
-  readonly t_count: number;
-  /** T-depth. */
-  readonly t_depth: number;
-  /** CX plus CZ gates. */
-  readonly cnot_count: number;
-  /** Depth of the Clifford+T circuit. */
-  readonly depth: number;
-  /** False: the figures are upper bounds. */
-  readonly exact: boolean;
 }
 
 /** The row of a counted construction (with these register options), with the Toffolis of its toffoli basis counted too. */
