@@ -6,30 +6,34 @@
  * The engine's result for a stream depends, for each block, only on the block and on what its
  * walks can see: the recent instances on the wires it touches (cancel-inverses looks back at most
  * WINDOW live gates per wire), the pending phase runs and the levels of those wires. So the
- * counting runs as two state machines over the blocks, each with a memo:
+ * counting runs in two passes over the blocks, each a state machine with a memo:
  *
- * 1. Cancellation. The state holds, for every work wire, its instances back to 17 live gates
- *    before the open (last) block, and the open block's instances on its search qubits; older
- *    instances on a search qubit are reached, when a walk needs them, through the chain of blocks
- *    that used the qubit before ("projections", refined on demand: the key first says nothing of
- *    them; a replay whose walk reaches what the key left out asks for more). The state is
- *    interned (the same tails with the same cancelled gates give the same id), so the key of a
- *    block is a few numbers. A key seen before gives the next state, the wires the block's work
- *    qubits get (work-qubit reuse), the final cancelled gates of the block before it (now out of
- *    reach: a later cancellation into it would stop the block counting, see below) and whether the
- *    second cancel-inverses might act. A new key is replayed: a small engine is given the state's
- *    instances as context (engine.preload), the block is put into it, the open block goes through
- *    stage 2, and the next state is read back.
- * 2. Tally (depth, T-depth, merge-phases, counts) of each block once its cancelled gates are
- *    final, over the same per-instance maps as the engine (transfer.ts). Levels are kept relative
- *    to the highest level of the work wires the last block touched (interned with their pending
- *    phase runs); a search qubit's level is stored as a number, and a block's map says how high it
- *    may be without mattering (it enters the key exactly only when it does).
+ * 1. Cancellation. The state holds, for every work wire, its instances back to the third gate
+ *    before the open (last) block that stops every walk (an H, a measurement, a conditioned gate)
+ *    or 17 live gates, whichever comes first, and the open block's instances on its search qubits.
+ *    Older instances on a search qubit are reached, when a walk needs them, through the chain of
+ *    blocks that used the qubit before ("projections", named in the key only when a replay asks:
+ *    the key first says nothing of them, except the newest gate of a qubit the block starts with
+ *    an X on, which that X's walk always reads). Ages up to RECENT blocks are exact in the state;
+ *    older instances are identified by the driver. The state is interned, so the key of a block is
+ *    a few numbers. A key seen before gives the next state, the wires the block's work qubits get
+ *    (work-qubit reuse), the cancelled gates of the block before it, the cancellations into older
+ *    blocks (a wire left idle for many blocks is taken up again) and the stage-2 walks redone. A
+ *    new key is replayed: a small engine is given the state's instances as context
+ *    (engine.preload), the block is put into it, and every instance a cancellation may let walk
+ *    further goes through stage 2 again (engine.restage); the latest walk of a gate is the one
+ *    that counts, as the engine's single stage 2 at the end would see it.
+ * 2. Tally (depth, T-depth, merge-phases, counts) of each block, in circuit order, over its final
+ *    cancelled gates and the same per-instance maps as the engine (transfer.ts). Levels are kept
+ *    relative to the highest level of the work wires the last block touched (interned with their
+ *    pending phase runs); a search qubit's level is stored as a number, and a block's map says how
+ *    high it may be without mattering (it enters the key exactly only when it does).
  *
  * Exactness: nothing is guessed. A replay sees everything the engine would see for that block,
- * or says what it misses and is done again with more. When a cancellation would reach an instance
- * of a block already tallied, the block counting stops (`null`) and the caller counts with the
- * engine instead.
+ * or says what it misses and is done again with more. Where it cannot go on (a walk reaching the
+ * end of a work wire's kept tail, a cancellation into a projected instance) or when blocks rarely
+ * repeat (more replays than REPLAY_SHARE of the blocks), the block counting stops (`null`) and the
+ * caller counts with the engine instead.
  */
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { Interner, KeyTable } from "./keyTable.js";
