@@ -9,7 +9,7 @@ import { lower, type Basis, type Uncompute } from "./passes/lower.js";
 import { DEFAULT_PIPELINE } from "./passes/registry.js";
 import { reuseWork } from "./passes/reuseWork.js";
 import { runPasses } from "./passes/runner.js";
-import { diffusionCircuit, searchAround } from "./search/build.js";
+import { diffusionCircuit, searchAround } from "./synth/search.js";
 import { completeAssignment, type Completion } from "./structure/completion.js";
 import {
   constructionName, parseConstruction, planOracle, synthesizePlanned, type Construction, type OracleKind, type OraclePlan, type RegisterMode,

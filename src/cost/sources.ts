@@ -226,7 +226,7 @@ function markOver(ok: Int32Array, kind: OracleKind, target: number, sink: Logica
   else sink.mcx(ok, target, false);
 }
 
-/** search/build.ts's diffusion over qubits 0..n-1. */
+/** synth/search.ts's diffusion over qubits 0..n-1. */
 export function diffusionOps(n: number, sink: LogicalSink): void {
   if (n === 0) return;
   for (let q = 0; q < n; q++) sink.single(T_H, q, false);
@@ -244,7 +244,7 @@ export function phaseOracleOps(f: SimplifiedCnf, strategy: Strategy): OracleOps 
   return (sink, ids, progress) => wideOracle(f, "phase", sink, ids, -1, progress);
 }
 
-/** search/build.ts's search circuit: H on all, K times (oracle, diffusion), then the measurements. */
+/** synth/search.ts's search circuit: H on all, K times (oracle, diffusion), then the measurements. */
 export function searchOps(n: number, oracle: OracleOps, iterations: number, measure: boolean, sink: LogicalSink, ids: VirtualIds, progress?: Fraction): void {
   for (let q = 0; q < n; q++) sink.single(T_H, q, false);
   for (let i = 0; i < iterations; i++) {

@@ -6,7 +6,7 @@ import { randomKSat } from "../helpers/formulas.js";
 import { cnfFromClauses, compileOracle, compileSearch, costTable, countCircuit, oracleResources, searchCosts, type Cnf } from "../helpers/lib.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
 import { planOracle, synthesizePlan } from "../../dist/src/synth/index.js";
-import { diffusionCircuit } from "../../dist/src/search/build.js";
+import { diffusionCircuit } from "../../dist/src/synth/search.js";
 
 const formula = fc.integer({ min: 1, max: 7 }).chain((n) =>
   fc.record({

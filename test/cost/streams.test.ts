@@ -1,13 +1,13 @@
 // The streams the counting engine replays are those of the pipeline: the lean oracle generated
 // clause by clause is the logical circuit synth/lean.ts builds, the search stream is
-// search/build.ts's circuit, the replayed lowering emits the very gates passes/lower.ts emits, and
+// synth/search.ts's circuit, the replayed lowering emits the very gates passes/lower.ts emits, and
 // cost/built.ts's pipeline builds the circuits compileOracle builds. Work qubits are compared up to
 // renaming: the streams give a work qubit's id back when its span ends.
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { cnfFromClauses, compileOracle, type Circuit } from "../helpers/lib.js";
 import { simplify, synthesize } from "../../dist/src/synth/index.js";
-import { searchCircuit } from "../../dist/src/search/build.js";
+import { searchCircuit } from "../../dist/src/synth/search.js";
 import { lower } from "../../dist/src/passes/lower.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
 import { LoweringStream, VirtualIds, type InstanceSink, type LogicalSink } from "../../dist/src/cost/lowering.js";
@@ -162,7 +162,7 @@ describe("the streams are the pipeline's", () => {
     );
   });
 
-  it("the search stream is search/build.ts's logical circuit, for both strategies", () => {
+  it("the search stream is synth/search.ts's logical circuit, for both strategies", () => {
     fc.assert(
       fc.property(formula, fc.integer({ min: 0, max: 3 }), fc.constantFrom("wide", "lean") as fc.Arbitrary<"wide" | "lean">, ({ n, clauses }, k, strategy) => {
         const f = simplify(cnfFromClauses(n, clauses));
@@ -174,7 +174,7 @@ describe("the streams are the pipeline's", () => {
     );
   });
 
-  it("the recorder (costs built instead of counted) builds search/build.ts's circuit from the stream", () => {
+  it("the recorder (costs built instead of counted) builds synth/search.ts's circuit from the stream", () => {
     fc.assert(
       fc.property(formula, fc.integer({ min: 0, max: 2 }), fc.constantFrom("wide", "lean") as fc.Arbitrary<"wide" | "lean">, ({ n, clauses }, k, strategy) => {
         const f = simplify(cnfFromClauses(n, clauses));

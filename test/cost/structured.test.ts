@@ -6,7 +6,7 @@ import { adder, multiplier, randomCircuit, randomXorRows, xorSystem, type Encode
 import { randomKSat } from "../helpers/formulas.js";
 import { cnfFromClauses, compileOracle, compileSearch, costTable, countCircuit, oracleResources, searchCosts, type Circuit, type Cnf } from "../helpers/lib.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
-import { diffusionCircuit } from "../../dist/src/search/build.js";
+import { diffusionCircuit } from "../../dist/src/synth/search.js";
 
 const cnfOf = (f: Encoded): Cnf => cnfFromClauses(f.variables, f.clauses);
 type Register = "full" | "free";

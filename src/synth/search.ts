@@ -5,9 +5,9 @@
  * qubit being 0), H on all, and a global phase of -1 that makes the reflection exact.
  */
 import { CircuitBuilder, K, neg, pos, type Circuit } from "../ir/circuit.js";
-import type { SimplifiedCnf } from "../synth/simplify.js";
-import { synthesize, type Strategy } from "../synth/index.js";
-import { synthesizeConstruction, type Construction } from "../synth/construction.js";
+import type { SimplifiedCnf } from "./simplify.js";
+import { synthesize, type Strategy } from "./index.js";
+import { synthesizeConstruction, type Construction } from "./construction.js";
 
 /** Appends the diffusion (reflection about the uniform superposition) over qubits 0..n-1. */
 export function diffusion(b: CircuitBuilder, n: number): void {
