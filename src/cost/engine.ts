@@ -169,19 +169,27 @@ export class CountingEngine implements InstanceSink {
 
   // Wires.
   /**
-   * One record per wire, ws ints from w * ws, so that what an instance needs of a wire is one or
-   * two cache lines (a wide oracle has millions of wires, visited in no order): + 0 its last
-   * instance (-1: none), + 1 that instance's slot on it, + 2 instances on it so far (see evict),
-   * + 3 its pending phase run (merge-phases), + 4..5 its level and + 6..7 its T-level (float64,
-   * through wbf), then `depth` copies of instances that left the ring, 8 ints each, newest first
-   * (+ 0 id, -1 none; + 1 template; + 2..4 wires; + 5 cancelled gates; + 6 previous instance on
-   * the wire; + 7 its slot): a walk along a wire seldom used may need the last few instances on
-   * it long after they left.
+   * Per-wire columns, in one buffer (a wide oracle has millions of wires): the last instance on
+   * the wire (-1: none) and its slot there, the instances on it so far (only with more than one
+   * copy kept: see evict), its pending phase run (merge-phases), its level and T-level. With one
+   * copy, 54 bytes per wire (3.2 million wires for a million clauses' wide oracle: 175 MB,
+   * against 64 bytes in whole records before).
    */
-  private wb: Int32Array;
-  private wbf: Float64Array;
-  /** Ints per wire record in wb. */
-  private readonly ws: number;
+  private lastId = new Int32Array(0);
+  private lastSlot = new Uint8Array(0);
+  private seq = new Int32Array(0);
+  private pend = new Uint8Array(0);
+  private lvl = new Float64Array(0);
+  private tlvl = new Float64Array(0);
+  /**
+   * `depth` copies per wire of instances that left the ring, 8 ints each, newest first (+ 0 id,
+   * -1 none; + 1 template; + 2..4 wires; + 5 cancelled gates; + 6 previous instance on the wire;
+   * + 7 its slot), cs ints per wire: a walk along a wire seldom used may need the last few
+   * instances on it long after they left.
+   */
+  private cp = new Int32Array(0);
+  /** Ints per wire in cp. */
+  private readonly cs: number;
   /** Copies kept per wire. */
   private readonly depth: number;
 
@@ -236,9 +244,7 @@ export class CountingEngine implements InstanceSink {
     this.rRecheck = new Int32Array(0);
     this.growRing(this.maxLag === Infinity ? (opts.ring ?? 4096) : 0);
     this.depth = opts.history ?? 1;
-    this.ws = 8 + 8 * this.depth;
-    this.wb = new Int32Array(0);
-    this.wbf = new Float64Array(0);
+    this.cs = 8 * this.depth;
     this.wireMemory = opts.wireMemory ?? null;
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
     this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
@@ -280,47 +286,84 @@ export class CountingEngine implements InstanceSink {
     }
   }
 
+  /** Bytes of the wire columns for `cap` wires. */
+  private wireBytes(cap: number): number {
+    return cap * (8 + 8 + 4 + (this.depth > 1 ? 4 : 0) + 4 * this.cs + 1 + 1);
+  }
+
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
     // Growing by half: these tables are the engine's largest (a wide oracle has a wire per literal).
     const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
     const held = this.wireMemory?.buffer ?? null;
     let buf: ArrayBuffer;
-    let fresh: boolean;
-    if (this.wb.length > 0 && this.wb.buffer.byteLength >= cap * this.ws * 4) {
-      // Room left in the buffer this run took from an earlier one.
-      buf = this.wb.buffer as ArrayBuffer;
-      fresh = false;
-    } else if (this.wireCap === 0 && held !== null && held.byteLength >= cap * this.ws * 4) {
-      // The buffer of an earlier run: the records used are cleared below, the rest when needed.
+    if (this.wireCap === 0 && held !== null && held.byteLength >= this.wireBytes(cap)) {
+      // The buffer of an earlier run (every column is set below).
       buf = held;
-      fresh = false;
     } else {
-      buf = new ArrayBuffer(cap * this.ws * 4);
-      fresh = true;
+      buf = new ArrayBuffer(this.wireBytes(cap));
       if (this.wireMemory !== null) this.wireMemory.buffer = buf;
     }
-    const wb = new Int32Array(buf, 0, cap * this.ws);
-    if (wb !== this.wb && this.wb.length > 0 && this.wb.buffer !== buf) wb.set(this.wb);
-    // New records: "none" marks (a buffer of an earlier run is cleared first; a new one is zeroed).
-    if (!fresh) wb.fill(0, this.wireCap * this.ws, cap * this.ws);
-    for (let w = this.wireCap; w < cap; w++) {
-      const o = w * this.ws;
-      wb[o] = -1;
-      for (let i = 0; i < this.depth; i++) wb[o + 8 + 8 * i] = -1;
+    // One buffer, carved into columns (wider elements first, for alignment).
+    let at = 0;
+    const lvl = new Float64Array(buf, at, cap);
+    at += 8 * cap;
+    const tlvl = new Float64Array(buf, at, cap);
+    at += 8 * cap;
+    const lastId = new Int32Array(buf, at, cap);
+    at += 4 * cap;
+    // Instances per wire are read only to keep more than one copy (see evict).
+    const seqCap = this.depth > 1 ? cap : 0;
+    const seq = new Int32Array(buf, at, seqCap);
+    at += 4 * seqCap;
+    const cp = new Int32Array(buf, at, cap * this.cs);
+    at += 4 * cap * this.cs;
+    const lastSlot = new Uint8Array(buf, at, cap);
+    at += cap;
+    const pend = new Uint8Array(buf, at, cap);
+    const old = this.wireCap;
+    if (old > 0) {
+      lvl.set(this.lvl);
+      tlvl.set(this.tlvl);
+      lastId.set(this.lastId);
+      if (seqCap > 0) seq.set(this.seq);
+      cp.set(this.cp);
+      lastSlot.set(this.lastSlot);
+      pend.set(this.pend);
     }
-    this.wb = wb;
-    this.wbf = new Float64Array(buf, 0, (cap * this.ws) >> 1);
+    // New wires: no instance, no copies ("none" marks), level 0, no pending run.
+    lvl.fill(0, old);
+    tlvl.fill(0, old);
+    lastId.fill(-1, old);
+    if (seqCap > 0) seq.fill(0, old);
+    if (this.depth === 1) cp.fill(-1, old * this.cs);
+    else {
+      cp.fill(0, old * this.cs);
+      for (let i = old * this.cs; i < cap * this.cs; i += 8) cp[i] = -1;
+    }
+    lastSlot.fill(0, old);
+    pend.fill(0, old);
+    this.lvl = lvl;
+    this.tlvl = tlvl;
+    this.lastId = lastId;
+    this.seq = seq;
+    this.cp = cp;
+    this.lastSlot = lastSlot;
+    this.pend = pend;
     this.wireCap = cap;
   }
 
-
-  /** An empty wire record: no instance, no copies. */
-  private clearWire(wb: Int32Array, w: number): void {
-    const o = w * this.ws;
-    wb.fill(0, o, o + this.ws);
-    wb[o] = -1;
-    for (let i = 0; i < this.depth; i++) wb[o + 8 + 8 * i] = -1;
+  /** An empty wire: no instance, no copies. */
+  private clearWire(w: number): void {
+    this.lvl[w] = 0;
+    this.tlvl[w] = 0;
+    this.lastId[w] = -1;
+    if (this.depth > 1) this.seq[w] = 0;
+    this.lastSlot[w] = 0;
+    this.pend[w] = 0;
+    const b = w * this.cs;
+    this.cp.fill(0, b, b + this.cs);
+    for (let i = 0; i < this.depth; i++) this.cp[b + 8 * i] = -1;
   }
 
   private wireFor(v: number): number {
@@ -370,14 +413,15 @@ export class CountingEngine implements InstanceSink {
     const slots = SLOTS[t]!;
     for (let s = 0; s < slots; s++) {
       const w = this.rW[x * 3 + s]!;
-      const p = this.wb[w * this.ws]!;
+      const p = this.lastId[w]!;
+      const ps = this.lastSlot[w]!;
       this.rPrev[x * 3 + s] = p;
-      this.rPrevSlot[x * 3 + s] = this.wb[w * this.ws + 1]!;
+      this.rPrevSlot[x * 3 + s] = ps;
       this.rNext[x * 3 + s] = -1;
-      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + this.wb[w * this.ws + 1]!] = id;
-      this.wb[w * this.ws] = id;
-      this.wb[w * this.ws + 1] = s;
-      this.rSeq[x * 3 + s] = ++this.wb[w * this.ws + 2]!;
+      if (p >= this.ringLow) this.rNext[(p & this.ringMask) * 3 + ps] = id;
+      this.lastId[w] = id;
+      this.lastSlot[w] = s;
+      if (this.depth > 1) this.rSeq[x * 3 + s] = ++this.seq[w]!;
     }
     if (this.optimize) this.cancel(id, x);
     this.rMask1[x] = this.rDead[x]!;
@@ -409,14 +453,14 @@ export class CountingEngine implements InstanceSink {
     for (let w = 0; w < wires; w++) {
       if (this.levels && this.optimize) {
         // merge-phases' last flush, in qubit order.
-        const run = finalRun(this.wb[w * this.ws + 3]!);
-        this.wbf[((w * this.ws) >> 1) + 2]! += run.gates;
-        this.wbf[((w * this.ws) >> 1) + 3]! += run.tGates;
+        const run = finalRun(this.pend[w]!);
+        this.lvl[w]! += run.gates;
+        this.tlvl[w]! += run.tGates;
         this.tCount += run.tGates;
-        this.wb[w * this.ws + 3] = 0;
+        this.pend[w] = 0;
       }
-      depth = Math.max(depth, this.wbf[((w * this.ws) >> 1) + 2]!);
-      tDepth = Math.max(tDepth, this.wbf[((w * this.ws) >> 1) + 3]!);
+      depth = Math.max(depth, this.lvl[w]!);
+      tDepth = Math.max(tDepth, this.tlvl[w]!);
     }
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
@@ -472,13 +516,14 @@ export class CountingEngine implements InstanceSink {
         continue;
       }
       const w = this.rW[x * 3 + s]!;
-      const p = this.wb[w * this.ws]!;
+      const p = this.lastId[w]!;
+      const ps = this.lastSlot[w]!;
       this.rPrev[x * 3 + s] = p;
-      this.rPrevSlot[x * 3 + s] = this.wb[w * this.ws + 1]!;
-      if (p >= 0) this.rNext[(p & this.ringMask) * 3 + this.wb[w * this.ws + 1]!] = id;
-      this.wb[w * this.ws] = id;
-      this.wb[w * this.ws + 1] = s;
-      this.rSeq[x * 3 + s] = ++this.wb[w * this.ws + 2]!;
+      this.rPrevSlot[x * 3 + s] = ps;
+      if (p >= 0) this.rNext[(p & this.ringMask) * 3 + ps] = id;
+      this.lastId[w] = id;
+      this.lastSlot[w] = s;
+      if (this.depth > 1) this.rSeq[x * 3 + s] = ++this.seq[w]!;
     }
     return id;
   }
@@ -490,7 +535,7 @@ export class CountingEngine implements InstanceSink {
   resetReplay(base: number, truncated: Uint8Array): void {
     this.base = base;
     if (base + 64 > this.wireCap) this.growWires(base + 64);
-    for (let w = 0; w < base; w++) this.clearWire(this.wb, w);
+    for (let w = 0; w < base; w++) this.clearWire(w);
     this.nextId = 0;
     this.done = 0;
     this.ringLow = 0;
@@ -569,8 +614,8 @@ export class CountingEngine implements InstanceSink {
 
   /** The last instance on wire w (-1: none) and its slot there, as id * 4 + slot. */
   lastOn(w: number): number {
-    const id = this.wb[w * this.ws]!;
-    return id < 0 ? -1 : id * 4 + this.wb[w * this.ws + 1]!;
+    const id = this.lastId[w]!;
+    return id < 0 ? -1 : id * 4 + this.lastSlot[w]!;
   }
 
   /** The instance before `id` on the wire of its slot s, as id * 4 + slot (-1: none). */
@@ -607,28 +652,28 @@ export class CountingEngine implements InstanceSink {
       // Kept when fewer than `depth` instances came after it on w (with one copy: when it is the
       // last on w, which its link says without reading w's record), or the next one on w is not
       // through stage 2 yet (whose walks start here).
-      const keep = (d === 1 ? next === -1 : this.wb[w * this.ws + 2]! - this.rSeq[x * 3 + s]! < d) || next >= this.done;
+      const keep = (d === 1 ? next === -1 : this.seq[w]! - this.rSeq[x * 3 + s]! < d) || next >= this.done;
       if (!keep) continue;
       // Newest first: shift the older copies of this wire down.
-      const wb = this.wb;
-      const b = w * this.ws + 8;
-      if (d > 1) wb.copyWithin(b + 8, b, b + 8 * (d - 1));
-      wb[b] = old;
-      wb[b + 1] = t;
-      wb[b + 2] = this.rW[x * 3]!;
-      wb[b + 3] = this.rW[x * 3 + 1]!;
-      wb[b + 4] = this.rW[x * 3 + 2]!;
-      wb[b + 5] = this.rDead[x]!;
-      wb[b + 6] = this.rPrev[x * 3 + s]!;
-      wb[b + 7] = this.rPrevSlot[x * 3 + s]!;
+      const cp = this.cp;
+      const b = w * this.cs;
+      if (d > 1) cp.copyWithin(b + 8, b, b + 8 * (d - 1));
+      cp[b] = old;
+      cp[b + 1] = t;
+      cp[b + 2] = this.rW[x * 3]!;
+      cp[b + 3] = this.rW[x * 3 + 1]!;
+      cp[b + 4] = this.rW[x * 3 + 2]!;
+      cp[b + 5] = this.rDead[x]!;
+      cp[b + 6] = this.rPrev[x * 3 + s]!;
+      cp[b + 7] = this.rPrevSlot[x * 3 + s]!;
     }
   }
 
-  /** Where instance `id` is kept, seen from wire w: ring index, -2 - the index of its copy in wb, or -1. */
+  /** Where instance `id` is kept, seen from wire w: ring index, -2 - the index of its copy in cp, or -1. */
   private locate(id: number, w: number): number {
     if (id >= this.ringLow) return id & this.ringMask;
-    const b = w * this.ws + 8;
-    for (let i = 0; i < this.depth; i++) if (this.wb[b + 8 * i] === id) return -2 - (b + 8 * i);
+    const b = w * this.cs;
+    for (let i = 0; i < this.depth; i++) if (this.cp[b + 8 * i] === id) return -2 - (b + 8 * i);
     return -1;
   }
 
@@ -661,7 +706,7 @@ export class CountingEngine implements InstanceSink {
         const hw = this.rW[x * 3 + G_OP[e * 3 + G_NQ[e]! - 1]!]!;
         const loc = this.locate(hid, hw);
         if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
-        else this.wb[3 - loc] = this.wb[3 - loc]! | (1 << hp);
+        else this.cp[3 - loc] = this.cp[3 - loc]! | (1 << hp);
         this.rDead[x] = this.rDead[x]! | (1 << p);
         if (hid < this.done) {
           this.lagShort = true;
@@ -707,9 +752,9 @@ export class CountingEngine implements InstanceSink {
     let slot = ts;
     let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
     for (;;) {
-      const ct = loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!;
+      const ct = loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!;
       const list = SLOT_GATES[ct * 3 + slot]!;
-      const dead = loc >= 0 ? this.rDead[loc]! : this.wb[3 - loc]!;
+      const dead = loc >= 0 ? this.rDead[loc]! : this.cp[3 - loc]!;
       for (; k >= 0; k--) {
         const hp = list[k]!;
         if ((dead >>> hp) & 1) continue;
@@ -727,12 +772,12 @@ export class CountingEngine implements InstanceSink {
         if (!this.commute(x, e, loc, f)) return -1;
       }
       // The previous instance on this wire.
-      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.wb[4 - loc]!;
+      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.cp[4 - loc]!;
       if (prev < 0) {
         if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
         return -1;
       }
-      const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.wb[5 - loc]!;
+      const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.cp[5 - loc]!;
       const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
       if (pl === -1) {
         this.unavailable();
@@ -741,7 +786,7 @@ export class CountingEngine implements InstanceSink {
       loc = pl;
       cur = prev;
       slot = ps;
-      k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!) * 3 + slot]!.length - 1;
+      k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!) * 3 + slot]!.length - 1;
     }
   }
 
@@ -763,7 +808,7 @@ export class CountingEngine implements InstanceSink {
     if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
     const nq = G_NQ[e]!;
     if (G_NQ[f] !== nq) return false;
-    const wa = loc >= 0 ? this.rW : this.wb;
+    const wa = loc >= 0 ? this.rW : this.cp;
     const xb = loc >= 0 ? loc * 3 : -loc;
     for (let i = 0; i < nq; i++) {
       if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
@@ -774,7 +819,7 @@ export class CountingEngine implements InstanceSink {
   /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
   private commute(x: number, e: number, loc: number, f: number): boolean {
     const nq = G_NQ[e]!;
-    const wa = loc >= 0 ? this.rW : this.wb;
+    const wa = loc >= 0 ? this.rW : this.cp;
     const xb = loc >= 0 ? loc * 3 : -loc;
     for (let i = 0; i < nq; i++) {
       const s = G_OP[e * 3 + i]!;
@@ -808,9 +853,9 @@ export class CountingEngine implements InstanceSink {
       let slot = s0;
       let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
       for (;;) {
-        const ct = loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!;
+        const ct = loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!;
         const list = SLOT_GATES[ct * 3 + slot]!;
-        const dead = loc >= 0 ? this.rDead[loc]! : this.wb[3 - loc]!;
+        const dead = loc >= 0 ? this.rDead[loc]! : this.cp[3 - loc]!;
         let stop = false;
         for (; k >= 0; k--) {
           const xp = list[k]!;
@@ -827,12 +872,12 @@ export class CountingEngine implements InstanceSink {
           if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
         }
         if (stop || cur <= hid) break;
-        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.wb[4 - loc]!;
+        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.cp[4 - loc]!;
         if (prev < 0) {
           if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
           break;
         }
-        const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.wb[5 - loc]!;
+        const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.cp[5 - loc]!;
         const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
         if (pl === -1) {
           this.unavailable();
@@ -841,7 +886,7 @@ export class CountingEngine implements InstanceSink {
         loc = pl;
         cur = prev;
         slot = ps;
-        k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.wb[-1 - loc]!) * 3 + slot]!.length - 1;
+        k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!) * 3 + slot]!.length - 1;
       }
     }
     return true;
@@ -892,7 +937,8 @@ export class CountingEngine implements InstanceSink {
     const w0 = this.rW[x * 3]!;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
     const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
-    const tr = transferOf(t, dead, slots > 0 ? this.wb[w0 * this.ws + 3]! : 0, w1 >= 0 ? this.wb[w1 * this.ws + 3]! : 0, w2 >= 0 ? this.wb[w2 * this.ws + 3]! : 0, this.optimize);
+    const pend = this.pend;
+    const tr = transferOf(t, dead, slots > 0 ? pend[w0]! : 0, w1 >= 0 ? pend[w1]! : 0, w2 >= 0 ? pend[w2]! : 0, this.optimize);
     this.tCount += tr.tCount;
     this.cnotCount += tr.cnotCount;
     this.toffoliCount += tr.toffoliCount;
@@ -900,17 +946,14 @@ export class CountingEngine implements InstanceSink {
     this.phaseGates += tr.phaseGates;
     if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
     if (slots === 0) return;
-    const wl = this.wbf;
-    // Float64 indices of the wires' levels (T-level next).
-    const f0 = ((w0 * this.ws) >> 1) + 2;
-    const f1 = w1 >= 0 ? ((w1 * this.ws) >> 1) + 2 : -1;
-    const f2 = w2 >= 0 ? ((w2 * this.ws) >> 1) + 2 : -1;
-    const l0 = wl[f0]!;
-    const l1 = f1 >= 0 ? wl[f1]! : 0;
-    const l2 = f2 >= 0 ? wl[f2]! : 0;
-    const t0 = wl[f0 + 1]!;
-    const t1 = f1 >= 0 ? wl[f1 + 1]! : 0;
-    const t2 = f2 >= 0 ? wl[f2 + 1]! : 0;
+    const lv = this.lvl;
+    const tv = this.tlvl;
+    const l0 = lv[w0]!;
+    const l1 = w1 >= 0 ? lv[w1]! : 0;
+    const l2 = w2 >= 0 ? lv[w2]! : 0;
+    const t0 = tv[w0]!;
+    const t1 = w1 >= 0 ? tv[w1]! : 0;
+    const t2 = w2 >= 0 ? tv[w2]! : 0;
     const lb = this.bitL;
     const tb = this.bitTL;
     if (tr.bit !== null) {
@@ -919,18 +962,18 @@ export class CountingEngine implements InstanceSink {
     }
     const d = tr.d;
     const dt = tr.dt;
-    wl[f0] = maxPlus(d, 0, l0, l1, l2, lb);
-    wl[f0 + 1] = maxPlus(dt, 0, t0, t1, t2, tb);
-    this.wb[w0 * this.ws + 3] = tr.pendOut[0]!;
+    lv[w0] = maxPlus(d, 0, l0, l1, l2, lb);
+    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
+    pend[w0] = tr.pendOut[0]!;
     if (w1 >= 0) {
-      wl[f1] = maxPlus(d, 4, l0, l1, l2, lb);
-      wl[f1 + 1] = maxPlus(dt, 4, t0, t1, t2, tb);
-      this.wb[w1 * this.ws + 3] = tr.pendOut[1]!;
+      lv[w1] = maxPlus(d, 4, l0, l1, l2, lb);
+      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
+      pend[w1] = tr.pendOut[1]!;
     }
     if (w2 >= 0) {
-      wl[f2] = maxPlus(d, 8, l0, l1, l2, lb);
-      wl[f2 + 1] = maxPlus(dt, 8, t0, t1, t2, tb);
-      this.wb[w2 * this.ws + 3] = tr.pendOut[2]!;
+      lv[w2] = maxPlus(d, 8, l0, l1, l2, lb);
+      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
+      pend[w2] = tr.pendOut[2]!;
     }
   }
 }
