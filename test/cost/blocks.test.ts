@@ -47,14 +47,22 @@ function sameAsEngine(cnf: Cnf, c: Combo, label: string): void {
   for (const fig of FIGURES) expect(r[fig], `${fig}, ${JSON.stringify(c)}, ${label}`).toBe(byEngine[fig]);
 }
 
-function sameAsBuilt(cnf: Cnf, c: Combo, label: string): void {
-  const { r } = byBlocks(cnf, c);
-  // The block counter counts the clause construction (structure off).
+/** The built circuit's figures (the block counter counts the clause construction: structure off). */
+function builtFigures(cnf: Cnf, c: Combo): Record<string, number> {
   const circuit = compileOracle(cnf, { kind: c.kind, strategy: "lean", basis: c.basis, uncompute: c.uncompute, optimize: c.optimize, structure: false }).circuit;
   const k = countCircuit(circuit);
-  const built: Record<string, number> = { qubits: circuit.qubits, tCount: k.tCount, tDepth: k.tDepth, cnotCount: k.cnotCount, toffoliCount: k.toffoliCount, depth: k.depth, measurements: k.measurements };
+  return { qubits: circuit.qubits, tCount: k.tCount, tDepth: k.tDepth, cnotCount: k.cnotCount, toffoliCount: k.toffoliCount, depth: k.depth, measurements: k.measurements };
+}
+
+/** The block counter's figures are the built circuit's; without levels (as the cost table counts Toffolis), its counts are. */
+function sameAsBuilt(cnf: Cnf, c: Combo, label: string, withoutLevels = false): void {
+  const { r } = byBlocks(cnf, c);
+  const built = builtFigures(cnf, c);
   expect(r.exact, `exact, ${JSON.stringify(c)}, ${label}`).toBe(true);
   for (const fig of Object.keys(built)) expect(r[fig], `${fig}, ${JSON.stringify(c)}, ${label}`).toBe(built[fig]);
+  if (!withoutLevels) return;
+  const counts = byBlocks(cnf, c, false).r;
+  for (const fig of ["toffoliCount", "tCount", "cnotCount", "measurements"]) expect(counts[fig], `${fig} without levels, ${JSON.stringify(c)}, ${label}`).toBe(built[fig]);
 }
 
 const literal = (n: number) => fc.integer({ min: 1, max: n }).chain((v) => fc.constantFrom(v, -v));
@@ -82,10 +90,12 @@ const seamy = fc.integer({ min: 2, max: 9 }).chain((n) =>
 /**
  * Small formulas for the seams between blocks: unit clauses (often), narrow and wide clauses (up
  * to 10 literals), a literal repeated within a clause, and clauses sharing literals with the
- * clause before (the same literal or its negation, at the same or another position).
+ * clause before (the same literal or its negation, at the same or another position). The unit
+ * clauses agree with one planted assignment: two opposite ones would make the formula
+ * unsatisfiable at simplification, with no oracle to count.
  */
 const seams = fc.integer({ min: 2, max: 10 }).chain((n) =>
-  fc.array(
+  fc.tuple(fc.array(fc.boolean(), { minLength: n + 1, maxLength: n + 1 }), fc.array(
     fc.record({
       width: fc.oneof(fc.constant(1), fc.integer({ min: 1, max: 3 }), fc.integer({ min: 4, max: 10 })),
       share: fc.array(fc.tuple(fc.nat(9), fc.nat(9), fc.boolean()), { maxLength: 3 }),
@@ -93,13 +103,14 @@ const seams = fc.integer({ min: 2, max: 10 }).chain((n) =>
       lits: fc.array(literal(n), { minLength: 10, maxLength: 10 }),
     }),
     { minLength: 1, maxLength: 20 },
-  ).map((specs) => {
+  )).map(([planted, specs]) => {
     const clauses: number[][] = [];
     for (const s of specs) {
       const c = s.lits.slice(0, s.width);
       const prev = clauses[clauses.length - 1];
       if (prev !== undefined) for (const [from, to, flip] of s.share) if (from < prev.length && to < c.length) c[to] = flip ? -prev[from]! : prev[from]!;
       if (s.repeat !== null && s.repeat[0] < c.length && s.repeat[1] < c.length) c[s.repeat[1]] = c[s.repeat[0]]!;
+      if (c.length === 1) c[0] = planted[Math.abs(c[0]!)] ? Math.abs(c[0]!) : -Math.abs(c[0]!);
       clauses.push(c);
     }
     return { n, clauses };
@@ -138,22 +149,18 @@ describe("the block counter gives the figures of the built circuits", () => {
   // both uncomputations, phase and flag oracles, the optimizer on and off; the toffoli rows are
   // also counted without levels, as the cost table counts them.
   it("property: the block counter's figures are the built circuit's on small formulas with unit, repeated-literal, wide and shared-literal clauses", () => {
+    let counted = 0;
     fc.assert(
       fc.property(seams, ({ n, clauses }) => {
         const cnf = cnfFromClauses(n, clauses);
         if (!LeanBlocks.fits(simplify(cnf))) return;
-        for (const c of COMBOS) {
-          sameAsBuilt(cnf, c, JSON.stringify(clauses));
-          if (c.basis === "toffoli") {
-            const { r } = byBlocks(cnf, c, false);
-            const circuit = compileOracle(cnf, { kind: c.kind, strategy: "lean", basis: c.basis, uncompute: c.uncompute, optimize: c.optimize, structure: false }).circuit;
-            const k = countCircuit(circuit);
-            for (const [fig, v] of [["toffoliCount", k.toffoliCount], ["tCount", k.tCount], ["cnotCount", k.cnotCount]] as const) expect(r[fig], `${fig} without levels, ${JSON.stringify(c)}, ${JSON.stringify(clauses)}`).toBe(v);
-          }
-        }
+        counted++;
+        for (const c of COMBOS) sameAsBuilt(cnf, c, JSON.stringify(clauses), c.basis === "toffoli");
       }),
       { numRuns: 300 },
     );
+    // Not a property that passes by skipping: nearly every formula has an oracle to count.
+    expect(counted).toBeGreaterThan(250);
   });
 
   it("one clause of each width 1..6, alone and repeated with the polarity of one literal flipped", () => {
