@@ -14,9 +14,10 @@
  *    Older instances on a search qubit are reached, when a walk needs them, through the chain of
  *    blocks that used the qubit before ("projections", named in the key only when a replay asks:
  *    the key first says nothing of them, except the newest gate of a qubit the block starts with
- *    an X on, which that X's walk always reads). Ages up to RECENT blocks are exact in the state;
- *    older instances are identified by the driver. The state is interned, so the key of a block is
- *    a few numbers. A key seen before gives the next state, the wires the block's work qubits get
+ *    an X on, which that X's walk always reads; a projection's place among the state's instances,
+ *    in circuit order, is in the key with it: a walk stops at its partner by instance number).
+ *    Ages up to RECENT blocks are exact in the state; older instances are identified by the
+ *    driver. The state is interned, so the key of a block is a few numbers. A key seen before gives the next state, the wires the block's work qubits get
  *    (work-qubit reuse), the cancelled gates of the block before it, the cancellations into older
  *    blocks (a wire left idle for many blocks is taken up again) and the stage-2 walks redone. A
  *    new key is replayed: a small engine is given the state's instances as context
