@@ -14,9 +14,10 @@
  *    Older instances on a search qubit are reached, when a walk needs them, through the chain of
  *    blocks that used the qubit before ("projections", named in the key only when a replay asks:
  *    the key first says nothing of them, except the newest gate of a qubit the block starts with
- *    an X on, which that X's walk always reads). Ages up to RECENT blocks are exact in the state;
- *    older instances are identified by the driver. The state is interned, so the key of a block is
- *    a few numbers. A key seen before gives the next state, the wires the block's work qubits get
+ *    an X on, which that X's walk always reads; a projection's place among the state's instances,
+ *    in circuit order, is in the key with it: a walk stops at its partner by instance number).
+ *    Ages up to RECENT blocks are exact in the state; older instances are identified by the
+ *    driver. The state is interned, so the key of a block is a few numbers. A key seen before gives the next state, the wires the block's work qubits get
  *    (work-qubit reuse), the cancelled gates of the block before it, the cancellations into older
  *    blocks (a wire left idle for many blocks is taken up again) and the stage-2 walks redone. A
  *    new key is replayed: a small engine is given the state's instances as context
@@ -560,6 +561,8 @@ export class BlockCounter {
         }
         fast |= 1 << q;
         key[n++] = tag;
+        // Where the named gate's instance stands among the state's (see projections).
+        key[n++] = this.posOf(b, S, this.qc[vars[q]! * QC + 4]!, this.qc[vars[q]! * QC + 5]!);
         // The other qubits the named gate touches (a Toffoli's second control, a conditioned
         // CZ's partner): which of the state's or the block's qubits they are, if any.
         const at = vars[q]! * QC;
@@ -835,7 +838,7 @@ export class BlockCounter {
 
   private projEntry(kind: number, a: number, s: number, chain: number, t: number, r0: number, r1: number, r2: number, mask: number, block: number, j: number): Projected {
     let e = this.projPool[this.projUsed];
-    if (e === undefined) this.projPool.push((e = { kind, a, s, chain, t, r0, r1, r2, mask, pos: 0, block, j }));
+    if (e === undefined) this.projPool.push((e = { kind, a, s, chain, t, r0, r1, r2, mask, pos: 0, ord: 0, block, j }));
     else {
       e.kind = kind;
       e.a = a;
@@ -847,6 +850,7 @@ export class BlockCounter {
       e.r2 = r2;
       e.mask = mask;
       e.pos = 0;
+      e.ord = 0;
       e.block = block;
       e.j = j;
     }
@@ -920,7 +924,7 @@ export class BlockCounter {
     const proj = this.projections(b, S, pos);
     this.lastProj = proj.entries;
     let n = 2 + k;
-    const need = n + 2 * pos.length + 12 * proj.entries.length + 4;
+    const need = n + 2 * pos.length + 13 * proj.entries.length + 4;
     if (this.keyBuf.length < need) {
       const bigger = new Int32Array(need * 2);
       bigger.set(this.keyBuf.subarray(0, n));
@@ -944,6 +948,7 @@ export class BlockCounter {
         key[n++] = e.r2;
         key[n++] = e.mask;
         key[n++] = e.pos;
+        key[n++] = e.ord;
       }
     }
     return n;
@@ -1050,25 +1055,53 @@ export class BlockCounter {
       more[c] = exhausted && occ < 0 ? 0 : 1;
       if (p.depth > 0 && left > 0) more[c] = 0;
     }
-    // Where an instance known only through its block goes among the state's: it is older than
-    // every state instance on the other wires it touches (a work wire's tail is a suffix of its
-    // history; a qubit's linked state instances are the open block's), so only the state
-    // instances of its own chains, older than it, must come first.
-    for (let c = 0; c < pos.length; c++) {
-      let after = 0;
-      for (let e = entries.length - 1; e >= 0; e--) {
-        const x = entries[e]!;
-        if (x.chain !== c) continue;
-        const first = x.kind === 2 ? entries[x.a]! : x;
-        if (first.kind === 1) after = first.a + 1;
-        else first.pos = Math.max(first.pos, after);
-      }
+    // Where an instance known only through its block goes among the state's, and among the
+    // other projections: exactly where it stands in the circuit. A walk from the block stops at
+    // its partner by instance number (clearBetween, markRecheck): a projection put before an
+    // older state instance it follows (an ancient one on a work wire left idle since) would end
+    // that walk on the wrong side. Both numbers are in the key.
+    let ranked = 0;
+    for (let e = 0; e < entries.length; e++) {
+      const x = entries[e]!;
+      if (x.kind !== 0) continue;
+      x.pos = this.posOf(b, S, x.block, x.j);
+      ranked++;
+    }
+    if (ranked > 0) {
+      const order = this.projOrder;
+      order.length = 0;
+      for (let e = 0; e < entries.length; e++) if (entries[e]!.kind === 0) order.push(entries[e]!);
+      order.sort((u, v) => u.block - v.block || u.j - v.j);
+      for (let r = 0; r < order.length; r++) order[r]!.ord = r;
     }
     this.projResult.entries = entries;
     this.projResult.more = more;
     return this.projResult;
   }
   private readonly projEntries: Projected[] = [];
+  private readonly projOrder: Projected[] = [];
+
+  /**
+   * How many of the state's instances come before instance j of block ob in the circuit (the
+   * state keeps them in circuit order: ancient ones first, identified by the driver, then by age).
+   */
+  private posOf(b: number, S: CState, ob: number, j: number): number {
+    const at = ob * SPAN + j;
+    let lo = 0;
+    let hi = S.n;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      let abs: number;
+      if (S.age[mid] === ANCIENT) abs = this.ancientAbs[mid]!;
+      else {
+        const sb = b - 1 - S.age[mid]!;
+        abs = sb * SPAN + this.trueJ(sb, S.j[mid]!);
+      }
+      if (abs < at) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  }
   private projMore = new Int32Array(16);
   private readonly projResult: { entries: Projected[]; more: Int32Array } = { entries: [], more: new Int32Array(0) };
 
@@ -1151,15 +1184,16 @@ export class BlockCounter {
     };
     const stateWire = (code: number): number => (code >= 0 ? offW + code : code === -1 ? OUT : -2 - code);
     const idOf = new Int32Array(S.n);
-    // Projected instances by insertion point (chains are listed newest first: put oldest first).
+    // Projected instances by insertion point, in circuit order (ord).
     const byPos = new Map<number, number[]>();
-    for (let e = proj.entries.length - 1; e >= 0; e--) {
+    for (let e = 0; e < proj.entries.length; e++) {
       const p = proj.entries[e]!;
       if (p.kind !== 0) continue;
       let l = byPos.get(p.pos);
       if (l === undefined) byPos.set(p.pos, (l = []));
       l.push(e);
     }
+    for (const l of byPos.values()) if (l.length > 1) l.sort((u, v) => proj.entries[u]!.ord - proj.entries[v]!.ord);
     // Instances before the open block had their stage 2: preloaded as if just done (mask1 = dead),
     // so that restage sees only what this block changes. A projection is only its named gates.
     const projId = new Int32Array(proj.entries.length).fill(-1);
@@ -1371,7 +1405,10 @@ interface Projected {
   r2: number;
   /** Kind 0: the gates named (the others are left out). */
   mask: number;
+  /** Kind 0: state instances before it (see projections). */
   pos: number;
+  /** Kind 0: its rank among the key's kind-0 projections, in circuit order. */
+  ord: number;
   block: number;
   j: number;
 }

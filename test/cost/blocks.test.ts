@@ -47,14 +47,22 @@ function sameAsEngine(cnf: Cnf, c: Combo, label: string): void {
   for (const fig of FIGURES) expect(r[fig], `${fig}, ${JSON.stringify(c)}, ${label}`).toBe(byEngine[fig]);
 }
 
-function sameAsBuilt(cnf: Cnf, c: Combo, label: string): void {
-  const { r } = byBlocks(cnf, c);
-  // The block counter counts the clause construction (structure off).
+/** The built circuit's figures (the block counter counts the clause construction: structure off). */
+function builtFigures(cnf: Cnf, c: Combo): Record<string, number> {
   const circuit = compileOracle(cnf, { kind: c.kind, strategy: "lean", basis: c.basis, uncompute: c.uncompute, optimize: c.optimize, structure: false }).circuit;
   const k = countCircuit(circuit);
-  const built: Record<string, number> = { qubits: circuit.qubits, tCount: k.tCount, tDepth: k.tDepth, cnotCount: k.cnotCount, toffoliCount: k.toffoliCount, depth: k.depth, measurements: k.measurements };
+  return { qubits: circuit.qubits, tCount: k.tCount, tDepth: k.tDepth, cnotCount: k.cnotCount, toffoliCount: k.toffoliCount, depth: k.depth, measurements: k.measurements };
+}
+
+/** The block counter's figures are the built circuit's; without levels (as the cost table counts Toffolis), its counts are. */
+function sameAsBuilt(cnf: Cnf, c: Combo, label: string, withoutLevels = false): void {
+  const { r } = byBlocks(cnf, c);
+  const built = builtFigures(cnf, c);
   expect(r.exact, `exact, ${JSON.stringify(c)}, ${label}`).toBe(true);
   for (const fig of Object.keys(built)) expect(r[fig], `${fig}, ${JSON.stringify(c)}, ${label}`).toBe(built[fig]);
+  if (!withoutLevels) return;
+  const counts = byBlocks(cnf, c, false).r;
+  for (const fig of ["toffoliCount", "tCount", "cnotCount", "measurements"]) expect(counts[fig], `${fig} without levels, ${JSON.stringify(c)}, ${label}`).toBe(built[fig]);
 }
 
 const literal = (n: number) => fc.integer({ min: 1, max: n }).chain((v) => fc.constantFrom(v, -v));
@@ -79,13 +87,38 @@ const seamy = fc.integer({ min: 2, max: 9 }).chain((n) =>
   }),
 );
 
+/**
+ * Small formulas for the seams between blocks: unit clauses (often), narrow and wide clauses (up
+ * to 10 literals), a literal repeated within a clause, and clauses sharing literals with the
+ * clause before (the same literal or its negation, at the same or another position). The unit
+ * clauses agree with one planted assignment: two opposite ones would make the formula
+ * unsatisfiable at simplification, with no oracle to count.
+ */
+const seams = fc.integer({ min: 2, max: 10 }).chain((n) =>
+  fc.tuple(fc.array(fc.boolean(), { minLength: n + 1, maxLength: n + 1 }), fc.array(
+    fc.record({
+      width: fc.oneof(fc.constant(1), fc.integer({ min: 1, max: 3 }), fc.integer({ min: 4, max: 10 })),
+      share: fc.array(fc.tuple(fc.nat(9), fc.nat(9), fc.boolean()), { maxLength: 3 }),
+      repeat: fc.option(fc.tuple(fc.nat(9), fc.nat(9)), { freq: 4 }),
+      lits: fc.array(literal(n), { minLength: 10, maxLength: 10 }),
+    }),
+    { minLength: 1, maxLength: 20 },
+  )).map(([planted, specs]) => {
+    const clauses: number[][] = [];
+    for (const s of specs) {
+      const c = s.lits.slice(0, s.width);
+      const prev = clauses[clauses.length - 1];
+      if (prev !== undefined) for (const [from, to, flip] of s.share) if (from < prev.length && to < c.length) c[to] = flip ? -prev[from]! : prev[from]!;
+      if (s.repeat !== null && s.repeat[0] < c.length && s.repeat[1] < c.length) c[s.repeat[1]] = c[s.repeat[0]]!;
+      if (c.length === 1) c[0] = planted[Math.abs(c[0]!)] ? Math.abs(c[0]!) : -Math.abs(c[0]!);
+      clauses.push(c);
+    }
+    return { n, clauses };
+  }),
+);
+
 describe("the block counter gives the figures of the built circuits", () => {
-  // A known mismatch, found by the property test that stood here (random formulas whose clauses
-  // share literals with the one before): 455 CNOTs counted, 457 built. Until it is fixed the block
-  // counter is off in cost's "auto" mode (cost/index.ts, BLOCKS_IN_AUTO), and this test fails
-  // on purpose; when the counter is fixed it passes, vitest reports it, and the property test
-  // comes back.
-  it("cost's default counting (the engine, as long as the block counter is off in auto mode) gives the built figures on the same kind of formulas", () => {
+  it("cost's default counting gives the built figures on formulas whose clauses share literals with the one before", () => {
     fc.assert(
       fc.property(seamy, ({ n, clauses }) => {
         const cnf = cnfFromClauses(n, clauses);
@@ -101,8 +134,33 @@ describe("the block counter gives the figures of the built circuits", () => {
       { numRuns: 10 },
     );
   });
-  it.fails("known mismatch: [[-2,1,3,4,8],[5],[-1],[2,8]], lean, Clifford+T, unitary, phase", () => {
-    sameAsBuilt(cnfFromClauses(8, [[-2, 1, 3, 4, 8], [5], [-1], [2, 8]]), { kind: "phase", basis: "clifford+t", uncompute: "unitary", optimize: true }, "known mismatch");
+
+  // Found by the property test below when it first ran (random formulas whose clauses share
+  // literals with the one before): 455 CNOTs counted, 457 built. A replay put the instances it
+  // knows only through their blocks (the unit clause's and the mark's gates on variable 8) before
+  // an older instance it kept (the first clause's, on a work wire idle since), so that a walk
+  // from the last block stopped at its partner too early and cancelled a CNOT pair across them.
+  it("the mismatch [[-2,1,3,4,8],[5],[-1],[2,8]] (lean, Clifford+T, unitary, phase and flag) is gone", () => {
+    const cnf = cnfFromClauses(8, [[-2, 1, 3, 4, 8], [5], [-1], [2, 8]]);
+    for (const c of COMBOS) sameAsBuilt(cnf, c, "the mismatch of 455 CNOTs");
+  });
+
+  // Every basis the cost table counts (the toffoli basis for Toffolis, Clifford+T for the rest),
+  // both uncomputations, phase and flag oracles, the optimizer on and off; the toffoli rows are
+  // also counted without levels, as the cost table counts them.
+  it("property: the block counter's figures are the built circuit's on small formulas with unit, repeated-literal, wide and shared-literal clauses", () => {
+    let counted = 0;
+    fc.assert(
+      fc.property(seams, ({ n, clauses }) => {
+        const cnf = cnfFromClauses(n, clauses);
+        if (!LeanBlocks.fits(simplify(cnf))) return;
+        counted++;
+        for (const c of COMBOS) sameAsBuilt(cnf, c, JSON.stringify(clauses), c.basis === "toffoli");
+      }),
+      { numRuns: 300 },
+    );
+    // Not a property that passes by skipping: nearly every formula has an oracle to count.
+    expect(counted).toBeGreaterThan(250);
   });
 
   it("one clause of each width 1..6, alone and repeated with the polarity of one literal flipped", () => {
