@@ -22,6 +22,7 @@ import { LeanBlocks } from "./leanBlocks.js";
 import { CountingEngine, type EngineResult, type WireMemory } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, textbookOracle, wideOracle, type Fraction, type OracleOps } from "./sources.js";
+import { StructuredSource } from "./structuredSource.js";
 import { constructionFamily, constructionName, countConstructionOracle, parseConstruction, type ConstructionFamily } from "./front.js";
 
 /** Options of the cost functions. */
@@ -231,29 +232,42 @@ interface Spec {
 }
 
 /**
- * Synthesized logical circuits kept for the runs that share them (wide and textbook oracles, and
- * every structured one: those are replayed from their logical circuit, which is small).
+ * The oracles of one plan: the structured ones as streams generated from their recorded checks
+ * (structuredSource.ts; no circuit is built: a lean one has a qubit per carry and per mirror
+ * copy, millions on a SATLIB planning formula), and built logical circuits only for the small
+ * fallbacks (built instead of counted when the counting cannot be exact).
  */
 class Logicals {
-  private readonly kept = new Map<string, { c: Circuit; last: Int32Array }>();
+  private readonly kept = new Map<string, Circuit>();
+  private readonly sources = new Map<string, StructuredSource>();
   constructor(private readonly plan: OraclePlan) {}
-  /** True when the strategy's oracle is built from recovered structure (then it is replayed, lean too). */
+  /** True when the strategy's oracle is built from recovered structure (then it is streamed from its checks, lean too). */
   structured(strategy: AnyStrategy): boolean {
     return this.plan.structured !== null && strategy !== "textbook";
   }
-  get(kind: OracleKind, strategy: AnyStrategy): { c: Circuit; last: Int32Array } {
+  /** The structured oracle's stream (its checks recorded once, shared by the runs). */
+  source(kind: OracleKind, strategy: Strategy): StructuredSource {
     const key = `${kind} ${strategy}`;
-    let v = this.kept.get(key);
+    let v = this.sources.get(key);
     if (v === undefined) {
-      const c = synthesizePlan(this.plan, kind, strategy);
-      v = { c, last: lastUses(c) };
-      this.kept.set(key, v);
+      v = new StructuredSource(this.plan.structured!, kind, strategy);
+      this.sources.set(key, v);
     }
     return v;
   }
-  /** Lets go of the circuits no longer needed (a million clauses' wide oracle is some 50 MB). */
+  /** The logical circuit (built: for the small fallbacks only). */
+  get(kind: OracleKind, strategy: AnyStrategy): Circuit {
+    const key = `${kind} ${strategy}`;
+    let c = this.kept.get(key);
+    if (c === undefined) {
+      c = synthesizePlan(this.plan, kind, strategy);
+      this.kept.set(key, c);
+    }
+    return c;
+  }
+  /** Lets go of what is no longer needed. */
   keepOnly(strategy: AnyStrategy): void {
-    for (const key of [...this.kept.keys()]) if (!key.endsWith(` ${strategy}`)) this.kept.delete(key);
+    for (const m of [this.kept, this.sources]) for (const key of [...m.keys()]) if (!key.endsWith(` ${strategy}`)) m.delete(key);
   }
 }
 
@@ -326,12 +340,13 @@ const HISTORY_BYTES = 256 << 20;
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
   const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
   if (logicals.structured(s.strategy)) {
-    // A structured oracle is replayed from its logical circuit (small); its search register is
-    // the plan's register, not the clauses' variables.
-    const logical = logicals.get(s.kind, s.strategy);
-    const base = logical.c.registers.reduce((q, r) => q + (r.role === "work" ? 0 : r.size), 0);
-    const sizing = { lag: DEFAULT_LAG, history: 1, wires: base + logical.c.qubits + 64, ids: logical.c.qubits + 1024, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
-    return run(base, s.optimize, s.levels, mode, (low, ids) => replayLogical(logical.c, base, low, ids, logical.last, progress), sizing);
+    // A structured oracle is streamed from its recorded checks (structuredSource.ts); its search
+    // register is the plan's register, not the clauses' variables.
+    const src = logicals.source(s.kind, s.strategy as Strategy);
+    const base = src.base;
+    // Wires: a wide oracle holds each check's work qubits until the mark; the lean one a few.
+    const sizing = { lag: DEFAULT_LAG, history: 1, wires: base + (s.strategy === "lean" ? 64 : src.checkQubits + 64), ids: base + src.checkQubits + 1024, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+    return run(base, s.optimize, s.levels, mode, (low, ids) => src.emit(low, ids, progress), sizing);
   }
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
   // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
@@ -425,7 +440,7 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
     const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
     const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
     if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
-    const logical = logicals.get(kind, strategy).c;
+    const logical = logicals.get(kind, strategy);
     const bc = builtCounts(logical, "clifford+t", uncompute, true, strategy === "textbook");
     const bt = builtCounts(logical, "toffoli", uncompute, true, strategy === "textbook");
     return {
@@ -502,7 +517,7 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
     const strategy = construction.family;
     const r = countOracle({ f, kind: o.kind, strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
     if (r.exact) return r;
-    return builtCounts(logicals.get(o.kind, strategy).c, basis, o.uncompute, o.optimize);
+    return builtCounts(logicals.get(o.kind, strategy), basis, o.uncompute, o.optimize);
   };
   const cliffordT = counted("clifford+t");
   const toffoli = counted("toffoli");
@@ -561,8 +576,12 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
   const progress = new Progress(total, options.onProgress);
   const costs = strategies.map((strategy): SearchCost => {
     const n = searchRegister(plan);
-    const ops = logicals.structured(strategy) ? replayOps(logicals.get("phase", strategy).c, n) : phaseOracleOps(f, strategy);
-    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy).c, oracleWeight(strategy), iterations, successProbability, uncompute, progress);
+    let ops = phaseOracleOps(f, strategy);
+    if (logicals.structured(strategy)) {
+      const src = logicals.source("phase", strategy);
+      ops = (sink, ids, p) => src.emit(sink, ids, p);
+    }
+    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress);
   });
   progress.emit(1);
   return costs;
