@@ -293,14 +293,15 @@ const BLOCKS_IN_AUTO = false;
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
  * where nothing can fall short: a shortfall never reaches a result.
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
+  let ring = 0;
   // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
   // without the second cancel-inverses, which the pipeline then skips.
   let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(ring > 0 ? { ring } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
     const ids = new VirtualIds(base);
     const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
     emit(low, ids);
@@ -315,10 +316,14 @@ function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "t
     wires = r.qubits;
     // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
     // nothing can fall short.
-    if (attempt === 0) {
+    if (attempt === 0 && !(r.lagShort && sizing.farReach)) {
       if (r.historyShort) history = Math.max(1, Math.min(16 * history, Math.floor(HISTORY_BYTES / 40 / r.qubits)));
       if (r.lagShort) lag *= 16;
-    } else lag = Infinity;
+    } else {
+      lag = Infinity;
+      // Every instance kept: the ring sized once to the count just made (no doubling copies).
+      ring = r.instances + 64;
+    }
   }
 }
 
@@ -345,7 +350,17 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
     const src = logicals.source(s.kind, s.strategy as Strategy);
     const base = src.base;
     // Wires: a wide oracle holds each check's work qubits until the mark; the lean one a few.
-    const sizing = { lag: DEFAULT_LAG, history: 1, wires: base + (s.strategy === "lean" ? 64 : src.checkQubits + 64), ids: base + src.checkQubits + 1024, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+    // farReach: in the lean oracle a check with many work qubits (a one-hot group's conflict
+    // bits) leaves wires deep in reuse's stack of free wires; the next such check, often in the
+    // mirror half, takes them again, and with unitary uncomputation the closing gates of the
+    // last use cancel against the opening gates of the next across nearly the whole circuit
+    // (bw_large.c: 204 cancellations, the farthest over 4.2 of 4.3 million instances). A longer
+    // window would fall short too: when the first run does, keep everything at once. Clifford+T
+    // with unitary uncomputation is where those seams cancel (an unAND closes with Tdg and H on
+    // its target, an AND opens with H and T); when a stretch that long is known from the ids
+    // alone, start by keeping everything.
+    const far = s.strategy === "lean" && s.basis === "clifford+t" && s.uncompute === "unitary" && s.optimize && src.longestIdle() >= DEFAULT_LAG;
+    const sizing = { lag: far ? Infinity : DEFAULT_LAG, history: 1, wires: base + (s.strategy === "lean" ? 64 : src.checkQubits + 64), ids: base + src.checkQubits + 1024, farReach: s.strategy === "lean", ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
     return run(base, s.optimize, s.levels, mode, (low, ids) => src.emit(low, ids, progress), sizing);
   }
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
