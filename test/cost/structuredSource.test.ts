@@ -3,7 +3,8 @@
 // the same ends of spans, on random formulas with planted definitions (AND / OR / XOR / XNOR /
 // NOT / buffer gates), parity constraints, exactly-one and at-most-one groups; full and free
 // register, phase and flag, wide and lean. And the counting engine over the stream gives the
-// figures of the built circuit after lowering and the passes, both uncomputations.
+// figures of the built circuit after lowering and the passes, both uncomputations (the cost table's
+// count and the cost front's).
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { mulberry32, multiplier, randomCircuit, randomXorRows, xorSystem, type Encoded } from "../helpers/encoders.js";
@@ -14,6 +15,7 @@ import { builtCounts } from "../../dist/src/cost/built.js";
 import { VirtualIds, type LogicalSink } from "../../dist/src/cost/lowering.js";
 import { lastUses, replayLogical } from "../../dist/src/cost/sources.js";
 import { StructuredSource } from "../../dist/src/cost/structuredSource.js";
+import { countConstructionOracle } from "../../dist/src/cost/front.js";
 
 type Register = "full" | "free";
 type Kind = "phase" | "flag";
@@ -153,6 +155,9 @@ describe("the structured stream", () => {
           const want = { qubits: b.qubits, tCount: b.tCount, tDepth: b.tDepth, cnotCount: b.cnotCount, depth: b.depth, toffoliCount: b.toffoliCount };
           expect({ qubits: counted.qubits, tCount: counted.tCount, tDepth: counted.tDepth, cnotCount: counted.cnotCount, depth: counted.depth, toffoliCount: counted.toffoliCount }, `seed ${seed} ${register} ${kind} ${strategy} ${uncompute} ${basis}`).toEqual(want);
           expect(counted.exact).toBe(true);
+          // The cost front counts the same stream (cost/front.ts).
+          const front = countConstructionOracle(plan, kind, { family: strategy }, basis, uncompute, true, true);
+          expect({ qubits: front.qubits, tCount: front.tCount, tDepth: front.tDepth, cnotCount: front.cnotCount, depth: front.depth, toffoliCount: front.toffoliCount }).toEqual(want);
         }
       }),
       { numRuns: 60 },
