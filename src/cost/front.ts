@@ -108,7 +108,7 @@ export function countConstructionOracle(source: SimplifiedCnf | OraclePlan, kind
   const family = c.family === "blocks" && c.plan.sizes.length === 0 && c.plan.fanout === 0 ? "wide" : c.family;
   if (plan.structured !== null && family !== "blocks") {
     const src = new StructuredSource(plan.structured, kind, family);
-    const far = family === "lean" && basis === "clifford+t" && uncompute === "unitary" && optimize && src.longestIdle() >= DEFAULT_LAG;
+    const far = family === "lean" && basis === "clifford+t" && uncompute === "unitary" && optimize && src.idleStretch().longest >= DEFAULT_LAG;
     const r = runEngine(src.base, optimize, levels, { basis, uncompute, toffoliAnds: false }, (low, ids) => src.emit(low, ids), {
       lag: far ? Infinity : DEFAULT_LAG, history: 1, wires: src.base + (family === "lean" ? 64 : src.checkQubits + 64), ids: src.base + src.checkQubits + 1024,
     });

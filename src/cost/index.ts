@@ -293,10 +293,11 @@ const BLOCKS_IN_AUTO = false;
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
  * where nothing can fall short: a shortfall never reaches a result.
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
-  let ring = 0;
+  // Instances expected when everything is kept (the ring sized once; it grows if there are more).
+  let ring = sizing.ring ?? 0;
   // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
   // without the second cancel-inverses, which the pipeline then skips.
   let second = levels;
@@ -359,8 +360,14 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
     // with unitary uncomputation is where those seams cancel (an unAND closes with Tdg and H on
     // its target, an AND opens with H and T); when a stretch that long is known from the ids
     // alone, start by keeping everything.
-    const far = s.strategy === "lean" && s.basis === "clifford+t" && s.uncompute === "unitary" && s.optimize && src.longestIdle() >= DEFAULT_LAG;
-    const sizing = { lag: far ? Infinity : DEFAULT_LAG, history: 1, wires: base + (s.strategy === "lean" ? 64 : src.checkQubits + 64), ids: base + src.checkQubits + 1024, farReach: s.strategy === "lean", ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+    const idle = s.strategy === "lean" && s.basis === "clifford+t" && s.uncompute === "unitary" && s.optimize ? src.idleStretch() : null;
+    const far = idle !== null && idle.longest >= DEFAULT_LAG;
+    // History: a check's walks go back along search qubits read long before (a structured
+    // oracle on bw_large.d fell short with one copy per wire and not with 16); as many as the
+    // rerun would keep, at once.
+    const wires = base + (s.strategy === "lean" ? 64 : src.checkQubits + 64);
+    const history = Math.max(1, Math.min(16, Math.floor(HISTORY_BYTES / 40 / wires)));
+    const sizing = { lag: far ? Infinity : DEFAULT_LAG, history, wires, ids: base + src.checkQubits + 1024, farReach: s.strategy === "lean", ...(far ? { ring: idle.operations } : {}), ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
     return run(base, s.optimize, s.levels, mode, (low, ids) => src.emit(low, ids, progress), sizing);
   }
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);

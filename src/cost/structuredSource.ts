@@ -75,13 +75,14 @@ export class StructuredSource {
   /**
    * The longest stretch, in logical operations, over which a work qubit's id lies given back
    * before it is taken again (reuse takes the most recently freed wire, as VirtualIds the most
-   * recently given id, so this is also how long a wire lies idle). Once lowered, every operation
-   * is one template instance or more: a stretch this long is at least as many instances.
+   * recently given id, so this is also how long a wire lies idle), and the operations in all.
+   * Once lowered, every operation is one template instance or more: a stretch this long is at
+   * least as many instances.
    */
-  longestIdle(): number {
+  idleStretch(): { longest: number; operations: number } {
     const gaps = new IdleGaps(this.base);
     this.emit(gaps, new VirtualIds(this.base));
-    return gaps.longest;
+    return { longest: gaps.longest, operations: gaps.operations };
   }
 
   /** Streams the oracle into `sink` (ids from `ids`; `progress` told the fraction done). */
@@ -278,6 +279,10 @@ class IdleGaps implements LogicalSink {
   private freed = new Int32Array(1024).fill(-1);
 
   constructor(private readonly base: number) {}
+
+  get operations(): number {
+    return this.op;
+  }
 
   private use(id: number): void {
     if (id < this.base) return;
