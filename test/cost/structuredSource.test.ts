@@ -5,10 +5,13 @@
 // register, phase and flag, wide and lean. And the counting engine over the stream gives the
 // figures of the built circuit after lowering and the passes, both uncomputations (the cost table's
 // count and the cost front's).
+import { existsSync, readFileSync } from "node:fs";
+import { resolve } from "node:path";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { mulberry32, multiplier, randomCircuit, randomXorRows, xorSystem, type Encoded } from "../helpers/encoders.js";
-import { cnfFromClauses, countConstruction, type Cnf } from "../helpers/lib.js";
+import { ROOT } from "../helpers/cli.js";
+import { cnfFromClauses, countConstruction, readDimacs, type Cnf } from "../helpers/lib.js";
 import { planOracle, simplify, synthesizeStructured, type StructuredFormula } from "../../dist/src/synth/index.js";
 import { recoverStructure } from "../../dist/src/structure/index.js";
 import { builtCounts } from "../../dist/src/cost/built.js";
@@ -162,5 +165,25 @@ describe("the structured stream", () => {
       }),
       { numRuns: 60 },
     );
+  });
+});
+
+const satlib = resolve(ROOT, "../shared/satlib");
+const bwLargeA = resolve(satlib, "blocksworld/bw_large.a.cnf");
+
+describe.skipIf(!existsSync(bwLargeA))("on a real planning formula: SATLIB (Hoos & Stuetzle 2000) blocksworld/bw_large.a; skipped when ../shared/satlib is absent", () => {
+  it("counts the far-seam case exactly: lean, unitary, Clifford+T, with every instance kept from the start", () => {
+    const cnf = readDimacs(readFileSync(bwLargeA)).cnf!;
+    const plan = planOracle(cnf, "full", true);
+    expect(plan.structured).not.toBeNull();
+    // One-hot groups free wires that the mirror half takes again across most of the circuit:
+    // longer than the engine's window (65536), so the run keeps everything (cost/index.ts).
+    const idle = new StructuredSource(plan.structured!, "phase", "lean").idleStretch();
+    expect(idle.longest).toBeGreaterThanOrEqual(65536);
+    expect(idle.longest).toBeLessThan(idle.operations);
+    const counted = countConstruction(cnf, { kind: "phase", strategy: "lean", basis: "clifford+t", uncompute: "unitary" });
+    const b = builtCounts(synthesizeStructured(plan.structured!, "phase", "lean"), "clifford+t", "unitary", true);
+    expect(counted.exact).toBe(true);
+    expect([counted.qubits, counted.tCount, counted.tDepth, counted.cnotCount, counted.depth]).toEqual([b.qubits, b.tCount, b.tDepth, b.cnotCount, b.depth]);
   });
 });
