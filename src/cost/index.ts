@@ -455,12 +455,19 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
   const logicals = new Logicals(oraclePlan);
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
   const wireMemory: WireMemory = { buffer: null, records: null };
-  const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
+  // A structured oracle's work is that of its checks' stream, not of the clauses.
+  const structuredWeight = new Map<AnyStrategy, number>();
+  for (const st of ["wide", "lean"] as const) if (logicals.structured(st)) structuredWeight.set(st, logicals.source(kind, st).weight);
+  const w = (st: AnyStrategy, levels: boolean): number => {
+    const sw = structuredWeight.get(st);
+    return sw === undefined ? weight(f, st, levels) : (levels ? 3 : 1) * sw + 1;
+  };
+  const progress = new Progress(plan.reduce((s, [st]) => s + w(st, true) + w(st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
     logicals.keepOnly(strategy);
     const spec = { f, kind, strategy, uncompute, optimize: true, wireMemory };
-    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
-    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
+    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(w(strategy, true)));
+    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(w(strategy, false)));
     if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
     const logical = logicals.get(kind, strategy);
     const bc = builtCounts(logical, "clifford+t", uncompute, true, strategy === "textbook");
