@@ -6,7 +6,7 @@
  *
  * Counted, not built, by the same engine as the cost table: a construction's logical circuit is
  * replayed through the lowering stream (sources.ts's replayLogical; lean's stream is generated
- * clause by clause). Where the engine cannot be exact a small circuit is built instead.
+ * clause by clause, a structured wide or lean oracle's from its checks by structuredSource.ts). Where the engine cannot be exact a small circuit is built instead.
  */
 import type { Cnf } from "../cnf/cnf.js";
 import type { Uncompute } from "../passes/lower.js";
@@ -19,6 +19,7 @@ import type { CostRow } from "./index.js";
 import { CountingEngine, type EngineResult } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { lastUses, leanOracle, replayLogical } from "./sources.js";
+import { StructuredSource } from "./structuredSource.js";
 
 export type { Construction, ConstructionFamily } from "../synth/construction.js";
 export { constructionName, constructionFamily, parseConstruction } from "../synth/construction.js";
@@ -102,6 +103,18 @@ const asPlan = (source: SimplifiedCnf | OraclePlan): OraclePlan => ("structured"
 export function countConstructionOracle(source: SimplifiedCnf | OraclePlan, kind: OracleKind, c: Construction, basis: "toffoli" | "clifford+t", uncompute: Uncompute, optimize = true, levels = basis === "clifford+t"): EngineResult {
   const plan = asPlan(source);
   const f = plan.clauses;
+  // A structured wide or lean oracle is streamed from its checks (structuredSource.ts), as the
+  // cost table does; a blocked one (no single check order to stream) is built and replayed.
+  const family = c.family === "blocks" && c.plan.sizes.length === 0 && c.plan.fanout === 0 ? "wide" : c.family;
+  if (plan.structured !== null && family !== "blocks") {
+    const src = new StructuredSource(plan.structured, kind, family);
+    const far = family === "lean" && basis === "clifford+t" && uncompute === "unitary" && optimize && src.idleStretch().longest >= DEFAULT_LAG;
+    const r = runEngine(src.base, optimize, levels, { basis, uncompute, toffoliAnds: false }, (low, ids) => src.emit(low, ids), {
+      lag: far ? Infinity : DEFAULT_LAG, history: 1, wires: src.base + (family === "lean" ? 64 : src.checkQubits + 64), ids: src.base + src.checkQubits + 1024,
+    });
+    if (r.exact || r.instances > BUILD_LIMIT) return r;
+    return { ...r, ...builtCounts(synthesizePlanned(plan, kind, c), basis, uncompute, optimize), exact: true, upperBound: false, reason: null };
+  }
   const lean = c.family === "lean" && plan.structured === null;
   const logical = lean ? null : synthesizePlanned(plan, kind, c);
   // The search register is the plan's (the clauses' variables, or the structure's free ones).

@@ -22,6 +22,7 @@ import { LeanBlocks } from "./leanBlocks.js";
 import { CountingEngine, type EngineResult, type WireMemory } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, textbookOracle, wideOracle, type Fraction, type OracleOps } from "./sources.js";
+import { StructuredSource } from "./structuredSource.js";
 import { constructionFamily, constructionName, countConstructionOracle, parseConstruction, type ConstructionFamily } from "./front.js";
 
 /** Options of the cost functions. */
@@ -231,29 +232,42 @@ interface Spec {
 }
 
 /**
- * Synthesized logical circuits kept for the runs that share them (wide and textbook oracles, and
- * every structured one: those are replayed from their logical circuit, which is small).
+ * The oracles of one plan: the structured ones as streams generated from their recorded checks
+ * (structuredSource.ts; no circuit is built: a lean one has a qubit per carry and per mirror
+ * copy, millions on a SATLIB planning formula), and built logical circuits only for the small
+ * fallbacks (built instead of counted when the counting cannot be exact).
  */
 class Logicals {
-  private readonly kept = new Map<string, { c: Circuit; last: Int32Array }>();
+  private readonly kept = new Map<string, Circuit>();
+  private readonly sources = new Map<string, StructuredSource>();
   constructor(private readonly plan: OraclePlan) {}
-  /** True when the strategy's oracle is built from recovered structure (then it is replayed, lean too). */
+  /** True when the strategy's oracle is built from recovered structure (then it is streamed from its checks, lean too). */
   structured(strategy: AnyStrategy): boolean {
     return this.plan.structured !== null && strategy !== "textbook";
   }
-  get(kind: OracleKind, strategy: AnyStrategy): { c: Circuit; last: Int32Array } {
+  /** The structured oracle's stream (its checks recorded once, shared by the runs). */
+  source(kind: OracleKind, strategy: Strategy): StructuredSource {
     const key = `${kind} ${strategy}`;
-    let v = this.kept.get(key);
+    let v = this.sources.get(key);
     if (v === undefined) {
-      const c = synthesizePlan(this.plan, kind, strategy);
-      v = { c, last: lastUses(c) };
-      this.kept.set(key, v);
+      v = new StructuredSource(this.plan.structured!, kind, strategy);
+      this.sources.set(key, v);
     }
     return v;
   }
-  /** Lets go of the circuits no longer needed (a million clauses' wide oracle is some 50 MB). */
+  /** The logical circuit (built: for the small fallbacks only). */
+  get(kind: OracleKind, strategy: AnyStrategy): Circuit {
+    const key = `${kind} ${strategy}`;
+    let c = this.kept.get(key);
+    if (c === undefined) {
+      c = synthesizePlan(this.plan, kind, strategy);
+      this.kept.set(key, c);
+    }
+    return c;
+  }
+  /** Lets go of what is no longer needed. */
   keepOnly(strategy: AnyStrategy): void {
-    for (const key of [...this.kept.keys()]) if (!key.endsWith(` ${strategy}`)) this.kept.delete(key);
+    for (const m of [this.kept, this.sources]) for (const key of [...m.keys()]) if (!key.endsWith(` ${strategy}`)) m.delete(key);
   }
 }
 
@@ -284,14 +298,16 @@ const BLOCKS_IN_AUTO = true;
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
  * where nothing can fall short: a shortfall never reaches a result.
  */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number }): EngineResult {
+function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
+  // Instances expected when everything is kept (the ring sized once; it grows if there are more).
+  let ring = sizing.ring ?? 0;
   // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
   // without the second cancel-inverses, which the pipeline then skips.
   let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(ring > 0 ? { ring } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
     const ids = new VirtualIds(base);
     const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
     emit(low, ids);
@@ -306,10 +322,14 @@ function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "t
     wires = r.qubits;
     // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
     // nothing can fall short.
-    if (attempt === 0) {
+    if (attempt === 0 && !(r.lagShort && sizing.farReach)) {
       if (r.historyShort) history = Math.max(1, Math.min(16 * history, Math.floor(HISTORY_BYTES / 40 / r.qubits)));
       if (r.lagShort) lag *= 16;
-    } else lag = Infinity;
+    } else {
+      lag = Infinity;
+      // Every instance kept: the ring sized once to the count just made (no doubling copies).
+      ring = r.instances + 64;
+    }
   }
 }
 
@@ -331,12 +351,29 @@ const HISTORY_BYTES = 256 << 20;
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
   const mode = { basis: s.basis, uncompute: s.uncompute, toffoliAnds: s.strategy === "textbook" };
   if (logicals.structured(s.strategy)) {
-    // A structured oracle is replayed from its logical circuit (small); its search register is
-    // the plan's register, not the clauses' variables.
-    const logical = logicals.get(s.kind, s.strategy);
-    const base = logical.c.registers.reduce((q, r) => q + (r.role === "work" ? 0 : r.size), 0);
-    const sizing = { lag: DEFAULT_LAG, history: 1, wires: base + logical.c.qubits + 64, ids: logical.c.qubits + 1024, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
-    return run(base, s.optimize, s.levels, mode, (low, ids) => replayLogical(logical.c, base, low, ids, logical.last, progress), sizing);
+    // A structured oracle is streamed from its recorded checks (structuredSource.ts); its search
+    // register is the plan's register, not the clauses' variables.
+    const src = logicals.source(s.kind, s.strategy as Strategy);
+    const base = src.base;
+    // Wires: a wide oracle holds each check's work qubits until the mark; the lean one a few.
+    // farReach: in the lean oracle a check with many work qubits (a one-hot group's conflict
+    // bits) leaves wires deep in reuse's stack of free wires; the next such check, often in the
+    // mirror half, takes them again, and with unitary uncomputation the closing gates of the
+    // last use cancel against the opening gates of the next across nearly the whole circuit
+    // (bw_large.c: 204 cancellations, the farthest over 4.2 of 4.3 million instances). A longer
+    // window would fall short too: when the first run does, keep everything at once. Clifford+T
+    // with unitary uncomputation is where those seams cancel (an unAND closes with Tdg and H on
+    // its target, an AND opens with H and T); when a stretch that long is known from the ids
+    // alone, start by keeping everything.
+    const idle = s.strategy === "lean" && s.basis === "clifford+t" && s.uncompute === "unitary" && s.optimize ? src.idleStretch() : null;
+    const far = idle !== null && idle.longest >= DEFAULT_LAG;
+    // History: a check's walks go back along search qubits read long before (a structured
+    // oracle on bw_large.d fell short with one copy per wire and not with 16); as many as the
+    // rerun would keep, at once.
+    const wires = base + (s.strategy === "lean" ? 64 : src.checkQubits + 64);
+    const history = Math.max(1, Math.min(16, Math.floor(HISTORY_BYTES / 40 / wires)));
+    const sizing = { lag: far ? Infinity : DEFAULT_LAG, history, wires, ids: base + src.checkQubits + 1024, farReach: s.strategy === "lean", ...(far ? { ring: idle.operations } : {}), ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+    return run(base, s.optimize, s.levels, mode, (low, ids) => src.emit(low, ids, progress), sizing);
   }
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
   // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
@@ -423,14 +460,21 @@ export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOpt
   const logicals = new Logicals(oraclePlan);
   const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
   const wireMemory: WireMemory = { buffer: null, records: null };
-  const progress = new Progress(plan.reduce((s, [st]) => s + weight(f, st, true) + weight(f, st, false), 0), options.onProgress);
+  // A structured oracle's work is that of its checks' stream, not of the clauses.
+  const structuredWeight = new Map<AnyStrategy, number>();
+  for (const st of ["wide", "lean"] as const) if (logicals.structured(st)) structuredWeight.set(st, logicals.source(kind, st).weight);
+  const w = (st: AnyStrategy, levels: boolean): number => {
+    const sw = structuredWeight.get(st);
+    return sw === undefined ? weight(f, st, levels) : (levels ? 3 : 1) * sw + 1;
+  };
+  const progress = new Progress(plan.reduce((s, [st]) => s + w(st, true) + w(st, false), 0), options.onProgress);
   const rows = plan.map(([strategy, uncompute]): CostRow => {
     logicals.keepOnly(strategy);
     const spec = { f, kind, strategy, uncompute, optimize: true, wireMemory };
-    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(weight(f, strategy, true)));
-    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(weight(f, strategy, false)));
+    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(w(strategy, true)));
+    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(w(strategy, false)));
     if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
-    const logical = logicals.get(kind, strategy).c;
+    const logical = logicals.get(kind, strategy);
     const bc = builtCounts(logical, "clifford+t", uncompute, true, strategy === "textbook");
     const bt = builtCounts(logical, "toffoli", uncompute, true, strategy === "textbook");
     return {
@@ -507,7 +551,7 @@ export function oracleResources(cnf: Cnf, oracle: CompiledOracle, options: CostO
     const strategy = construction.family;
     const r = countOracle({ f, kind: o.kind, strategy, basis, uncompute: o.uncompute, optimize: o.optimize, levels: basis === "clifford+t" }, logicals, step);
     if (r.exact) return r;
-    return builtCounts(logicals.get(o.kind, strategy).c, basis, o.uncompute, o.optimize);
+    return builtCounts(logicals.get(o.kind, strategy), basis, o.uncompute, o.optimize);
   };
   const cliffordT = counted("clifford+t");
   const toffoli = counted("toffoli");
@@ -566,8 +610,12 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
   const progress = new Progress(total, options.onProgress);
   const costs = strategies.map((strategy): SearchCost => {
     const n = searchRegister(plan);
-    const ops = logicals.structured(strategy) ? replayOps(logicals.get("phase", strategy).c, n) : phaseOracleOps(f, strategy);
-    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy).c, oracleWeight(strategy), iterations, successProbability, uncompute, progress);
+    let ops = phaseOracleOps(f, strategy);
+    if (logicals.structured(strategy)) {
+      const src = logicals.source("phase", strategy);
+      ops = (sink, ids, p) => src.emit(sink, ids, p);
+    }
+    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress);
   });
   progress.emit(1);
   return costs;

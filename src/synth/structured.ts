@@ -422,16 +422,71 @@ function collectChecks(f: StructuredFormula, b: CircuitBuilder, splitGroups = fa
   return checks;
 }
 
-function wide(b: CircuitBuilder, checks: Checks, kind: OracleKind, target: number, layout: { search: number; target: number }): Circuit {
-  // One mark input per distinct violated bit; a bit wanted both ways can never be all clear.
-  const ok = Array.from(checks.violated.a.subarray(0, checks.violated.n), (v) => v ^ 1).sort((x, y) => x - y);
+/**
+ * The wide oracle's mark inputs: one per distinct violated bit (negated: fires when the bit is
+ * clear), ascending; null when a bit is wanted both ways (it can never be all clear: f = 0).
+ */
+export function wideMarkInputs(violated: ArrayLike<number>): number[] | null {
+  const ok = Array.from(violated, (v) => v ^ 1).sort((x, y) => x - y);
   let w = 0;
   for (let i = 0; i < ok.length; i++) {
     if (w > 0 && ok[w - 1] === ok[i]) continue;
-    if (w > 0 && ok[w - 1] === (ok[i]! ^ 1)) return new CircuitBuilder(layout).finish();
+    if (w > 0 && ok[w - 1] === (ok[i]! ^ 1)) return null;
     ok[w++] = ok[i]!;
   }
   ok.length = w;
+  return ok;
+}
+
+/**
+ * The recorded checks of a structured formula (see the file comment) as plain arrays, for
+ * cost/structuredSource.ts, which generates the wide and lean oracles from them operation by
+ * operation instead of building the circuit (whose lean half has a fresh work qubit per carry).
+ * Qubits: the search register 0..n-1, a flag oracle's target n, then the checks' work qubits
+ * up to `qubits`.
+ */
+export interface StructuredChecks {
+  /** Some check can never hold: the oracle is the identity. */
+  readonly unsat: boolean;
+  /** Operation i: kind `kinds[i]`, operands `ops[starts[i]..starts[i + 1])` (the target last). */
+  readonly kinds: Uint8Array;
+  readonly starts: Uint32Array;
+  readonly ops: Int32Array;
+  /** Operations recorded. */
+  readonly count: number;
+  /** The violated bits (encoded controls), segment by segment. */
+  readonly violated: Int32Array;
+  /** Per segment its first operation and first violated bit; one more entry closes the last. */
+  readonly segOp: Int32Array;
+  readonly segBit: Int32Array;
+  /** Operations before this compute definitions (free register) and stay until the end. */
+  readonly persistentEnd: number;
+  /** Qubits in all (search, target, checks' work qubits). */
+  readonly qubits: number;
+}
+
+/** The checks synthesizeStructured builds its oracle from (see {@link StructuredChecks}). */
+export function structuredChecks(f: StructuredFormula, kind: OracleKind): StructuredChecks {
+  const b = new CircuitBuilder({ search: f.register.length, target: kind === "flag" ? 1 : 0 }, 16);
+  const c = collectChecks(f, b);
+  const o = c.ops;
+  return {
+    unsat: c.unsat,
+    kinds: o.kinds.slice(0, o.n),
+    starts: o.starts.slice(0, o.n + 1),
+    ops: o.ops.slice(0, o.starts[o.n]!),
+    count: o.n,
+    violated: c.violated.a.slice(0, c.violated.n),
+    segOp: c.segOp.a.slice(0, c.segOp.n),
+    segBit: c.segBit.a.slice(0, c.segBit.n),
+    persistentEnd: c.persistentEnd,
+    qubits: b.qubits,
+  };
+}
+
+function wide(b: CircuitBuilder, checks: Checks, kind: OracleKind, target: number, layout: { search: number; target: number }): Circuit {
+  const ok = wideMarkInputs(checks.violated.a.subarray(0, checks.violated.n));
+  if (ok === null) return new CircuitBuilder(layout).finish();
   checks.ops.emit(b, false);
   mark(b, kind, ok, target);
   checks.ops.emit(b, true);
