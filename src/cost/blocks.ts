@@ -1087,20 +1087,23 @@ export class BlockCounter {
    */
   private posOf(b: number, S: CState, ob: number, j: number): number {
     const at = ob * SPAN + j;
-    let lo = 0;
+    // Often older than every instance of the state (nothing ancient, the block further back than the oldest age).
+    if (S.n === 0 || this.absAt(b, S, 0) >= at) return 0;
+    let lo = 1;
     let hi = S.n;
     while (lo < hi) {
       const mid = (lo + hi) >>> 1;
-      let abs: number;
-      if (S.age[mid] === ANCIENT) abs = this.ancientAbs[mid]!;
-      else {
-        const sb = b - 1 - S.age[mid]!;
-        abs = sb * SPAN + this.trueJ(sb, S.j[mid]!);
-      }
-      if (abs < at) lo = mid + 1;
+      if (this.absAt(b, S, mid) < at) lo = mid + 1;
       else hi = mid;
     }
     return lo;
+  }
+
+  /** Instance x of the state, as block * SPAN + j. */
+  private absAt(b: number, S: CState, x: number): number {
+    if (S.age[x] === ANCIENT) return this.ancientAbs[x]!;
+    const sb = b - 1 - S.age[x]!;
+    return sb * SPAN + this.trueJ(sb, S.j[x]!);
   }
   private projMore = new Int32Array(16);
   private readonly projResult: { entries: Projected[]; more: Int32Array } = { entries: [], more: new Int32Array(0) };
