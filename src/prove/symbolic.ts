@@ -291,8 +291,32 @@ export class SymbolicRun {
     this.wires[q] = v;
     if (this.g.hasPath(v)) this.pathWires.add(q);
     else if (this.pathWires.size > 0) this.pathWires.delete(q);
-    if (this.livePaths.size > 0) this.forms.set(q, form ?? atom(v));
+    if (this.livePaths.size > 0) this.forms.set(q, form === undefined ? atom(v) : this.collapse(form));
     else if (this.forms.size > 0) this.forms.clear();
+  }
+
+  /**
+   * The form with its path-free atoms merged into one atom, their XOR in the graph (hashed, so
+   * the same function built the same way is the same node). Any grouping of the atoms is exact
+   * (the expansions hold for Boolean atoms); this one makes a qubit's classical part its
+   * classical value, as the unoptimized gadget sees it: where the optimizer cancelled a CNOT
+   * pair or a H H pair at the seam of two gadgets, the wire's form otherwise keeps the atoms of
+   * the earlier gadget, the products over them come out as XORs of ANDs instead of the AND of
+   * the values, and the +-2 phase terms that should cancel across the seam land on different
+   * nodes.
+   */
+  private collapse(f: Form): Form {
+    const g = this.g;
+    let classical = 0;
+    for (const a of f.atoms) if (!g.hasPath(a)) classical++;
+    if (classical < 2 || classical < f.atoms.length) return f;
+    let v = FALSE;
+    const paths: number[] = [];
+    for (const a of f.atoms) {
+      if (g.hasPath(a)) paths.push(a);
+      else v = g.xor(v, a);
+    }
+    return xorForms({ atoms: paths, c: f.c }, atom(v));
   }
 
   /** Qubit q's affine form (complemented when `negated` is 1). */
@@ -525,11 +549,6 @@ export class SymbolicRun {
     }
     if (y < 0) return;
     // Each atom of R must be the value (or its complement) of another wire: U is then CNOTs.
-    if (rest.length > 0) {
-      const held = new Set<number>();
-      for (let w = 0; w < this.wires.length; w++) if (w !== q) held.add(this.wires[w]! & ~1);
-      for (const a of rest) if (!held.has(a & ~1)) return;
-    }
     const linear = { k: 0 };
     const m = this.sumOut(q, y, linear);
     if (m === null) return;
