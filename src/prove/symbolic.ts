@@ -121,6 +121,24 @@ function xorForms(a: Form, b: Form): Form {
 
 /** Largest XOR whose phase of coefficient other than 4 is expanded (cubic in its operands). */
 const EXPAND_CAP = 16;
+/**
+ * How the path-sum reduction writes its terms. Every choice is exact (it only picks the atoms the
+ * phase polynomial is written over); they differ in which optimized seams they reduce, so the
+ * prover tries them in turn (`REDUCTIONS`).
+ */
+export interface Reduction {
+  /** Merge a qubit's classical form of several atoms into its value (see `collapse`). */
+  readonly collapse: boolean;
+  /** Largest parity expanded inside a product with a path variable (0: none; see `expand`). */
+  readonly productCap: number;
+}
+
+/** The reductions the prover tries, in order (measured on the lean counter, DEVELOPERS.md). */
+export const REDUCTIONS: readonly Reduction[] = [
+  { collapse: true, productCap: 2 },
+  { collapse: true, productCap: 0 },
+  { collapse: false, productCap: 0 },
+];
 
 export class SymbolicRun {
   readonly g = new Graph();
@@ -152,7 +170,7 @@ export class SymbolicRun {
   halves = 0;
   measurements = 0;
 
-  constructor(private readonly c: Circuit, searchSize: number, targetQubit: number) {
+  constructor(private readonly c: Circuit, searchSize: number, targetQubit: number, private readonly reduction: Reduction = REDUCTIONS[0]!) {
     this.wires = new Int32Array(c.qubits);
     this.vars = new Int32Array(searchSize);
     for (let v = 0; v < searchSize; v++) this.wires[v] = this.vars[v] = this.g.input(VAR, v);
@@ -267,6 +285,18 @@ export class SymbolicRun {
     return null;
   }
 
+  /** True when every phase term has coefficient 4 (a sign): the phase is then a parity. */
+  signsOnly(): boolean {
+    if ((this.phaseConstant & 3) !== 0) return false;
+    for (const k of this.phase.values()) if (k !== 4) return false;
+    return true;
+  }
+
+  /** True when some Hadamard opened a path variable (else the reduction chosen made no difference). */
+  usedPaths(): boolean {
+    return this.paths > 0;
+  }
+
   /** Path variables still present (not summed out or measured). */
   openPaths(): boolean {
     if (this.pathWires.size > 0) return true;
@@ -291,7 +321,7 @@ export class SymbolicRun {
     this.wires[q] = v;
     if (this.g.hasPath(v)) this.pathWires.add(q);
     else if (this.pathWires.size > 0) this.pathWires.delete(q);
-    if (this.livePaths.size > 0) this.forms.set(q, form === undefined ? atom(v) : this.collapse(form));
+    if (this.livePaths.size > 0) this.forms.set(q, form === undefined ? atom(v) : this.reduction.collapse ? this.collapse(form) : form);
     else if (this.forms.size > 0) this.forms.clear();
   }
 
@@ -445,6 +475,35 @@ export class SymbolicRun {
           const m = g.and(rest);
           this.expand(k, m, emit);
           this.expand((8 - k) & 7, g.and2(m, o ^ 1), emit);
+          return;
+        }
+      }
+      if ((k & 3) !== 0) {
+        // A parity inside a product with a path variable, at a coefficient other than 4: expanded
+        // as at the top level (rest AND (a1 XOR ... XOR an) = sum over non-empty S of
+        // (-2)^(|S|-1) rest prod(S)), so that the terms of a path variable are written over the
+        // same atoms however the parity was grouped (a XOR b as one value in a 7-T Toffoli, or
+        // a and b apart) and cancel term by term before it is summed out.
+        for (let i = 0; i < ops.length; i++) {
+          const o = ops[i]!;
+          if (g.kind(o >>> 1) !== XOR || g.arity(o >>> 1) > this.reduction.productCap) continue;
+          const rest = g.and(Array.from(ops).filter((_, j) => j !== i));
+          if ((o & 1) === 1) {
+            // rest AND NOT p = rest - rest AND p
+            this.expand(k, rest, emit);
+            this.expand((8 - k) & 7, g.and2(rest, o ^ 1), emit);
+            return;
+          }
+          const xs = Array.from(g.operands(o >>> 1));
+          const n = xs.length;
+          for (let a = 0; a < n; a++) {
+            this.expand(k, g.and2(rest, xs[a]!), emit);
+            for (let b = a + 1; b < n; b++) {
+              const ab = g.and([rest, xs[a]!, xs[b]!]);
+              this.expand((k * 6) & 7, ab, emit); // -2k
+              if (k & 1) for (let c = b + 1; c < n; c++) this.expand(4, g.and2(ab, xs[c]!), emit); // 4k = 4 for odd k
+            }
+          }
           return;
         }
       }
