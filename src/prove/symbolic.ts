@@ -589,11 +589,13 @@ export class SymbolicRun {
   /**
    * Where the optimizer cancelled the H H (and T Tdg, and CNOT) pairs at the seam of two gadgets
    * on one wire, the first gadget's path variable runs on into the second, and its phase terms
-   * mix with the second's over different atoms. When qubit q holds y XOR R, where R is an XOR
-   * of values that other wires hold right now, the identity U T^-j H H T^j U (U: q ^= R, a
-   * CNOT from each of those wires) can be inserted: the first H sums y out (the wire gets its
-   * classical value, 0 at a seam), the second starts a fresh path variable for the rest. j (0..3)
-   * makes the linear term of y 0 or 4. Nothing happens unless y can be summed out there.
+   * mix with the second's over different atoms. When qubit q holds y XOR R, R path-free, and y
+   * occurs elsewhere only in phase terms 4 y M_j and k y, the path sum is rewritten by renaming
+   * y to a fresh y' with the terms 4 y M_j gathered into one, 4 y' (XOR_j M_j) (4a + 4b = 4 (a
+   * XOR b) mod 8), and k y kept as k y': the same sum term for term, so exact whatever R is (it
+   * is the identity U T^-j H H T^j U^-1, U: q ^= R, inserted at the seam, in the terms of Amy
+   * 2018's reduction rules). The wire's form then starts afresh from y' XOR R. Nothing happens
+   * unless y can be gathered so.
    */
   private rebase(q: number): void {
     const g = this.g;
@@ -607,7 +609,6 @@ export class SymbolicRun {
       else y = a >>> 1;
     }
     if (y < 0) return;
-    // Each atom of R must be the value (or its complement) of another wire: U is then CNOTs.
     const linear = { k: 0 };
     const m = this.sumOut(q, y, linear);
     if (m === null) return;
