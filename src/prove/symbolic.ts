@@ -131,13 +131,16 @@ export interface Reduction {
   readonly collapse: boolean;
   /** Largest parity expanded inside a product with a path variable (0: none; see `expand`). */
   readonly productCap: number;
+  /** Expand a complemented path-free factor of a product with a path variable (see `expand`). */
+  readonly complements: boolean;
 }
 
 /** The reductions the prover tries, in order (measured on the lean counter, DEVELOPERS.md). */
 export const REDUCTIONS: readonly Reduction[] = [
-  { collapse: true, productCap: 2 },
-  { collapse: true, productCap: 0 },
-  { collapse: false, productCap: 0 },
+  { collapse: true, productCap: 2, complements: true },
+  { collapse: true, productCap: 0, complements: false },
+  { collapse: false, productCap: 2, complements: true },
+  { collapse: false, productCap: 0, complements: false }, // the reduction as first written
 ];
 
 export class SymbolicRun {
@@ -484,6 +487,17 @@ export class SymbolicRun {
         // (-2)^(|S|-1) rest prod(S)), so that the terms of a path variable are written over the
         // same atoms however the parity was grouped (a XOR b as one value in a 7-T Toffoli, or
         // a and b apart) and cancel term by term before it is summed out.
+        if (this.reduction.complements) {
+          for (let i = 0; i < ops.length; i++) {
+            const o = ops[i]!;
+            if ((o & 1) === 0 || g.hasPath(o)) continue;
+            // rest AND NOT p = rest - rest AND p (p path-free)
+            const rest = g.and(Array.from(ops).filter((_, j) => j !== i));
+            this.expand(k, rest, emit);
+            this.expand((8 - k) & 7, g.and2(rest, o ^ 1), emit);
+            return;
+          }
+        }
         for (let i = 0; i < ops.length; i++) {
           const o = ops[i]!;
           if (g.kind(o >>> 1) !== XOR || g.arity(o >>> 1) > this.reduction.productCap) continue;
