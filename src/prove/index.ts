@@ -191,7 +191,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
     const stuck = run.run();
     if (stuck !== null) return none(`not proven: gate ${stuck.gate} is ${stuck.reason}`, run.g.size);
     lastSize = run.g.size;
-    if (run.openPaths()) continue;
+    if (run.exhausted || run.openPaths()) continue;
     if (chosen === null) chosen = { run, f, cuts };
     if (run.signsOnly() || !run.usedPaths()) {
       chosen = { run, f, cuts };

@@ -122,6 +122,13 @@ function xorForms(a: Form, b: Form): Form {
 /** Largest XOR whose phase of coefficient other than 4 is expanded (cubic in its operands). */
 const EXPAND_CAP = 16;
 /**
+ * Work a reduction may spend: per gate, plus a base (the reductions that succeed on the lean
+ * counter at 200 variables and 800 clauses spend some 7 per gate).
+ */
+const WORK_PER_GATE = 64;
+const WORK_BASE = 1_000_000;
+
+/**
  * How the path-sum reduction writes its terms. Every choice is exact (it only picks the atoms the
  * phase polynomial is written over); they differ in which optimized seams they reduce, so the
  * prover tries them in turn (`REDUCTIONS`).
@@ -137,8 +144,8 @@ export interface Reduction {
 
 /** The reductions the prover tries, in order (measured on the lean counter, DEVELOPERS.md). */
 export const REDUCTIONS: readonly Reduction[] = [
-  { collapse: true, productCap: 2, complements: true },
   { collapse: true, productCap: 0, complements: false },
+  { collapse: true, productCap: 2, complements: true },
   { collapse: false, productCap: 2, complements: true },
   { collapse: false, productCap: 0, complements: false }, // the reduction as first written
 ];
@@ -167,11 +174,17 @@ export class SymbolicRun {
    * values, as the classical circuit has them.
    */
   private readonly forms = new Map<number, Form>();
+  /** XOR nodes that `collapse` made atoms of (the parities `expand` opens inside products). */
+  private readonly merged = new Set<number>();
   private paths = 0;
   private outcomes = 0;
   /** Exponent e of the amplitude factor 2^(-e/2) so far, and the number of measurements. */
   halves = 0;
   measurements = 0;
+  /** Phase terms added and graph nodes visited so far (the reduction's work, see `run`). */
+  work = 0;
+  /** True when `run` stopped early, its work out of proportion to the circuit. */
+  exhausted = false;
 
   constructor(private readonly c: Circuit, searchSize: number, targetQubit: number, private readonly reduction: Reduction = REDUCTIONS[0]!) {
     this.wires = new Int32Array(c.qubits);
@@ -187,7 +200,13 @@ export class SymbolicRun {
     const c = this.c;
     const kinds = GATE_KINDS;
     const ctl: number[] = [];
+    const limit = WORK_PER_GATE * c.gates + WORK_BASE;
     for (let g = 0; g < c.gates; g++) {
+      if (this.work > limit) {
+        // This reduction grows out of proportion here (another may not): stop it.
+        this.exhausted = true;
+        return null;
+      }
       const name = kinds[c.kind[g]!]!;
       const s = c.opStart[g]!;
       const e = c.opStart[g + 1]!;
@@ -349,6 +368,7 @@ export class SymbolicRun {
       if (g.hasPath(a)) paths.push(a);
       else v = g.xor(v, a);
     }
+    if (v > 1 && g.kind(v >>> 1) === XOR) this.merged.add(v >>> 1);
     return xorForms({ atoms: paths, c: f.c }, atom(v));
   }
 
@@ -490,7 +510,7 @@ export class SymbolicRun {
         if (this.reduction.complements) {
           for (let i = 0; i < ops.length; i++) {
             const o = ops[i]!;
-            if ((o & 1) === 0 || g.hasPath(o)) continue;
+            if ((o & 1) === 0 || g.hasPath(o) || (this.reduction.collapse && !this.merged.has(o >>> 1))) continue;
             // rest AND NOT p = rest - rest AND p (p path-free)
             const rest = g.and(Array.from(ops).filter((_, j) => j !== i));
             this.expand(k, rest, emit);
@@ -500,7 +520,7 @@ export class SymbolicRun {
         }
         for (let i = 0; i < ops.length; i++) {
           const o = ops[i]!;
-          if (g.kind(o >>> 1) !== XOR || g.arity(o >>> 1) > this.reduction.productCap) continue;
+          if (g.kind(o >>> 1) !== XOR || g.arity(o >>> 1) > this.reduction.productCap || (this.reduction.collapse && !this.merged.has(o >>> 1))) continue;
           const rest = g.and(Array.from(ops).filter((_, j) => j !== i));
           if ((o & 1) === 1) {
             // rest AND NOT p = rest - rest AND p
@@ -526,6 +546,7 @@ export class SymbolicRun {
   }
 
   private addTerm(k: number, node: number): void {
+    this.work++;
     const v = ((this.phase.get(node) ?? 0) + k) & 7;
     if (v === 0) this.phase.delete(node);
     else {
@@ -645,6 +666,7 @@ export class SymbolicRun {
     const seen = new Set<number>();
     while (stack.length > 0) {
       const n = stack.pop()!;
+      this.work++;
       if (n === y) return true;
       if (seen.has(n) || g.kind(n) === INPUT) continue;
       seen.add(n);
