@@ -178,8 +178,8 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   const work = Math.max(search.size, targetReg !== undefined ? targetReg.start + targetReg.size : 0);
   const layout: OracleLayout = { kind, search: search.size, target, work };
 
-  // The path-sum reductions in turn (symbolic.ts, REDUCTIONS): the first whose path variables
-  // all close with a phase of signs only, else the first that closes at all. Each is exact.
+  // The path-sum reductions in turn (symbolic.ts, REDUCTIONS): the first whose path variables all
+  // close. Each is exact.
   let chosen: { run: SymbolicRun; f: number; cuts: number[] } | null = null;
   let lastSize = 0;
   for (const reduction of REDUCTIONS) {
@@ -192,11 +192,8 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
     if (stuck !== null) return none(`not proven: gate ${stuck.gate} is ${stuck.reason}`, run.g.size);
     lastSize = run.g.size;
     if (run.exhausted || run.openPaths()) continue;
-    if (chosen === null) chosen = { run, f, cuts };
-    if (run.signsOnly() || !run.usedPaths()) {
-      chosen = { run, f, cuts };
-      break;
-    }
+    chosen = { run, f, cuts };
+    break;
   }
   if (chosen === null) {
     return none("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", lastSize);

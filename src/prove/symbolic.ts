@@ -307,18 +307,6 @@ export class SymbolicRun {
     return null;
   }
 
-  /** True when every phase term has coefficient 4 (a sign): the phase is then a parity. */
-  signsOnly(): boolean {
-    if ((this.phaseConstant & 3) !== 0) return false;
-    for (const k of this.phase.values()) if (k !== 4) return false;
-    return true;
-  }
-
-  /** True when some Hadamard opened a path variable (else the reduction chosen made no difference). */
-  usedPaths(): boolean {
-    return this.paths > 0;
-  }
-
   /** Path variables still present (not summed out or measured). */
   openPaths(): boolean {
     if (this.pathWires.size > 0) return true;
