@@ -33,7 +33,7 @@ import { failureOn, type OracleLayout } from "./confirm.js";
 import { FALSE, OUTCOME, TARGET, TRUE, VAR, type Graph } from "./graph.js";
 import { cutBddProof } from "./bdd.js";
 import { buildMiter, formulaLiteral } from "./miter.js";
-import { SymbolicRun } from "./symbolic.js";
+import { REDUCTIONS, SymbolicRun } from "./symbolic.js";
 import { coneSize, encodeCone } from "./tseitin.js";
 
 /** Builds Boolean functions in the prover's hashed graph (literals: `(node << 1) | complemented`). */
@@ -178,16 +178,27 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   const work = Math.max(search.size, targetReg !== undefined ? targetReg.start + targetReg.size : 0);
   const layout: OracleLayout = { kind, search: search.size, target, work };
 
-  const run = new SymbolicRun(circuit, search.size, target);
-  // The expected function's clause nodes first, as cut points: the circuit's ANDs then reuse them.
-  const cuts: number[] = [];
-  const f = options.expected === undefined ? formulaLiteral(run.g, cnf, run.vars, cuts) : options.expected.build(builderOf(run.g), run.vars, cuts);
-  run.g.setCuts(cuts);
-  const stuck = run.run();
-  if (stuck !== null) return none(`not proven: gate ${stuck.gate} is ${stuck.reason}`, run.g.size);
-  if (run.openPaths()) {
-    return none("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", run.g.size);
+  // The path-sum reductions in turn (symbolic.ts, REDUCTIONS): the first whose path variables all
+  // close. Each is exact.
+  let chosen: { run: SymbolicRun; f: number; cuts: number[] } | null = null;
+  let lastSize = 0;
+  for (const reduction of REDUCTIONS) {
+    const run = new SymbolicRun(circuit, search.size, target, reduction);
+    // The expected function's clause nodes first, as cut points: the circuit's ANDs then reuse them.
+    const cuts: number[] = [];
+    const f = options.expected === undefined ? formulaLiteral(run.g, cnf, run.vars, cuts) : options.expected.build(builderOf(run.g), run.vars, cuts);
+    run.g.setCuts(cuts);
+    const stuck = run.run();
+    if (stuck !== null) return none(`not proven: gate ${stuck.gate} is ${stuck.reason}`, run.g.size);
+    lastSize = run.g.size;
+    if (run.exhausted || run.openPaths()) continue;
+    chosen = { run, f, cuts };
+    break;
   }
+  if (chosen === null) {
+    return none("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", lastSize);
+  }
+  const { run, f, cuts } = chosen;
   const state = run.state();
   const root = buildMiter(state, f, kind, target, work);
   const g = state.graph;

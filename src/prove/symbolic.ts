@@ -121,6 +121,34 @@ function xorForms(a: Form, b: Form): Form {
 
 /** Largest XOR whose phase of coefficient other than 4 is expanded (cubic in its operands). */
 const EXPAND_CAP = 16;
+/**
+ * Work a reduction may spend: per gate, plus a base (the reductions that succeed on the lean
+ * counter at 200 variables and 800 clauses spend some 7 per gate).
+ */
+const WORK_PER_GATE = 64;
+const WORK_BASE = 1_000_000;
+
+/**
+ * How the path-sum reduction writes its terms. Every choice is exact (it only picks the atoms the
+ * phase polynomial is written over); they differ in which optimized seams they reduce, so the
+ * prover tries them in turn (`REDUCTIONS`).
+ */
+export interface Reduction {
+  /** Merge a qubit's classical form of several atoms into its value (see `collapse`). */
+  readonly collapse: boolean;
+  /** Largest parity expanded inside a product with a path variable (0: none; see `expand`). */
+  readonly productCap: number;
+  /** Expand a complemented path-free factor of a product with a path variable (see `expand`). */
+  readonly complements: boolean;
+}
+
+/** The reductions the prover tries, in order (measured on the lean counter, DEVELOPERS.md). */
+export const REDUCTIONS: readonly Reduction[] = [
+  { collapse: true, productCap: 0, complements: false },
+  { collapse: true, productCap: 2, complements: true },
+  { collapse: false, productCap: 2, complements: true },
+  { collapse: false, productCap: 0, complements: false }, // the reduction as first written
+];
 
 export class SymbolicRun {
   readonly g = new Graph();
@@ -146,13 +174,19 @@ export class SymbolicRun {
    * values, as the classical circuit has them.
    */
   private readonly forms = new Map<number, Form>();
+  /** XOR nodes that `collapse` made atoms of (the parities `expand` opens inside products). */
+  private readonly merged = new Set<number>();
   private paths = 0;
   private outcomes = 0;
   /** Exponent e of the amplitude factor 2^(-e/2) so far, and the number of measurements. */
   halves = 0;
   measurements = 0;
+  /** Phase terms added and graph nodes visited so far (the reduction's work, see `run`). */
+  work = 0;
+  /** True when `run` stopped early, its work out of proportion to the circuit. */
+  exhausted = false;
 
-  constructor(private readonly c: Circuit, searchSize: number, targetQubit: number) {
+  constructor(private readonly c: Circuit, searchSize: number, targetQubit: number, private readonly reduction: Reduction = REDUCTIONS[0]!) {
     this.wires = new Int32Array(c.qubits);
     this.vars = new Int32Array(searchSize);
     for (let v = 0; v < searchSize; v++) this.wires[v] = this.vars[v] = this.g.input(VAR, v);
@@ -166,7 +200,13 @@ export class SymbolicRun {
     const c = this.c;
     const kinds = GATE_KINDS;
     const ctl: number[] = [];
+    const limit = WORK_PER_GATE * c.gates + WORK_BASE;
     for (let g = 0; g < c.gates; g++) {
+      if (this.work > limit) {
+        // This reduction grows out of proportion here (another may not): stop it.
+        this.exhausted = true;
+        return null;
+      }
       const name = kinds[c.kind[g]!]!;
       const s = c.opStart[g]!;
       const e = c.opStart[g + 1]!;
@@ -291,8 +331,33 @@ export class SymbolicRun {
     this.wires[q] = v;
     if (this.g.hasPath(v)) this.pathWires.add(q);
     else if (this.pathWires.size > 0) this.pathWires.delete(q);
-    if (this.livePaths.size > 0) this.forms.set(q, form ?? atom(v));
+    if (this.livePaths.size > 0) this.forms.set(q, form === undefined ? atom(v) : this.reduction.collapse ? this.collapse(form) : form);
     else if (this.forms.size > 0) this.forms.clear();
+  }
+
+  /**
+   * The form with its path-free atoms merged into one atom, their XOR in the graph (hashed, so
+   * the same function built the same way is the same node). Any grouping of the atoms is exact
+   * (the expansions hold for Boolean atoms); this one makes a qubit's classical part its
+   * classical value, as the unoptimized gadget sees it: where the optimizer cancelled a CNOT
+   * pair or a H H pair at the seam of two gadgets, the wire's form otherwise keeps the atoms of
+   * the earlier gadget, the products over them come out as XORs of ANDs instead of the AND of
+   * the values, and the +-2 phase terms that should cancel across the seam land on different
+   * nodes.
+   */
+  private collapse(f: Form): Form {
+    const g = this.g;
+    let classical = 0;
+    for (const a of f.atoms) if (!g.hasPath(a)) classical++;
+    if (classical < 2 || classical < f.atoms.length) return f;
+    let v = FALSE;
+    const paths: number[] = [];
+    for (const a of f.atoms) {
+      if (g.hasPath(a)) paths.push(a);
+      else v = g.xor(v, a);
+    }
+    if (v > 1 && g.kind(v >>> 1) === XOR) this.merged.add(v >>> 1);
+    return xorForms({ atoms: paths, c: f.c }, atom(v));
   }
 
   /** Qubit q's affine form (complemented when `negated` is 1). */
@@ -424,11 +489,52 @@ export class SymbolicRun {
           return;
         }
       }
+      if ((k & 3) !== 0) {
+        // A parity inside a product with a path variable, at a coefficient other than 4: expanded
+        // as at the top level (rest AND (a1 XOR ... XOR an) = sum over non-empty S of
+        // (-2)^(|S|-1) rest prod(S)), so that the terms of a path variable are written over the
+        // same atoms however the parity was grouped (a XOR b as one value in a 7-T Toffoli, or
+        // a and b apart) and cancel term by term before it is summed out.
+        if (this.reduction.complements) {
+          for (let i = 0; i < ops.length; i++) {
+            const o = ops[i]!;
+            if ((o & 1) === 0 || g.hasPath(o) || (this.reduction.collapse && !this.merged.has(o >>> 1))) continue;
+            // rest AND NOT p = rest - rest AND p (p path-free)
+            const rest = g.and(Array.from(ops).filter((_, j) => j !== i));
+            this.expand(k, rest, emit);
+            this.expand((8 - k) & 7, g.and2(rest, o ^ 1), emit);
+            return;
+          }
+        }
+        for (let i = 0; i < ops.length; i++) {
+          const o = ops[i]!;
+          if (g.kind(o >>> 1) !== XOR || g.arity(o >>> 1) > this.reduction.productCap || (this.reduction.collapse && !this.merged.has(o >>> 1))) continue;
+          const rest = g.and(Array.from(ops).filter((_, j) => j !== i));
+          if ((o & 1) === 1) {
+            // rest AND NOT p = rest - rest AND p
+            this.expand(k, rest, emit);
+            this.expand((8 - k) & 7, g.and2(rest, o ^ 1), emit);
+            return;
+          }
+          const xs = Array.from(g.operands(o >>> 1));
+          const n = xs.length;
+          for (let a = 0; a < n; a++) {
+            this.expand(k, g.and2(rest, xs[a]!), emit);
+            for (let b = a + 1; b < n; b++) {
+              const ab = g.and([rest, xs[a]!, xs[b]!]);
+              this.expand((k * 6) & 7, ab, emit); // -2k
+              if (k & 1) for (let c = b + 1; c < n; c++) this.expand(4, g.and2(ab, xs[c]!), emit); // 4k = 4 for odd k
+            }
+          }
+          return;
+        }
+      }
     }
     emit(k, lit);
   }
 
   private addTerm(k: number, node: number): void {
+    this.work++;
     const v = ((this.phase.get(node) ?? 0) + k) & 7;
     if (v === 0) this.phase.delete(node);
     else {
@@ -506,11 +612,13 @@ export class SymbolicRun {
   /**
    * Where the optimizer cancelled the H H (and T Tdg, and CNOT) pairs at the seam of two gadgets
    * on one wire, the first gadget's path variable runs on into the second, and its phase terms
-   * mix with the second's over different atoms. When qubit q holds y XOR R, where R is an XOR
-   * of values that other wires hold right now, the identity U T^-j H H T^j U (U: q ^= R, a
-   * CNOT from each of those wires) can be inserted: the first H sums y out (the wire gets its
-   * classical value, 0 at a seam), the second starts a fresh path variable for the rest. j (0..3)
-   * makes the linear term of y 0 or 4. Nothing happens unless y can be summed out there.
+   * mix with the second's over different atoms. When qubit q holds y XOR R, R path-free, and y
+   * occurs elsewhere only in phase terms 4 y M_j and k y, the path sum is rewritten by renaming
+   * y to a fresh y' with the terms 4 y M_j gathered into one, 4 y' (XOR_j M_j) (4a + 4b = 4 (a
+   * XOR b) mod 8), and k y kept as k y': the same sum term for term, so exact whatever R is (it
+   * is the identity U T^-j H H T^j U^-1, U: q ^= R, inserted at the seam, in the terms of Amy
+   * 2018's reduction rules). The wire's form then starts afresh from y' XOR R. Nothing happens
+   * unless y can be gathered so.
    */
   private rebase(q: number): void {
     const g = this.g;
@@ -524,12 +632,6 @@ export class SymbolicRun {
       else y = a >>> 1;
     }
     if (y < 0) return;
-    // Each atom of R must be the value (or its complement) of another wire: U is then CNOTs.
-    if (rest.length > 0) {
-      const held = new Set<number>();
-      for (let w = 0; w < this.wires.length; w++) if (w !== q) held.add(this.wires[w]! & ~1);
-      for (const a of rest) if (!held.has(a & ~1)) return;
-    }
     const linear = { k: 0 };
     const m = this.sumOut(q, y, linear);
     if (m === null) return;
@@ -552,6 +654,7 @@ export class SymbolicRun {
     const seen = new Set<number>();
     while (stack.length > 0) {
       const n = stack.pop()!;
+      this.work++;
       if (n === y) return true;
       if (seen.has(n) || g.kind(n) === INPUT) continue;
       seen.add(n);
