@@ -63,7 +63,11 @@ describe("gadgets: each proven once by exact simulation and by the prover", () =
     it(name, () => {
       const c = make();
       expect(simulatedCorrect(c, cnf, kind)).toBe(true);
-      expect(proveOracle(cnf, c, { kind })).toMatchObject({ status: "proved", method: "structural" });
+      const r = proveOracle(cnf, c, { kind });
+      // Structural hashing closes most gadgets outright; where the path-sum collapse leaves the flag
+      // as an equal but differently written function, the solver decides the (small) miter.
+      expect(r.status).toBe("proved");
+      expect(["structural", "sat"]).toContain(r.method);
     });
   }
   it("multi-controlled Z and X decomposed into trees of temporary ANDs over clean work qubits (Barenco et al. 1995), 5 controls", () => {
