@@ -147,6 +147,7 @@ export function falsify(g: Graph, root: number, n: number, cnf: Cnf | null, opts
   const r = seededRandom(opts.seed ?? 1);
   const vars = new Int32Array(Math.max(1, n) * BATCH);
   const target = new Int32Array(BATCH);
+  const mixed = new Int32Array(BATCH);
   const outcomes = new Int32Array(Math.max(1, cone.outcomes) * BATCH);
   const pending: Uint8Array[] = [];
   const word = (): number => (r() * 0x100000000) | 0;
@@ -159,8 +160,13 @@ export function falsify(g: Graph, root: number, n: number, cnf: Cnf | null, opts
       const bit = 1 << (lane & 31);
       for (let v = 0; v < n; v++) if (a[v] === 1) vars[v * BATCH + w]! |= bit;
     }
-    for (let w = 0; w < BATCH; w++) target[w] = word();
-    for (let i = 0; i < outcomes.length; i++) outcomes[i] = word();
+    // Half the lanes (at random) get random outcomes, the other half all outcomes 0: a wrong
+    // circuit may fail only when no fix-up fires, which random outcomes almost never give.
+    for (let w = 0; w < BATCH; w++) {
+      target[w] = word();
+      mixed[w] = word();
+    }
+    for (let i = 0; i < outcomes.length; i++) outcomes[i] = word() & mixed[i % BATCH]!;
     const hits = cone.run(vars, target, outcomes);
     for (let w = 0; w < BATCH; w++) {
       for (let bits = hits[w]!; bits !== 0; bits &= bits - 1) {
@@ -267,10 +273,14 @@ export function* candidates(n: number, cnf: Cnf | null, r: () => number, opts: C
     })());
     sources.push((function* (): Generator<Uint8Array> {
       // Hill climbs on the number of violated clauses, up and down; every step is an input.
-      for (let restart = 0; restart < 4; restart++) {
+      // Some climbs count only the clauses of a prefix: a counter of violated clauses then
+      // passes through every value at that clause, high ones included.
+      const m = f.clauseStart.length - 1;
+      for (let restart = 0; restart < 64; restart++) {
         for (const up of [true, false]) {
-          const walk = new Walk(f, uniform(), new Uint8Array(n), r);
-          yield* walk.run(up, 4 * n, up ? f.clauseStart.length : 0);
+          const prefix = restart < 4 ? m : Math.max(1, Math.ceil(m * (0.1 + 0.9 * r())));
+          const walk = new Walk(f, uniform(), new Uint8Array(n), r, prefix);
+          yield* walk.run(up, 4 * n, up ? m + 1 : 0);
         }
       }
     })());
@@ -300,7 +310,8 @@ class Walk {
   private readonly trueLits: Int32Array;
   private violated = 0;
 
-  constructor(private readonly cnf: Cnf, readonly a: Uint8Array, private readonly frozen: Uint8Array, private readonly r: () => number) {
+  /** Only clauses before `prefix` count (default: all). */
+  constructor(private readonly cnf: Cnf, readonly a: Uint8Array, private readonly frozen: Uint8Array, private readonly r: () => number, private readonly prefix = cnf.clauseStart.length - 1) {
     let occ = occurrences.get(cnf);
     if (occ === undefined) {
       const n = cnf.variables;
@@ -326,7 +337,7 @@ class Walk {
     this.trueLits = new Int32Array(m);
     for (let i = 0; i < m; i++) {
       for (let k = cnf.clauseStart[i]!; k < cnf.clauseStart[i + 1]!; k++) if (this.isTrue(cnf.lits[k]!)) this.trueLits[i]!++;
-      if (this.trueLits[i] === 0) this.violated++;
+      if (this.trueLits[i] === 0 && i < prefix) this.violated++;
     }
   }
 
@@ -339,6 +350,7 @@ class Walk {
     let d = 0;
     for (let p = this.start[v - 1]!; p < this.start[v]!; p++) {
       const k = this.at[p]!;
+      if (this.clauseOf[k]! >= this.prefix) continue;
       const t = this.trueLits[this.clauseOf[k]!]!;
       if (this.isTrue(this.cnf.lits[k]!)) d += t === 1 ? 1 : 0;
       else d -= t === 0 ? 1 : 0;
@@ -352,6 +364,7 @@ class Walk {
       const i = this.clauseOf[k]!;
       const before = this.trueLits[i]!;
       this.trueLits[i] = before + (this.isTrue(this.cnf.lits[k]!) ? -1 : 1);
+      if (i >= this.prefix) continue;
       if (before === 0) this.violated--;
       else if (this.trueLits[i] === 0) this.violated++;
     }
