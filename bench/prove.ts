@@ -101,7 +101,7 @@ function benchMillion(): void {
  * counted as "WRONG"), an unknown one too (harmful when simulation fails: "fallback"; else
  * "undecided"). Prints counts and times per size and construction.
  */
-async function benchMutants(sizes: readonly number[], constructions: readonly string[], picks: number): Promise<void> {
+async function benchMutants(sizes: readonly number[], constructions: readonly string[], picks: number, bases: readonly string[] = ["mcx", "toffoli", "clifford+t"]): Promise<void> {
   console.log(`mutants of oracles of random 3-SAT (3n clauses): ${picks} per construction x kind x basis x uncomputation x mutation`);
   console.log("  vars  construction  mutants  refuted  proved  fallback  undecided  WRONG   mean s   max s  (slowest)");
   for (const n of sizes) {
@@ -113,7 +113,7 @@ async function benchMutants(sizes: readonly number[], constructions: readonly st
       let slowest = "";
       const r = seededRandom(n * 31 + construction.length);
       for (const kind of ["phase", "flag"] as const) {
-        for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
+        for (const basis of bases as readonly ("mcx" | "toffoli" | "clifford+t")[]) {
           for (const uncompute of ["unitary", "measured"] as const) {
             const o: OracleOptions = { kind, construction, basis, uncompute, structure: false };
             const c = compileOracle(cnf, o).circuit;
@@ -164,10 +164,10 @@ else if (import.meta.url === `file://${process.argv[1]}`) {
   if (part === undefined || part === "planted") benchPlanted();
   if (part === undefined || part === "million") benchMillion();
   if (part === "mutants") {
-    // node dist/bench/prove.js mutants [sizes, e.g. 60,100,200] [constructions, e.g. lean,blocks-6] [picks]
+    // node dist/bench/prove.js mutants [sizes, e.g. 60,100,200] [constructions, e.g. lean,blocks-6] [picks] [bases, e.g. mcx,toffoli]
     const sizes = (process.argv[3] ?? "60,100,200").split(",").map(Number);
     const constructions = (process.argv[4] ?? "wide,lean,blocks-6,fanout-1").split(",");
-    await benchMutants(sizes, constructions, Number(process.argv[5] ?? 2));
+    await benchMutants(sizes, constructions, Number(process.argv[5] ?? 2), (process.argv[6] ?? "mcx,toffoli,clifford+t").split(","));
   }
 }
 
