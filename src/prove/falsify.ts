@@ -22,10 +22,9 @@
 import type { Cnf } from "../cnf/cnf.js";
 import { CdclSolver } from "../cnf/solve.js";
 import type { Circuit } from "../ir/circuit.js";
-import { compileBitProgram } from "../sim/bitsim.js";
 import { basisTerm, CircuitFault, runSparse } from "../sim/sparse.js";
 import { seededRandom } from "../util/random.js";
-import { failureOn, type OracleLayout } from "./confirm.js";
+import { failureBySparse, type OracleLayout } from "./confirm.js";
 import { AND, CONST, INPUT, OUTCOME, TARGET, VAR, type Graph } from "./graph.js";
 import { operandsFor } from "./tseitin.js";
 
@@ -419,7 +418,7 @@ export interface SimulatedFailure {
 
 /**
  * For circuits the symbolic run cannot reduce (a Clifford+T circuit whose Hadamards no gadget
- * closes): the exact state-vector simulator on the first candidate assignments, with measurement
+ * closes, a measurement of a value that depends on the input): the exact state-vector simulator on the first candidate assignments, with measurement
  * outcomes drawn and recorded, until one fails or `maxInputs` inputs or `seconds` have passed.
  * Only a refutation can come of it, never a proof.
  */
@@ -427,7 +426,6 @@ export function falsifyBySimulation(
   c: Circuit, n: number, cnf: Cnf | null, value: (assignment: readonly boolean[]) => boolean, layout: OracleLayout,
   maxInputs = 128, seconds = 10,
 ): SimulatedFailure | null {
-  if (!("unsupported" in compileBitProgram(c))) return null; // classical: the kernel's outcomes are not recorded
   const t0 = performance.now();
   const r = seededRandom(7);
   let k = 0;
@@ -448,7 +446,8 @@ export function falsifyBySimulation(
       if (!(e instanceof CircuitFault)) throw e;
     }
     const outcomes = recorded.map((o) => o === 1);
-    const failure = failureOn(c, f, layout, { assignment, target, xOutcomes: [], allOutcomes: outcomes });
+    // The exact simulator also for classical circuits: its recorded outcomes name the input.
+    const failure = failureBySparse(c, f, layout, { assignment, target, xOutcomes: [], allOutcomes: outcomes });
     if (failure !== null) return { assignment, target, outcomes, f, failure };
   }
   return null;
