@@ -17,8 +17,10 @@ import { cnfFromClauses, type Cnf } from "../src/cnf/cnf.js";
 import { scanDimacs } from "../src/cnf/scanner.js";
 import { compileOracle, type OracleOptions } from "../src/compile.js";
 import { proveOracle } from "../src/prove/index.js";
+import { verifyOracle } from "../src/sim/verify.js";
 import { seededRandom } from "../src/util/random.js";
-import { writeRandomCnf } from "./random.js";
+import { MUTATIONS, mutate } from "./mutants.js";
+import { randomClauses, writeRandomCnf } from "./random.js";
 
 const here = dirname(fileURLToPath(import.meta.url));
 const out = join(here, "..", "..", "bench", "out");
@@ -102,11 +104,82 @@ function benchMillion(): void {
   console.log(`  read ${r.readS.toFixed(1)} s, compile ${r.compileS.toFixed(1)} s, prove ${r.proveS.toFixed(1)} s; whole process ${wall.toFixed(1)} s; peak ${r.peakMB.toFixed(0)} MB (target: under 10 minutes)`);
 }
 
+/**
+ * The mutation sweep: random 3-SAT (3n clauses) at 60, 100 and 200 variables; for each
+ * construction (wide, lean, blocks-6, fanout-1) x kind x basis x uncomputation x mutation,
+ * `picks` mutants (random places). Each is proved, refuted or left unknown by the prover; a proof
+ * is cross-checked by sampled simulation (a proved mutant that simulation fails is a prover bug:
+ * counted as "WRONG"), an unknown one too (harmful when simulation fails: "fallback"; else
+ * "undecided"). Prints counts and times per size and construction.
+ */
+async function benchMutants(sizes: readonly number[], constructions: readonly string[], picks: number, bases: readonly string[] = ["mcx", "toffoli", "clifford+t"]): Promise<void> {
+  console.log(`mutants of oracles of random 3-SAT (3n clauses): ${picks} per construction x kind x basis x uncomputation x mutation`);
+  console.log("  vars  construction  mutants  refuted  proved  fallback  undecided  WRONG   mean s   max s  (slowest)");
+  for (const n of sizes) {
+    const cnf = cnfFromClauses(n, [...randomClauses(n, 3 * n, 3, 1000 + n)]);
+    for (const construction of constructions) {
+      const counts = { mutants: 0, refuted: 0, proved: 0, fallback: 0, undecided: 0, wrong: 0 };
+      let total = 0;
+      let worst = 0;
+      let slowest = "";
+      const r = seededRandom(n * 31 + construction.length);
+      for (const kind of ["phase", "flag"] as const) {
+        for (const basis of bases as readonly ("mcx" | "toffoli" | "clifford+t")[]) {
+          for (const uncompute of ["unitary", "measured"] as const) {
+            const o: OracleOptions = { kind, construction, basis, uncompute, structure: false };
+            const c = compileOracle(cnf, o).circuit;
+            for (const m of MUTATIONS) {
+              for (let k = 0; k < picks; k++) {
+                const mutated = mutate(c, m, Math.floor(r() * 2 ** 31));
+                if (mutated === null) continue;
+                counts.mutants++;
+                const p = proveOracle(cnf, mutated, { kind });
+                total += p.seconds;
+                if (process.env.MUTANTS_VERBOSE) console.log(`    ${n} ${construction} ${kind} ${basis} ${uncompute} ${m}: ${p.status} by ${p.method} in ${p.seconds.toFixed(2)} s`);
+                if (p.seconds > worst) {
+                  worst = p.seconds;
+                  slowest = `${kind} ${basis} ${uncompute} ${m}: ${p.status} by ${p.method}`;
+                }
+                if (p.status === "refuted") {
+                  counts.refuted++;
+                  continue;
+                }
+                const sim = await verifyOracle(cnf, mutated, { kind, threads: 1, samples: 256, models: 16 });
+                const where = `${n} ${construction} ${kind} ${basis} ${uncompute} ${m}`;
+                if (p.status === "proved") {
+                  if (sim.counterexample !== null) {
+                    counts.wrong++;
+                    console.log(`  WRONG: proved, but simulation fails: ${where}`);
+                  } else counts.proved++;
+                } else if (sim.counterexample !== null) {
+                  counts.fallback++;
+                  if (process.env.MUTANTS_VERBOSE) console.log(`  fallback: ${where}: ${p.message}`);
+                } else {
+                  counts.undecided++;
+                  if (process.env.MUTANTS_VERBOSE) console.log(`  undecided: ${where}: ${p.message}`);
+                }
+              }
+            }
+          }
+        }
+      }
+      const c = counts;
+      console.log(`  ${String(n).padStart(4)}  ${construction.padEnd(12)} ${String(c.mutants).padStart(8)} ${String(c.refuted).padStart(8)} ${String(c.proved).padStart(7)} ${String(c.fallback).padStart(9)} ${String(c.undecided).padStart(10)} ${String(c.wrong).padStart(6)} ${(total / Math.max(1, c.mutants)).toFixed(2).padStart(8)} ${worst.toFixed(2).padStart(7)}  (${slowest})`);
+    }
+  }
+}
+
 const part = process.argv[2];
 if (part === "million-here") proveMillionHere(process.argv[3]!);
 else if (import.meta.url === `file://${process.argv[1]}`) {
   if (part === undefined || part === "planted") benchPlanted(process.argv.slice(3));
   if (part === undefined || part === "million") benchMillion();
+  if (part === "mutants") {
+    // node dist/bench/prove.js mutants [sizes, e.g. 60,100,200] [constructions, e.g. lean,blocks-6] [picks] [bases, e.g. mcx,toffoli]
+    const sizes = (process.argv[3] ?? "60,100,200").split(",").map(Number);
+    const constructions = (process.argv[4] ?? "wide,lean,blocks-6,fanout-1").split(",");
+    await benchMutants(sizes, constructions, Number(process.argv[5] ?? 2), (process.argv[6] ?? "mcx,toffoli,clifford+t").split(","));
+  }
 }
 
-export { benchPlanted, benchMillion };
+export { benchPlanted, benchMillion, benchMutants };

@@ -43,6 +43,14 @@ export function failureOn(c: Circuit, f: boolean, layout: OracleLayout, input: O
     if (classical.faultGate >= 0) return `the temporary AND at gate ${classical.faultGate} found its target in the wrong state`;
     return describe(c.qubits, layout, input, f, (q) => classical.qubits[q]!, classical.phase, 0);
   }
+  return failureBySparse(c, f, layout, input);
+}
+
+/** {@link failureOn} by the exact state-vector simulator alone, `input.allOutcomes` forced. */
+export function failureBySparse(c: Circuit, f: boolean, layout: OracleLayout, input: OracleInput): string | null {
+  const bits = new Array<boolean>(c.qubits).fill(false);
+  input.assignment.forEach((on, v) => (bits[v] = on));
+  if (layout.target >= 0) bits[layout.target] = input.target;
   const ones: number[] = [];
   bits.forEach((on, q) => on && ones.push(q));
   let terms: Term[];

@@ -32,6 +32,7 @@ import { compileBitProgram } from "../sim/bitsim.js";
 import { failureOn, type OracleLayout } from "./confirm.js";
 import { FALSE, OUTCOME, TARGET, TRUE, VAR, type Graph } from "./graph.js";
 import { cutBddProof } from "./bdd.js";
+import { falsify, falsifyBySimulation } from "./falsify.js";
 import { buildMiter, formulaLiteral } from "./miter.js";
 import { REDUCTIONS, SymbolicRun } from "./symbolic.js";
 import { coneSize, encodeCone } from "./tseitin.js";
@@ -88,8 +89,12 @@ export interface ProveOptions {
   readonly expected?: ExpectedFunction;
 }
 
-/** How a proof (or refutation) was reached. */
-export type ProofMethod = "structural" | "bdd" | "sat" | "none";
+/**
+ * How a proof (or refutation) was reached. `simulation`: a refutation found by evaluating the
+ * miter on chosen inputs (models, their neighbours, clause-violating and random assignments)
+ * before any solver ran.
+ */
+export type ProofMethod = "structural" | "simulation" | "bdd" | "sat" | "none";
 
 /** An input on which the circuit is not the oracle, confirmed by simulating the circuit there. */
 export interface ProofCounterexample {
@@ -178,6 +183,28 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   const work = Math.max(search.size, targetReg !== undefined ? targetReg.start + targetReg.size : 0);
   const layout: OracleLayout = { kind, search: search.size, target, work };
 
+  const valueOf = options.expected === undefined ? (a: readonly boolean[]) => evaluate(cnf, a) : (a: readonly boolean[]) => options.expected!.evaluate(a);
+  const refuted = (method: ProofMethod, miter: OracleProof["miter"], graphNodes: number, assignment: boolean[], targetValue: boolean, outcomes: boolean[], fx: boolean, failure: string): OracleProof => {
+    const expected = kind === "phase"
+      ? `phase ${fx ? "-1" : "+1"} (the formula is ${fx ? "" : "not "}satisfied), every work qubit back to |0>`
+      : `target flipped ${fx ? "" : "not "}(the formula is ${fx ? "" : "not "}satisfied), every work qubit back to |0>`;
+    return {
+      status: "refuted", proved: false, method, miter, seconds: seconds(), message: `refuted: ${failure}`, graphNodes,
+      counterexample: {
+        assignment, dimacs: dimacsOf(assignment), ...(target >= 0 ? { target: targetValue } : {}), outcomes, expected, actual: failure,
+      },
+    };
+  };
+  /**
+   * A circuit the symbolic run cannot reduce: no proof, but simulation on the falsifier's
+   * chosen inputs may still show it wrong (falsify.ts).
+   */
+  const unreduced = (message: string, graphNodes: number): OracleProof => {
+    const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout);
+    if (hit === null) return none(message, graphNodes);
+    return refuted("simulation", { variables: 0, clauses: 0 }, graphNodes, hit.assignment, hit.target, hit.outcomes, hit.f, hit.failure);
+  };
+
   // The path-sum reductions in turn (symbolic.ts, REDUCTIONS): the first whose path variables all
   // close. Each is exact.
   let chosen: { run: SymbolicRun; f: number; cuts: number[] } | null = null;
@@ -189,20 +216,19 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
     const f = options.expected === undefined ? formulaLiteral(run.g, cnf, run.vars, cuts) : options.expected.build(builderOf(run.g), run.vars, cuts);
     run.g.setCuts(cuts);
     const stuck = run.run();
-    if (stuck !== null) return none(`not proven: gate ${stuck.gate} is ${stuck.reason}`, run.g.size);
+    if (stuck !== null) return unreduced(`not proven: gate ${stuck.gate} is ${stuck.reason}`, run.g.size);
     lastSize = run.g.size;
     if (run.exhausted || run.openPaths()) continue;
     chosen = { run, f, cuts };
     break;
   }
   if (chosen === null) {
-    return none("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", lastSize);
+    return unreduced("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", lastSize);
   }
   const { run, f, cuts } = chosen;
   const state = run.state();
   const root = buildMiter(state, f, kind, target, work);
   const g = state.graph;
-  const valueOf = options.expected === undefined ? (a: readonly boolean[]) => evaluate(cnf, a) : (a: readonly boolean[]) => options.expected!.evaluate(a);
 
   // A counterexample from values of the graph's inputs, confirmed by simulation.
   const refute = (value: (node: number) => boolean, method: ProofMethod, miter: OracleProof["miter"]): OracleProof => {
@@ -216,15 +242,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
     if (failure === null) {
       return none("not proven: the prover's counterexample does not fail in simulation (a prover bug: please report it)", g.size, miter);
     }
-    const expected = kind === "phase"
-      ? `phase ${fx ? "-1" : "+1"} (the formula is ${fx ? "" : "not "}satisfied), every work qubit back to |0>`
-      : `target flipped ${fx ? "" : "not "}(the formula is ${fx ? "" : "not "}satisfied), every work qubit back to |0>`;
-    return {
-      status: "refuted", proved: false, method, miter, seconds: seconds(), message: `refuted: ${failure}`, graphNodes: g.size,
-      counterexample: {
-        assignment, dimacs: dimacsOf(assignment), ...(target >= 0 ? { target: targetValue } : {}), outcomes, expected, actual: failure,
-      },
-    };
+    return refuted(method, miter, g.size, assignment, targetValue, outcomes, fx, failure);
   };
   const proved = (method: ProofMethod, miter: OracleProof["miter"], message: string): OracleProof => ({
     status: "proved", proved: true, method, miter, seconds: seconds(), message, graphNodes: g.size,
@@ -234,6 +252,23 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   if (root === TRUE) return refute(() => false, "structural", { variables: 0, clauses: 0 });
 
   const miter = coneSize(g, root);
+  // The falsification front-end (falsify.ts): a wrong circuit usually fails on some chosen input.
+  let early: OracleProof | null = null;
+  falsify(g, root, inputs, options.expected === undefined ? cnf : null, {
+    accept: (input) => {
+      const r = refute((node) => {
+        const role = g.role(node);
+        if (role === VAR) return input.assignment[g.index(node)] === true;
+        if (role === TARGET) return input.target;
+        if (role === OUTCOME) return input.outcomes[g.index(node)] === true;
+        return false;
+      }, "simulation", miter);
+      if (r.status !== "refuted") return false;
+      early = r;
+      return true;
+    },
+  });
+  if (early !== null) return early;
   if (miter.clauses > (options.satClauseLimit ?? 5_000_000)) {
     const cut = cutBddProof(g, root, cuts, options.bddNodeLimit ?? 4_000_000);
     if (cut.proved) return proved("bdd", miter, `proved: the miter is false over the clause nodes (${cut.variables} BDD variables, ${cut.nodes} nodes)`);
