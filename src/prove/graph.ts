@@ -50,6 +50,8 @@ export const XOR_CAP = 4096;
 const FLATTEN_BUDGET = 400_000_000;
 
 export class Graph {
+  /** Operands read by `and` and by cut matching so far: a measure of work for the prover's budgets. */
+  effort = 0;
   private kinds = new Uint8Array(1024);
   /** For inputs: the role (VAR ...); else 0. */
   private roles = new Uint8Array(1024);
@@ -157,6 +159,7 @@ export class Graph {
 
   /** AND of any number of literals. */
   and(lits: ArrayLike<number>): number {
+    this.effort += lits.length;
     if (lits.length === 0) return TRUE;
     if (lits.length === 1) return lits[0]!;
     if (lits.length === 2 && this.cutHead === null) return this.and2(lits[0]!, lits[1]!);
@@ -253,6 +256,7 @@ export class Graph {
       if (l >= head.length) break; // operands are sorted: no cut starts at a larger literal
       for (let c = head[l]!; c >= 0; c = this.cutNext[c]!) {
         const ops = this.operands(this.cutNodes[c]!);
+        this.effort += ops.length;
         // Is ops (sorted) a subset of s[i..n) (sorted)? Two pointers.
         let p = i;
         let ok = true;

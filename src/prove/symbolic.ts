@@ -127,6 +127,13 @@ const EXPAND_CAP = 16;
  */
 const WORK_PER_GATE = 64;
 const WORK_BASE = 1_000_000;
+/**
+ * Graph effort a reduction may spend (Graph.effort: operands read while building ANDs): an open
+ * path variable can make every AND huge while adding few phase terms. Common practice: a generous
+ * multiple of the circuit size, far above what the reductions that close spend.
+ */
+const EFFORT_PER_GATE = 1024;
+const EFFORT_BASE = 20_000_000;
 
 /**
  * How the path-sum reduction writes its terms. Every choice is exact (it only picks the atoms the
@@ -201,8 +208,9 @@ export class SymbolicRun {
     const kinds = GATE_KINDS;
     const ctl: number[] = [];
     const limit = WORK_PER_GATE * c.gates + WORK_BASE;
+    const effortLimit = EFFORT_PER_GATE * c.gates + EFFORT_BASE;
     for (let g = 0; g < c.gates; g++) {
-      if (this.work > limit) {
+      if (this.work > limit || this.g.effort > effortLimit) {
         // This reduction grows out of proportion here (another may not): stop it.
         this.exhausted = true;
         return null;
