@@ -366,18 +366,10 @@ export function replayLogical(c: Circuit, base: number, sink: LogicalSink, ids: 
     const dies = tq >= base && lastUse[tq] === g;
     switch (kind) {
       case K.and:
-        if (last === 2) sink.andPair(buf[0]!, buf[1]!, buf[2]! >>> 1);
-        else sink.and(buf.subarray(0, last), buf[last]! >>> 1);
-        break;
       case K.unand:
-        sink.unand(buf[last]! >>> 1, dies);
-        break;
       case K.mcx:
-        if (last === 1) sink.mcx1(buf[0]!, buf[1]! >>> 1, dies);
-        else sink.mcx(buf.subarray(0, last), buf[last]! >>> 1, dies);
-        break;
       case K.mcz:
-        sink.mcz(buf.subarray(0, nq));
+        sinkMulti(sink, kind, buf, nq, dies);
         break;
       case K.x:
         sink.single(T_X, buf[0]! >>> 1, dies);
@@ -401,6 +393,30 @@ export function replayLogical(c: Circuit, base: number, sink: LogicalSink, ids: 
       ids.give(vid[q]!);
       vid[q] = -1;
     }
+  }
+}
+
+/**
+ * One multi-qubit logical operation (and, unand, mcx, mcz) into the sink: `buf[0..nq)` holds its
+ * operands as virtual ids with the polarity bit, the target last. Shared by the replay of a built
+ * circuit and the structured stream (structuredSource.ts).
+ */
+export function sinkMulti(sink: LogicalSink, kind: number, buf: Int32Array, nq: number, dies: boolean): void {
+  const last = nq - 1;
+  switch (kind) {
+    case K.and:
+      if (last === 2) sink.andPair(buf[0]!, buf[1]!, buf[2]! >>> 1);
+      else sink.and(buf.subarray(0, last), buf[last]! >>> 1);
+      return;
+    case K.unand:
+      sink.unand(buf[last]! >>> 1, dies);
+      return;
+    case K.mcx:
+      if (last === 1) sink.mcx1(buf[0]!, buf[1]! >>> 1, dies);
+      else sink.mcx(buf.subarray(0, last), buf[last]! >>> 1, dies);
+      return;
+    default:
+      sink.mcz(buf.subarray(0, nq));
   }
 }
 

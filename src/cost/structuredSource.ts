@@ -23,7 +23,7 @@ import { K, pos } from "../ir/circuit.js";
 import type { OracleKind, Strategy, StructuredFormula } from "../synth/index.js";
 import { structuredChecks, wideMarkInputs, type StructuredChecks } from "../synth/structured.js";
 import { VirtualIds, type LogicalSink } from "./lowering.js";
-import type { Fraction } from "./sources.js";
+import { sinkMulti, type Fraction } from "./sources.js";
 import { T_X } from "./templates.js";
 
 const inverse = (k: number): number => (k === K.and ? K.unand : k === K.unand ? K.and : k);
@@ -248,18 +248,10 @@ class Replay {
     const dies = ends && tq >= base;
     switch (kind) {
       case K.and:
-        if (last === 2) sink.andPair(buf[0]!, buf[1]!, buf[2]! >>> 1);
-        else sink.and(buf.subarray(0, last), buf[last]! >>> 1);
-        break;
       case K.unand:
-        sink.unand(buf[last]! >>> 1, dies);
-        break;
       case K.mcx:
-        if (last === 1) sink.mcx1(buf[0]!, buf[1]! >>> 1, dies);
-        else sink.mcx(buf.subarray(0, last), buf[last]! >>> 1, dies);
-        break;
       case K.mcz:
-        sink.mcz(buf.subarray(0, nq));
+        sinkMulti(sink, kind, buf, nq, dies);
         break;
       default:
         throw new Error(`counting: structured operation kind ${kind} is not produced by synthesis`);
