@@ -16,8 +16,8 @@ import {
 import { planOracle, synthesize, type OracleKind, type OraclePlan, type RegisterMode, type SimplifiedCnf } from "../synth/index.js";
 import { builtCounts } from "./built.js";
 import type { CostRow } from "./index.js";
-import { CountingEngine, type EngineResult } from "./engine.js";
-import { LoweringStream, VirtualIds } from "./lowering.js";
+import type { EngineResult } from "./engine.js";
+import { BUILD_LIMIT, DEFAULT_LAG, run } from "./run.js";
 import { lastUses, leanOracle, replayLogical } from "./sources.js";
 import { StructuredSource } from "./structuredSource.js";
 
@@ -82,11 +82,6 @@ export type ConstructionChoice =
       readonly smallest: ConstructionCost;
     };
 
-/** Built instead of counted when the engine cannot be exact and the circuit is at most this many template instances. */
-const BUILD_LIMIT = 400_000;
-const DEFAULT_LAG = 1 << 16;
-const HISTORY_BYTES = 256 << 20;
-
 /** An oracle plan whose oracle is the clause construction over `f` (a full register, no structure). */
 function clausePlan(f: SimplifiedCnf): OraclePlan {
   const register = Int32Array.from({ length: f.variables }, (_, i) => i + 1);
@@ -109,7 +104,7 @@ export function countConstructionOracle(source: SimplifiedCnf | OraclePlan, kind
   if (plan.structured !== null && family !== "blocks") {
     const src = new StructuredSource(plan.structured, kind, family);
     const far = family === "lean" && basis === "clifford+t" && uncompute === "unitary" && optimize && src.idleStretch().longest >= DEFAULT_LAG;
-    const r = runEngine(src.base, optimize, levels, { basis, uncompute, toffoliAnds: false }, (low, ids) => src.emit(low, ids), {
+    const r = run(src.base, optimize, levels, { basis, uncompute, toffoliAnds: false }, (low, ids) => src.emit(low, ids), {
       lag: far ? Infinity : DEFAULT_LAG, history: 1, wires: src.base + (family === "lean" ? 64 : src.checkQubits + 64), ids: src.base + src.checkQubits + 1024,
     });
     if (r.exact || r.instances > BUILD_LIMIT) return r;
@@ -126,7 +121,7 @@ export function countConstructionOracle(source: SimplifiedCnf | OraclePlan, kind
     wires: base + (lean ? 64 : (logical?.qubits ?? 0) - base + 64),
     ids: (logical?.qubits ?? base) + 1024,
   };
-  const r = runEngine(base, optimize, levels, { basis, uncompute, toffoliAnds: false }, (low, ids) => {
+  const r = run(base, optimize, levels, { basis, uncompute, toffoliAnds: false }, (low, ids) => {
     if (logical === null) leanOracle(f, kind, low, ids, f.variables);
     else replayLogical(logical, base, low, ids, last!);
   }, sizing);
@@ -140,39 +135,11 @@ export function countTextbook(f: SimplifiedCnf, kind: OracleKind): EngineResult 
   const base = f.variables + (kind === "flag" ? 1 : 0);
   const logical = synthesize(f, kind, "textbook");
   const last = lastUses(logical);
-  const r = runEngine(base, true, true, { basis: "clifford+t", uncompute: "unitary", toffoliAnds: true }, (low, ids) => replayLogical(logical, base, low, ids, last), {
+  const r = run(base, true, true, { basis: "clifford+t", uncompute: "unitary", toffoliAnds: true }, (low, ids) => replayLogical(logical, base, low, ids, last), {
     lag: DEFAULT_LAG, history: 1, wires: logical.qubits + 64, ids: logical.qubits + 1024,
   });
   if (r.exact || r.instances > BUILD_LIMIT) return r;
   return { ...r, ...builtCounts(logical, "clifford+t", "unitary", true, true), exact: true, upperBound: false, reason: null };
-}
-
-/**
- * cost/index.ts's run: the engine over a stream, again with more kept when it fell short, and at
- * last with everything kept, where nothing can fall short.
- */
-function runEngine(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number }): EngineResult {
-  let { lag, history, wires } = sizing;
-  let second = levels;
-  for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids });
-    const ids = new VirtualIds(base);
-    const low = new LoweringStream(engine, ids, mode, sizing.ids);
-    emit(low, ids);
-    low.finish();
-    const r = engine.finish();
-    if (r.secondNeeded) {
-      second = true;
-      attempt--;
-      continue;
-    }
-    if (!r.historyShort && !r.lagShort) return r;
-    wires = r.qubits;
-    if (attempt === 0) {
-      if (r.historyShort) history = Math.max(1, Math.min(16 * history, Math.floor(HISTORY_BYTES / 40 / r.qubits)));
-      if (r.lagShort) lag *= 16;
-    } else lag = Infinity;
-  }
 }
 
 /** Above this many literals the candidates are thinned (each one is a count of the whole oracle). */

@@ -19,7 +19,8 @@ import { planOracle, synthesizePlan, synthesizePlanned, type AnyStrategy, type O
 import { BlockCounter } from "./blocks.js";
 import { builtCounts } from "./built.js";
 import { LeanBlocks } from "./leanBlocks.js";
-import { CountingEngine, type EngineResult, type WireMemory } from "./engine.js";
+import type { EngineResult, WireMemory } from "./engine.js";
+import { BUILD_LIMIT, DEFAULT_LAG, HISTORY_BYTES, run } from "./run.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, textbookOracle, wideOracle, type Fraction, type OracleOps } from "./sources.js";
 import { StructuredSource } from "./structuredSource.js";
@@ -212,9 +213,6 @@ export interface CompiledOracle {
   };
 }
 
-/** Built instead of counted when the engine cannot be exact and the circuit has at most this many template instances. */
-const BUILD_LIMIT = 400_000;
-
 /** One construction to count. */
 interface Spec {
   readonly f: SimplifiedCnf;
@@ -294,47 +292,6 @@ const BLOCKS_FROM = 8192;
 const BLOCKS_IN_AUTO = true;
 
 /**
- * Runs the engine over a stream; when it kept too few instances (a walk along a seldom used wire,
- * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
- * where nothing can fall short: a shortfall never reaches a result.
- */
-function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number }): EngineResult {
-  let { lag, history } = sizing;
-  let wires = sizing.wires;
-  // Instances expected when everything is kept (the ring sized once; it grows if there are more).
-  let ring = sizing.ring ?? 0;
-  // Counting Toffolis (a toffoli-basis run) the circuit has few phase gates, if any: first try
-  // without the second cancel-inverses, which the pipeline then skips.
-  let second = levels;
-  for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(ring > 0 ? { ring } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
-    const ids = new VirtualIds(base);
-    const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
-    emit(low, ids);
-    low.finish();
-    const r = engine.finish();
-    if (r.secondNeeded) {
-      second = true;
-      attempt--;
-      continue;
-    }
-    if (!r.historyShort && !r.lagShort) return r;
-    wires = r.qubits;
-    // Keep more; the last resort keeps every instance (memory grows with the circuit), so that
-    // nothing can fall short.
-    if (attempt === 0 && !(r.lagShort && sizing.farReach)) {
-      if (r.historyShort) history = Math.max(1, Math.min(16 * history, Math.floor(HISTORY_BYTES / 40 / r.qubits)));
-      if (r.lagShort) lag *= 16;
-    } else {
-      lag = Infinity;
-      // Every instance kept: the ring sized once to the count just made (no doubling copies).
-      ring = r.instances + 64;
-    }
-  }
-}
-
-const DEFAULT_LAG = 1 << 16;
-/**
  * The window for the wide and textbook oracles: their cancellations are between neighbouring
  * gates (a clause's AND and the mark's, the textbook's V-chains of consecutive clauses), and a
  * short window keeps each wire's figures in cache until its instances are final (a million
@@ -344,8 +301,6 @@ const DEFAULT_LAG = 1 << 16;
 const WIDE_LAG = 1 << 11;
 /** The longest window a search run asks for (its work wires come back one iteration later). */
 const MAX_LAG = 1 << 22;
-/** Memory for the copies kept per wire on a second run. */
-const HISTORY_BYTES = 256 << 20;
 
 /** Counts one oracle construction with the engine. */
 function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineResult {
