@@ -27,7 +27,7 @@ export type { OracleKind, Strategy, AnyStrategy, SimplifyReport } from "./synth/
 export type { Oracle, OracleOptions, RegisterPlan, ConstructionPlan } from "./compile.js";
 export { compileOracle, compilePlanned, completeModel, planConstruction, registerOf, searchConstruction, DEFAULT_ORACLE_OPTIONS } from "./compile.js";
 export type { RegisterMode, StructureSummary, OraclePlan, StructuredFormula } from "./synth/index.js";
-export { planOracle, synthesizePlan, synthesizeStructured } from "./synth/index.js";
+export { planOracle, sharingPlans, synthesizePlan, synthesizeStructured } from "./synth/index.js";
 export type { Completion } from "./structure/completion.js";
 export { completeAssignment, fullCompletion, isFullCompletion } from "./structure/completion.js";
 export type {

@@ -1,7 +1,7 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
 import { parseArgs } from "node:util";
 import {
-  chooseAmong, constructionRow, costConstructions, costFront, costTable, oracleResources, plotFrontSvg, reduceSearch, registerOf, type Cnf, type ConstructionCost,
+  chooseAmong, constructionRow, costConstructions, costFront, costTable, oracleResources, plotFrontSvg, reduceSearch, registerOf, sharingPlans, type Cnf, type ConstructionCost,
   type CostRow, type Oracle, type RegisterMode,
 } from "../internal.js";
 import { checkCircuitSize, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
@@ -196,61 +196,64 @@ export async function costCommand(argv: string[]): Promise<number> {
   const prefer = choice(values.prefer, "--prefer", ["t-count", "t-depth"] as const, "t-count");
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "cost");
-  const head = `${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${cnf.clauseStart.length - 1} clauses`;
-  if (values.front) return frontCommand(cnf, file, head, { kind, uncompute: uncompute ?? "measured", basis: basis ?? "clifford+t", json: values.json === true, plot: values.plot, ...reg });
-  if (maxQubits !== undefined) return budgetCommand(cnf, head, { kind, uncompute, maxQubits, prefer, json: values.json === true, ...reg });
-  // What recovery gives (the register too): rows with structure only when it gives something.
-  const withStructure = reg.structure ? registerOf(cnf, { register: reg.register, structure: true }) : undefined;
-  const recovered = withStructure?.structure ?? null;
-  const both = recovered !== null && recovered.used;
-  // A free register differs with and without structure (recovery computes defined variables).
-  const plainRegister = both && reg.register === "full" ? withStructure! : registerOf(cnf, { register: reg.register, structure: false });
-  const bar = progress("costing");
-  let rows: (CostRow & { structure: boolean })[];
-  try {
-    // Two tables share the bar: the first half with structure, the second without.
-    const half = (start: number) => (f: number) => bar.update(both ? start + f / 2 : f);
-    const structured = both ? costTable(cnf, kind, { register: reg.register, structure: true, onProgress: half(0) }) : [];
-    const plain = costTable(cnf, kind, { register: reg.register, structure: false, onProgress: half(0.5) });
-    // The textbook reference is the same circuit either way: listed once, with the plain rows.
-    rows = [
-      ...structured.filter((r) => r.strategy !== "textbook").map((r) => ({ ...r, structure: true })),
-      ...plain.map((r) => ({ ...r, structure: false })),
-    ];
-  } finally {
-    bar.stop();
-  }
-  const problemOf = (plan: typeof plainRegister, structure: boolean): SearchProblem => reg.register === "full"
-    ? { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, counted: cnf }
-    : { mode: "free", structure, n: plan.register.length, variables: cnf.variables, plan, counted: reduceSearch(cnf).cnf };
-  // The registers of the rows: with structure (when shown) and without.
-  const problems = [...(both ? [problemOf(withStructure!, true)] : []), problemOf(plainRegister, false)];
-  const clauses = cnf.clauseStart.length - 1;
-  if (values.json) {
-    const lists = problems.map((p) => registerJson(p).register);
-    const doc = {
-      variables: cnf.variables, clauses, kind, register_mode: reg.register, register: lists[0],
-      ...(both && reg.register === "free" ? { register_without_structure: lists[1] } : {}),
-      recovered: structureJson(recovered), rows,
-    };
-    process.stdout.write(`${JSON.stringify(doc, null, 2)}\n`);
+  // The register lines and both tables plan the same formula: once each (sharingPlans).
+  return sharingPlans(() => {
+    const head = `${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${cnf.clauseStart.length - 1} clauses`;
+    if (values.front) return frontCommand(cnf, file, head, { kind, uncompute: uncompute ?? "measured", basis: basis ?? "clifford+t", json: values.json === true, plot: values.plot, ...reg });
+    if (maxQubits !== undefined) return budgetCommand(cnf, head, { kind, uncompute, maxQubits, prefer, json: values.json === true, ...reg });
+    // What recovery gives (the register too): rows with structure only when it gives something.
+    const withStructure = reg.structure ? registerOf(cnf, { register: reg.register, structure: true }) : undefined;
+    const recovered = withStructure?.structure ?? null;
+    const both = recovered !== null && recovered.used;
+    // A free register differs with and without structure (recovery computes defined variables).
+    const plainRegister = both && reg.register === "full" ? withStructure! : registerOf(cnf, { register: reg.register, structure: false });
+    const bar = progress("costing");
+    let rows: (CostRow & { structure: boolean })[];
+    try {
+      // Two tables share the bar: the first half with structure, the second without.
+      const half = (start: number) => (f: number) => bar.update(both ? start + f / 2 : f);
+      const structured = both ? costTable(cnf, kind, { register: reg.register, structure: true, onProgress: half(0) }) : [];
+      const plain = costTable(cnf, kind, { register: reg.register, structure: false, onProgress: half(0.5) });
+      // The textbook reference is the same circuit either way: listed once, with the plain rows.
+      rows = [
+        ...structured.filter((r) => r.strategy !== "textbook").map((r) => ({ ...r, structure: true })),
+        ...plain.map((r) => ({ ...r, structure: false })),
+      ];
+    } finally {
+      bar.stop();
+    }
+    const problemOf = (plan: typeof plainRegister, structure: boolean): SearchProblem => reg.register === "full"
+      ? { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, counted: cnf }
+      : { mode: "free", structure, n: plan.register.length, variables: cnf.variables, plan, counted: reduceSearch(cnf).cnf };
+    // The registers of the rows: with structure (when shown) and without.
+    const problems = [...(both ? [problemOf(withStructure!, true)] : []), problemOf(plainRegister, false)];
+    const clauses = cnf.clauseStart.length - 1;
+    if (values.json) {
+      const lists = problems.map((p) => registerJson(p).register);
+      const doc = {
+        variables: cnf.variables, clauses, kind, register_mode: reg.register, register: lists[0],
+        ...(both && reg.register === "free" ? { register_without_structure: lists[1] } : {}),
+        recovered: structureJson(recovered), rows,
+      };
+      process.stdout.write(`${JSON.stringify(doc, null, 2)}\n`);
+      return 0;
+    }
+    // A column for rows whose figures are upper bounds, only when there is one.
+    const bounds = rows.some((r) => !r.exact);
+    const headCells = ["strategy", "uncompute", "structure", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth", ...(bounds ? ["figures"] : [])];
+    const body = rows.map((r) => [
+      ...[r.strategy, r.uncompute, r.strategy === "textbook" ? "-" : r.structure ? "yes" : "no", r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String),
+      ...(bounds ? [r.exact ? "exact" : "upper bound"] : []),
+    ]);
+    process.stdout.write(`${head}\n`);
+    for (const p of reg.register === "free" ? problems : problems.slice(0, 1)) {
+      const which = reg.register === "free" && both ? (p.structure ? " (rows with structure)" : " (rows without structure)") : "";
+      process.stdout.write(`search register${which}: ${p.n} qubit${p.n === 1 ? "" : "s"}, ${registerText(p)}\n`);
+    }
+    process.stdout.write(`structure: ${structureText(recovered)}${recovered !== null && !recovered.used ? " (the rows with structure would repeat those below)" : ""}\n`);
+    process.stdout.write(`${table(headCells, body, (i) => i < 3)}\n`);
     return 0;
-  }
-  // A column for rows whose figures are upper bounds, only when there is one.
-  const bounds = rows.some((r) => !r.exact);
-  const headCells = ["strategy", "uncompute", "structure", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth", ...(bounds ? ["figures"] : [])];
-  const body = rows.map((r) => [
-    ...[r.strategy, r.uncompute, r.strategy === "textbook" ? "-" : r.structure ? "yes" : "no", r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String),
-    ...(bounds ? [r.exact ? "exact" : "upper bound"] : []),
-  ]);
-  process.stdout.write(`${head}\n`);
-  for (const p of reg.register === "free" ? problems : problems.slice(0, 1)) {
-    const which = reg.register === "free" && both ? (p.structure ? " (rows with structure)" : " (rows without structure)") : "";
-    process.stdout.write(`search register${which}: ${p.n} qubit${p.n === 1 ? "" : "s"}, ${registerText(p)}\n`);
-  }
-  process.stdout.write(`structure: ${structureText(recovered)}${recovered !== null && !recovered.used ? " (the rows with structure would repeat those below)" : ""}\n`);
-  process.stdout.write(`${table(headCells, body, (i) => i < 3)}\n`);
-  return 0;
+  });
 }
 
 /** Lines of a table: columns where `left(i)` left-aligned, the others right-aligned. */

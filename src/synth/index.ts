@@ -13,7 +13,7 @@ export type { OracleKind } from "./common.js";
 export type { SimplifiedCnf, SimplifyReport } from "./simplify.js";
 export { simplify } from "./simplify.js";
 export type { OraclePlan, RegisterMode, StructureSummary, StructuredFormula } from "./plan.js";
-export { planOracle } from "./plan.js";
+export { planOracle, sharingPlans } from "./plan.js";
 export { synthesizeStructured } from "./structured.js";
 export type { Construction, ConstructionFamily } from "./construction.js";
 export { constructionFamily, constructionName, parseConstruction, planShape, synthesizeConstruction, synthesizePlanned } from "./construction.js";

@@ -87,8 +87,48 @@ export interface OraclePlan {
  * (it shrinks the register).
  */
 export function planOracle(cnf: Cnf, mode: RegisterMode, structure: boolean): OraclePlan {
+  if (shared === null) return planAnew(cnf, mode, structure);
+  let plans = shared.get(cnf);
+  if (plans === undefined) shared.set(cnf, (plans = new Map()));
+  const key = `${mode}/${structure}`;
+  let plan = plans.get(key);
+  if (plan === undefined) plans.set(key, (plan = planAnew(cnf, mode, structure)));
+  return plan;
+}
+
+/** Plans made within {@link sharingPlans}, by formula object, then mode and structure. */
+let shared: WeakMap<Cnf, Map<string, OraclePlan>> | null = null;
+/** Simplified formulas made within {@link sharingPlans} (plans with and without structure share one). */
+let sharedSimplified: WeakMap<Cnf, SimplifiedCnf> | null = null;
+
+/** simplify, once per formula object within {@link sharingPlans}. */
+function simplified(cnf: Cnf): SimplifiedCnf {
+  if (sharedSimplified === null) return simplify(cnf);
+  let s = sharedSimplified.get(cnf);
+  if (s === undefined) sharedSimplified.set(cnf, (s = simplify(cnf)));
+  return s;
+}
+
+/**
+ * Runs `work` with the plans of one formula object made once and shared: a command that asks
+ * for the register, then both cost tables, planned a million clauses three times (simplification
+ * and recovery, some 3 s each time). Only within such a scope, where the caller knows the formula
+ * is not changed in place between calls.
+ */
+export function sharingPlans<T>(work: () => T): T {
+  const before = [shared, sharedSimplified] as const;
+  shared = new WeakMap();
+  sharedSimplified = new WeakMap();
+  try {
+    return work();
+  } finally {
+    [shared, sharedSimplified] = before;
+  }
+}
+
+function planAnew(cnf: Cnf, mode: RegisterMode, structure: boolean): OraclePlan {
   if (mode === "full") {
-    const clauses = simplify(cnf);
+    const clauses = simplified(cnf);
     const completion = fullCompletion(cnf.variables);
     if (!structure) return { variables: cnf.variables, register: completion.register, completion, clauses, structured: null, summary: null };
     const s = recoverStructure(cnf);
@@ -102,7 +142,7 @@ export function planOracle(cnf: Cnf, mode: RegisterMode, structure: boolean): Or
     return { variables: cnf.variables, register: completion.register, completion, clauses, structured, summary: summaryOf(s, remaining) };
   }
   const r = reduceSearch(cnf);
-  const clauses = simplify(r.cnf);
+  const clauses = simplified(r.cnf);
   const fixed = fixedLiterals(r);
   const searched = Int32Array.from(r.searched);
   const plainCompletion: Completion = { variables: cnf.variables, register: searched, fixed, definitions: [] };
@@ -159,13 +199,13 @@ function beforePropagation(cnf: Cnf, r: Reduction, fixed: Int32Array): OraclePla
   for (const v of r.searched) open[v] = 1;
   const register = s.free.filter((v) => !isFixed[v] && open[v] === 1);
   const definitions = s.definitions.filter((d) => !isFixed[d.variable]);
-  const clauses = simplify(cnf);
+  const clauses = simplified(cnf);
   const remaining = simplifyRemaining(s.remaining, clauses);
   return {
     variables: cnf.variables,
     register,
     completion: { variables: cnf.variables, register, fixed, definitions },
-    clauses: simplify(r.cnf),
+    clauses: simplified(r.cnf),
     structured: { structure: s, register, computeDefinitions: true, constants: fixed, remaining },
     summary: summaryOf(s, remaining),
   };
