@@ -41,6 +41,7 @@ export type { FrontPlotInput } from "./draw/frontPlot.js";
 export { plotFrontSvg } from "./draw/frontPlot.js";
 export type { CostOptions, CostRow, PartCost, SearchCost, ResourceReport, SimplificationReport, CompiledOracle, EngineResult } from "./cost/index.js";
 export { constructionSearchCost, costTable, countConstruction, oracleResources, searchCosts } from "./cost/index.js";
+export { costTables } from "./cost/split.js";
 export { PassError } from "./passes/runner.js";
 export type { Sink } from "./emit/sink.js";
 export { collect } from "./emit/sink.js";

@@ -1,7 +1,7 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
 import { parseArgs } from "node:util";
 import {
-  chooseAmong, constructionRow, costConstructions, costFront, costTable, oracleResources, plotFrontSvg, reduceSearch, registerOf, sharingPlans, type Cnf, type ConstructionCost,
+  chooseAmong, constructionRow, costConstructions, costFront, costTables, oracleResources, plotFrontSvg, reduceSearch, registerOf, sharingPlans, type Cnf, type ConstructionCost,
   type CostRow, type Oracle, type RegisterMode,
 } from "../internal.js";
 import { checkCircuitSize, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
@@ -197,7 +197,7 @@ export async function costCommand(argv: string[]): Promise<number> {
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "cost");
   // The register lines and both tables plan the same formula: once each (sharingPlans).
-  return sharingPlans(() => {
+  return sharingPlans(async () => {
     const head = `${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${cnf.clauseStart.length - 1} clauses`;
     if (values.front) return frontCommand(cnf, file, head, { kind, uncompute: uncompute ?? "measured", basis: basis ?? "clifford+t", json: values.json === true, plot: values.plot, ...reg });
     if (maxQubits !== undefined) return budgetCommand(cnf, head, { kind, uncompute, maxQubits, prefer, json: values.json === true, ...reg });
@@ -210,13 +210,16 @@ export async function costCommand(argv: string[]): Promise<number> {
     const bar = progress("costing");
     let rows: (CostRow & { structure: boolean })[];
     try {
-      // Two tables share the bar: the first half with structure, the second without.
-      const half = (start: number) => (f: number) => bar.update(both ? start + f / 2 : f);
-      const structured = both ? costTable(cnf, kind, { register: reg.register, structure: true, onProgress: half(0) }) : [];
-      const plain = costTable(cnf, kind, { register: reg.register, structure: false, onProgress: half(0.5) });
-      // The textbook reference is the same circuit either way: listed once, with the plain rows.
+      // Both tables' runs shared between two threads where there are two cores. The textbook
+      // reference is the same circuit either way: counted once, with the plain rows.
+      const tables = await costTables(cnf, kind, [
+        ...(both ? [{ register: reg.register, structure: true, textbook: false }] : []),
+        { register: reg.register, structure: false },
+      ], { onProgress: (f) => bar.update(f) });
+      const structured = both ? tables[0]! : [];
+      const plain = tables[tables.length - 1]!;
       rows = [
-        ...structured.filter((r) => r.strategy !== "textbook").map((r) => ({ ...r, structure: true })),
+        ...structured.map((r) => ({ ...r, structure: true })),
         ...plain.map((r) => ({ ...r, structure: false })),
       ];
     } finally {

@@ -360,7 +360,7 @@ function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Unco
 }
 
 /** Splits one progress callback over weighted steps. */
-class Progress {
+export class Progress {
   private doneWeight = 0;
   private last = -1;
   constructor(private readonly total: number, private readonly report?: (fraction: number) => void) {}
@@ -381,7 +381,7 @@ class Progress {
 }
 
 /** Relative work of counting one oracle construction (template instances, roughly). */
-function weight(f: SimplifiedCnf, strategy: AnyStrategy, levels: boolean): number {
+function workOf(f: SimplifiedCnf, strategy: AnyStrategy, levels: boolean): number {
   const m = f.clauseStart.length - 1;
   const L = f.lits.length;
   const w = Math.ceil(Math.log2(m + 2));
@@ -410,35 +410,94 @@ function rowOf(strategy: AnyStrategy, uncompute: Uncompute, ct: EngineResult, to
  * ```
  */
 export function costTable(cnf: Cnf, kind: OracleKind = "phase", options: CostOptions = {}): CostRow[] {
-  const oraclePlan = planOf(cnf, options);
-  const f = oraclePlan.clauses;
-  const logicals = new Logicals(oraclePlan);
-  const plan: [AnyStrategy, Uncompute][] = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ["textbook", "unitary"]];
-  const wireMemory: WireMemory = { buffer: null, records: null };
-  // A structured oracle's work is that of its checks' stream, not of the clauses.
-  const structuredWeight = new Map<AnyStrategy, number>();
-  for (const st of ["wide", "lean"] as const) if (logicals.structured(st)) structuredWeight.set(st, logicals.source(kind, st).weight);
-  const w = (st: AnyStrategy, levels: boolean): number => {
-    const sw = structuredWeight.get(st);
-    return sw === undefined ? weight(f, st, levels) : (levels ? 3 : 1) * sw + 1;
-  };
-  const progress = new Progress(plan.reduce((s, [st]) => s + w(st, true) + w(st, false), 0), options.onProgress);
-  const rows = plan.map(([strategy, uncompute]): CostRow => {
-    logicals.keepOnly(strategy);
-    const spec = { f, kind, strategy, uncompute, optimize: true, wireMemory };
-    const ct = countOracle({ ...spec, basis: "clifford+t", levels: true }, logicals, progress.step(w(strategy, true)));
-    const tof = countOracle({ ...spec, basis: "toffoli", levels: false }, logicals, progress.step(w(strategy, false)));
-    if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
-    const logical = logicals.get(kind, strategy);
-    const bc = builtCounts(logical, "clifford+t", uncompute, true, strategy === "textbook");
-    const bt = builtCounts(logical, "toffoli", uncompute, true, strategy === "textbook");
-    return {
-      strategy, uncompute, qubits: bc.qubits, toffoli_count: bt.toffoliCount, t_count: bc.tCount, t_depth: bc.tDepth,
-      cnot_count: bc.cnotCount, depth: bc.depth, exact: true,
-    };
-  });
+  const table = new TableCounter(cnf, kind, options, true);
+  const runs = table.runs();
+  const progress = new Progress(runs.reduce((s, r) => s + r.weight, 0), options.onProgress);
+  const results = runs.map((r) => table.count(r, progress.step(r.weight)));
   progress.emit(1);
-  return rows;
+  return table.rows(results);
+}
+
+/** One counting run of a cost table: a row's Clifford+T run (with levels) or its toffoli run (Toffolis). */
+export interface TableRun {
+  /** Row of the table. */
+  readonly row: number;
+  /** Clifford+T (qubits, T, CNOTs, depths) or toffoli (the Toffoli count). */
+  readonly basis: "clifford+t" | "toffoli";
+  /** Relative work, for progress (template instances, roughly). */
+  readonly weight: number;
+  /** Estimated CPU seconds on this kind of machine, for sharing runs between threads. */
+  readonly seconds: number;
+}
+
+/**
+ * Estimated CPU microseconds per literal of one run of each construction, measured on a
+ * million-clause random 3-SAT formula on this kind of 2-core machine (engine and block counter):
+ * used only to share runs between threads, never in a figure.
+ */
+const MICROS_PER_LITERAL: Record<AnyStrategy, readonly [cliffordT: number, toffoli: number]> = {
+  wide: [2.1, 1.3],
+  lean: [1.1, 1.2],
+  textbook: [2.7, 1.8],
+};
+
+/**
+ * The runs of one cost table and what they give: every strategy and uncomputation (the textbook
+ * reference too, unless left out), each counted in Clifford+T and in the toffoli basis.
+ * costTable counts them in turn; costTables (split.ts) shares them between threads.
+ */
+export class TableCounter {
+  private readonly plan: [AnyStrategy, Uncompute][];
+  private readonly f: SimplifiedCnf;
+  private readonly logicals: Logicals;
+  private readonly structuredWeight = new Map<AnyStrategy, number>();
+  private readonly wireMemory: WireMemory = { buffer: null, records: null };
+
+  constructor(cnf: Cnf, private readonly kind: OracleKind, options: Pick<CostOptions, "register" | "structure">, textbook: boolean) {
+    const oraclePlan = planOf(cnf, options);
+    this.f = oraclePlan.clauses;
+    this.logicals = new Logicals(oraclePlan);
+    this.plan = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ...(textbook ? [["textbook", "unitary"] as [AnyStrategy, Uncompute]] : [])];
+    // A structured oracle's work is that of its checks' stream, not of the clauses.
+    for (const st of ["wide", "lean"] as const) if (this.logicals.structured(st)) this.structuredWeight.set(st, this.logicals.source(kind, st).weight);
+  }
+
+  /** Every run, in the order costTable counts them (by row, Clifford+T first). */
+  runs(): TableRun[] {
+    const L = this.f.lits.length;
+    return this.plan.flatMap(([strategy], row) => (["clifford+t", "toffoli"] as const).map((basis) => {
+      const levels = basis === "clifford+t";
+      const sw = this.structuredWeight.get(strategy);
+      const weight = sw === undefined ? workOf(this.f, strategy, levels) : (levels ? 3 : 1) * sw + 1;
+      // A structured stream's weight is in instances, about 4 per literal of the clause stream.
+      const literals = sw === undefined ? L : sw / 4;
+      return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][levels ? 0 : 1] * literals) / 1e6 };
+    }));
+  }
+
+  /** Counts one run. */
+  count(r: TableRun, progress?: Fraction): EngineResult {
+    const [strategy, uncompute] = this.plan[r.row]!;
+    this.logicals.keepOnly(strategy);
+    const levels = r.basis === "clifford+t";
+    return countOracle({ f: this.f, kind: this.kind, strategy, uncompute, optimize: true, wireMemory: this.wireMemory, basis: r.basis, levels }, this.logicals, progress);
+  }
+
+  /** The table's rows from the results of runs() (in that order). */
+  rows(results: readonly EngineResult[]): CostRow[] {
+    return this.plan.map(([strategy, uncompute], row): CostRow => {
+      const ct = results[2 * row]!;
+      const tof = results[2 * row + 1]!;
+      if ((ct.exact && tof.exact) || ct.instances > BUILD_LIMIT) return rowOf(strategy, uncompute, ct, tof);
+      const logical = this.logicals.get(this.kind, strategy);
+      const bc = builtCounts(logical, "clifford+t", uncompute, true, strategy === "textbook");
+      const bt = builtCounts(logical, "toffoli", uncompute, true, strategy === "textbook");
+      return {
+        strategy, uncompute, qubits: bc.qubits, toffoli_count: bt.toffoliCount, t_count: bc.tCount, t_depth: bc.tDepth,
+        cnot_count: bc.cnotCount, depth: bc.depth, exact: true,
+      };
+    });
+  }
 }
 
 /**
@@ -560,7 +619,7 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
   const f = plan.clauses;
   const logicals = new Logicals(plan);
   const strategies = ["wide", "lean"] as const;
-  const oracleWeight = (s: Strategy): number => weight(f, s, true) + weight(f, s, false);
+  const oracleWeight = (s: Strategy): number => workOf(f, s, true) + workOf(f, s, false);
   const total = strategies.reduce((sum, s) => sum + (2 + iterations) * oracleWeight(s), 0);
   const progress = new Progress(total, options.onProgress);
   const costs = strategies.map((strategy): SearchCost => {

@@ -116,6 +116,8 @@ function simplified(cnf: Cnf): SimplifiedCnf {
  * is not changed in place between calls.
  */
 export function sharingPlans<T>(work: () => T): T {
+  // Within a scope already: its plans are shared too.
+  if (shared !== null) return work();
   const before = [shared, sharedSimplified] as const;
   shared = new WeakMap();
   sharedSimplified = new WeakMap();

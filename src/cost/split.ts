@@ -1,0 +1,115 @@
+/**
+ * Cost tables with their counting runs shared between two threads: the table of a million
+ * clauses is ten runs of 3 to 8 s each, independent of one another, so a second core halves the
+ * wait. The figures are those of costTable, run for run (a test holds them equal).
+ */
+import { availableParallelism } from "node:os";
+import { Worker } from "node:worker_threads";
+import type { Cnf } from "../cnf/cnf.js";
+import type { EngineResult } from "./engine.js";
+import { sharingPlans, type OracleKind } from "../synth/index.js";
+import { Progress, TableCounter, type CostOptions, type CostRow } from "./index.js";
+
+/** One table of {@link costTables}. */
+export interface TableSpec extends Pick<CostOptions, "register" | "structure"> {
+  /** Count the textbook reference too (default true). */
+  readonly textbook?: boolean;
+}
+
+/** What the worker thread is given (splitWorker.ts). */
+export interface SplitJob {
+  readonly cnf: Cnf;
+  readonly kind: OracleKind;
+  readonly tables: readonly TableSpec[];
+  /** Its runs: table and index into that table's runs(). */
+  readonly runs: readonly (readonly [table: number, run: number])[];
+  /** Its progress: instances-weight done so far, written by the worker as it goes. */
+  readonly progress: SharedArrayBuffer;
+}
+
+/** Below this many estimated CPU seconds a table is counted on one thread (a thread costs a start and a second plan). */
+const SPLIT_FROM_SECONDS = 3;
+
+/**
+ * The cost tables of one formula (see costTable), with their runs shared between this thread and
+ * one worker thread when the machine has two cores or more and the work is worth it. Runs go, the
+ * longest first, to whichever thread has less estimated work. `threads: 1` counts everything here.
+ */
+export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly TableSpec[], options: { readonly onProgress?: (fraction: number) => void; readonly threads?: number; readonly splitFrom?: number } = {}): Promise<CostRow[][]> {
+  const counters = sharingPlans(() => tables.map((t) => new TableCounter(cnf, kind, t, t.textbook ?? true)));
+  const runs = counters.map((c) => c.runs());
+  const all = runs.flatMap((rs, t) => rs.map((r, i) => ({ t, i, r })));
+  const total = all.reduce((s, x) => s + x.r.weight, 0);
+  const progress = new Progress(total, options.onProgress);
+  const results: EngineResult[][] = runs.map((rs) => new Array<EngineResult>(rs.length));
+  const threads = Math.min(2, options.threads ?? availableParallelism());
+  const seconds = all.reduce((s, x) => s + x.r.seconds, 0);
+  const mine: typeof all = [];
+  const theirs: typeof all = [];
+  if (threads < 2 || seconds < (options.splitFrom ?? SPLIT_FROM_SECONDS)) mine.push(...all);
+  else {
+    // Longest first to the less loaded thread (Graham's LPT rule, 1969, from memory); this thread
+    // also plans the formula once more for the worker's tables, so it starts a little behind.
+    let a = 0;
+    let b = 0;
+    for (const x of [...all].sort((p, q) => q.r.seconds - p.r.seconds)) {
+      if (a <= b) {
+        mine.push(x);
+        a += x.r.seconds;
+      } else {
+        theirs.push(x);
+        b += x.r.seconds;
+      }
+    }
+    // In table order within each thread: a table lets go of one strategy's streams before the next.
+    const order = (p: (typeof all)[number], q: (typeof all)[number]): number => p.t - q.t || p.i - q.i;
+    mine.sort(order);
+    theirs.sort(order);
+  }
+  const shared = new SharedArrayBuffer(8);
+  const theirDone = new Float64Array(shared);
+  const theirWeight = theirs.reduce((s, x) => s + x.r.weight, 0);
+  let myDone = 0;
+  let current = 0;
+  const report = (): void => progress.emit((myDone + current + Math.min(theirDone[0]!, theirWeight)) / total);
+  const worker = theirs.length === 0 ? null : startWorker({ cnf, kind, tables, runs: theirs.map((x) => [x.t, x.i] as const), progress: shared });
+  try {
+    for (const x of mine) {
+      results[x.t]![x.i] = counters[x.t]!.count(x.r, options.onProgress && ((f) => {
+        current = Math.min(1, Math.max(0, f)) * x.r.weight;
+        report();
+      }));
+      current = 0;
+      myDone += x.r.weight;
+      report();
+    }
+    if (worker !== null) {
+      const timer = options.onProgress ? setInterval(report, 200) : null;
+      try {
+        const got = await worker.result;
+        theirs.forEach((x, j) => (results[x.t]![x.i] = got[j]!));
+      } finally {
+        if (timer !== null) clearInterval(timer);
+      }
+    }
+  } finally {
+    if (worker !== null) void worker.thread.terminate();
+  }
+  progress.emit(1);
+  return counters.map((c, t) => c.rows(results[t]!));
+}
+
+/** The worker's message: its runs' results, or why it failed. */
+type WorkerReply = { readonly results: EngineResult[] } | { readonly error: string };
+
+function startWorker(job: SplitJob): { thread: Worker; result: Promise<EngineResult[]> } {
+  const thread = new Worker(new URL("./splitWorker.js", import.meta.url), { workerData: job });
+  const result = new Promise<EngineResult[]>((resolve, reject) => {
+    thread.once("message", (m: WorkerReply) => ("error" in m ? reject(new Error(m.error)) : resolve(m.results)));
+    thread.once("error", reject);
+    thread.once("exit", (code) => reject(new Error(`the counting thread stopped (exit code ${code}) before it gave its results`)));
+  });
+  // An unhandled rejection must not outlive a failure on this thread's side.
+  result.catch(() => undefined);
+  return { thread, result };
+}

@@ -1,0 +1,34 @@
+/** The worker thread of split.ts: counts its share of the cost tables' runs and posts the results. */
+import { parentPort, workerData } from "node:worker_threads";
+import { sharingPlans } from "../synth/index.js";
+import { TableCounter } from "./index.js";
+import type { EngineResult } from "./engine.js";
+import type { SplitJob } from "./split.js";
+
+const job = workerData as SplitJob;
+const done = new Float64Array(job.progress);
+try {
+  // The tables with and without structure plan the same formula: simplified once.
+  sharingPlans(() => work());
+} catch (e) {
+  parentPort!.postMessage({ error: e instanceof Error ? e.message : String(e) });
+}
+
+function work(): void {
+  const counters = new Map<number, TableCounter>();
+  const results: EngineResult[] = [];
+  let finished = 0;
+  for (const [t, i] of job.runs) {
+    let c = counters.get(t);
+    if (c === undefined) {
+      const spec = job.tables[t]!;
+      c = new TableCounter(job.cnf, job.kind, spec, spec.textbook ?? true);
+      counters.set(t, c);
+    }
+    const r = c.runs()[i]!;
+    results.push(c.count(r, (f) => (done[0] = finished + Math.min(1, Math.max(0, f)) * r.weight)));
+    finished += r.weight;
+    done[0] = finished;
+  }
+  parentPort!.postMessage({ results });
+}

@@ -1,0 +1,58 @@
+// Cost tables with their runs shared between two threads (cost/split.ts) give costTable's
+// figures, row for row, with and without structure, both kinds and both register modes.
+import { existsSync, readFileSync } from "node:fs";
+import { fileURLToPath } from "node:url";
+import { describe, expect, it } from "vitest";
+import { randomKSat } from "../helpers/formulas.js";
+import { costTable } from "../helpers/lib.js";
+import { costTables } from "../../dist/src/cost/split.js";
+import { scanDimacs } from "../../dist/src/cnf/scanner.js";
+import { cnfFromClauses } from "../../dist/src/cnf/cnf.js";
+
+// A Tseitin-encoded gate chain (definitions recovered), a one-hot group and plain clauses.
+function structured(): ReturnType<typeof cnfFromClauses> {
+  const clauses: number[][] = [];
+  // 5 <-> 1 AND 2, 6 <-> 5 OR 3, 7 <-> 6 XOR 4
+  clauses.push([-5, 1], [-5, 2], [5, -1, -2], [6, -5], [6, -3], [-6, 5, 3]);
+  clauses.push([-7, 6, 4], [-7, -6, -4], [7, -6, 4], [7, 6, -4]);
+  // exactly one of 8, 9, 10
+  clauses.push([8, 9, 10], [-8, -9], [-8, -10], [-9, -10]);
+  clauses.push([7, 8], [-1, 9, 3], [2, -10, 4]);
+  return cnfFromClauses(10, clauses);
+}
+
+const BW = fileURLToPath(new URL("../../../shared/satlib/blocksworld/bw_large.a.cnf", import.meta.url));
+
+describe("costTables", () => {
+  it("gives costTable's rows when its runs are shared with a worker thread", async () => {
+    const cases = [randomKSat(12, 50, 3, 7), randomKSat(9, 30, 4, 8), structured()];
+    for (const cnf of cases) {
+      for (const kind of ["phase", "flag"] as const) {
+        for (const register of ["full", "free"] as const) {
+          const specs = [{ register, structure: true, textbook: false }, { register, structure: false }];
+          // splitFrom 0: split however small (the second longest run goes to the worker).
+          const [withS, without] = await costTables(cnf, kind, specs, { threads: 2, splitFrom: 0 });
+          expect(withS).toStrictEqual(costTable(cnf, kind, { register, structure: true }).filter((r) => r.strategy !== "textbook"));
+          expect(without).toStrictEqual(costTable(cnf, kind, { register, structure: false }));
+          // One thread: the same.
+          expect(await costTables(cnf, kind, specs, { threads: 1 })).toStrictEqual([withS, without]);
+        }
+      }
+    }
+  });
+
+  it("reports progress from both threads, rising to 1", async () => {
+    const seen: number[] = [];
+    await costTables(randomKSat(40, 170, 3, 9), "phase", [{ structure: false }], { threads: 2, splitFrom: 0, onProgress: (f) => seen.push(f) });
+    expect(seen.length).toBeGreaterThan(2);
+    for (let i = 1; i < seen.length; i++) expect(seen[i]!).toBeGreaterThanOrEqual(seen[i - 1]!);
+    expect(seen.at(-1)).toBe(1);
+  });
+
+  it.skipIf(!existsSync(BW))("splits a SATLIB planning formula with recovered structure (Hoos & Stuetzle 2000: blocksworld/bw_large.a)", async () => {
+    const { cnf } = scanDimacs(readFileSync(BW));
+    const tables = await costTables(cnf!, "phase", [{ structure: true, textbook: false }, { structure: false }], { threads: 2, splitFrom: 0 });
+    expect(tables[0]).toStrictEqual(costTable(cnf!, "phase", { structure: true }).filter((r) => r.strategy !== "textbook"));
+    expect(tables[1]).toStrictEqual(costTable(cnf!, "phase", { structure: false }));
+  });
+});
