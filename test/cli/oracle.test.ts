@@ -94,4 +94,15 @@ describe("clausegate cost", () => {
     expect(doc.rows).toHaveLength(9);
     expect(Object.keys(doc.rows[0])).toEqual(["strategy", "uncompute", "qubits", "toffoli_count", "t_count", "t_depth", "cnot_count", "depth", "exact", "structure"]);
   });
+  it("prints the same table with one thread or two, and refuses --threads where it does not apply", () => {
+    const one = cli(["cost", "examples/launch-rota.cnf", "--threads", "1"]);
+    expect(one.code).toBe(0);
+    expect(cli(["cost", "examples/launch-rota.cnf", "--threads", "2"]).stdout).toBe(one.stdout);
+    expect(cli(["cost", "examples/launch-rota.cnf"]).stdout).toBe(one.stdout);
+    const front = cli(["cost", "examples/launch-rota.cnf", "--front", "--threads", "2"]);
+    expect(front.code).toBe(2);
+    expect(front.stdout).toBe("");
+    expect(front.stderr).toMatch(/^clausegate cost: error: --threads .*; hint: /);
+    expect(cli(["cost", "examples/launch-rota.cnf", "--threads", "0"]).code).toBe(2);
+  });
 });
