@@ -33,9 +33,11 @@ const SPLIT_FROM_SECONDS = 3;
 /**
  * The cost tables of one formula (see costTable), with their runs shared between this thread and
  * one worker thread when the machine has two cores or more and the work is worth it. Runs go, the
- * longest first, to whichever thread has less estimated work. `threads: 1` counts everything here.
+ * longest first, to whichever thread has less estimated work. `threads: 1` counts everything here;
+ * `splitFrom` is the estimated CPU seconds from which to split (default 3); `worker` the worker
+ * module (default splitWorker.js beside this one; a thread that cannot run leaves its runs here).
  */
-export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly TableSpec[], options: { readonly onProgress?: (fraction: number) => void; readonly threads?: number; readonly splitFrom?: number } = {}): Promise<CostRow[][]> {
+export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly TableSpec[], options: { readonly onProgress?: (fraction: number) => void; readonly threads?: number; readonly splitFrom?: number; readonly worker?: URL } = {}): Promise<CostRow[][]> {
   const counters = sharingPlans(() => tables.map((t) => new TableCounter(cnf, kind, t, t.textbook ?? true)));
   const runs = counters.map((c) => c.runs());
   const all = runs.flatMap((rs, t) => rs.map((r, i) => ({ t, i, r })));
@@ -72,7 +74,7 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
   let myDone = 0;
   let current = 0;
   const report = (): void => progress.emit((myDone + current + Math.min(theirDone[0]!, theirWeight)) / total);
-  const worker = theirs.length === 0 ? null : startWorker({ cnf, kind, tables, runs: theirs.map((x) => [x.t, x.i] as const), progress: shared });
+  const worker = theirs.length === 0 ? null : startWorker(options.worker ?? new URL("./splitWorker.js", import.meta.url), { cnf, kind, tables, runs: theirs.map((x) => [x.t, x.i] as const), progress: shared });
   try {
     for (const x of mine) {
       results[x.t]![x.i] = counters[x.t]!.count(x.r, options.onProgress && ((f) => {
@@ -88,6 +90,13 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
       try {
         const got = await worker.result;
         theirs.forEach((x, j) => (results[x.t]![x.i] = got[j]!));
+      } catch {
+        // The thread could not run (no worker file next to this one, a thread out of memory):
+        // its runs are counted here instead; an error of the counting itself comes back here too.
+        for (const x of theirs) {
+          results[x.t]![x.i] = counters[x.t]!.count(x.r);
+          myDone += x.r.weight;
+        }
       } finally {
         if (timer !== null) clearInterval(timer);
       }
@@ -102,8 +111,8 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
 /** The worker's message: its runs' results, or why it failed. */
 type WorkerReply = { readonly results: EngineResult[] } | { readonly error: string };
 
-function startWorker(job: SplitJob): { thread: Worker; result: Promise<EngineResult[]> } {
-  const thread = new Worker(new URL("./splitWorker.js", import.meta.url), { workerData: job });
+function startWorker(url: URL, job: SplitJob): { thread: Worker; result: Promise<EngineResult[]> } {
+  const thread = new Worker(url, { workerData: job });
   const result = new Promise<EngineResult[]>((resolve, reject) => {
     thread.once("message", (m: WorkerReply) => ("error" in m ? reject(new Error(m.error)) : resolve(m.results)));
     thread.once("error", reject);
