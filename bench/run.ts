@@ -10,7 +10,7 @@
  *   npm run bench -- prove   the prover: every construction of a planted 200-variable formula, the million clauses
  *   npm run bench -- front   the cost front and qubit budgets (bench/front.ts)
  */
-import { execFileSync } from "node:child_process";
+import { execFileSync, spawnSync } from "node:child_process";
 import { existsSync, mkdirSync, statSync } from "node:fs";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -226,6 +226,25 @@ function benchCost(): void {
     console.log(`  ${label}: cost ${(m.costMs / 1000).toFixed(1)} s (cpu ${(m.cpuMs / 1000).toFixed(1)} s; read ${(m.readMs / 1000).toFixed(1)} s; whole process ${(wall / 1000).toFixed(1)} s), peak ${m.maxRssMB.toFixed(0)} MB`);
     for (const r of m.rows) {
       console.log(`    ${r.strategy.padEnd(8)} ${r.uncompute.padEnd(8)} qubits ${r.qubits} Toffolis ${r.toffoli_count} T ${r.t_count} T-depth ${r.t_depth} CNOTs ${r.cnot_count} depth ${r.depth}${r.exact ? "" : " (upper bounds)"}`);
+    }
+  }
+  // The command as a user runs it (both tables, the register lines), on one thread and on two:
+  // wall time, CPU of all threads and peak memory of the whole process (GNU time, where installed).
+  const gnuTime = existsSync("/usr/bin/time");
+  console.log(`clausegate cost FILE (the command, both tables), one thread and two${gnuTime ? "" : " (peak memory needs /usr/bin/time: not installed)"}:`);
+  for (const [label, f] of inputs) {
+    for (const threads of [1, 2]) {
+      const args = [join(here, "../src/cli/bin.js"), "cost", f, "--json", "--threads", String(threads)];
+      const t0 = performance.now();
+      const r = spawnSync(gnuTime ? "/usr/bin/time" : process.execPath, gnuTime ? ["-f", "%e %U %S %M", process.execPath, ...args] : args, { encoding: "utf8", maxBuffer: 1 << 24 });
+      const wall = (performance.now() - t0) / 1000;
+      if (r.status !== 0) {
+        console.log(`  ${label}, ${threads} thread(s): failed (${r.stderr.trim().split("\n").at(-1)})`);
+        continue;
+      }
+      const fig = gnuTime ? r.stderr.trim().split("\n").at(-1)!.split(" ").map(Number) : [];
+      const cpu = gnuTime ? `, cpu ${(fig[1]! + fig[2]!).toFixed(1)} s, peak ${(fig[3]! / 1024).toFixed(0)} MB` : "";
+      console.log(`  ${label}, ${threads} thread${threads === 1 ? "" : "s"}: ${wall.toFixed(1)} s${cpu}`);
     }
   }
   console.log("  targets: seconds, a few hundred MB (before counting: bw_large.c 100 s / 4.2 GB, bw_large.d 435 s / 12.6 GB, 200,000 random clauses over 14.5 GB)");
