@@ -428,7 +428,16 @@ export interface TableRun {
   readonly weight: number;
   /** Estimated CPU seconds on this kind of machine, for sharing runs between threads. */
   readonly seconds: number;
+  /**
+   * Roughly the most memory the run holds at once (the engine's per-wire records, or every
+   * instance where far seams make it keep them), for sharing runs between threads.
+   */
+  readonly bytes: number;
 }
+
+/** Engine bytes per wire (engine.ts: one copy per wire kept) and per instance kept. */
+const BYTES_PER_WIRE = 54;
+const BYTES_PER_INSTANCE = 64;
 
 /**
  * Estimated CPU microseconds per literal of one run of each construction, measured on a
@@ -464,14 +473,21 @@ export class TableCounter {
 
   /** Every run, in the order costTable counts them (by row, Clifford+T first). */
   runs(): TableRun[] {
-    const L = this.f.lits.length;
-    return this.plan.flatMap(([strategy], row) => (["clifford+t", "toffoli"] as const).map((basis) => {
+    const f = this.f;
+    const L = f.lits.length;
+    const m = f.clauseStart.length - 1;
+    return this.plan.flatMap(([strategy, uncompute], row) => (["clifford+t", "toffoli"] as const).map((basis) => {
       const levels = basis === "clifford+t";
       const sw = this.structuredWeight.get(strategy);
-      const weight = sw === undefined ? workOf(this.f, strategy, levels) : (levels ? 3 : 1) * sw + 1;
+      const weight = sw === undefined ? workOf(f, strategy, levels) : (levels ? 3 : 1) * sw + 1;
       // A structured stream's weight is in instances, about 4 per literal of the clause stream.
       const literals = sw === undefined ? L : sw / 4;
-      return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][levels ? 0 : 1] * literals) / 1e6 };
+      let bytes: number;
+      if (strategy !== "lean") bytes = (f.variables + literals + 64) * BYTES_PER_WIRE;
+      else if (sw !== undefined) bytes = levels && uncompute === "unitary" ? (sw + 64) * BYTES_PER_INSTANCE : (f.variables + 64) * BYTES_PER_WIRE;
+      // Counted block by block from BLOCKS_FROM clauses (a few MB of states and keys), else a window of instances.
+      else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? 16 << 20 : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);
+      return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][levels ? 0 : 1] * literals) / 1e6, bytes };
     }));
   }
 

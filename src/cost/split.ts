@@ -29,15 +29,18 @@ export interface SplitJob {
 
 /** Below this many estimated CPU seconds a table is counted on one thread (a thread costs a start and a second plan). */
 const SPLIT_FROM_SECONDS = 3;
+/** A run estimated to hold more than this stays on the main thread (see costTables). */
+const HEAVY_BYTES = 96 << 20;
 
 /**
  * The cost tables of one formula (see costTable), with their runs shared between this thread and
  * one worker thread when the machine has two cores or more and the work is worth it. Runs go, the
  * longest first, to whichever thread has less estimated work. `threads: 1` counts everything here;
- * `splitFrom` is the estimated CPU seconds from which to split (default 3); `worker` the worker
+ * `splitFrom` is the estimated CPU seconds from which to split (default 3); `heavyBytes` the
+ * estimated memory above which a run stays on this thread (default 96 MB); `worker` the worker
  * module (default splitWorker.js beside this one; a thread that cannot run leaves its runs here).
  */
-export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly TableSpec[], options: { readonly onProgress?: (fraction: number) => void; readonly threads?: number; readonly splitFrom?: number; readonly worker?: URL } = {}): Promise<CostRow[][]> {
+export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly TableSpec[], options: { readonly onProgress?: (fraction: number) => void; readonly threads?: number; readonly splitFrom?: number; readonly heavyBytes?: number; readonly worker?: URL } = {}): Promise<CostRow[][]> {
   const counters = sharingPlans(() => tables.map((t) => new TableCounter(cnf, kind, t, t.textbook ?? true)));
   const runs = counters.map((c) => c.runs());
   const all = runs.flatMap((rs, t) => rs.map((r, i) => ({ t, i, r })));
@@ -50,11 +53,19 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
   const theirs: typeof all = [];
   if (threads < 2 || seconds < (options.splitFrom ?? SPLIT_FROM_SECONDS)) mine.push(...all);
   else {
-    // Longest first to the less loaded thread (Graham's LPT rule, 1969, from memory); this thread
-    // also plans the formula once more for the worker's tables, so it starts a little behind.
+    // The runs that hold much memory (the wide and textbook oracles' records for millions of
+    // wires, a structured lean run keeping every instance) stay on this thread, one at a time:
+    // two at once took a million clauses from 0.6 to 1 GB. The others go longest first to the
+    // less loaded thread (Graham's LPT rule, 1969, from memory).
+    const heavy = (x: (typeof all)[number]): boolean => x.r.bytes > (options.heavyBytes ?? HEAVY_BYTES);
     let a = 0;
     let b = 0;
-    for (const x of [...all].sort((p, q) => q.r.seconds - p.r.seconds)) {
+    for (const x of all) {
+      if (!heavy(x)) continue;
+      mine.push(x);
+      a += x.r.seconds;
+    }
+    for (const x of all.filter((y) => !heavy(y)).sort((p, q) => q.r.seconds - p.r.seconds)) {
       if (a <= b) {
         mine.push(x);
         a += x.r.seconds;

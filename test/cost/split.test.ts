@@ -34,8 +34,9 @@ describe("costTables", () => {
           const [withS, without] = await costTables(cnf, kind, specs, { threads: 2, splitFrom: 0 });
           expect(withS).toStrictEqual(costTable(cnf, kind, { register, structure: true }).filter((r) => r.strategy !== "textbook"));
           expect(without).toStrictEqual(costTable(cnf, kind, { register, structure: false }));
-          // One thread: the same.
+          // One thread, or every run held heavy (kept on this thread): the same.
           expect(await costTables(cnf, kind, specs, { threads: 1 })).toStrictEqual([withS, without]);
+          expect(await costTables(cnf, kind, specs, { threads: 2, splitFrom: 0, heavyBytes: 0 })).toStrictEqual([withS, without]);
         }
       }
     }
