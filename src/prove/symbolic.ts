@@ -18,6 +18,9 @@
  * path variable y' to equal M = XOR_j M_j: the wire gets M and y disappears (the two factors
  * 1/sqrt 2 and the factor 2 of the sum cancel). Every Clifford+T gadget of the lowering closes
  * this way, also where the optimizer cancelled a Hadamard pair at the seam of two gadgets.
+ * Whether y's terms have that shape depends on the atoms they are written over (a XOR b as one
+ * atom, or a and b apart); before giving up, the sum-out writes them again over the atoms a
+ * merged parity was built from (`regroup`), the same polynomial, and tries once more.
  *
  * Measurements: an H immediately followed by a measurement of the same qubit is an X-basis
  * measurement: the outcome c is a fresh input, the phase gains 4 (v AND c) and the wire holds c;
@@ -134,6 +137,11 @@ const WORK_BASE = 1_000_000;
  */
 const EFFORT_PER_GATE = 1024;
 const EFFORT_BASE = 20_000_000;
+/** Largest merged parity `regroup` opens inside a path variable's terms, and most terms it writes. */
+const REGROUP_ARITY = 8;
+const REGROUP_TERMS = 4096;
+/** A merged parity `regroup` does not open (see `collapse`). */
+const NOT_OPENED: Form = { atoms: [], c: 0 };
 
 /**
  * How the path-sum reduction writes its terms. Every choice is exact (it only picks the atoms the
@@ -181,8 +189,11 @@ export class SymbolicRun {
    * values, as the classical circuit has them.
    */
   private readonly forms = new Map<number, Form>();
-  /** XOR nodes that `collapse` made atoms of (the parities `expand` opens inside products). */
-  private readonly merged = new Set<number>();
+  /**
+   * XOR nodes that `collapse` made atoms of (the parities `expand` and `regroup` open inside
+   * products), each with the atoms it was merged from: node = XOR(atoms) XOR c.
+   */
+  private readonly merged = new Map<number, Form>();
   private paths = 0;
   private outcomes = 0;
   /** Exponent e of the amplitude factor 2^(-e/2) so far, and the number of measurements. */
@@ -364,7 +375,10 @@ export class SymbolicRun {
       if (g.hasPath(a)) paths.push(a);
       else v = g.xor(v, a);
     }
-    if (v > 1 && g.kind(v >>> 1) === XOR) this.merged.add(v >>> 1);
+    // The first merge of a node from older atoms is kept: then no atom was merged from the node
+    // itself (regroup opens one level, and the levels never loop).
+    const n = v >>> 1;
+    if (v > 1 && g.kind(n) === XOR && !this.merged.has(n)) this.merged.set(n, f.atoms.every((a) => a >>> 1 < n) ? { atoms: f.atoms, c: v & 1 } : NOT_OPENED);
     return xorForms({ atoms: paths, c: f.c }, atom(v));
   }
 
@@ -579,28 +593,42 @@ export class SymbolicRun {
    * If path variable y (held by qubit q) occurs on no other wire and only in phase terms 4 y M_j
    * (and, when `linear` is given, k y with any k on the monomial y itself), removes those terms
    * and returns XOR_j M_j, setting linear.k to k mod 4 after taking 4 y (if k >= 4) as M = 1.
-   * Else null, and nothing changed.
+   * When y's terms are not of that shape as written (and no `linear`), they are written again
+   * with collapse's merged parities opened (`regroup`, exact) and tried once more. Else null,
+   * and nothing changed.
    */
   private sumOut(q: number, y: number, linear?: { k: number }): number | null {
-    const g = this.g;
-    const yl = y << 1;
     for (const w of this.pathWires) if (w !== q && this.contains(this.wires[w]!, y)) return null;
     for (const m of this.pathTerms) if (!this.phase.has(m)) this.pathTerms.delete(m);
-    const take: number[] = [];
+    const terms = new Map<number, number>();
+    for (const m of this.pathTerms) if (this.contains(m << 1, y)) terms.set(m, this.phase.get(m)!);
+    let r = this.gather(y, terms);
+    if (r === null && linear === undefined) {
+      const again = this.regroup(y, terms);
+      if (again !== null) r = this.gather(y, again);
+    }
+    if (r === null || (linear === undefined && r.k !== 0)) return null;
+    // Every term of y is summed out, however it was written: the old ones go.
+    for (const m of terms.keys()) this.phase.delete(m);
+    if (linear !== undefined) linear.k = r.k;
+    return r.sum;
+  }
+
+  /**
+   * y's terms (monomial node -> coefficient) as 4 y M_j and k y: XOR_j M_j (with 4 y counted
+   * as M = 1) and k mod 4. Null when some term is not of that shape.
+   */
+  private gather(y: number, terms: ReadonlyMap<number, number>): { sum: number; k: number } | null {
+    const g = this.g;
+    const yl = y << 1;
     let sum = FALSE;
-    for (const m of this.pathTerms) {
-      if (!this.contains(m << 1, y)) continue;
-      let k = this.phase.get(m)!;
+    let lk = 0;
+    for (const [m, k] of terms) {
       let rest: number;
       if (m === y) {
         rest = TRUE;
-        if (linear !== undefined) {
-          linear.k = k & 3;
-          k &= 4;
-          take.push(m);
-          if (k === 4) sum = g.xor(sum, rest);
-          continue;
-        }
+        lk = k & 3;
+        if ((k & 4) === 0) continue;
       } else if (g.kind(m) === AND) {
         const ops = Array.from(g.operands(m));
         const at = ops.indexOf(yl);
@@ -608,13 +636,78 @@ export class SymbolicRun {
         ops.splice(at, 1);
         rest = g.and(ops);
         if (this.contains(rest, y)) return null;
+        if (k !== 4) return null;
       } else return null;
-      if (k !== 4) return null;
-      take.push(m);
       sum = g.xor(sum, rest);
     }
-    for (const m of take) this.phase.delete(m);
-    return sum;
+    return { sum, k: lk };
+  }
+
+  /**
+   * y's terms written again with `collapse`'s merged parities opened: each factor P that collapse
+   * merged from atoms a1..an (P = a1 XOR ... XOR an, n at most REGROUP_ARITY) is expanded,
+   *   rest AND (a1 XOR ... XOR an) = sum over non-empty S of (-2)^(|S|-1) rest prod(S)
+   * (rest AND NOT P = rest - rest AND P first): the same polynomial over other atoms. Only the
+   * top merged parities are opened, those no other merged factor of y's terms was built from, so
+   * that an atom stays one atom in every term. This is the flag oracle's marking Toffoli: the
+   * target's path variable meets the control a twice, once as a and once inside b XOR a, the
+   * parity the gadget's CNOT left on the other control (b a counter bit or an AND of them), and
+   * its +-2 terms cancel only over a and b apart. Null when there is nothing to open or the terms
+   * grow past REGROUP_TERMS.
+   */
+  private regroup(y: number, terms: ReadonlyMap<number, number>): Map<number, number> | null {
+    const g = this.g;
+    const seen = new Set<number>();
+    for (const m of terms.keys()) if (m !== y && g.kind(m) === AND) for (const o of g.operands(m)) seen.add(o);
+    // An atom is in sight when it is a factor of y's terms, or an AND all of whose operands are.
+    const inSight = (a: number): boolean => seen.has(a) || ((a & 1) === 0 && g.kind(a >>> 1) === AND && g.operands(a >>> 1).every((o) => seen.has(o)));
+    const factors = new Set<number>();
+    for (const o of seen) {
+      const f = this.merged.get(o >>> 1);
+      if (f !== undefined && f !== NOT_OPENED && f.atoms.length <= REGROUP_ARITY && !g.hasPath(o) && f.atoms.some(inSight)) factors.add(o >>> 1);
+    }
+    const inner = new Set<number>();
+    for (const n of factors) for (const a of this.merged.get(n)!.atoms) inner.add(a >>> 1);
+    const top = new Set<number>();
+    for (const n of factors) if (!inner.has(n)) top.add(n);
+    if (top.size === 0) return null;
+    const out = new Map<number, number>();
+    let overflow = false;
+    const split = (k: number, ops: number[]): void => {
+      k &= 7;
+      if (k === 0 || overflow) return;
+      for (let i = 0; i < ops.length; i++) {
+        const o = ops[i]!;
+        if (!top.has(o >>> 1)) continue;
+        const from = this.merged.get(o >>> 1)!;
+        const rest = ops.filter((_, j) => j !== i);
+        if ((from.c ^ (o & 1)) === 1) {
+          // k rest (1 XOR P) = k rest - k rest P
+          split(k, rest);
+          k = 8 - k;
+        }
+        const xs = from.atoms;
+        const n = xs.length;
+        for (let a = 0; a < n; a++) {
+          split(k, [...rest, xs[a]!]);
+          for (let b = a + 1; b < n; b++) {
+            split(k * 6, [...rest, xs[a]!, xs[b]!]); // -2k
+            if (k & 1) for (let c = b + 1; c < n; c++) split(4, [...rest, xs[a]!, xs[b]!, xs[c]!]); // 4k = 4 for odd k
+          }
+        }
+        return;
+      }
+      const lit = g.and(ops);
+      if (lit === FALSE) return;
+      // y is an uncomplemented operand: the product is y or an uncomplemented AND.
+      const m = lit >>> 1;
+      const v = ((out.get(m) ?? 0) + k) & 7;
+      if (v === 0) out.delete(m);
+      else out.set(m, v);
+      if (out.size > REGROUP_TERMS) overflow = true;
+    };
+    for (const [m, k] of terms) split(k, m === y || g.kind(m) !== AND ? [m << 1] : Array.from(g.operands(m)));
+    return overflow ? null : out;
   }
 
   /**

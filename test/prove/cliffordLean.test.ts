@@ -10,6 +10,9 @@ import { K } from "../helpers/circuits.js";
 import { randomKSat } from "../helpers/formulas.js";
 import { edit, failsOn } from "../helpers/prove.js";
 import { allAssignments, checkOracleSparse, cnfFromClauses, compileOracle, proveOracle, type Circuit, type Cnf } from "../helpers/lib.js";
+import { plantedCnf } from "../../dist/bench/prove.js";
+import { formulaLiteral } from "../../dist/src/prove/miter.js";
+import { REDUCTIONS, SymbolicRun } from "../../dist/src/prove/symbolic.js";
 
 const COMBOS = (["phase", "flag"] as const).flatMap((kind) => (["unitary", "measured"] as const).map((uncompute) => ({ kind, uncompute })));
 
@@ -95,5 +98,60 @@ describe("lean x Clifford+T mutants (stray T, dropped H, flipped CNOT): never pr
       { numRuns: 60 },
     );
     expect(rejected).toBeGreaterThan(0); // the mutations do harm (else the check above proves nothing)
+  });
+});
+
+describe("the flag oracle's marking Toffoli (lean x Clifford+T x unitary)", () => {
+  // The 7-T Toffoli (Amy, Maslov, Mosca & Roetteler 2013) from the counter's bits onto the target,
+  // where the gadget's CNOTs leave a control as b XOR a beside a: the target's path variable must
+  // close under the first reduction (collapse), as in the phase oracles, not only under the later
+  // ones (which run out of their budgets at 200 variables and 800 clauses).
+  const flagOracle = (n: number, seed: number): { cnf: Cnf; c: Circuit; target: number } => {
+    const cnf = plantedCnf(n, 4 * n, seed);
+    const c = compileOracle(cnf, { kind: "flag", strategy: "lean", basis: "clifford+t", uncompute: "unitary" }).circuit;
+    return { cnf, c, target: c.registers.find((r) => r.role === "target")!.start };
+  };
+  const closesFirst = (cnf: Cnf, c: Circuit, target: number): boolean => {
+    const run = new SymbolicRun(c, cnf.variables, target, REDUCTIONS[0]);
+    const cuts: number[] = [];
+    formulaLiteral(run.g, cnf, run.vars, cuts);
+    run.g.setCuts(cuts);
+    return run.run() === null && !run.exhausted && !run.openPaths();
+  };
+  /** The gates from the target's first Hadamard to its last: the marking Toffoli. */
+  const toffoliSpan = (c: Circuit, target: number): [number, number] => {
+    const on: number[] = [];
+    for (let g = 0; g < c.gates; g++) for (let p = c.opStart[g]!; p < c.opStart[g + 1]!; p++) if (c.ops[p]! >>> 1 === target) on.push(g);
+    return [on[0]!, on[on.length - 1]!];
+  };
+
+  it("closes under the first reduction and is proved (planted formulas, 6 and 10 variables)", () => {
+    for (const [n, seed] of [[6, 1], [10, 2]] as const) {
+      const { cnf, c, target } = flagOracle(n, seed);
+      expect(closesFirst(cnf, c, target), `${n} variables, seed ${seed}`).toBe(true);
+      const p = proveOracle(cnf, c, { kind: "flag" });
+      expect(p.status, p.message).toBe("proved");
+      expect(["structural", "bdd", "sat"]).toContain(p.method);
+    }
+  });
+  it("a CNOT onto the target dropped from it, or a stray Z on the target, still closes and is refuted with a counterexample", () => {
+    const { cnf, c, target } = flagOracle(6, 1);
+    const [first, last] = toffoliSpan(c, target);
+    const mutants: Circuit[] = [edit(c, (b, g) => {
+      if (g === last) b.add(K.z, target << 1);
+      return false;
+    })];
+    for (let g = first; g <= last; g++) {
+      if (c.kind[g] === K.cx && c.ops[c.opStart[g]! + 1]! >>> 1 === target) mutants.push(edit(c, (_b, x) => x === g));
+    }
+    let closed = 0;
+    for (const m of mutants) {
+      if (!closesFirst(cnf, m, target)) continue; // the other ones leave the symbolic run (cliffordLean mutants above)
+      closed++;
+      const p = proveOracle(cnf, m, { kind: "flag" });
+      expect(p.status, p.message).toBe("refuted");
+      expect(failsOn(m, cnf, "flag", p.counterexample!)).toBe(true);
+    }
+    expect(closed).toBeGreaterThanOrEqual(2);
   });
 });
