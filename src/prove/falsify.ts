@@ -456,14 +456,15 @@ export function falsifyBySimulation(
     const hit = simulate(input.assignment, layout.target >= 0 && input.target, input.outcomes);
     if (hit !== null) return hit;
   }
-  // Every other input is given the outcomes the first one drew: in an oracle they are possible
-  // for every input (each X-basis outcome has probability 1/2, any other measurement reads a
-  // constant), so one that cannot happen there shows the circuit measures the input.
+  // Three inputs in four are given the outcomes the first one drew: in an oracle they are
+  // possible for every input (each X-basis outcome has probability 1/2, any other measurement
+  // reads a constant), so one that cannot happen there shows the circuit measures the input. The
+  // fourth draws its own, for branches that go wrong only on other outcomes.
   let reference: boolean[] | null = null;
   let k = 0;
   for (const a of candidates(n, cnf, r, { random: maxInputs })) {
     if (k++ >= maxInputs || performance.now() - t0 > seconds * 1000) break;
-    const hit = simulate(Array.from(a, (x) => x === 1), layout.target >= 0 && r() < 0.5, reference !== null && k % 2 === 0 ? reference : [], (o) => (reference ??= o));
+    const hit = simulate(Array.from(a, (x) => x === 1), layout.target >= 0 && r() < 0.5, reference !== null && k % 4 !== 0 ? reference : [], (o) => (reference ??= o));
     if (hit !== null) return hit;
   }
   return null;
