@@ -110,10 +110,12 @@ function benchMillion(): void {
  * `picks` mutants (random places). Each is proved, refuted or left unknown by the prover; a proof
  * is cross-checked by sampled simulation (a proved mutant that simulation fails is a prover bug:
  * counted as "WRONG"), an unknown one too (harmful when simulation fails: "fallback"; else
- * "undecided"). Prints counts and times per size and construction.
+ * "undecided"). Prints counts and times per size and construction. `conflictLimit` is the
+ * solver's budget per mutant (the proof is synchronous, so it is the only way to cap its time:
+ * the harmless lean mutants are the ones that spend it).
  */
-async function benchMutants(sizes: readonly number[], constructions: readonly string[], picks: number, bases: readonly string[] = ["mcx", "toffoli", "clifford+t"]): Promise<void> {
-  console.log(`mutants of oracles of random 3-SAT (3n clauses): ${picks} per construction x kind x basis x uncomputation x mutation`);
+async function benchMutants(sizes: readonly number[], constructions: readonly string[], picks: number, bases: readonly string[] = ["mcx", "toffoli", "clifford+t"], conflictLimit = 1_000_000): Promise<void> {
+  console.log(`mutants of oracles of random 3-SAT (3n clauses): ${picks} per construction x kind x basis x uncomputation x mutation; ${conflictLimit} conflicts per mutant`);
   console.log("  vars  construction  mutants  refuted  proved  fallback  undecided  WRONG   mean s   max s  (slowest)");
   for (const n of sizes) {
     const cnf = cnfFromClauses(n, [...randomClauses(n, 3 * n, 3, 1000 + n)]);
@@ -133,7 +135,7 @@ async function benchMutants(sizes: readonly number[], constructions: readonly st
                 const mutated = mutate(c, m, Math.floor(r() * 2 ** 31));
                 if (mutated === null) continue;
                 counts.mutants++;
-                const p = proveOracle(cnf, mutated, { kind });
+                const p = proveOracle(cnf, mutated, { kind, conflictLimit });
                 total += p.seconds;
                 if (process.env.MUTANTS_VERBOSE) console.log(`    ${n} ${construction} ${kind} ${basis} ${uncompute} ${m}: ${p.status} by ${p.method} in ${p.seconds.toFixed(2)} s`);
                 if (p.seconds > worst) {
@@ -175,10 +177,10 @@ else if (import.meta.url === `file://${process.argv[1]}`) {
   if (part === undefined || part === "planted") benchPlanted(process.argv.slice(3));
   if (part === undefined || part === "million") benchMillion();
   if (part === "mutants") {
-    // node dist/bench/prove.js mutants [sizes, e.g. 60,100,200] [constructions, e.g. lean,blocks-6] [picks] [bases, e.g. mcx,toffoli]
+    // node dist/bench/prove.js mutants [sizes, e.g. 60,100,200] [constructions, e.g. lean,blocks-6] [picks] [bases, e.g. mcx,toffoli] [conflicts per mutant]
     const sizes = (process.argv[3] ?? "60,100,200").split(",").map(Number);
     const constructions = (process.argv[4] ?? "wide,lean,blocks-6,fanout-1").split(",");
-    await benchMutants(sizes, constructions, Number(process.argv[5] ?? 2), (process.argv[6] ?? "mcx,toffoli,clifford+t").split(","));
+    await benchMutants(sizes, constructions, Number(process.argv[5] ?? 2), (process.argv[6] ?? "mcx,toffoli,clifford+t").split(","), Number(process.argv[7] ?? 1_000_000));
   }
 }
 

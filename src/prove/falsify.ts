@@ -418,37 +418,54 @@ export interface SimulatedFailure {
 
 /**
  * For circuits the symbolic run cannot reduce (a Clifford+T circuit whose Hadamards no gadget
- * closes, a measurement of a value that depends on the input): the exact state-vector simulator on the first candidate assignments, with measurement
- * outcomes drawn and recorded, until one fails or `maxInputs` inputs or `seconds` have passed.
- * Only a refutation can come of it, never a proof.
+ * closes, a measurement of a value that depends on the input): the exact state-vector simulator
+ * on the `focus` inputs (chosen by the caller where the run stopped; their `outcomes` are the
+ * first measurements' outcomes, forced), then on the first candidate assignments, with
+ * measurement outcomes drawn and recorded, until one fails or `maxInputs` candidates or
+ * `seconds` have passed. Only a refutation can come of it, never a proof.
  */
 export function falsifyBySimulation(
   c: Circuit, n: number, cnf: Cnf | null, value: (assignment: readonly boolean[]) => boolean, layout: OracleLayout,
-  maxInputs = 128, seconds = 10,
+  maxInputs = 128, seconds = 10, focus: readonly FalsifyingInput[] = [],
 ): SimulatedFailure | null {
   const t0 = performance.now();
   const r = seededRandom(7);
-  let k = 0;
-  for (const a of candidates(n, cnf, r, { random: maxInputs })) {
-    if (k++ >= maxInputs || performance.now() - t0 > seconds * 1000) break;
-    const assignment = Array.from(a, (x) => x === 1);
-    const target = layout.target >= 0 && r() < 0.5;
+  let seed = 1;
+  const simulate = (assignment: boolean[], target: boolean, forced: readonly boolean[], drawn?: (outcomes: boolean[]) => void): SimulatedFailure | null => {
     const f = value(assignment);
-    // The seed of the draws, recorded so that the counterexample names them.
-    const seed = 1 + k;
     const recorded: number[] = [];
     const ones: number[] = [];
     assignment.forEach((on, q) => on && ones.push(q));
     if (target) ones.push(layout.target);
+    let outcomes: boolean[];
     try {
-      runSparse(c, [basisTerm(c.qubits, ones)], seededRandom(seed), { record: recorded });
+      runSparse(c, [basisTerm(c.qubits, ones)], seededRandom(++seed), { forced: forced.map((o) => (o ? 1 : 0)), record: recorded });
+      outcomes = recorded.map((o) => o === 1);
     } catch (e) {
       if (!(e instanceof CircuitFault)) throw e;
+      // The forced outcome that could not happen is not recorded: the input names it.
+      outcomes = recorded.length < forced.length ? forced.slice(0, recorded.length + 1) : recorded.map((o) => o === 1);
     }
-    const outcomes = recorded.map((o) => o === 1);
     // The exact simulator also for classical circuits: its recorded outcomes name the input.
     const failure = failureBySparse(c, f, layout, { assignment, target, xOutcomes: [], allOutcomes: outcomes });
-    if (failure !== null) return { assignment, target, outcomes, f, failure };
+    if (failure === null) drawn?.(outcomes);
+    return failure === null ? null : { assignment, target, outcomes, f, failure };
+  };
+  for (const input of focus) {
+    if (performance.now() - t0 > seconds * 1000) return null;
+    const hit = simulate(input.assignment, layout.target >= 0 && input.target, input.outcomes);
+    if (hit !== null) return hit;
+  }
+  // Three inputs in four are given the outcomes the first one drew: in an oracle they are
+  // possible for every input (each X-basis outcome has probability 1/2, any other measurement
+  // reads a constant), so one that cannot happen there shows the circuit measures the input. The
+  // fourth draws its own, for branches that go wrong only on other outcomes.
+  let reference: boolean[] | null = null;
+  let k = 0;
+  for (const a of candidates(n, cnf, r, { random: maxInputs })) {
+    if (k++ >= maxInputs || performance.now() - t0 > seconds * 1000) break;
+    const hit = simulate(Array.from(a, (x) => x === 1), layout.target >= 0 && r() < 0.5, reference !== null && k % 4 !== 0 ? reference : [], (o) => (reference ??= o));
+    if (hit !== null) return hit;
   }
   return null;
 }

@@ -28,13 +28,15 @@ import type { Cnf } from "../cnf/cnf.js";
 import { evaluate } from "../cnf/evaluate.js";
 import { CdclSolver } from "../cnf/solve.js";
 import type { Circuit } from "../ir/circuit.js";
+import { K } from "../ir/kinds.js";
 import { compileBitProgram } from "../sim/bitsim.js";
 import { failureOn, type OracleLayout } from "./confirm.js";
 import { FALSE, OUTCOME, TARGET, TRUE, VAR, type Graph } from "./graph.js";
 import { cutBddProof } from "./bdd.js";
-import { falsify, falsifyBySimulation } from "./falsify.js";
+import { cancelPairs } from "./cancel.js";
+import { falsify, falsifyBySimulation, type FalsifyingInput, type SimulatedFailure } from "./falsify.js";
 import { buildMiter, formulaLiteral } from "./miter.js";
-import { REDUCTIONS, SymbolicRun } from "./symbolic.js";
+import { REDUCTIONS, SymbolicRun, type Unsupported } from "./symbolic.js";
 import { coneSize, encodeCone } from "./tseitin.js";
 
 /** Builds Boolean functions in the prover's hashed graph (literals: `(node << 1) | complemented`). */
@@ -147,6 +149,17 @@ export interface OracleProof {
 
 const dimacsOf = (a: readonly boolean[]): string => `${a.map((on, v) => (on ? v + 1 : -(v + 1))).join(" ")}${a.length ? " " : ""}0`;
 
+/**
+ * Before reduction QUICK_AFTER (the first two close the lowering's gadgets at the seams the
+ * optimizer leaves; the later ones are for rarer seams and cost far more when they fail), or
+ * after one that ran out of its work budget, a simulation of QUICK_INPUTS of the falsifier's
+ * inputs, at most QUICK_SECONDS: a dropped CNOT in a wide Clifford+T oracle at 60 variables made
+ * the third reduction run 180 s before it gave up, one in a lean oracle at 100 the second 77 s.
+ */
+const QUICK_AFTER = 2;
+const QUICK_INPUTS = 32;
+const QUICK_SECONDS = 2;
+
 /** Conflicts of the first, short SAT attempt (counterexamples are usually found at once). */
 const QUICK_CONFLICTS = 3_000;
 
@@ -197,34 +210,69 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   };
   /**
    * A circuit the symbolic run cannot reduce: no proof, but simulation on the falsifier's
-   * chosen inputs may still show it wrong (falsify.ts).
+   * chosen inputs (first the `focus` ones) may still show it wrong (falsify.ts).
    */
-  const unreduced = (message: string, graphNodes: number): OracleProof => {
-    const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout);
+  const unreduced = (message: string, graphNodes: number, focus: readonly FalsifyingInput[] = []): OracleProof => {
+    const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, 128, 10, focus);
     if (hit === null) return none(message, graphNodes);
     return refuted("simulation", { variables: 0, clauses: 0 }, graphNodes, hit.assignment, hit.target, hit.outcomes, hit.f, hit.failure);
   };
 
   // The path-sum reductions in turn (symbolic.ts, REDUCTIONS): the first whose path variables all
   // close. Each is exact.
-  let chosen: { run: SymbolicRun; f: number; cuts: number[] } | null = null;
-  let lastSize = 0;
-  for (const reduction of REDUCTIONS) {
-    const run = new SymbolicRun(circuit, search.size, target, reduction);
-    // The expected function's clause nodes first, as cut points: the circuit's ANDs then reuse them.
-    const cuts: number[] = [];
-    const f = options.expected === undefined ? formulaLiteral(run.g, cnf, run.vars, cuts) : options.expected.build(builderOf(run.g), run.vars, cuts);
-    run.g.setCuts(cuts);
-    const stuck = run.run();
-    if (stuck !== null) return unreduced(`not proven: gate ${stuck.gate} is ${stuck.reason}`, run.g.size);
-    lastSize = run.g.size;
-    if (run.exhausted || run.openPaths()) continue;
-    chosen = { run, f, cuts };
-    break;
+  type Attempt = { run: SymbolicRun; f: number; cuts: number[] } | { stuck: Unsupported; run: SymbolicRun } | { open: number } | { hit: SimulatedFailure; size: number };
+  let quick = true;
+  const attempt = (c: Circuit): Attempt => {
+    let lastSize = 0;
+    let spent = false;
+    for (const [i, reduction] of REDUCTIONS.entries()) {
+      if ((i >= QUICK_AFTER || spent) && quick) {
+        // The later reductions can take minutes where a wrong gadget leaves a path open, and a
+        // few simulated inputs usually show such a circuit wrong: those first, briefly.
+        quick = false;
+        const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, QUICK_INPUTS, QUICK_SECONDS);
+        if (hit !== null) return { hit, size: lastSize };
+      }
+      const run = new SymbolicRun(c, search.size, target, reduction);
+      // The expected function's clause nodes first, as cut points: the circuit's ANDs then reuse them.
+      const cuts: number[] = [];
+      const f = options.expected === undefined ? formulaLiteral(run.g, cnf, run.vars, cuts) : options.expected.build(builderOf(run.g), run.vars, cuts);
+      run.g.setCuts(cuts);
+      const stuck = run.run();
+      if (stuck !== null) return { stuck, run };
+      lastSize = run.g.size;
+      spent ||= run.exhausted;
+      if (run.exhausted || run.openPaths()) continue;
+      return { run, f, cuts };
+    }
+    return { open: lastSize };
+  };
+  let tried = attempt(circuit);
+  let origin: Int32Array | null = null;
+  if (!("f" in tried)) {
+    // Pairs that cancel may hide what the run reads (cancel.ts); the rewrite is exact.
+    const simpler = cancelPairs(circuit);
+    if (simpler !== null) {
+      const again = attempt(simpler.circuit);
+      if ("f" in again || "stuck" in again || "hit" in again) {
+        tried = again;
+        origin = simpler.origin;
+      }
+    }
   }
-  if (chosen === null) {
-    return unreduced("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", lastSize);
+  if ("hit" in tried) {
+    const { hit } = tried;
+    return refuted("simulation", { variables: 0, clauses: 0 }, tried.size, hit.assignment, hit.target, hit.outcomes, hit.f, hit.failure);
   }
+  if ("stuck" in tried) {
+    const { stuck, run } = tried;
+    const gate = origin === null ? stuck.gate : origin[stuck.gate]!;
+    return unreduced(`not proven: gate ${gate} is ${stuck.reason}`, run.g.size, focusAt(run, circuit, gate, inputs, options.expected === undefined ? cnf : null));
+  }
+  if ("open" in tried) {
+    return unreduced("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", tried.open);
+  }
+  const chosen = tried;
   const { run, f, cuts } = chosen;
   const state = run.state();
   const root = buildMiter(state, f, kind, target, work);
@@ -298,6 +346,55 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   if (status === "unsat") return proved("sat", miter, `proved: the miter is unsatisfiable (${solver.conflicts} conflicts)`);
   return none(`not proven: the solver ran out of its budget of ${limit} conflicts${cut.exhausted ? ", and the BDD over the clause nodes outgrew its budget" : ""}`, g.size, miter);
 }
+
+/** Inputs sought per value of a wire the run stopped at. */
+const FOCUS_PER_VALUE = 4;
+
+/**
+ * Where the symbolic run stopped at a measurement or reset of a wire whose value depends on the
+ * input: inputs on which that wire is 1 and inputs on which it is 0, each with the outcomes of the
+ * measurements before it. A dropped Hadamard before a measurement goes wrong only where the wire
+ * is 1, and a wire deep in a counter is 1 on few inputs, which the falsifier's first candidates
+ * (random, models, clause-violating) seldom are: the falsifier's cone evaluation looks for them
+ * over all its candidates, then the solver (a short budget) if none has the value.
+ */
+function focusAt(run: SymbolicRun, c: Circuit, gate: number, n: number, cnf: Cnf | null): FalsifyingInput[] {
+  if (c.kind[gate] !== K.measure && c.kind[gate] !== K.reset) return [];
+  const g = run.g;
+  const wire = run.wires[c.ops[c.opStart[gate]!]! >>> 1]!;
+  if (wire <= 1 || g.hasPath(wire)) return [];
+  const out: FalsifyingInput[] = [];
+  const forced = (outcome: (node: number) => boolean): boolean[] => run.events.map((e) => (e.literal <= 1 ? e.literal === TRUE : outcome(e.literal >>> 1) !== ((e.literal & 1) === 1)));
+  const first: FalsifyingInput[] = [];
+  for (const lit of [wire, wire ^ 1]) {
+    let found = 0;
+    falsify(g, lit, n, cnf, {
+      accept: (input) => {
+        out.push({ assignment: input.assignment, target: input.target, outcomes: forced((node) => input.outcomes[g.index(node)] === true) });
+        if (found === 0) first.push(out[out.length - 1]!);
+        return ++found >= FOCUS_PER_VALUE;
+      },
+    });
+    if (found > 0) continue;
+    const enc = encodeCone(g, lit);
+    const solver = new CdclSolver(enc.cnf.variables);
+    if (!solver.addCnf(enc.cnf) || solver.solve(FOCUS_CONFLICTS) !== "sat") continue;
+    const model = solver.model();
+    const values = new Map<number, boolean>();
+    for (let i = 0; i < enc.inputNodes.length; i++) values.set(enc.inputNodes[i]!, model[enc.inputVars[i]! - 1] === 1);
+    const at = (l: number): boolean => (l <= 1 ? l === TRUE : (values.get(l >>> 1) === true) !== ((l & 1) === 1));
+    out.push({ assignment: Array.from(run.vars, at), target: run.target >= 0 && at(run.target), outcomes: forced((node) => values.get(node) === true) });
+    first.push(out[out.length - 1]!);
+  }
+  // The wire takes both values: its measurement's outcome depends on the input, which no oracle's
+  // does. Where every branch still looks right on its own input, forcing the outcome the other
+  // input gives shows it (the simulator finds that outcome impossible there).
+  if (first.length === 2) first.forEach((input, i) => out.push({ ...input, outcomes: [...input.outcomes, i === 1] }));
+  return out;
+}
+
+/** Conflicts the solver may spend looking for an input on which a stuck wire has a value. */
+const FOCUS_CONFLICTS = 20_000;
 
 /** The public face of the graph for an expected function. */
 function builderOf(g: Graph): FunctionBuilder {
