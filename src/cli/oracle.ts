@@ -70,8 +70,8 @@ ${registerHelp("full")}
                               true|false); --front: points, each with qubits, t_count, t_depth,
                               construction, options; and the references
   --threads 1|2               threads counting the table (default 2 on a machine with two cores or more;
-                              the table's runs are shared between them: about half the wait for some
-                              two thirds more peak memory on a million clauses; 1 for the lower peak)
+                              the table's runs are shared between them: on a million clauses about a
+                              third less wait for half again the peak memory; 1 for the lower peak)
   --max-qubits Q              the cheapest construction within Q qubits; exit 2 naming the smallest Q that works
   --prefer t-count|t-depth    what cheapest means (default t-count; ties: the other, then qubits)
   --front                     the cost front (qubits, T-count, T-depth)
