@@ -112,7 +112,7 @@ function simplified(cnf: Cnf): SimplifiedCnf {
 /**
  * Runs `work` with the plans of one formula object made once and shared: a command that asks
  * for the register, then both cost tables, planned a million clauses three times (simplification
- * and recovery, some 3 s each time). Only within such a scope, where the caller knows the formula
+ * some 2.5 s each time). Only within such a scope, where the caller knows the formula
  * is not changed in place between calls.
  */
 export function sharingPlans<T>(work: () => T): T {
