@@ -462,8 +462,17 @@ export class TableCounter {
   private readonly structuredWeight = new Map<AnyStrategy, number>();
   private readonly wireMemory: WireMemory = { buffer: null, records: null };
 
-  constructor(cnf: Cnf, private readonly kind: OracleKind, options: Pick<CostOptions, "register" | "structure">, textbook: boolean) {
-    const oraclePlan = planOf(cnf, options);
+  /** The plan the table counts (planned here, or given). */
+  readonly oraclePlan: OraclePlan;
+
+  /**
+   * `plan`: the formula's plan for these options, made already (a worker thread is given the main
+   * thread's instead of planning again); `cnf` is then not read.
+   */
+  constructor(cnf: Cnf | null, private readonly kind: OracleKind, options: Pick<CostOptions, "register" | "structure">, textbook: boolean, plan?: OraclePlan) {
+    if (plan === undefined && cnf === null) throw new Error("TableCounter: a formula or its plan is needed");
+    const oraclePlan = plan ?? planOf(cnf!, options);
+    this.oraclePlan = oraclePlan;
     this.f = oraclePlan.clauses;
     this.logicals = new Logicals(oraclePlan);
     this.plan = [["wide", "unitary"], ["wide", "measured"], ["lean", "unitary"], ["lean", "measured"], ...(textbook ? [["textbook", "unitary"] as [AnyStrategy, Uncompute]] : [])];

@@ -1,6 +1,5 @@
 /** The worker thread of split.ts: counts its share of the cost tables' runs and posts the results. */
 import { parentPort, workerData } from "node:worker_threads";
-import { sharingPlans } from "../synth/index.js";
 import { TableCounter } from "./index.js";
 import type { EngineResult } from "./engine.js";
 import type { SplitJob } from "./split.js";
@@ -8,8 +7,7 @@ import type { SplitJob } from "./split.js";
 const job = workerData as SplitJob;
 const done = new Float64Array(job.progress);
 try {
-  // The tables with and without structure plan the same formula: simplified once.
-  sharingPlans(() => work());
+  work();
 } catch (e) {
   parentPort!.postMessage({ error: e instanceof Error ? e.message : String(e) });
 }
@@ -22,7 +20,7 @@ function work(): void {
     let c = counters.get(t);
     if (c === undefined) {
       const spec = job.tables[t]!;
-      c = new TableCounter(job.cnf, job.kind, spec, spec.textbook ?? true);
+      c = new TableCounter(null, job.kind, spec, spec.textbook ?? true, job.plans[t]!);
       counters.set(t, c);
     }
     const r = c.runs()[i]!;
