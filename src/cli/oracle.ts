@@ -234,7 +234,8 @@ export async function costCommand(argv: string[]): Promise<number> {
       ? { mode: "full", structure, n: cnf.variables, variables: cnf.variables, plan: undefined, counted: cnf }
       : { mode: "free", structure, n: plan.register.length, variables: cnf.variables, plan, counted: reduceSearch(cnf).cnf };
     // The registers of the rows: with structure (when shown) and without.
-    const problems = [...(both ? [problemOf(withStructure!, true)] : []), problemOf(plainRegister, false)];
+    // Without structure rows (none recovered), the one register line says recovery ran, unless it was off.
+    const problems = [...(both ? [problemOf(withStructure!, true)] : []), problemOf(plainRegister, both ? false : reg.structure)];
     const clauses = cnf.clauseStart.length - 1;
     if (values.json) {
       const lists = problems.map((p) => registerJson(p).register);

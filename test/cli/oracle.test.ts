@@ -105,4 +105,16 @@ describe("clausegate cost", () => {
     expect(front.stderr).toMatch(/^clausegate cost: error: --threads .*; hint: /);
     expect(cli(["cost", "examples/launch-rota.cnf", "--threads", "0"]).code).toBe(2);
   });
+  it("says structure recovery was off only when --no-structure turned it off", () => {
+    const dir = mkdtempSync(join(tmpdir(), "clausegate-cost-"));
+    // Three clauses with no definition, parity or group among them.
+    const file = join(dir, "plain.cnf");
+    writeFileSync(file, "p cnf 4 3\n1 -2 3 0\n-1 2 4 0\n2 -3 -4 0\n");
+    const on = cli(["cost", file]).stdout.split("\n");
+    expect(on[1]).toBe("search register: 4 qubits, full (every declared variable: vars[v-1] is variable v)");
+    expect(on[2]).toMatch(/^structure: none recovered/);
+    const off = cli(["cost", file, "--no-structure"]).stdout.split("\n");
+    expect(off[1]).toBe("search register: 4 qubits, full (every declared variable: vars[v-1] is variable v; structure recovery off)");
+    expect(off[2]).toMatch(/^structure: recovery off \(--no-structure\)/);
+  });
 });
