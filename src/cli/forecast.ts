@@ -16,7 +16,7 @@ import {
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
 import { choice, oracleOptions, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
 import { registerText, searchProblem } from "./register.js";
-import { printLater } from "./output.js";
+import { claimStdout, printLater } from "./output.js";
 
 /** Seconds the classical evaluator is timed on each formula. */
 const MEASURE_SECONDS = 0.2;
@@ -523,6 +523,8 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     }
   }
   const full: Machine = { ...DEFAULT_MACHINE, ...machine };
+  claimStdout("the forecast", "-");
+  claimStdout("the plot", values.plot);
 
   const rows: Row[] = [];
   let unsatisfiable = false;

@@ -157,8 +157,19 @@ function keepOwnership(fd: number, was: Stats): void {
 
 let stdoutClaim: string | undefined;
 function destinationStdout(what: string): void {
-  if (stdoutClaim !== undefined) throw new OutputError(`clausegate: error: ${what} and ${stdoutClaim} both go to standard output; hint: write one of them to a file`);
+  if (stdoutClaim !== undefined && stdoutClaim !== what) {
+    throw new OutputError(`clausegate: error: ${what} and ${stdoutClaim} both go to standard output; hint: write one of them to a file`);
+  }
   stdoutClaim = what;
+}
+
+/**
+ * Claims standard output for `what` when `path` is "-" (text a command prints passes "-"). A command
+ * claims every output that goes there before it writes any of them: a clash found only at the
+ * second output would come after the first had already reached standard output.
+ */
+export function claimStdout(what: string, path: string | undefined): void {
+  if (path === "-") destinationStdout(what);
 }
 
 /** Writes to standard output now (streamed output; synchronous for files and pipes on Linux). */

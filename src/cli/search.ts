@@ -7,7 +7,7 @@ import {
   type Solutions,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
-import { printLater } from "./output.js";
+import { claimStdout, printLater } from "./output.js";
 import {
   basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
   registerHelp, registerOptions, settleSearchOptions, type CliOracleOptions,
@@ -376,6 +376,8 @@ export async function planCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "plan");
   const seed = intOption(values.simulate, "--simulate", 0, 2 ** 31 - 1);
   const reg = registerOptions(values, "free");
+  claimStdout("the plan", "-");
+  claimStdout("the plot", values.plot);
   const original = await loadCnf(file);
   const problem = searchProblem(original, reg);
   const n = problem.n;
@@ -391,7 +393,7 @@ export async function planCommand(argv: string[]): Promise<number> {
   const p = planSearch(n, s.M);
   if (values.plot !== undefined) {
     const svg = plotSuccessSvg(p.theta, p.iterations ?? 0, `${displayName(file)}: M = ${whole(p.solutions)} of ${assignmentsText(n)}`, { successProbability: p.successProbability });
-    writeAtomic(values.plot, (w) => w(svg));
+    writeAtomic(values.plot, (w) => w(svg), "the plot");
   }
   if (values.json) process.stdout.write(`${JSON.stringify(planJson(original, problem, s, p))}\n`);
   else process.stdout.write(`${planLines(file, problem, s, p).join("\n")}\n`);
@@ -497,6 +499,13 @@ export async function searchCommand(argv: string[]): Promise<number> {
   let o = oracleOptions(values, "free");
   const sampling = shotsOptions(values);
   if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
+  // Every output that goes to standard output is claimed before any is written.
+  if (sampling.complete !== undefined) claimStdout("the completions", "-");
+  else {
+    if (sampling.shots !== undefined) claimStdout("the shots", "-");
+    claimStdout("the report", values.report);
+    claimStdout("the circuit", sampling.shots !== undefined ? values.output : values.output ?? "-");
+  }
   const original = await loadCnf(file);
   if (o.register === "full") checkCircuitSize(original, file, "search");
   const problem = searchProblem(original, o);
@@ -523,7 +532,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   ];
   if (values.report !== undefined) {
     const report = wholeRunReport(original, problem, K, solutions, plan, o);
-    writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`));
+    writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`), "the report");
   }
   if (sampling.shots !== undefined) {
     // The shots go to standard output; the circuit only where -o says.
