@@ -6,7 +6,6 @@
  * that gathers them from today's APIs (countModels, planSearch, searchCosts); it is the one place
  * to re-point when those move.
  */
-import { parseArgs } from "node:util";
 import {
   countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatSeconds, LOGICAL_ERROR_MODELS,
   MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, clauseCount, constructionSearchCost, parseConstruction,
@@ -14,7 +13,7 @@ import {
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
-import { choice, oracleOptions, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
+import { choice, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
 import { registerText, searchProblem } from "./register.js";
 import { claimStdout, printLater } from "./output.js";
 
@@ -480,7 +479,7 @@ function plotOf(rows: readonly Row[], fam: FamilyFits, machine: Machine): string
 }
 
 export async function forecastCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("forecast", {
     args: argv,
     allowPositionals: true,
     options: {

@@ -1,5 +1,4 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
-import { parseArgs } from "node:util";
 import {
   chooseAmong, constructionRow, costConstructions, costFront, costTables, oracleResources, plotFrontSvg, reduceSearch, registerOf, sharingPlans, type Cnf, type ConstructionCost,
   type CostRow, type Oracle, type RegisterMode,
@@ -9,7 +8,8 @@ import { claimStdout } from "./output.js";
 import { checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
 import {
-  choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions,
+  choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp,
+  registerOptions,
 } from "./options.js";
 import { problemOfOracle, registerJson, registerText, searchProblem, structureJson, structureText, type SearchProblem } from "./register.js";
 
@@ -108,7 +108,7 @@ function noteSimplification(o: Oracle, file: string): void {
 }
 
 export async function oracleCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("oracle", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -174,7 +174,7 @@ export function writeOracle(oracle: Oracle, cnf: Cnf, format: Format, output?: s
 }
 
 export async function costCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("cost", {
     args: argv,
     allowPositionals: true,
     options: {

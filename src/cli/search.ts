@@ -1,5 +1,4 @@
 /** `clausegate plan`, `clausegate search` and `clausegate draw`: the whole search, costed and pictured. */
-import { parseArgs } from "node:util";
 import {
   bbhtExpectedCalls, bbhtLastRound, bbhtRounds, bbhtSequence, BBHT_LAMBDA, compileOracle, compileSearch, countSolutions, DEFAULT_COUNT_LIMIT,
   drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, searchCosts, constructionSearchCost,
@@ -10,7 +9,7 @@ import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT
 import { claimStdout, printLater } from "./output.js";
 import {
   basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
-  registerHelp, registerOptions, settleSearchOptions, type CliOracleOptions,
+  parseCommandArgs, registerHelp, registerOptions, settleSearchOptions, type CliOracleOptions,
 } from "./options.js";
 import { checkFormat, writeCircuit } from "./circuits.js";
 import { registerJson, registerText, searchProblem, type SearchProblem } from "./register.js";
@@ -360,7 +359,7 @@ function unknownJson(original: Cnf, problem: SearchProblem, seed: number | undef
 }
 
 export async function planCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("plan", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -481,7 +480,7 @@ function checkSearchSize(file: string, cnf: Cnf, n: number, o: CliOracleOptions,
 }
 
 export async function searchCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("search", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -661,7 +660,7 @@ function drawSuggestion(cnf: Cnf, n: number, o: CliOracleOptions, search: boolea
 }
 
 export async function drawCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("draw", {
     args: argv,
     allowPositionals: true,
     options: { ...ORACLE_ARGS, ...REGISTER_ARGS, output: { type: "string", short: "o" }, search: { type: "boolean" }, iterations: { type: "string" }, help: { type: "boolean", short: "h" } },

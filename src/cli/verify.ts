@@ -1,11 +1,10 @@
 /** `clausegate verify`: check an oracle against its formula; `oracle --verify` uses it too. */
 import { readFile } from "node:fs/promises";
-import { parseArgs } from "node:util";
 import {
   DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, type Circuit, type Completion,
 } from "../internal.js";
 import { checkCircuitSize, loadCnf, UserError } from "./io.js";
-import { choice, compileWithOptions, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
+import { choice, compileWithOptions, oneInput, ORACLE_ARGS, parseCommandArgs, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { checkJson, checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
 export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT [--kind phase|flag]] [options]
@@ -63,7 +62,7 @@ kind of input left unchecked, with the reason; under --prove, not proven), 2 bad
 const COMPILE_ONLY = ["strategy", "construction", "max-qubits", "prefer", "basis", "uncompute", "no-optimize", "check-passes"] as const;
 
 export async function verifyCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("verify", {
     args: argv,
     allowPositionals: true,
     options: { ...ORACLE_ARGS, ...REGISTER_ARGS, ...VERIFY_ARGS, circuit: { type: "string" }, json: { type: "boolean" }, help: { type: "boolean", short: "h" } },

@@ -1,0 +1,29 @@
+// An option given twice with different values is refused: parseArgs would keep the last and
+// drop the first without a word (issue: options that are ignored are refused).
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import { cli, ROOT } from "../helpers/cli.js";
+
+const EXAMPLE = join(ROOT, "examples/allotment-pair.cnf");
+
+describe("repeated options", () => {
+  it.each([
+    [["oracle", EXAMPLE, "--format", "json", "--format", "qasm2"], "--format"],
+    [["oracle", EXAMPLE, "-o", "a.qasm", "--output", "b.qasm"], "--output"],
+    [["verify", EXAMPLE, "--seed", "1", "--seed=2"], "--seed"],
+    [["count", EXAMPLE, "--max-variables", "20", "--max-variables", "30"], "--max-variables"],
+    [["plan", EXAMPLE, "--register", "full", "--register", "free"], "--register"],
+  ])("%j is refused in one line, exit 2, nothing written", (args, name) => {
+    const r = cli(args);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr.trim().split("\n")).toHaveLength(1);
+    expect(r.stderr).toContain(`${name} is given twice`);
+    expect(r.stderr).toMatch(/; hint: give it once\n$/);
+  });
+  it("the same value twice, and --help, are accepted", () => {
+    expect(cli(["oracle", EXAMPLE, "--format", "json", "--format=json"]).code).toBe(0);
+    expect(cli(["count", EXAMPLE, "--json", "--json"]).code).toBe(0);
+    expect(cli(["oracle", "--help", "--kind", "flag", "--kind", "phase"]).code).toBe(0);
+  });
+});
