@@ -52,7 +52,8 @@ export function readCircuit(input: string | Uint8Array): CircuitReadResult {
   const { bytes, origin } = bytesOf(input);
   let i = origin;
   while (i < bytes.length && (bytes[i] === 0x20 || bytes[i] === 0x09 || bytes[i] === 0x0a || bytes[i] === 0x0d)) i++;
-  return bytes[i] === 0x7b /* { */ ? readCircuitJson(bytes) : readCircuitQasm3(bytes);
+  // A list is no circuit, but it is JSON: the JSON reader says what is wrong with it.
+  return bytes[i] === 0x7b /* { */ || bytes[i] === 0x5b /* [ */ ? readCircuitJson(bytes) : readCircuitQasm3(bytes);
 }
 
 /** Runs a reader: UTF-8 first, then the reader's own checks, then the circuit's invariants. */
@@ -610,7 +611,13 @@ class Qasm3Reader {
         if (part.trim() !== "") out.push({ text: part.trim(), at: at + col + (part.length - part.trimStart().length) });
         col += part.length + 1;
       }
-      if (!body.endsWith(";")) throw qstop(at + body.length, `expected ';' at the end of the statement but found the end of the line`);
+      if (!body.endsWith(";")) {
+        // Text that is not OpenQASM at all is told so, not that its first line lacks a ';'.
+        if (out.length <= 1 && !body.startsWith("OPENQASM")) {
+          throw qstop(at, `expected 'OPENQASM 3.0;' first but found '${body.length > 40 ? `${body.slice(0, 37)}...` : body}'`);
+        }
+        throw qstop(at + body.length, `expected ';' at the end of the statement but found the end of the line`);
+      }
     }
     return out;
   }

@@ -153,6 +153,9 @@ describe("readCircuitJson: every fault class is refused at the offending value (
       expect(readCircuit(Buffer.concat([Buffer.from('{"comments":["'), Buffer.from(bad), Buffer.from('"]}')])).diagnostics[0]!.column).toBe(15);
     }
   });
+  it("a JSON list is read as JSON and refused as such", () => {
+    expectRejected(`  \n§[{"op":"x","qubits":[0]}]`, /^expected a JSON object \('\{'\) but found '\['$/);
+  });
   it("an empty input and a lone brace are refused with one diagnostic", () => {
     for (const text of ["", "{", "{}", "   \n"]) {
       const r = readCircuit(text);
@@ -192,6 +195,9 @@ describe("readCircuitQasm3: every fault class is refused at the offending operan
     ["a second bit register", `${head}§bit[1] more;\n`, /expected one bit register but found a second, 'more'/],
     ["OpenQASM 2", `§OPENQASM 2.0;\ninclude "qelib1.inc";\n`, /expected OpenQASM 3 or clausegate JSON but found OpenQASM 2\.0/],
     ["no version line", `// ${WIDE}\n§qubit[4] vars;\n`, /expected 'OPENQASM 3\.0;' first/],
+    // Text that is no OpenQASM: said so, not that its first line lacks a ';'.
+    ["a DIMACS file", `// ${WIDE}\n  §p cnf 3 2\n1 -2 0\n`, /^expected 'OPENQASM 3\.0;' first but found 'p cnf 3 2'$/],
+    ["null", `§null`, /^expected 'OPENQASM 3\.0;' first but found 'null'$/],
   ];
   for (const [name, template, message] of cases) it(name, () => expectRejected(template, message, readCircuitQasm3));
   it("invalid UTF-8 in a comment is refused at its byte", () => {
