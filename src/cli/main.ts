@@ -56,6 +56,12 @@ function argumentError(e: Error, command: string): string {
   if (m) return `${where}: error: option ${m[1]} needs a value; ${hint}`;
   m = /^Option '(?:-\w, )?(--[\w-]+)[^']*' does not take an argument/.exec(msg);
   if (m) return `${where}: error: option ${m[1]} takes no value; ${hint}`;
+  // parseArgs will not take a value that starts with '-' after a space (it could be an option).
+  m = /^Option '(?:-\w, )?(-\w|--[\w-]+)[^']*' argument is ambiguous/.exec(msg);
+  if (m) {
+    const eq = m[1]!.startsWith("--") ? `${m[1]}=VALUE` : `${m[1]}VALUE`;
+    return `${where}: error: option ${m[1]} is followed by a value that starts with '-', which reads as an option; hint: write ${eq} for such a value`;
+  }
   m = /^Unexpected argument '([^']+)'/.exec(msg);
   if (m) return `${where}: error: unexpected argument '${m[1]}'; ${hint}`;
   return `${where}: error: ${msg.replace(/[.;]\s.*$/, "")}; ${hint}`;

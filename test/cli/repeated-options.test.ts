@@ -27,3 +27,14 @@ describe("repeated options", () => {
     expect(cli(["oracle", "--help", "--kind", "flag", "--kind", "phase"]).code).toBe(0);
   });
 });
+
+describe("a value that starts with '-' after a space", () => {
+  it("is refused with what to write instead, not parseArgs's 'argument is ambiguous'", () => {
+    const r = cli(["plan", EXAMPLE, "--solutions", "-1"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toBe("clausegate plan: error: option --solutions is followed by a value that starts with '-', which reads as an option; hint: write --solutions=VALUE for such a value\n");
+    const o = cli(["oracle", EXAMPLE, "-o", "-x"]);
+    expect(o.code).toBe(2);
+    expect(o.stderr).toMatch(/^clausegate oracle: error: option -o is followed by .*; hint: write -oVALUE for such a value\n$/);
+  });
+});
