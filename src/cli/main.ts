@@ -6,7 +6,7 @@ import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
 import { verifyCommand, verifyHelp } from "./verify.js";
 import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp } from "./search.js";
 import { forecastCommand, forecastHelp } from "./forecast.js";
-import { EXIT_BAD_INPUT, UserError } from "./io.js";
+import { EXIT_BAD_INPUT, oneLine, UserError } from "./io.js";
 import { checkpoint, cleanUpOnSignals, commitOutputs, discardOutputs, OutputError } from "./output.js";
 import { PassError } from "../internal.js";
 
@@ -101,12 +101,12 @@ export async function main(argv: string[]): Promise<number> {
   } catch (e) {
     discardOutputs();
     if (e instanceof UserError || e instanceof OutputError) {
-      if (e.message !== "") process.stderr.write(`${e.message}\n`);
+      if (e.message !== "") process.stderr.write(`${oneLine(e.message)}\n`);
       return e instanceof UserError ? e.exitCode : EXIT_BAD_INPUT;
     }
     const code = (e as { code?: string }).code;
     if (typeof code === "string" && code.startsWith("ERR_PARSE_ARGS")) {
-      process.stderr.write(`${argumentError(e as Error, first ?? "")}\n`);
+      process.stderr.write(`${oneLine(argumentError(e as Error, first ?? ""))}\n`);
       return EXIT_BAD_INPUT;
     }
     if (e instanceof PassError) {
