@@ -33,8 +33,9 @@ ${registerHelp("full")}
                               what structure recovery gave, completion (free register) how a register
                               value completes to a model
   --verify                    verify the oracle first (as clausegate verify: simulation in reach, else a
-                              proof); write only if it passes; takes
-                              verify's --exhaustive-limit, --samples, --models, --conflict-limit and --seed
+                              proof); write only if it passes; takes verify's --exhaustive-limit,
+                              --samples, --models, --conflict-limit, --seed and --sample (which refuse
+                              to be given without --verify or --prove)
   --prove                     prove the oracle first (as clausegate verify --prove, any size); write only
                               if the proof succeeds; takes --conflict-limit
   -h, --help                  show this help
@@ -127,6 +128,15 @@ export async function oracleCommand(argv: string[]): Promise<number> {
     return 0;
   }
   const flags = verifyFlags(values);
+  if (!values.verify && !values.prove) {
+    const unused = (["exhaustive-limit", "samples", "models", "conflict-limit", "seed", "sample"] as const).find((k) => values[k] !== undefined);
+    if (unused !== undefined) {
+      throw new UserError(`clausegate oracle: error: --${unused} shapes the check that --verify or --prove runs, and neither is given; hint: add --verify (or --prove), or leave out --${unused}`);
+    }
+  }
+  if (values.prove && values.sample) {
+    throw new UserError("clausegate oracle: error: --prove and --sample ask for a proof and for sampling only; hint: give one of them");
+  }
   const file = oneInput(positionals, "oracle");
   const format = choice(values.format, "--format", FORMATS, "qasm3");
   const options = oracleOptions(values);

@@ -38,3 +38,21 @@ describe("a value that starts with '-' after a space", () => {
     expect(o.stderr).toMatch(/^clausegate oracle: error: option -o is followed by .*; hint: write -oVALUE for such a value\n$/);
   });
 });
+
+describe("oracle: the check options without a check", () => {
+  it.each(["--exhaustive-limit=5", "--samples=5", "--models=5", "--conflict-limit=5", "--seed=5", "--sample"])("%s without --verify or --prove is refused", (opt) => {
+    const r = cli(["oracle", EXAMPLE, opt]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    const name = opt.split("=")[0]!;
+    expect(r.stderr).toBe(`clausegate oracle: error: ${name} shapes the check that --verify or --prove runs, and neither is given; hint: add --verify (or --prove), or leave out ${name}\n`);
+  });
+  it("--prove with --sample is refused as verify refuses it; with --verify the options apply", () => {
+    const r = cli(["oracle", EXAMPLE, "--prove", "--sample"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^clausegate oracle: error: --prove and --sample ask for a proof and for sampling only; hint: /);
+    const v = cli(["oracle", EXAMPLE, "--verify", "--sample", "--seed", "3"]);
+    expect(v.code).toBe(0);
+    expect(v.stderr).toMatch(/^verified: /);
+  });
+});
