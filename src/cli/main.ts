@@ -40,7 +40,8 @@ Options:
   -h, --help      show this help (clausegate COMMAND --help for a command)
   -v, --version   print the version
 
-Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan, search, draw --search).
+Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan, forecast; search and
+draw --search without --iterations).
 Errors are one line on stderr: WHERE: error: WHAT; hint: WHAT TO DO.
 `;
 }
