@@ -708,6 +708,6 @@ export async function drawCommand(argv: string[]): Promise<number> {
   const problem = drawProblem(circuit);
   if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}; hint: ${drawSuggestion(cnf, n, o, values.search === true, K)}`);
   const svg = drawCircuitSvg(circuit, title);
-  writeAtomic(values.output, (w) => w(svg));
+  writeAtomic(values.output, (w) => w(svg), "the drawing");
   return 0;
 }

@@ -45,3 +45,11 @@ describe("standard output claimed by two outputs", () => {
     expect(c.stdout).not.toBe("");
   });
 });
+
+describe("outputs are named for what they hold", () => {
+  it("draw -o naming its input: 'the drawing would replace the input'", () => {
+    const r = cli(["draw", EXAMPLE, "-o", EXAMPLE]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toBe(`${EXAMPLE}: error: the drawing would replace the input ${EXAMPLE}; hint: write it to another file\n`);
+  });
+});
