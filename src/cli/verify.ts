@@ -1,7 +1,8 @@
 /** `clausegate verify`: check an oracle against its formula; `oracle --verify` uses it too. */
 import { readFile } from "node:fs/promises";
 import {
-  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, type Circuit, type Completion,
+  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
+  type Completion,
 } from "../internal.js";
 import { checkCircuitSize, displayName, loadCnf, UserError } from "./io.js";
 import { choice, compileWithOptions, oneInput, ORACLE_ARGS, parseCommandArgs, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
@@ -124,7 +125,8 @@ async function loadCircuit(path: string): Promise<Circuit> {
   }
   const { circuit, diagnostics } = readCircuit(bytes);
   if (circuit === undefined) throw new UserError(formatDiagnostic(diagnostics[0]!, displayName(path)));
-  return circuit;
+  // Idle work qubits declared at the end cost the checkers memory per qubit and change nothing.
+  return withoutIdleTail(circuit);
 }
 
 async function readStdin(): Promise<Uint8Array> {
