@@ -7,7 +7,7 @@ import { verifyCommand, verifyHelp } from "./verify.js";
 import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp } from "./search.js";
 import { forecastCommand, forecastHelp } from "./forecast.js";
 import { EXIT_BAD_INPUT, oneLine, UserError } from "./io.js";
-import { checkpoint, cleanUpOnSignals, commitOutputs, discardOutputs, OutputError } from "./output.js";
+import { checkpoint, commitOutputs, discardOutputs, OutputError } from "./output.js";
 import { PassError } from "../internal.js";
 
 const commands: Record<string, { run: (argv: string[]) => Promise<number>; summary: string; help: string }> = {
@@ -71,7 +71,6 @@ function argumentError(e: Error, command: string): string {
 /** Runs the CLI with the given arguments; resolves to the exit code. */
 export async function main(argv: string[]): Promise<number> {
   const [first, ...rest] = argv;
-  cleanUpOnSignals();
   try {
     if (first === undefined) {
       process.stderr.write(mainHelp());
