@@ -219,3 +219,13 @@ describe("clausegate verify --circuit - (standard input)", () => {
     expect(r.stderr).toMatch(/^clausegate verify: error: the formula and the circuit both come from standard input.*; hint: /);
   });
 });
+
+describe("clausegate verify of a circuit with the wrong register", () => {
+  it("above the exhaustive limit, says only that it is no oracle for the formula (no 'not proven' line first)", () => {
+    const out = join(dir, "shed-free.json");
+    expect(cli(["oracle", "examples/shed-lock.cnf", "--register", "free", "--format", "json", "-o", out]).code).toBe(0);
+    const r = cli(["verify", "examples/shed-lock.cnf", "--circuit", out]);
+    expect(r.code).toBe(1);
+    expect(r.stdout).toBe(`${out}: not an oracle for this formula: the search register vars has 4 qubits but the formula declares 40 variables\n`);
+  });
+});
