@@ -20,6 +20,7 @@ export type { Structure, StructureOptions, StructureReport, StructuredEvaluation
 export { recoverStructure, extendAssignment, satisfiesStructure, evaluateStructured } from "./structure/index.js";
 
 export type { Circuit, Register, RegisterRole } from "./ir/circuit.js";
+export { withoutIdleTail } from "./ir/circuit.js";
 export type { GateKind } from "./ir/kinds.js";
 export { GATE_KINDS } from "./ir/kinds.js";
 export type { Basis, Uncompute } from "./passes/lower.js";

@@ -105,7 +105,9 @@ export function checkLines(r: CheckResult, file: string): string[] {
     lines.push(`expected: ${c.expected}`, `circuit:  ${c.actual}`);
     return lines;
   }
-  if (p !== null) lines.push(`${p.message.replace(/^not proven: /, "not proven: ")} (after ${seconds(p.seconds)}); checked by simulation instead`);
+  // A circuit of the wrong shape (register sizes) is told so alone: the proof's "not proven"
+  // line before it would only repeat the mismatch in other words.
+  if (p !== null && !r.simulation?.problem) lines.push(`${p.message.replace(/^not proven: /, "not proven: ")} (after ${seconds(p.seconds)}); checked by simulation instead`);
   if (r.simulation !== null) lines.push(...reportLines(r.simulation, file));
   return lines;
 }

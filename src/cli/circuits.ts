@@ -11,7 +11,12 @@ export type Format = (typeof FORMATS)[number];
 /** Refuses, before anything is written, a circuit the format cannot express. */
 export function checkFormat(circuit: Circuit, format: Format): void {
   const problem = format === "qasm2" ? qasm2Problem(circuit) : null;
-  if (problem !== null) throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem}; hint: write --format qasm3 or json, or choose --basis toffoli`);
+  if (problem === null) return;
+  if (circuit.qubits === 0) {
+    throw new UserError("clausegate: error: cannot write OpenQASM 2.0: the circuit has no qubits, and OpenQASM 2.0 cannot declare an empty register; hint: write --format qasm3 or json");
+  }
+  // qasm2Problem names the gate, then (after ';') the bases that avoid it: the hint says that here.
+  throw new UserError(`clausegate: error: cannot write OpenQASM 2.0: the circuit has ${problem.split(";")[0]}; hint: choose --basis toffoli or --basis clifford+t, or write --format qasm3 or json`);
 }
 
 /** Writes a circuit in a format to a file (atomically) or standard output. */

@@ -1,8 +1,7 @@
 /** `clausegate count FILE|-`: variables, clauses and the exact model count. */
-import { parseArgs } from "node:util";
 import { clauseCount, countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "../internal.js";
 import { loadCnf, progress, UserError } from "./io.js";
-import { intOption, oneInput } from "./options.js";
+import { intOption, oneInput, parseCommandArgs } from "./options.js";
 
 export const countHelp = `Usage: clausegate count FILE|- [options]
 
@@ -26,7 +25,7 @@ Options:
 `;
 
 export async function countCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("count", {
     args: argv,
     allowPositionals: true,
     options: {

@@ -6,7 +6,6 @@
  * that gathers them from today's APIs (countModels, planSearch, searchCosts); it is the one place
  * to re-point when those move.
  */
-import { parseArgs } from "node:util";
 import {
   countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatSeconds, LOGICAL_ERROR_MODELS,
   MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, clauseCount, constructionSearchCost, parseConstruction,
@@ -14,9 +13,9 @@ import {
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
-import { choice, oracleOptions, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
+import { choice, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
 import { registerText, searchProblem } from "./register.js";
-import { printLater } from "./output.js";
+import { claimStdout, printLater } from "./output.js";
 
 /** Seconds the classical evaluator is timed on each formula. */
 const MEASURE_SECONDS = 0.2;
@@ -480,7 +479,7 @@ function plotOf(rows: readonly Row[], fam: FamilyFits, machine: Machine): string
 }
 
 export async function forecastCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("forecast", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -523,6 +522,8 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     }
   }
   const full: Machine = { ...DEFAULT_MACHINE, ...machine };
+  claimStdout("the forecast", "-");
+  claimStdout("the plot", values.plot);
 
   const rows: Row[] = [];
   let unsatisfiable = false;

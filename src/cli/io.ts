@@ -15,6 +15,16 @@ export class UserError extends Error {
   }
 }
 
+const CONTROL_NAMES: Record<string, string> = { "\n": "\\n", "\r": "\\r", "\t": "\\t" };
+
+/**
+ * A message as one line: control characters (a file name or an option value may hold a line
+ * feed) are shown escaped, so that an error stays one line on standard error.
+ */
+export function oneLine(message: string): string {
+  return message.replace(/[\x00-\x1f\x7f]/g, (c) => CONTROL_NAMES[c] ?? `\\x${c.charCodeAt(0).toString(16).padStart(2, "0")}`);
+}
+
 /** How an input is named in messages. */
 export function displayName(path: string): string {
   return path === "-" ? "<stdin>" : path;
@@ -40,7 +50,7 @@ export async function loadCnf(path: string): Promise<Cnf> {
 }
 
 export function printDiagnostics(ds: readonly Diagnostic[], file: string): void {
-  for (const d of ds) process.stderr.write(`${formatDiagnostic(d, file)}\n`);
+  for (const d of ds) process.stderr.write(`${oneLine(formatDiagnostic(d, file))}\n`);
 }
 
 /**

@@ -6,8 +6,8 @@ import { costCommand, costHelp, oracleCommand, oracleHelp } from "./oracle.js";
 import { verifyCommand, verifyHelp } from "./verify.js";
 import { drawCommand, drawHelp, planCommand, planHelp, searchCommand, searchHelp } from "./search.js";
 import { forecastCommand, forecastHelp } from "./forecast.js";
-import { EXIT_BAD_INPUT, UserError } from "./io.js";
-import { checkpoint, cleanUpOnSignals, commitOutputs, discardOutputs, OutputError } from "./output.js";
+import { EXIT_BAD_INPUT, oneLine, UserError } from "./io.js";
+import { checkpoint, commitOutputs, discardOutputs, OutputError } from "./output.js";
 import { PassError } from "../internal.js";
 
 const commands: Record<string, { run: (argv: string[]) => Promise<number>; summary: string; help: string }> = {
@@ -40,7 +40,8 @@ Options:
   -h, --help      show this help (clausegate COMMAND --help for a command)
   -v, --version   print the version
 
-Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan, search, draw --search).
+Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan, forecast; search and
+draw --search without --iterations).
 Errors are one line on stderr: WHERE: error: WHAT; hint: WHAT TO DO.
 `;
 }
@@ -56,6 +57,12 @@ function argumentError(e: Error, command: string): string {
   if (m) return `${where}: error: option ${m[1]} needs a value; ${hint}`;
   m = /^Option '(?:-\w, )?(--[\w-]+)[^']*' does not take an argument/.exec(msg);
   if (m) return `${where}: error: option ${m[1]} takes no value; ${hint}`;
+  // parseArgs will not take a value that starts with '-' after a space (it could be an option).
+  m = /^Option '(?:-\w, )?(-\w|--[\w-]+)[^']*' argument is ambiguous/.exec(msg);
+  if (m) {
+    const eq = m[1]!.startsWith("--") ? `${m[1]}=VALUE` : `${m[1]}VALUE`;
+    return `${where}: error: option ${m[1]} is followed by a value that starts with '-', which reads as an option; hint: write ${eq} for such a value`;
+  }
   m = /^Unexpected argument '([^']+)'/.exec(msg);
   if (m) return `${where}: error: unexpected argument '${m[1]}'; ${hint}`;
   return `${where}: error: ${msg.replace(/[.;]\s.*$/, "")}; ${hint}`;
@@ -64,7 +71,6 @@ function argumentError(e: Error, command: string): string {
 /** Runs the CLI with the given arguments; resolves to the exit code. */
 export async function main(argv: string[]): Promise<number> {
   const [first, ...rest] = argv;
-  cleanUpOnSignals();
   try {
     if (first === undefined) {
       process.stderr.write(mainHelp());
@@ -95,12 +101,12 @@ export async function main(argv: string[]): Promise<number> {
   } catch (e) {
     discardOutputs();
     if (e instanceof UserError || e instanceof OutputError) {
-      if (e.message !== "") process.stderr.write(`${e.message}\n`);
+      if (e.message !== "") process.stderr.write(`${oneLine(e.message)}\n`);
       return e instanceof UserError ? e.exitCode : EXIT_BAD_INPUT;
     }
     const code = (e as { code?: string }).code;
     if (typeof code === "string" && code.startsWith("ERR_PARSE_ARGS")) {
-      process.stderr.write(`${argumentError(e as Error, first ?? "")}\n`);
+      process.stderr.write(`${oneLine(argumentError(e as Error, first ?? ""))}\n`);
       return EXIT_BAD_INPUT;
     }
     if (e instanceof PassError) {

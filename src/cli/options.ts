@@ -1,6 +1,26 @@
 /** Shared argument checks for the commands. */
+import { parseArgs, type ParseArgsConfig } from "node:util";
 import { compilePlanned, planConstruction, searchConstruction, type Cnf, type Oracle, type OracleOptions, type RegisterMode } from "../internal.js";
 import { UserError } from "./io.js";
+
+/**
+ * Node's parseArgs, refusing an option given twice with different values: parseArgs keeps the
+ * last, and the first would be dropped without a word.
+ */
+export function parseCommandArgs<T extends ParseArgsConfig>(command: string, config: T): ReturnType<typeof parseArgs<T>> {
+  const parsed = parseArgs(config);
+  if ((parsed.values as Record<string, unknown>)["help"] === true) return parsed;
+  const given = new Map<string, string>();
+  for (const t of parseArgs({ ...config, tokens: true }).tokens ?? []) {
+    if (t.kind !== "option" || t.value === undefined) continue;
+    const before = given.get(t.name);
+    if (before !== undefined && before !== t.value) {
+      throw new UserError(`clausegate ${command}: error: --${t.name} is given twice, as '${before}' and as '${t.value}'; hint: give it once`);
+    }
+    given.set(t.name, t.value);
+  }
+  return parsed;
+}
 
 /** The single FILE|- positional of a command. */
 export function oneInput(positionals: string[], command: string): string {

@@ -1,14 +1,15 @@
 /** `clausegate oracle` and `clausegate cost`: compile a formula, write the circuit, report its costs. */
-import { parseArgs } from "node:util";
 import {
   chooseAmong, constructionRow, costConstructions, costFront, costTables, oracleResources, plotFrontSvg, reduceSearch, registerOf, sharingPlans, type Cnf, type ConstructionCost,
   type CostRow, type Oracle, type RegisterMode,
 } from "../internal.js";
 import { checkCircuitSize, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
+import { claimStdout } from "./output.js";
 import { checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
 import {
-  choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions,
+  choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp,
+  registerOptions,
 } from "./options.js";
 import { problemOfOracle, registerJson, registerText, searchProblem, structureJson, structureText, type SearchProblem } from "./register.js";
 
@@ -32,8 +33,9 @@ ${registerHelp("full")}
                               what structure recovery gave, completion (free register) how a register
                               value completes to a model
   --verify                    verify the oracle first (as clausegate verify: simulation in reach, else a
-                              proof); write only if it passes; takes
-                              verify's --exhaustive-limit, --samples, --models, --conflict-limit and --seed
+                              proof); write only if it passes; takes verify's --exhaustive-limit,
+                              --samples, --models, --conflict-limit, --seed and --sample (which refuse
+                              to be given without --verify or --prove)
   --prove                     prove the oracle first (as clausegate verify --prove, any size); write only
                               if the proof succeeds; takes --conflict-limit
   -h, --help                  show this help
@@ -107,7 +109,7 @@ function noteSimplification(o: Oracle, file: string): void {
 }
 
 export async function oracleCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("oracle", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -126,9 +128,20 @@ export async function oracleCommand(argv: string[]): Promise<number> {
     return 0;
   }
   const flags = verifyFlags(values);
+  if (!values.verify && !values.prove) {
+    const unused = (["exhaustive-limit", "samples", "models", "conflict-limit", "seed", "sample"] as const).find((k) => values[k] !== undefined);
+    if (unused !== undefined) {
+      throw new UserError(`clausegate oracle: error: --${unused} shapes the check that --verify or --prove runs, and neither is given; hint: add --verify (or --prove), or leave out --${unused}`);
+    }
+  }
+  if (values.prove && values.sample) {
+    throw new UserError("clausegate oracle: error: --prove and --sample ask for a proof and for sampling only; hint: give one of them");
+  }
   const file = oneInput(positionals, "oracle");
   const format = choice(values.format, "--format", FORMATS, "qasm3");
   const options = oracleOptions(values);
+  claimStdout("the report", values.report);
+  claimStdout("the circuit", values.output ?? "-");
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "oracle");
   const oracle = compileWithOptions(cnf, options, "oracle");
@@ -171,7 +184,7 @@ export function writeOracle(oracle: Oracle, cnf: Cnf, format: Format, output?: s
 }
 
 export async function costCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("cost", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -199,6 +212,8 @@ export async function costCommand(argv: string[]): Promise<number> {
   const threads = intOption(values.threads, "--threads", 1, 2);
   if (threads !== undefined && (values.front || maxQubits !== undefined)) throw new UserError("clausegate cost: error: --threads shares the table's runs; --front and --max-qubits count on one thread; hint: leave out --threads");
   const prefer = choice(values.prefer, "--prefer", ["t-count", "t-depth"] as const, "t-count");
+  claimStdout("the cost front", "-");
+  claimStdout("the plot", values.plot);
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "cost");
   // The register lines and both tables plan the same formula: once each (sharingPlans).

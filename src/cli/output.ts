@@ -125,6 +125,8 @@ export function writeOutput(path: string, what: string, produce: (write: (chunk:
   // Short temporary names: the destination's own name may already be 255 bytes long.
   const tmp = join(dirname(dest), `.cg${process.pid.toString(36)}${randomBytes(3).toString("hex")}.tmp`);
   let fd = -1;
+  // Before the file exists: a signal from here on is deferred to the handler, which removes it.
+  cleanUpOnSignals();
   try {
     fd = openSync(tmp, "wx", existing ? existing.mode & 0o7777 : 0o666);
     pending.push({ tmp, dest });
@@ -157,8 +159,19 @@ function keepOwnership(fd: number, was: Stats): void {
 
 let stdoutClaim: string | undefined;
 function destinationStdout(what: string): void {
-  if (stdoutClaim !== undefined) throw new OutputError(`clausegate: error: ${what} and ${stdoutClaim} both go to standard output; hint: write one of them to a file`);
+  if (stdoutClaim !== undefined && stdoutClaim !== what) {
+    throw new OutputError(`clausegate: error: ${what} and ${stdoutClaim} both go to standard output; hint: write one of them to a file`);
+  }
   stdoutClaim = what;
+}
+
+/**
+ * Claims standard output for `what` when `path` is "-" (text a command prints passes "-"). A command
+ * claims every output that goes there before it writes any of them: a clash found only at the
+ * second output would come after the first had already reached standard output.
+ */
+export function claimStdout(what: string, path: string | undefined): void {
+  if (path === "-") destinationStdout(what);
 }
 
 /** Writes to standard output now (streamed output; synchronous for files and pipes on Linux). */
@@ -203,17 +216,30 @@ export function discardOutputs(): void {
 
 const SIGNALS = ["SIGINT", "SIGTERM", "SIGHUP"] as const;
 
+/** The handlers installed, so that only they are removed. */
+const handlers = new Map<NodeJS.Signals, () => void>();
+const removeHandlers = (): void => {
+  for (const [s, h] of handlers) process.removeListener(s, h);
+  handlers.clear();
+};
+
 /**
  * On SIGINT, SIGTERM or SIGHUP: remove the temporary files, then die of the same signal
- * (the conventional status for the caller).
+ * (the conventional status for the caller). Installed when the first temporary file is about to
+ * be made, not before: a JavaScript handler runs only between turns of the event loop, so while
+ * one is installed an interrupt waits for the synchronous stage to end (seconds of compiling or
+ * proving); before any file exists, the default action ends the process at once.
  */
 export function cleanUpOnSignals(): void {
+  if (handlers.size > 0) return;
   for (const sig of SIGNALS) {
-    process.once(sig, () => {
+    const h = (): void => {
       discardOutputs();
-      for (const s of SIGNALS) process.removeAllListeners(s);
+      removeHandlers();
       process.kill(process.pid, sig);
-    });
+    };
+    handlers.set(sig, h);
+    process.once(sig, h);
   }
 }
 
@@ -223,4 +249,5 @@ export function resetOutputs(): void {
   inputs.clear();
   claimed.clear();
   stdoutClaim = undefined;
+  removeHandlers();
 }

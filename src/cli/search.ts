@@ -1,5 +1,4 @@
 /** `clausegate plan`, `clausegate search` and `clausegate draw`: the whole search, costed and pictured. */
-import { parseArgs } from "node:util";
 import {
   bbhtExpectedCalls, bbhtLastRound, bbhtRounds, bbhtSequence, BBHT_LAMBDA, compileOracle, compileSearch, countSolutions, DEFAULT_COUNT_LIMIT,
   drawCircuitSvg, drawProblem, DRAW_LIMITS, EXACT_BITS, planSearch, plotSuccessSvg, searchCosts, constructionSearchCost,
@@ -7,10 +6,10 @@ import {
   type Solutions,
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
-import { printLater } from "./output.js";
+import { claimStdout, printLater } from "./output.js";
 import {
   basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
-  registerHelp, registerOptions, settleSearchOptions, type CliOracleOptions,
+  parseCommandArgs, registerHelp, registerOptions, settleSearchOptions, type CliOracleOptions,
 } from "./options.js";
 import { checkFormat, writeCircuit } from "./circuits.js";
 import { registerJson, registerText, searchProblem, type SearchProblem } from "./register.js";
@@ -360,7 +359,7 @@ function unknownJson(original: Cnf, problem: SearchProblem, seed: number | undef
 }
 
 export async function planCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("plan", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -376,6 +375,8 @@ export async function planCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "plan");
   const seed = intOption(values.simulate, "--simulate", 0, 2 ** 31 - 1);
   const reg = registerOptions(values, "free");
+  claimStdout("the plan", "-");
+  claimStdout("the plot", values.plot);
   const original = await loadCnf(file);
   const problem = searchProblem(original, reg);
   const n = problem.n;
@@ -391,7 +392,7 @@ export async function planCommand(argv: string[]): Promise<number> {
   const p = planSearch(n, s.M);
   if (values.plot !== undefined) {
     const svg = plotSuccessSvg(p.theta, p.iterations ?? 0, `${displayName(file)}: M = ${whole(p.solutions)} of ${assignmentsText(n)}`, { successProbability: p.successProbability });
-    writeAtomic(values.plot, (w) => w(svg));
+    writeAtomic(values.plot, (w) => w(svg), "the plot");
   }
   if (values.json) process.stdout.write(`${JSON.stringify(planJson(original, problem, s, p))}\n`);
   else process.stdout.write(`${planLines(file, problem, s, p).join("\n")}\n`);
@@ -479,7 +480,7 @@ function checkSearchSize(file: string, cnf: Cnf, n: number, o: CliOracleOptions,
 }
 
 export async function searchCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("search", {
     args: argv,
     allowPositionals: true,
     options: {
@@ -497,6 +498,13 @@ export async function searchCommand(argv: string[]): Promise<number> {
   let o = oracleOptions(values, "free");
   const sampling = shotsOptions(values);
   if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
+  // Every output that goes to standard output is claimed before any is written.
+  if (sampling.complete !== undefined) claimStdout("the completions", "-");
+  else {
+    if (sampling.shots !== undefined) claimStdout("the shots", "-");
+    claimStdout("the report", values.report);
+    claimStdout("the circuit", sampling.shots !== undefined ? values.output : values.output ?? "-");
+  }
   const original = await loadCnf(file);
   if (o.register === "full") checkCircuitSize(original, file, "search");
   const problem = searchProblem(original, o);
@@ -523,7 +531,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   ];
   if (values.report !== undefined) {
     const report = wholeRunReport(original, problem, K, solutions, plan, o);
-    writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`));
+    writeAtomic(values.report, (w) => w(`${JSON.stringify(report, null, 2)}\n`), "the report");
   }
   if (sampling.shots !== undefined) {
     // The shots go to standard output; the circuit only where -o says.
@@ -652,7 +660,7 @@ function drawSuggestion(cnf: Cnf, n: number, o: CliOracleOptions, search: boolea
 }
 
 export async function drawCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("draw", {
     args: argv,
     allowPositionals: true,
     options: { ...ORACLE_ARGS, ...REGISTER_ARGS, output: { type: "string", short: "o" }, search: { type: "boolean" }, iterations: { type: "string" }, help: { type: "boolean", short: "h" } },
@@ -700,6 +708,6 @@ export async function drawCommand(argv: string[]): Promise<number> {
   const problem = drawProblem(circuit);
   if (problem !== null) throw new UserError(`clausegate draw: error: refusing to draw: ${problem}; hint: ${drawSuggestion(cnf, n, o, values.search === true, K)}`);
   const svg = drawCircuitSvg(circuit, title);
-  writeAtomic(values.output, (w) => w(svg));
+  writeAtomic(values.output, (w) => w(svg), "the drawing");
   return 0;
 }

@@ -1,8 +1,7 @@
 /** `clausegate structure FILE|-`: the gate definitions, parities and groups recovered from a formula. */
-import { parseArgs } from "node:util";
 import { clauseCount, recoverStructure, type Definition, type DefinitionKind, type Structure } from "../internal.js";
 import { loadCnf, UserError, writeStdout } from "./io.js";
-import { oneInput } from "./options.js";
+import { oneInput, parseCommandArgs } from "./options.js";
 
 export const structureHelp = `Usage: clausegate structure FILE|- [options]
 
@@ -29,7 +28,7 @@ Options:
 `;
 
 export async function structureCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("structure", {
     args: argv,
     allowPositionals: true,
     options: {

@@ -1,14 +1,14 @@
 /** `clausegate verify`: check an oracle against its formula; `oracle --verify` uses it too. */
 import { readFile } from "node:fs/promises";
-import { parseArgs } from "node:util";
 import {
-  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, type Circuit, type Completion,
+  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
+  type Completion,
 } from "../internal.js";
-import { checkCircuitSize, loadCnf, UserError } from "./io.js";
-import { choice, compileWithOptions, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
+import { checkCircuitSize, displayName, loadCnf, UserError } from "./io.js";
+import { choice, compileWithOptions, oneInput, ORACLE_ARGS, parseCommandArgs, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { checkJson, checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
-export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT [--kind phase|flag]] [options]
+export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT|- [--kind phase|flag]] [options]
 
 Checks that a circuit is an oracle for the formula: for every checked assignment x, the phase
 (or the target bit) equals f(x), every work qubit is back to |0>, the search register is
@@ -39,7 +39,7 @@ With --circuit, --register and --no-structure say which register the circuit has
 oracle gives with the same options).
 
 Options:
-  --circuit FILE              the circuit to check (.json or OpenQASM 3)
+  --circuit FILE|-            the circuit to check (.json or OpenQASM 3; - for standard input)
 ${ORACLE_HELP}
                               (--strategy, --construction, --max-qubits, --prefer, --basis, --uncompute,
                               --no-optimize and --check-passes apply only without --circuit)
@@ -63,7 +63,7 @@ kind of input left unchecked, with the reason; under --prove, not proven), 2 bad
 const COMPILE_ONLY = ["strategy", "construction", "max-qubits", "prefer", "basis", "uncompute", "no-optimize", "check-passes"] as const;
 
 export async function verifyCommand(argv: string[]): Promise<number> {
-  const { values, positionals } = parseArgs({
+  const { values, positionals } = parseCommandArgs("verify", {
     args: argv,
     allowPositionals: true,
     options: { ...ORACLE_ARGS, ...REGISTER_ARGS, ...VERIFY_ARGS, circuit: { type: "string" }, json: { type: "boolean" }, help: { type: "boolean", short: "h" } },
@@ -77,6 +77,9 @@ export async function verifyCommand(argv: string[]): Promise<number> {
     const ignored = COMPILE_ONLY.find((k) => values[k] !== undefined);
     if (ignored !== undefined) {
       throw new UserError(`clausegate verify: error: --${ignored} shapes the oracle that verify compiles, and --circuit gives the circuit instead; hint: drop --${ignored}, or drop --circuit to compile and check`);
+    }
+    if (file === "-" && values.circuit === "-") {
+      throw new UserError("clausegate verify: error: the formula and the circuit both come from standard input, which can be read only once; hint: name a file for one of them");
     }
   }
   const flags = verifyFlags(values);
@@ -107,20 +110,27 @@ export async function verifyCommand(argv: string[]): Promise<number> {
   }
   const r = await runCheck(cnf, circuit, flags, kind, completion);
   if (values.json) process.stdout.write(`${JSON.stringify(checkJson(r))}\n`);
-  else process.stdout.write(`${checkLines(r, values.circuit ?? file).join("\n")}\n`);
+  else process.stdout.write(`${checkLines(r, displayName(values.circuit ?? file)).join("\n")}\n`);
   return r.ok ? 0 : 1;
 }
 
 async function loadCircuit(path: string): Promise<Circuit> {
   let bytes: Uint8Array;
   try {
-    bytes = await readFile(path);
+    bytes = path === "-" ? await readStdin() : await readFile(path);
   } catch (e) {
     const code = (e as { code?: string }).code;
     const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a directory" : code === "EACCES" ? "permission denied" : code ?? "unreadable";
     throw new UserError(`clausegate verify: error: cannot read the circuit ${path} (${why}); hint: check the path given to --circuit`);
   }
   const { circuit, diagnostics } = readCircuit(bytes);
-  if (circuit === undefined) throw new UserError(formatDiagnostic(diagnostics[0]!, path));
-  return circuit;
+  if (circuit === undefined) throw new UserError(formatDiagnostic(diagnostics[0]!, displayName(path)));
+  // Idle work qubits declared at the end cost the checkers memory per qubit and change nothing.
+  return withoutIdleTail(circuit);
+}
+
+async function readStdin(): Promise<Uint8Array> {
+  const chunks: Buffer[] = [];
+  for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
+  return Buffer.concat(chunks);
 }

@@ -234,3 +234,33 @@ export function emptyLike(c: Circuit, expectedGates = c.gates): CircuitBuilder {
 }
 
 export { K };
+
+/**
+ * `c` without the work qubits after the last one a gate touches and without the classical bits
+ * after the last one a gate writes or reads. A circuit file may declare millions of idle qubits
+ * at no cost to itself, while every checker keeps state per qubit (gigabytes for 2^26). Dropped
+ * work qubits stay |0>, all that a check asks of them; no other index moves, work being the last
+ * register. Returns `c` itself when nothing is idle at the end.
+ */
+export function withoutIdleTail(c: Circuit): Circuit {
+  let lastQubit = -1;
+  let lastClbit = -1;
+  const measure = K["measure"];
+  const gphase = K["gphase"];
+  for (let g = 0; g < c.gates; g++) {
+    if (c.cond[g]! > lastClbit) lastClbit = c.cond[g]!;
+    const kind = c.kind[g]!;
+    if (kind === gphase) continue;
+    const start = c.opStart[g]!;
+    const end = kind === measure ? start + 1 : c.opStart[g + 1]!;
+    if (kind === measure && c.ops[start + 1]! > lastClbit) lastClbit = c.ops[start + 1]!;
+    for (let i = start; i < end; i++) if (qubitOf(c.ops[i]!) > lastQubit) lastQubit = qubitOf(c.ops[i]!);
+  }
+  const work = c.registers.find((r) => r.role === "work");
+  const keptQubits = work === undefined ? c.qubits : Math.max(work.start, lastQubit + 1);
+  const keptClbits = lastClbit + 1;
+  if (keptQubits === c.qubits && keptClbits === c.clbits) return c;
+  const size = (role: RegisterRole): number => c.registers.find((r) => r.role === role)?.size ?? 0;
+  const registers = keptQubits === c.qubits ? c.registers : registersOf(size("search"), size("target"), keptQubits);
+  return { ...c, qubits: keptQubits, clbits: keptClbits, registers };
+}

@@ -52,7 +52,8 @@ export function readCircuit(input: string | Uint8Array): CircuitReadResult {
   const { bytes, origin } = bytesOf(input);
   let i = origin;
   while (i < bytes.length && (bytes[i] === 0x20 || bytes[i] === 0x09 || bytes[i] === 0x0a || bytes[i] === 0x0d)) i++;
-  return bytes[i] === 0x7b /* { */ ? readCircuitJson(bytes) : readCircuitQasm3(bytes);
+  // A list is no circuit, but it is JSON: the JSON reader says what is wrong with it.
+  return bytes[i] === 0x7b /* { */ || bytes[i] === 0x5b /* [ */ ? readCircuitJson(bytes) : readCircuitQasm3(bytes);
 }
 
 /** Runs a reader: UTF-8 first, then the reader's own checks, then the circuit's invariants. */
@@ -110,11 +111,28 @@ function fieldsOf<K extends string>(node: JsonNode, allowed: readonly K[], where
   return out;
 }
 
-/** A whole number (any size; range checks come later) from a number node. */
+/**
+ * A whole number from a number node. One beyond 2^53 is refused here, with the text the file
+ * gives: later range checks print the double, whose text ("1e+23") is not what was written.
+ */
 function integerOf(node: JsonNode | undefined, what: string, missingAt: number): number {
   if (node === undefined) throw stop(missingAt, `expected ${what} but found none`);
   if (node.kind !== "number" || !Number.isInteger(node.value)) throw stop(node.at, `expected ${what} (a whole number) but found ${shownValue(node)}`);
+  if (!Number.isSafeInteger(node.value)) throw stop(node.at, `expected ${what} (a whole number of at most 2^53) but found ${shownValue(node)}`);
   return node.value;
+}
+
+/** The JSON number that starts at `at`, as written (shortened as shownValue shortens). */
+function numberText(bytes: Uint8Array, at: number): string {
+  let end = at;
+  for (;;) {
+    const b = bytes[end];
+    // - + . 0-9 E e: the characters of a JSON number
+    if (b === 0x2d || b === 0x2b || b === 0x2e || (b !== undefined && b >= 0x30 && b <= 0x39) || b === 0x45 || b === 0x65) end++;
+    else break;
+  }
+  const text = Buffer.from(bytes.subarray(at, end)).toString("latin1");
+  return text.length > 40 ? `${text.slice(0, 37)}...` : text;
 }
 
 /** A register's value nodes by field, and its own node (where a missing field is reported). */
@@ -341,6 +359,10 @@ class GateReader implements GateFields {
     }
     const node = sc.value(3);
     this.pending ??= { at, message: (where) => `expected "${key}" as a whole number ${where} but found ${shownValue(node)}` };
+  }
+
+  shown(field: GateFault["field"], index: number): string {
+    return numberText(this.sc.bytes, this.faultAt({ field, index, message: "" }));
   }
 
   /** The offset a fault points at: the list element, else the field, else the gate. */
@@ -589,7 +611,13 @@ class Qasm3Reader {
         if (part.trim() !== "") out.push({ text: part.trim(), at: at + col + (part.length - part.trimStart().length) });
         col += part.length + 1;
       }
-      if (!body.endsWith(";")) throw qstop(at + body.length, `expected ';' at the end of the statement but found the end of the line`);
+      if (!body.endsWith(";")) {
+        // Text that is not OpenQASM at all is told so, not that its first line lacks a ';'.
+        if (out.length <= 1 && !body.startsWith("OPENQASM")) {
+          throw qstop(at, `expected 'OPENQASM 3.0;' first but found '${body.length > 40 ? `${body.slice(0, 37)}...` : body}'`);
+        }
+        throw qstop(at + body.length, `expected ';' at the end of the statement but found the end of the line`);
+      }
     }
     return out;
   }

@@ -35,12 +35,19 @@ export interface GateFields {
   readonly clbit: number | undefined;
   /** The classical bit the gate is conditioned on, if any. */
   readonly cond: number | undefined;
+  /**
+   * A value as the file wrote it, for messages (a reader of text gives its source: a huge
+   * number reads back as a double, whose own text would be "1e+23").
+   */
+  shown?(field: GateFault["field"], index: number): string;
 }
 
 const isIndex = (x: number, size: number): boolean => Number.isInteger(x) && x >= 0 && x < size;
 /** "expected WHAT in 0..size-1 but found X", or, when there are none to choose from, says so. */
-const outOf = (what: string, plural: string, size: number, found: number): string =>
+const outOf = (what: string, plural: string, size: number, found: string): string =>
   size === 0 ? `expected ${what}, but the circuit declares no ${plural}; found ${found}` : `expected ${what} in 0..${size - 1} but found ${found}`;
+/** A field's value for a message: as the file wrote it when the reader knows, else the number. */
+const shownOf = (g: GateFields, field: GateFault["field"], index: number, v: number): string => g.shown?.(field, index) ?? String(v);
 /** Kinds whose last qubit is a target (so it cannot carry a polarity). */
 const HAS_TARGET: Partial<Record<GateKind, true>> = { mcx: true, and: true, unand: true };
 
@@ -69,7 +76,7 @@ export class GateChecker {
     }
     for (let i = 0; i < nq; i++) {
       const q = qs[i]!;
-      if (!isIndex(q, this.qubits)) return { field: "qubits", index: i, message: outOf("a qubit", "qubits", this.qubits, q) };
+      if (!isIndex(q, this.qubits)) return { field: "qubits", index: i, message: outOf("a qubit", "qubits", this.qubits, shownOf(g, "qubits", i, q)) };
       if (this.seen[q] === this.gen) return { field: "qubits", index: i, message: `expected distinct qubits but ${this.qubitName(q)} appears twice` };
       this.seen[q] = this.gen;
     }
@@ -80,20 +87,20 @@ export class GateChecker {
       if (!isIndex(p, controls)) {
         const what = controls === 0 ? "none (the gate has no controls)" : `0..${controls - 1}`;
         const target = HAS_TARGET[kind] && p === nq - 1 ? ` (position ${p} is the target, which has no polarity)` : "";
-        return { field: "negated", index: i, message: `expected a control position in ${what} but found ${p}${target}` };
+        return { field: "negated", index: i, message: `expected a control position in ${what} but found ${shownOf(g, "negated", i, p)}${target}` };
       }
       for (let k = 0; k < i; k++) if (neg[k] === p) return { field: "negated", index: i, message: `expected distinct positions but ${p} appears twice` };
     }
     if (kind === "gphase") {
       if (g.angle === undefined) return { field: "angle", index: -1, message: "expected an angle for gphase but found none" };
-      if (!isIndex(g.angle, 8)) return { field: "angle", index: -1, message: `expected an angle in 0..7 (units of pi/4) but found ${g.angle}` };
+      if (!isIndex(g.angle, 8)) return { field: "angle", index: -1, message: `expected an angle in 0..7 (units of pi/4) but found ${shownOf(g, "angle", -1, g.angle)}` };
     } else if (g.angle !== undefined) return { field: "angle", index: -1, message: `expected no angle: only gphase has one, not ${kind}` };
     if (kind === "measure") {
       if (g.clbit === undefined) return { field: "clbit", index: -1, message: "expected the classical bit a measure writes but found none" };
-      if (!isIndex(g.clbit, this.clbits)) return { field: "clbit", index: -1, message: outOf("a classical bit", "classical bits", this.clbits, g.clbit) };
+      if (!isIndex(g.clbit, this.clbits)) return { field: "clbit", index: -1, message: outOf("a classical bit", "classical bits", this.clbits, shownOf(g, "clbit", -1, g.clbit)) };
     } else if (g.clbit !== undefined) return { field: "clbit", index: -1, message: `expected no classical bit: only measure writes one, not ${kind}` };
     if (g.cond !== undefined && !isIndex(g.cond, this.clbits)) {
-      return { field: "if", index: -1, message: outOf("a condition on a classical bit", "classical bits", this.clbits, g.cond) };
+      return { field: "if", index: -1, message: outOf("a condition on a classical bit", "classical bits", this.clbits, shownOf(g, "if", -1, g.cond)) };
     }
     return null;
   }

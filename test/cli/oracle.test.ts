@@ -43,7 +43,7 @@ describe("clausegate oracle", () => {
     const out = join(dir, "refused.qasm");
     const r = cli(["oracle", "examples/launch-rota.cnf", "--basis", "mcx", "--format", "qasm2", "-o", out]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/cannot write OpenQASM 2\.0.*use --basis toffoli/);
+    expect(r.stderr).toMatch(/cannot write OpenQASM 2\.0.*; hint: choose --basis toffoli/);
     expect(existsSync(out)).toBe(false);
     expect(readdirSync(dir).filter((f) => f.endsWith(".tmp"))).toEqual([]);
   });

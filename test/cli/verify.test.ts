@@ -200,3 +200,32 @@ describe("clausegate oracle --verify", () => {
     expect(existsSync(out)).toBe(true);
   });
 });
+
+describe("clausegate verify --circuit - (standard input)", () => {
+  it("reads the circuit from standard input and names it <stdin> in diagnostics", () => {
+    const circuit = cli(["oracle", "examples/allotment-pair.cnf", "--format", "json"]).stdout;
+    const r = cli(["verify", "examples/allotment-pair.cnf", "--circuit", "-"], circuit);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^verified: exhaustive/);
+    const bad = cli(["verify", "examples/allotment-pair.cnf", "--circuit", "-"], circuit.replace('{"op":"cx","qubits":[0,4]}', '{"op":"cx","qubits":[0,99]}'));
+    expect(bad.code).toBe(2);
+    expect(bad.stdout).toBe("");
+    expect(bad.stderr).toMatch(/^<stdin>:4:24: error: expected a qubit in 0\.\.9 but found 99 in gate 0 \(cx\); hint: /);
+  });
+  it("refuses the formula and the circuit both from standard input", () => {
+    const r = cli(["verify", "-", "--circuit", "-"], "p cnf 1 1\n1 0\n");
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(/^clausegate verify: error: the formula and the circuit both come from standard input.*; hint: /);
+  });
+});
+
+describe("clausegate verify of a circuit with the wrong register", () => {
+  it("above the exhaustive limit, says only that it is no oracle for the formula (no 'not proven' line first)", () => {
+    const out = join(dir, "shed-free.json");
+    expect(cli(["oracle", "examples/shed-lock.cnf", "--register", "free", "--format", "json", "-o", out]).code).toBe(0);
+    const r = cli(["verify", "examples/shed-lock.cnf", "--circuit", out]);
+    expect(r.code).toBe(1);
+    expect(r.stdout).toBe(`${out}: not an oracle for this formula: the search register vars has 4 qubits but the formula declares 40 variables\n`);
+  });
+});

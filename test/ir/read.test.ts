@@ -66,6 +66,12 @@ describe("readCircuitJson: every fault class is refused at the offending value (
     ["qubit -1", json(`{"op":"x","qubits":[§-1]}`), /expected a qubit in 0\.\.9 but found -1 in gate 1 \(x\)/],
     ["qubit past the end", json(`{"op":"cx","qubits":[0,§10]}`), /expected a qubit in 0\.\.9 but found 10/],
     ["qubit 2^31", json(`{"op":"x","qubits":[§2147483648]}`), /found 2147483648/],
+    ["qubit beyond 2^53, as written", json(`{"op":"x","qubits":[§100000000000000000000000]}`), /expected a qubit in 0\.\.9 but found 100000000000000000000000 in gate 1 \(x\)$/],
+    ["qubit 1e21, as written", json(`{"op":"x","qubits":[§1e21]}`), /but found 1e21 in gate 1/],
+    ["angle beyond 2^53, as written", json(`{"op":"gphase","qubits":[],"angle":§100000000000000000000000}`), /angle in 0\.\.7 \(units of pi\/4\) but found 100000000000000000000000 in/],
+    ["angle 1e300, as written", json(`{"op":"gphase","qubits":[],"angle":§1e300}`), /but found 1e300 in gate 1/],
+    ["negated beyond 2^53, as written", json(`{"op":"mcx","qubits":[0,1,4],"negated":[§100000000000000000000000]}`), /control position in 0\.\.1 but found 100000000000000000000000 in/],
+    ["if beyond 2^53, as written", json(`{"op":"x","qubits":[4],"if":§1e100}`), /classical bit in 0\.\.1 but found 1e100 in/],
     ["qubit 1.5", json(`{"op":"x","qubits":[§1.5]}`), /found 1\.5/],
     ["qubit a string", json(`{"op":"x","qubits":[§"1"]}`), /expected a qubit index \(a whole number\) in gate 1 \(x\) but found "1"/],
     ["ccx with a repeated qubit", json(`{"op":"ccx","qubits":[0,1,§0]}`), /expected distinct qubits but qubit 0 appears twice/],
@@ -109,7 +115,10 @@ describe("readCircuitJson: every fault class is refused at the offending value (
     ["qubits disagree with the registers", doc(`"qubits":§11,"clbits":0,${REGS},"gates":[]`), /expected the circuit's qubit count to be 10, what its registers hold, but found 11/],
     ["qubits not a number", doc(`"qubits":§"10","clbits":0,${REGS},"gates":[]`), /"qubits", the number of qubits \(a whole number\)/],
     ["clbits negative", doc(`"qubits":10,"clbits":§-1,${REGS},"gates":[]`), /expected "clbits" in 0\.\.67108864 but found -1/],
-    ["clbits absurd", doc(`"qubits":10,"clbits":§1e300,${REGS},"gates":[]`), /"clbits" in 0\.\.67108864/],
+    ["clbits absurd", doc(`"qubits":10,"clbits":§1e300,${REGS},"gates":[]`), /"clbits", the number of classical bits \(a whole number of at most 2\^53\) but found 1e300$/],
+    // Numbers beyond 2^53 are shown as written, never as a double's text ("1e+23").
+    ["qubits beyond 2^53", doc(`"qubits":§100000000000000000000000,"clbits":0,${REGS},"gates":[]`), /\(a whole number of at most 2\^53\) but found 100000000000000000000000$/],
+    ["register size beyond 2^53", doc(`"qubits":10,"clbits":0,"registers":[{"name":"vars","role":"search","start":0,"size":§100000000000000000000000}],"gates":[]`), /the register's "size" \(a whole number of at most 2\^53\) but found 100000000000000000000000$/],
     ["wrong format", `{"format":§"other","version":1}`, /expected "format": "clausegate-circuit" but found "other"/],
     ["wrong version", `{"format":"clausegate-circuit","version":§2}`, /expected "version": 1 but found 2/],
     ["unknown top-level field", doc(`"qubits":10,§"depth":3,"clbits":0,${REGS},"gates":[]`), /expected a field of the circuit .* but found "depth"/],
@@ -143,6 +152,9 @@ describe("readCircuitJson: every fault class is refused at the offending value (
       // Overlong, a surrogate, above U+10FFFF, never valid (Unicode 15, table 3-7).
       expect(readCircuit(Buffer.concat([Buffer.from('{"comments":["'), Buffer.from(bad), Buffer.from('"]}')])).diagnostics[0]!.column).toBe(15);
     }
+  });
+  it("a JSON list is read as JSON and refused as such", () => {
+    expectRejected(`  \n§[{"op":"x","qubits":[0]}]`, /^expected a JSON object \('\{'\) but found '\['$/);
   });
   it("an empty input and a lone brace are refused with one diagnostic", () => {
     for (const text of ["", "{", "{}", "   \n"]) {
@@ -183,6 +195,9 @@ describe("readCircuitQasm3: every fault class is refused at the offending operan
     ["a second bit register", `${head}§bit[1] more;\n`, /expected one bit register but found a second, 'more'/],
     ["OpenQASM 2", `§OPENQASM 2.0;\ninclude "qelib1.inc";\n`, /expected OpenQASM 3 or clausegate JSON but found OpenQASM 2\.0/],
     ["no version line", `// ${WIDE}\n§qubit[4] vars;\n`, /expected 'OPENQASM 3\.0;' first/],
+    // Text that is no OpenQASM: said so, not that its first line lacks a ';'.
+    ["a DIMACS file", `// ${WIDE}\n  §p cnf 3 2\n1 -2 0\n`, /^expected 'OPENQASM 3\.0;' first but found 'p cnf 3 2'$/],
+    ["null", `§null`, /^expected 'OPENQASM 3\.0;' first but found 'null'$/],
   ];
   for (const [name, template, message] of cases) it(name, () => expectRejected(template, message, readCircuitQasm3));
   it("invalid UTF-8 in a comment is refused at its byte", () => {

@@ -1,0 +1,17 @@
+// The main help's exit code 3 names every command whose own help says it exits 3, as the
+// README does, and those commands do exit 3 on an unsatisfiable formula.
+import { describe, expect, it } from "vitest";
+import { cli } from "../helpers/cli.js";
+
+const UNSAT = "p cnf 1 2\n1 0\n-1 0\n";
+
+describe("exit code 3 in the help texts", () => {
+  it("the main help names plan, forecast, search and draw --search, and they exit 3", () => {
+    const line = cli(["--help"]).stdout.replace(/\n(?!\n)/g, " ").match(/Exit codes:[^.]*\./)![0];
+    for (const name of ["plan", "forecast", "search", "draw --search"]) expect(line).toContain(name);
+    expect(line).toContain("without --iterations");
+    for (const args of [["plan", "-"], ["forecast", "-"], ["search", "-"], ["draw", "-", "--search", "-o", "/tmp/never-written.svg"]]) {
+      expect(cli(args, UNSAT).code, args.join(" ")).toBe(3);
+    }
+  });
+});
