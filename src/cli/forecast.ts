@@ -14,7 +14,7 @@ import {
 } from "../internal.js";
 import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
 import { choice, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
-import { registerText, searchProblem } from "./register.js";
+import { plural, registerText, searchProblem } from "./register.js";
 import { claimStdout, printLater } from "./output.js";
 
 /** Seconds the classical evaluator is timed on each formula. */
@@ -303,7 +303,7 @@ function assumptionLines(list: readonly Assumption[]): string[] {
 function singleText(r: Row): string[] {
   const lines = [`forecast for ${displayName(r.file)}: A MODEL, NOT A MEASUREMENT; every assumption is listed below`];
   const g = r.gathered;
-  if (g === undefined) lines.push(`  ${r.variables} variables, ${r.clauses} clauses; ${r.limit}`);
+  if (g === undefined) lines.push(`  ${plural(r.variables, "variable")}, ${plural(r.clauses, "clause")}; ${r.limit}`);
   else {
     const i = g.input;
     lines.push(

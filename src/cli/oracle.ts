@@ -11,7 +11,7 @@ import {
   choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp,
   registerOptions,
 } from "./options.js";
-import { problemOfOracle, registerJson, registerText, searchProblem, structureJson, structureText, type SearchProblem } from "./register.js";
+import { plural, problemOfOracle, registerJson, registerText, searchProblem, structureJson, structureText, type SearchProblem } from "./register.js";
 
 export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
 
@@ -90,7 +90,7 @@ ${registerHelp("full")}
 function describe(o: Oracle, cnf: Cnf): string[] {
   const { kind, construction, basis, uncompute } = o.options;
   return [
-    `clausegate ${kind} oracle: ${o.variables} variables, ${o.clauses} clauses`,
+    `clausegate ${kind} oracle: ${plural(o.variables, "variable")}, ${plural(o.clauses, "clause")}`,
     `${constructionPhrase(construction)}, basis ${basis}, uncompute ${uncompute}${o.options.optimize ? "" : ", not optimized"}`,
     `search register: ${registerText(problemOfOracle(cnf, o), true)}`,
     `structure: ${structureText(o.structure)}`,
@@ -218,7 +218,7 @@ export async function costCommand(argv: string[]): Promise<number> {
   checkCircuitSize(cnf, file, "cost");
   // The register lines and both tables plan the same formula: once each (sharingPlans).
   return sharingPlans(async () => {
-    const head = `${kind} oracle for ${displayName(file)}: ${cnf.variables} variables, ${cnf.clauseStart.length - 1} clauses`;
+    const head = `${kind} oracle for ${displayName(file)}: ${plural(cnf.variables, "variable")}, ${plural(cnf.clauseStart.length - 1, "clause")}`;
     if (values.front) return frontCommand(cnf, file, head, { kind, uncompute: uncompute ?? "measured", basis: basis ?? "clifford+t", json: values.json === true, plot: values.plot, ...reg });
     if (maxQubits !== undefined) return budgetCommand(cnf, head, { kind, uncompute, maxQubits, prefer, json: values.json === true, ...reg });
     // What recovery gives (the register too): rows with structure only when it gives something.

@@ -69,7 +69,8 @@ export function structureJson(s: StructureSummary | null) {
   return { used: s.used, definitions: s.definitions, parities: s.parities, groups: s.groups, remaining_clauses: s.remainingClauses, remaining_literals: s.remainingLiterals };
 }
 
-const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
+/** "1 clause", "2 clauses". */
+export const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
 
 /** "1 2 3", or (unless `all`) the first 48 and how many more. */
 function listText(vs: ArrayLike<number>, all: boolean): string {

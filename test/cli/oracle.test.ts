@@ -16,6 +16,13 @@ describe("clausegate oracle", () => {
     expect(r.stdout).toContain("qubit[4] vars;");
     expect(r.stdout).toMatch(/^ccx /m);
   });
+  it("counts variables and clauses in words that agree with the number", () => {
+    const file = join(dir, "one.cnf");
+    writeFileSync(file, "p cnf 1 1\n1 0\n");
+    expect(cli(["oracle", file]).stdout).toContain("// clausegate phase oracle: 1 variable, 1 clause\n");
+    expect(cli(["cost", file]).stdout).toMatch(/^phase oracle for .*: 1 variable, 1 clause\n/);
+    expect(cli(["oracle", "examples/allotment-pair.cnf"]).stdout).toMatch(/^\/\/ clausegate phase oracle: 4 variables, \d+ clauses$/m);
+  });
   it("writes a file with -o and a report with --report, both complete", () => {
     const out = join(dir, "o.qasm");
     const rep = join(dir, "o.json");
