@@ -24,7 +24,7 @@ import { CdclSolver } from "../cnf/solve.js";
 import type { Circuit } from "../ir/circuit.js";
 import { basisTerm, CircuitFault, runSparse } from "../sim/sparse.js";
 import { seededRandom } from "../util/random.js";
-import { failureBySparse, type OracleLayout } from "./confirm.js";
+import { failureBySparse, failureOfTerms, type OracleLayout } from "./confirm.js";
 import { AND, CONST, INPUT, OUTCOME, TARGET, VAR, type Graph } from "./graph.js";
 import { operandsFor } from "./tseitin.js";
 
@@ -422,11 +422,12 @@ export interface SimulatedFailure {
  * on the `focus` inputs (chosen by the caller where the run stopped; their `outcomes` are the
  * first measurements' outcomes, forced), then on the first candidate assignments, with
  * measurement outcomes drawn and recorded, until one fails or `maxInputs` candidates or
- * `seconds` have passed. Only a refutation can come of it, never a proof.
+ * `seconds` have passed (`progress` counts the focus inputs simulated). Only a refutation can
+ * come of it, never a proof.
  */
 export function falsifyBySimulation(
   c: Circuit, n: number, cnf: Cnf | null, value: (assignment: readonly boolean[]) => boolean, layout: OracleLayout,
-  maxInputs = 128, seconds = 10, focus: readonly FalsifyingInput[] = [],
+  maxInputs = 128, seconds = 10, focus: readonly FalsifyingInput[] = [], progress?: { focusDone: number },
 ): SimulatedFailure | null {
   const t0 = performance.now();
   const r = seededRandom(7);
@@ -438,22 +439,26 @@ export function falsifyBySimulation(
     assignment.forEach((on, q) => on && ones.push(q));
     if (target) ones.push(layout.target);
     let outcomes: boolean[];
+    let failure: string | null;
+    // The exact simulator also for classical circuits: its recorded outcomes name the input.
     try {
-      runSparse(c, [basisTerm(c.qubits, ones)], seededRandom(++seed), { forced: forced.map((o) => (o ? 1 : 0)), record: recorded });
+      const run = runSparse(c, [basisTerm(c.qubits, ones)], seededRandom(++seed), { forced: forced.map((o) => (o ? 1 : 0)), record: recorded });
       outcomes = recorded.map((o) => o === 1);
+      failure = failureOfTerms(c, f, layout, { assignment, target, xOutcomes: [], allOutcomes: outcomes }, run.terms);
     } catch (e) {
       if (!(e instanceof CircuitFault)) throw e;
-      // The forced outcome that could not happen is not recorded: the input names it.
+      // The forced outcome that could not happen is not recorded: the input names it, and the
+      // run with it forced reports the fault.
       outcomes = recorded.length < forced.length ? forced.slice(0, recorded.length + 1) : recorded.map((o) => o === 1);
+      failure = failureBySparse(c, f, layout, { assignment, target, xOutcomes: [], allOutcomes: outcomes });
     }
-    // The exact simulator also for classical circuits: its recorded outcomes name the input.
-    const failure = failureBySparse(c, f, layout, { assignment, target, xOutcomes: [], allOutcomes: outcomes });
     if (failure === null) drawn?.(outcomes);
     return failure === null ? null : { assignment, target, outcomes, f, failure };
   };
   for (const input of focus) {
     if (performance.now() - t0 > seconds * 1000) return null;
     const hit = simulate(input.assignment, layout.target >= 0 && input.target, input.outcomes);
+    if (progress !== undefined) progress.focusDone++;
     if (hit !== null) return hit;
   }
   // Three inputs in four are given the outcomes the first one drew: in an oracle they are

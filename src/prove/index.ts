@@ -158,7 +158,7 @@ const dimacsOf = (a: readonly boolean[]): string => `${a.map((on, v) => (on ? v 
  */
 const QUICK_AFTER = 2;
 const QUICK_INPUTS = 32;
-const QUICK_SECONDS = 2;
+const QUICK_SECONDS = 5;
 
 /** Conflicts of the first, short SAT attempt (counterexamples are usually found at once). */
 const QUICK_CONFLICTS = 3_000;
@@ -213,7 +213,9 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
    * chosen inputs (first the `focus` ones) may still show it wrong (falsify.ts).
    */
   const unreduced = (message: string, graphNodes: number, focus: readonly FalsifyingInput[] = []): OracleProof => {
-    const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, 128, 10, focus);
+    // As long as the reductions took (at least 10 s), up to 128 inputs: a wrong gadget may fail on one input in ten.
+    const budget = Math.max(UNREDUCED_SECONDS, seconds() * UNREDUCED_SHARE);
+    const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, UNREDUCED_INPUTS, budget, focus);
     if (hit === null) return none(message, graphNodes);
     return refuted("simulation", { variables: 0, clauses: 0 }, graphNodes, hit.assignment, hit.target, hit.outcomes, hit.f, hit.failure);
   };
@@ -222,6 +224,10 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   // close. Each is exact.
   type Attempt = { run: SymbolicRun; f: number; cuts: number[] } | { stuck: Unsupported; run: SymbolicRun } | { open: number } | { hit: SimulatedFailure; size: number };
   let quick = true;
+  // Inputs where the first reduction's stuck Hadamard may go wrong: the quick simulation takes
+  // them first, the last one goes on where it stopped.
+  let stuckFocus: FalsifyingInput[] | null = null;
+  const focusProgress = { focusDone: 0 };
   const attempt = (c: Circuit): Attempt => {
     let lastSize = 0;
     let spent = false;
@@ -230,7 +236,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
         // The later reductions can take minutes where a wrong gadget leaves a path open, and a
         // few simulated inputs usually show such a circuit wrong: those first, briefly.
         quick = false;
-        const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, QUICK_INPUTS, QUICK_SECONDS);
+        const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, QUICK_INPUTS, QUICK_SECONDS, stuckFocus ?? [], focusProgress);
         if (hit !== null) return { hit, size: lastSize };
       }
       const run = new SymbolicRun(c, search.size, target, reduction);
@@ -240,6 +246,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
       run.g.setCuts(cuts);
       const stuck = run.run();
       if (stuck !== null) return { stuck, run };
+      if (stuckFocus === null && run.stuckAt !== null) stuckFocus = focusOnFactors(run, [run.stuckAt.stray, ...run.stuckAt.factors], inputs, options.expected === undefined ? cnf : null);
       lastSize = run.g.size;
       spent ||= run.exhausted;
       if (run.exhausted || run.openPaths()) continue;
@@ -270,7 +277,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
     return unreduced(`not proven: gate ${gate} is ${stuck.reason}`, run.g.size, focusAt(run, circuit, gate, inputs, options.expected === undefined ? cnf : null));
   }
   if ("open" in tried) {
-    return unreduced("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", tried.open);
+    return unreduced("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", tried.open, (stuckFocus ?? []).slice(focusProgress.focusDone));
   }
   const chosen = tried;
   const { run, f, cuts } = chosen;
@@ -392,6 +399,42 @@ function focusAt(run: SymbolicRun, c: Circuit, gate: number, n: number, cnf: Cnf
   if (first.length === 2) first.forEach((input, i) => out.push({ ...input, outcomes: [...input.outcomes, i === 1] }));
   return out;
 }
+
+/**
+ * Where a Hadamard could not sum its path variable out (symbolic.ts, `stuckAt`): inputs on which
+ * each path-free factor of the variable's phase terms is 0, and inputs on which it is 1. Those
+ * factors are what the stray phase of a wrong gadget (a dropped CNOT inside it) is conditioned
+ * on, and one value is often rare (a clause node, 0 only where the clause is violated): the
+ * falsifier's candidates (random, models, clause-violating, hill climbs) filtered by it, no solver.
+ */
+export function focusOnFactors(run: SymbolicRun, factors: readonly number[], n: number, cnf: Cnf | null): FalsifyingInput[] {
+  const g = run.g;
+  const out: FalsifyingInput[] = [];
+  const forced = (outcome: (node: number) => boolean): boolean[] => run.events.map((e) => (e.literal <= 1 ? e.literal === TRUE : outcome(e.literal >>> 1) !== ((e.literal & 1) === 1)));
+  // The stray sum first, only where it is 1; then each factor at 0 (for a clause node the rare
+  // value), then each at 1.
+  const lits = [factors[0]!, ...factors.slice(1).map((l) => l ^ 1), ...factors.slice(1)];
+  for (const lit of lits) {
+    {
+      let found = 0;
+      falsify(g, lit, n, cnf, {
+        accept: (input) => {
+          out.push({ assignment: input.assignment, target: input.target, outcomes: forced((node) => input.outcomes[g.index(node)] === true) });
+          return ++found >= FOCUS_PER_FACTOR;
+        },
+      });
+    }
+  }
+  return out;
+}
+
+/** Inputs sought per factor of a stuck Hadamard's path variable. */
+const FOCUS_PER_FACTOR = 4;
+
+/** Inputs and seconds (at least; else the share of the time the reductions took) of the last simulation. */
+const UNREDUCED_INPUTS = 128;
+const UNREDUCED_SECONDS = 10;
+const UNREDUCED_SHARE = 1;
 
 /** Conflicts the solver may spend looking for an input on which a stuck wire has a value. */
 const FOCUS_CONFLICTS = 20_000;

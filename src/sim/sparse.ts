@@ -7,9 +7,10 @@
  *
  * The terms live in flat typed arrays (one row of 32-qubit words per term, amplitudes beside),
  * and a Hadamard merges the terms that differ only in its qubit through an open-addressing hash
- * of the rows: the Clifford+T gadgets of a wide layer keep thousands of terms open at once
- * (2^14 in the blocks-6 oracle at 100 variables), and one object, bit array and string key per
- * term made the run that confirms a counterexample take minutes, most of it in the collector.
+ * of the rows. The Clifford+T carry chains keep up to 16 Hadamards open at once (65,536 terms in
+ * the blocks-6 oracles), and with one object, bit array and string key per term the run that
+ * confirms a counterexample took minutes, most of it in the collector; gates on qubits that hold
+ * one value in every term act on a shared mask and phase instead of on each term.
  */
 import { GATE_KINDS } from "../ir/kinds.js";
 import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
@@ -74,20 +75,31 @@ export interface SparseOptions {
 }
 
 /**
- * The terms, row i at words [i W, (i + 1) W). Two sets of arrays: a Hadamard writes its result
- * into the spare set and swaps, so a run allocates only when the term count reaches a new high.
+ * The terms, row i at words [i W, (i + 1) W), plus what every term shares: an XOR mask over the
+ * stored bits (an X acts on all terms at once) and a global phase. `uniform[q]` is 1 when qubit q
+ * has one value in every term (checked after each Hadamard and measurement, cleared by a gate that
+ * may make it differ): a gate whose qubits are all uniform acts on the shared part alone, so the
+ * thousands of terms a Clifford+T carry chain holds open cost nothing to the gates elsewhere.
+ * A Hadamard writes its result into the spare arrays and swaps, so a run allocates only when the
+ * term count reaches a new high.
  */
 class State {
   n = 0;
   bits: Int32Array;
   re: Float64Array;
   im: Float64Array;
+  /** Actual bits of term i: bits[i W + w] ^ mask[w]. */
+  readonly mask: Int32Array;
+  /** The global phase, in units of pi/4. */
+  phase = 0;
+  readonly uniform: Uint8Array;
   private spareBits: Int32Array;
   private spareRe: Float64Array;
   private spareIm: Float64Array;
-  /** Hash slots (term index + 1, 0 empty) and, per group, its two amplitudes. */
+  /** Hash slots (group index + 1, 0 empty), each group's first term, each group's two amplitudes. */
   private slots = new Int32Array(16);
-  private pair = new Float64Array(32);
+  private group = new Int32Array(16);
+  private pair = new Float64Array(64);
 
   constructor(readonly words: number, capacity: number) {
     this.bits = new Int32Array(capacity * words);
@@ -96,6 +108,8 @@ class State {
     this.spareBits = new Int32Array(capacity * words);
     this.spareRe = new Float64Array(capacity);
     this.spareIm = new Float64Array(capacity);
+    this.mask = new Int32Array(words);
+    this.uniform = new Uint8Array(words * 32);
   }
 
   push(bits: Int32Array, re: number, im: number): void {
@@ -127,32 +141,107 @@ class State {
     this.spareIm = new Float64Array(cap);
   }
 
+  /** True once no two terms share a basis state (a merging Hadamard makes it so). */
+  distinct = false;
+  /** Words holding a qubit that is not uniform, `active` of them (set by {@link activeWords}). */
+  private words_ = new Int32Array(0);
+  private active = 0;
+
+  /** Lists the words with a qubit that is not uniform: the others are the same in every term. */
+  private activeWords(): void {
+    const W = this.words;
+    if (this.words_.length < W) this.words_ = new Int32Array(W);
+    this.active = 0;
+    for (let w = 0; w < W; w++) {
+      for (let b = 0; b < 32; b++) {
+        if (this.uniform[w * 32 + b] === 0) {
+          this.words_[this.active++] = w;
+          break;
+        }
+      }
+    }
+  }
+
+  /**
+   * Sets `uniform` exactly: a qubit is uniform when no term's bit differs from the first's.
+   * Merging and dropping terms never make a uniform qubit differ, so only the active words
+   * (all of them when `all`) are read.
+   */
+  rescan(all = false): void {
+    const W = this.words;
+    const bits = this.bits;
+    if (!all) this.activeWords();
+    const count = all ? W : this.active;
+    for (let j = 0; j < count; j++) {
+      const w = all ? j : this.words_[j]!;
+      let diff = 0;
+      const first = bits[w]!;
+      for (let i = 1; i < this.n && diff !== -1; i++) diff |= bits[i * W + w]! ^ first;
+      for (let b = 0; b < 32; b++) this.uniform[w * 32 + b] = (diff >>> b) & 1 ? 0 : 1;
+    }
+  }
+
   /**
    * H on qubit q: the terms that differ only in q form one group with amplitudes a0 (q = 0) and
    * a1 (q = 1); the group becomes (a0 + a1)/sqrt 2 on q = 0 and (a0 - a1)/sqrt 2 on q = 1, and a
-   * term whose amplitude cancels (squared modulus at most 1e-24) is dropped.
+   * term whose amplitude cancels (squared modulus at most 1e-24) is dropped. Where q has one
+   * value in every term and the terms are distinct, every group is one term: each splits in two
+   * without a look-up (the Hadamard that opens a gadget).
    */
   hadamard(q: number): void {
     const W = this.words;
     const n = this.n;
     const w0 = q >>> 5;
     const m = 1 << (q & 31);
+    const flipped = (this.mask[w0]! & m) !== 0;
+    if (this.distinct && this.uniform[q] === 1) {
+      this.reserve(2 * n);
+      const src = this.bits, outBits = this.spareBits, outRe = this.spareRe, outIm = this.spareIm;
+      let k = 0;
+      for (let i = 0; i < n; i++) {
+        const one = ((src[i * W + w0]! & m) !== 0) !== flipped;
+        for (let side = 0; side < 2; side++) {
+          const sign = side === 1 && one ? -R : R;
+          const re = this.re[i]! * sign, im = this.im[i]! * sign;
+          if (re * re + im * im <= 1e-24) continue;
+          const row = k * W;
+          for (let w = 0; w < W; w++) outBits[row + w] = src[i * W + w]!;
+          outBits[row + w0] = (side === 1) !== flipped ? outBits[row + w0]! | m : outBits[row + w0]! & ~m;
+          outRe[k] = re;
+          outIm[k] = im;
+          k++;
+        }
+      }
+      this.swap(k);
+      this.uniform[q] = 0;
+      return;
+    }
+    // Only the active words can tell two groups apart (q's word is active now).
+    this.uniform[q] = 0;
+    this.activeWords();
+    const words = this.words_;
+    const active = this.active;
     let size = 16;
     while (size < 2 * n) size *= 2;
     if (this.slots.length < size) this.slots = new Int32Array(size);
     const slots = this.slots;
     slots.fill(0, 0, size);
-    if (this.pair.length < 4 * n) this.pair = new Float64Array(4 * Math.max(n, this.pair.length));
+    if (this.group.length < n) {
+      this.group = new Int32Array(2 * n);
+      this.pair = new Float64Array(8 * n);
+    }
+    const group = this.group;
     const pair = this.pair;
     const bits = this.bits;
-    // Group g is represented by its first term; group[g] is that term's index.
-    const group = this.spareGroup(n);
     let groups = 0;
     const mask = size - 1;
     for (let i = 0; i < n; i++) {
       const row = i * W;
       let h = 0x811c9dc5;
-      for (let w = 0; w < W; w++) h = Math.imul(h ^ (w === w0 ? bits[row + w]! & ~m : bits[row + w]!), 0x01000193) ^ (h >>> 15);
+      for (let j = 0; j < active; j++) {
+        const w = words[j]!;
+        h = Math.imul(h ^ (w === w0 ? bits[row + w]! & ~m : bits[row + w]!), 0x01000193) ^ (h >>> 15);
+      }
       let s = h & mask;
       let g = -1;
       for (;;) {
@@ -160,10 +249,10 @@ class State {
         if (e === 0) break;
         const rep = group[e - 1]! * W;
         let same = true;
-        for (let w = 0; w < W; w++) {
-          const a = bits[rep + w]!;
-          const b = bits[row + w]!;
-          if ((w === w0 ? (a ^ b) & ~m : a ^ b) !== 0) {
+        for (let j = 0; j < active; j++) {
+          const w = words[j]!;
+          const d = bits[rep + w]! ^ bits[row + w]!;
+          if ((w === w0 ? d & ~m : d) !== 0) {
             same = false;
             break;
           }
@@ -180,7 +269,7 @@ class State {
         slots[s] = g + 1;
         pair[4 * g] = pair[4 * g + 1] = pair[4 * g + 2] = pair[4 * g + 3] = 0;
       }
-      const at = 4 * g + ((bits[row + w0]! & m) !== 0 ? 2 : 0);
+      const at = 4 * g + (((bits[row + w0]! & m) !== 0) !== flipped ? 2 : 0);
       pair[at] = pair[at]! + this.re[i]!;
       pair[at + 1] = pair[at + 1]! + this.im[i]!;
     }
@@ -199,25 +288,28 @@ class State {
         if (re * re + im * im <= 1e-24) continue;
         const row = k * W;
         for (let w = 0; w < W; w++) outBits[row + w] = src[rep + w]!;
-        outBits[row + w0] = side === 0 ? outBits[row + w0]! & ~m : outBits[row + w0]! | m;
+        // The stored bit is the actual one XOR the mask.
+        outBits[row + w0] = (side === 1) !== flipped ? outBits[row + w0]! | m : outBits[row + w0]! & ~m;
         outRe[k] = re;
         outIm[k] = im;
         k++;
       }
     }
+    this.swap(k);
+    this.distinct = true;
+    this.rescan();
+  }
+
+  /** The spare arrays, holding `k` new terms, become the live ones. */
+  private swap(k: number): void {
+    const bits = this.spareBits, re = this.spareRe, im = this.spareIm;
     this.spareBits = this.bits;
     this.spareRe = this.re;
     this.spareIm = this.im;
-    this.bits = outBits;
-    this.re = outRe;
-    this.im = outIm;
+    this.bits = bits;
+    this.re = re;
+    this.im = im;
     this.n = k;
-  }
-
-  private groupIndex = new Int32Array(16);
-  private spareGroup(n: number): Int32Array {
-    if (this.groupIndex.length < n) this.groupIndex = new Int32Array(2 * n);
-    return this.groupIndex;
   }
 
   /** Keeps the terms with qubit q = outcome, in order, amplitudes divided by `norm`. */
@@ -225,21 +317,29 @@ class State {
     const W = this.words;
     const w0 = q >>> 5;
     const sh = q & 31;
+    const want = outcome ^ ((this.mask[w0]! >>> sh) & 1);
     let k = 0;
     for (let i = 0; i < this.n; i++) {
-      if (((this.bits[i * W + w0]! >>> sh) & 1) !== outcome) continue;
+      if (((this.bits[i * W + w0]! >>> sh) & 1) !== want) continue;
       if (k !== i) this.bits.copyWithin(k * W, i * W, i * W + W);
       this.re[k] = this.re[i]! / norm;
       this.im[k] = this.im[i]! / norm;
       k++;
     }
     this.n = k;
+    this.rescan();
   }
 
   terms(): Term[] {
     const W = this.words;
+    const c = COS[this.phase & 7]!, s = SIN[this.phase & 7]!;
     const out: Term[] = [];
-    for (let i = 0; i < this.n; i++) out.push({ bits: this.bits.slice(i * W, i * W + W), re: this.re[i]!, im: this.im[i]! });
+    for (let i = 0; i < this.n; i++) {
+      const bits = this.bits.slice(i * W, i * W + W);
+      for (let w = 0; w < W; w++) bits[w]! ^= this.mask[w]!;
+      const re = this.re[i]!, im = this.im[i]!;
+      out.push({ bits, re: re * c - im * s, im: re * s + im * c });
+    }
     return out;
   }
 }
@@ -261,48 +361,82 @@ export function runSparse(c: Circuit, initial: Term[], random: () => number, opt
   const W = Math.max(1, Math.ceil(c.qubits / 32), ...initial.map((t) => t.bits.length));
   const st = new State(W, Math.max(16, initial.length));
   for (const t of initial) st.push(t.bits, t.re, t.im);
+  st.rescan(true);
+  st.distinct = initial.length <= 1;
+  const mask = st.mask;
+  const uniform = st.uniform;
   let scale = 1;
   const clbits = new Uint8Array(c.clbits);
-  // Per gate: the controls' words, masks and wanted values (polarity folded in).
+  // Per gate: the controls' words, masks and wanted stored values (polarity and mask folded in).
   let ctlWord = new Int32Array(8);
   let ctlMask = new Int32Array(8);
   let ctlWant = new Int32Array(8);
-  /** Loads the first `count` operands of `ops` as controls; returns `count`. */
-  const controls = (ops: Int32Array, count: number): number => {
+  /** Loads the first `count` operands of `ops` as controls; true when all are uniform. */
+  const controls = (ops: Int32Array, count: number): boolean => {
     if (ctlWord.length < count) {
       ctlWord = new Int32Array(2 * count);
       ctlMask = new Int32Array(2 * count);
       ctlWant = new Int32Array(2 * count);
     }
+    let all = true;
     for (let i = 0; i < count; i++) {
       const q = qubitOf(ops[i]!);
-      ctlWord[i] = q >>> 5;
-      ctlMask[i] = 1 << (q & 31);
-      ctlWant[i] = negated(ops[i]!) ? 0 : 1 << (q & 31);
+      const w = q >>> 5, m = 1 << (q & 31);
+      ctlWord[i] = w;
+      ctlMask[i] = m;
+      ctlWant[i] = (negated(ops[i]!) ? 0 : m) ^ (mask[w]! & m);
+      if (uniform[q] === 0) all = false;
     }
-    return count;
+    return all;
   };
   const fire = (row: number, count: number): boolean => {
     const bits = st.bits;
     for (let j = 0; j < count; j++) if ((bits[row + ctlWord[j]!]! & ctlMask[j]!) !== ctlWant[j]) return false;
     return true;
   };
-  /** Multiplies by e^(i pi k / 4) every term where the controls fire. */
-  const rotateWhere = (count: number, k: number): void => {
+  /** Multiplies by e^(i pi k / 4) every term where the first `count` operands fire. */
+  const rotateWhere = (ops: Int32Array, count: number, k: number): void => {
+    if (controls(ops, count)) {
+      if (st.n > 0 && fire(0, count)) st.phase += k;
+      return;
+    }
     const c8 = COS[k & 7]!, s8 = SIN[k & 7]!;
-    const re = st.re, im = st.im;
-    for (let i = 0; i < st.n; i++) {
+    const re = st.re, im = st.im, bits = st.bits;
+    const n = st.n;
+    if (count === 1) {
+      const cw = ctlWord[0]!, cm = ctlMask[0]!, want = ctlWant[0]!;
+      for (let i = 0; i < n; i++) {
+        if ((bits[i * W + cw]! & cm) !== want) continue;
+        const r = re[i]!;
+        re[i] = r * c8 - im[i]! * s8;
+        im[i] = r * s8 + im[i]! * c8;
+      }
+      return;
+    }
+    for (let i = 0; i < n; i++) {
       if (!fire(i * W, count)) continue;
       const r = re[i]!;
       re[i] = r * c8 - im[i]! * s8;
       im[i] = r * s8 + im[i]! * c8;
     }
   };
-  /** Flips qubit t in every term where the controls fire. */
-  const flipWhere = (count: number, t: number): void => {
-    const bits = st.bits;
+  /** Flips qubit t in every term where the first `count` operands fire. */
+  const flipWhere = (ops: Int32Array, count: number, t: number): void => {
     const tw = t >>> 5, tm = 1 << (t & 31);
-    for (let i = 0; i < st.n; i++) if (fire(i * W, count)) bits[i * W + tw]! ^= tm;
+    if (controls(ops, count)) {
+      if (st.n > 0 && fire(0, count)) mask[tw]! ^= tm;
+      return;
+    }
+    uniform[t] = 0;
+    const bits = st.bits;
+    const n = st.n;
+    // The CNOTs of the Clifford+T gadgets are most of the work: one control without the loop.
+    if (count === 1) {
+      const cw = ctlWord[0]!, cm = ctlMask[0]!, want = ctlWant[0]!;
+      for (let row = 0; row < n * W; row += W) if ((bits[row + cw]! & cm) === want) bits[row + tw]! ^= tm;
+      return;
+    }
+    for (let i = 0; i < n; i++) if (fire(i * W, count)) bits[i * W + tw]! ^= tm;
   };
   for (let g = 0; g < c.gates; g++) {
     const cond = c.cond[g]!;
@@ -311,44 +445,48 @@ export function runSparse(c: Circuit, initial: Term[], random: () => number, opt
     const name = GATE_KINDS[c.kind[g]!]!;
     const q0 = qubitOf(ops[0] ?? 0);
     switch (name) {
-      case "x": flipWhere(0, q0); break;
+      case "x": mask[q0 >>> 5]! ^= 1 << (q0 & 31); break;
       case "y": {
-        // Y = i X Z: the phase i on |0>, -i on |1>, then the flip.
-        const bits = st.bits, re = st.re, im = st.im;
-        const w = q0 >>> 5, m = 1 << (q0 & 31);
-        for (let i = 0; i < st.n; i++) {
-          const r = re[i]!;
-          if ((bits[i * W + w]! & m) !== 0) { re[i] = im[i]!; im[i] = -r; } else { re[i] = -im[i]!; im[i] = r; }
-          bits[i * W + w]! ^= m;
-        }
+        // Y = i X Z: the phase -i where the qubit is 1, i where it is 0, then the flip.
+        rotateWhere(ops, 1, 4);
+        st.phase += 2;
+        mask[q0 >>> 5]! ^= 1 << (q0 & 31);
         break;
       }
-      case "z": rotateWhere(controls(ops, 1), 4); break;
-      case "s": rotateWhere(controls(ops, 1), 2); break;
-      case "sdg": rotateWhere(controls(ops, 1), 6); break;
-      case "t": rotateWhere(controls(ops, 1), 1); break;
-      case "tdg": rotateWhere(controls(ops, 1), 7); break;
-      case "gphase": rotateWhere(0, ops[0]!); break;
-      case "cx": flipWhere(controls(ops, 1), qubitOf(ops[1]!)); break;
-      case "cz": rotateWhere(controls(ops, 2), 4); break;
-      case "ccx": flipWhere(controls(ops, 2), qubitOf(ops[2]!)); break;
-      case "mcx": flipWhere(controls(ops, ops.length - 1), qubitOf(ops[ops.length - 1]!)); break;
-      case "mcz": rotateWhere(controls(ops, ops.length), 4); break;
+      case "z": rotateWhere(ops, 1, 4); break;
+      case "s": rotateWhere(ops, 1, 2); break;
+      case "sdg": rotateWhere(ops, 1, 6); break;
+      case "t": rotateWhere(ops, 1, 1); break;
+      case "tdg": rotateWhere(ops, 1, 7); break;
+      case "gphase": st.phase += ops[0]!; break;
+      case "cx": flipWhere(ops, 1, qubitOf(ops[1]!)); break;
+      case "cz": rotateWhere(ops, 2, 4); break;
+      case "ccx": flipWhere(ops, 2, qubitOf(ops[2]!)); break;
+      case "mcx": flipWhere(ops, ops.length - 1, qubitOf(ops[ops.length - 1]!)); break;
+      case "mcz": rotateWhere(ops, ops.length, 4); break;
       case "and":
       case "unand": {
         const tq = qubitOf(ops[ops.length - 1]!);
-        const count = controls(ops, ops.length - 1);
+        const count = ops.length - 1;
+        const all = controls(ops, count) && uniform[tq] === 1;
         const tw = tq >>> 5, tm = 1 << (tq & 31);
-        for (let i = 0; i < st.n; i++) {
+        const tmask = mask[tw]! & tm;
+        let flips = 0;
+        for (let i = 0; i < (all ? Math.min(1, st.n) : st.n); i++) {
           const v = fire(i * W, count);
-          const set = (st.bits[i * W + tw]! & tm) !== 0;
+          const set = ((st.bits[i * W + tw]! ^ tmask) & tm) !== 0;
           if (name === "and" ? set : set !== v) {
             throw new CircuitFault(g, name === "and"
               ? `temporary AND into qubit ${tq}, which is not |0>`
               : `uncompute of the AND in qubit ${tq}, which does not hold the AND of its inputs`);
           }
-          if (v) st.bits[i * W + tw]! ^= tm;
+          if (v) {
+            if (all) flips++;
+            else st.bits[i * W + tw]! ^= tm;
+          }
         }
+        if (flips > 0) mask[tw]! ^= tm;
+        if (!all) uniform[tq] = 0;
         break;
       }
       case "h": st.hadamard(q0); break;
@@ -359,14 +497,14 @@ export function runSparse(c: Circuit, initial: Term[], random: () => number, opt
         for (let i = 0; i < st.n; i++) {
           const p = st.re[i]! * st.re[i]! + st.im[i]! * st.im[i]!;
           total += p;
-          if ((st.bits[i * W + w]! & m) !== 0) p1 += p;
+          if (((st.bits[i * W + w]! ^ mask[w]!) & m) !== 0) p1 += p;
         }
         const outcome = outcomeFor(g, p1, total);
         const p = (outcome ? p1 : total - p1) / total;
         st.keep(q0, outcome, Math.sqrt(p));
         scale *= Math.sqrt(p);
         if (name === "measure") clbits[ops[1]!] = outcome;
-        else if (outcome) flipWhere(0, q0);
+        else if (outcome) mask[w]! ^= m;
         break;
       }
       default: {
