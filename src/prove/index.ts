@@ -150,13 +150,14 @@ export interface OracleProof {
 const dimacsOf = (a: readonly boolean[]): string => `${a.map((on, v) => (on ? v + 1 : -(v + 1))).join(" ")}${a.length ? " " : ""}0`;
 
 /**
- * Before reduction QUICK_AFTER (the first two close the lowering's gadgets at the seams the
- * optimizer leaves; the later ones are for rarer seams and cost far more when they fail), or
- * after one that ran out of its work budget, a simulation of QUICK_INPUTS of the falsifier's
- * inputs, at most QUICK_SECONDS: a dropped CNOT in a wide Clifford+T oracle at 60 variables made
- * the third reduction run 180 s before it gave up, one in a lean oracle at 100 the second 77 s.
+ * Before reduction QUICK_AFTER (the first closes the lowering's gadgets, with `regroup` at the
+ * seams too; the later ones are for rarer seams and cost far more when they fail), or after one
+ * that ran out of its work budget, a simulation of the first reduction's focus inputs and of
+ * QUICK_INPUTS of the falsifier's inputs, at most QUICK_SECONDS: a dropped CNOT in a wide
+ * Clifford+T oracle at 60 variables made the third reduction run 180 s before it gave up, one in
+ * a lean oracle at 100 the second 77 s, and a duplicated one in blocks-6 at 60 the second 200 s.
  */
-const QUICK_AFTER = 2;
+const QUICK_AFTER = 1;
 const QUICK_INPUTS = 32;
 const QUICK_SECONDS = 5;
 
@@ -256,8 +257,9 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   };
   let tried = attempt(circuit);
   let origin: Int32Array | null = null;
-  if (!("f" in tried)) {
-    // Pairs that cancel may hide what the run reads (cancel.ts); the rewrite is exact.
+  if (!("f" in tried) && !("hit" in tried)) {
+    // Pairs that cancel may hide what the run reads (cancel.ts); the rewrite is exact. (A
+    // simulated failure already found stands: the retry would only spend the later reductions.)
     const simpler = cancelPairs(circuit);
     if (simpler !== null) {
       const again = attempt(simpler.circuit);
@@ -415,7 +417,7 @@ export function focusOnFactors(run: SymbolicRun, factors: readonly number[], n: 
   // value), then each at 1.
   const lits = [factors[0]!, ...factors.slice(1).map((l) => l ^ 1), ...factors.slice(1)];
   for (const lit of lits) {
-    {
+    if (lit > 1) {
       let found = 0;
       falsify(g, lit, n, cnf, {
         accept: (input) => {
