@@ -283,6 +283,18 @@ export function* candidates(n: number, cnf: Cnf | null, r: () => number, opts: C
         }
       }
     })());
+    sources.push((function* (): Generator<Uint8Array> {
+      // Only the top of each upward climb over a random prefix: where each input costs a
+      // simulation, the highest counter values at a clause (a counter's high bit is 1 only
+      // where some 32 of the first 84 clauses are violated) must come in the first few dozen.
+      const m = f.clauseStart.length - 1;
+      for (let restart = 0; restart < 256; restart++) {
+        const prefix = Math.max(1, Math.ceil(m * (0.1 + 0.9 * r())));
+        const walk = new Walk(f, uniform(), new Uint8Array(n), r, prefix);
+        const steps = walk.run(true, 4 * n, m + 1);
+        yield steps.length > 0 ? steps[steps.length - 1]! : walk.a.slice();
+      }
+    })());
   }
   while (sources.length > 0) {
     for (let i = 0; i < sources.length; i++) {

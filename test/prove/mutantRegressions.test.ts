@@ -72,6 +72,27 @@ describe("harmful Clifford+T gadget mutants of the blocks-6 oracle at 60 variabl
   }
 });
 
+// The sweep's one "undecided" lean mutant at 60 variables: the CNOT that closes a Clifford+T
+// gadget of the counter's carry chain (control 73, counter bit 5) moved onto search variable 49
+// in the increment of clause 84. It flips that variable only where 32 of the first 84 clauses are
+// violated, which neither random inputs nor the hill climbs' early steps reach; the tops of
+// climbs over random prefixes now come among the first simulated inputs.
+describe("a harmful wrong target in the lean Clifford+T counter at 60 variables", () => {
+  it("is refuted with a counterexample", () => {
+    const cnf60 = randomKSat(60, 180, 3, 1060);
+    const c = compileOracle(cnf60, { kind: "phase", construction: "lean", basis: "clifford+t", uncompute: "unitary", structure: false }).circuit;
+    const at = 20195;
+    expect(c.kind[at]).toBe(K.cx);
+    expect(Array.from(c.ops.subarray(c.opStart[at]!, c.opStart[at + 1]!))).toEqual([73 << 1, 72 << 1]);
+    const ops = c.ops.slice();
+    ops[c.opStart[at]! + 1] = 48 << 1;
+    const mutated: Circuit = { ...c, ops };
+    const p = proveOracle(cnf60, mutated, { kind: "phase", conflictLimit: 20_000 });
+    expect(p.status, p.message).toBe("refuted");
+    expect(failsOn(mutated, cnf60, "phase", p.counterexample!)).toBe(true);
+  });
+});
+
 describe("cancelPairs (the exact rewrite before a second symbolic run)", () => {
   it("cancels adjacent equal self-inverse gates, nested pairs too, and keeps the rest in order", () => {
     const b = new CircuitBuilder({ search: 2, target: 0, work: 1, clbits: 1 });
