@@ -404,7 +404,8 @@ function focusAt(run: SymbolicRun, c: Circuit, gate: number, n: number, cnf: Cnf
 
 /**
  * Where a Hadamard could not sum its path variable out (symbolic.ts, `stuckAt`): inputs on which
- * each path-free factor of the variable's phase terms is 0, and inputs on which it is 1. Those
+ * its stray sum (the first literal) is 1, on which all the path-free factors of the variable's
+ * phase terms (the other literals) are 1, on which each is 0, and on which each is 1. Those
  * factors are what the stray phase of a wrong gadget (a dropped CNOT inside it) is conditioned
  * on, and one value is often rare (a clause node, 0 only where the clause is violated): the
  * falsifier's candidates (random, models, clause-violating, hill climbs) filtered by it, no solver.
@@ -413,9 +414,11 @@ export function focusOnFactors(run: SymbolicRun, factors: readonly number[], n: 
   const g = run.g;
   const out: FalsifyingInput[] = [];
   const forced = (outcome: (node: number) => boolean): boolean[] => run.events.map((e) => (e.literal <= 1 ? e.literal === TRUE : outcome(e.literal >>> 1) !== ((e.literal & 1) === 1)));
-  // The stray sum first, only where it is 1; then each factor at 0 (for a clause node the rare
-  // value), then each at 1.
-  const lits = [factors[0]!, ...factors.slice(1).map((l) => l ^ 1), ...factors.slice(1)];
+  // The stray sum first, only where it is 1; then all factors at 1 at once (a CNOT moved off a
+  // blocks-6 gadget at 200 variables fails only there); then each factor at 0 (for a clause node
+  // the rare value), then each at 1.
+  const rest = factors.slice(1);
+  const lits = [factors[0]!, ...(rest.length > 1 ? [g.and(rest)] : []), ...rest.map((l) => l ^ 1), ...rest];
   for (const lit of lits) {
     if (lit > 1) {
       let found = 0;

@@ -93,6 +93,25 @@ describe("a harmful wrong target in the lean Clifford+T counter at 60 variables"
   });
 });
 
+// The sweep at 200 variables: the CNOT that closes a blocks-6 gadget moved onto a search variable.
+// It fails only where both path-free factors of the stuck Hadamard's terms are 1 (one input in
+// four); the inputs where all are 1 now come first, so the quick simulation finds it (178 s, now 4 s).
+describe("a CNOT moved off a blocks-6 Clifford+T gadget at 200 variables", () => {
+  it("is refuted with a counterexample within a minute", () => {
+    const cnf200 = randomKSat(200, 600, 3, 1200);
+    const c = compileOracle(cnf200, { kind: "phase", construction: "blocks-6", basis: "clifford+t", uncompute: "unitary", structure: false }).circuit;
+    const at = 91476;
+    expect(Array.from(c.ops.subarray(c.opStart[at]!, c.opStart[at + 1]!))).toEqual([210 << 1, 211 << 1]);
+    const ops = c.ops.slice();
+    ops[c.opStart[at]! + 1] = 134 << 1;
+    const mutated: Circuit = { ...c, ops };
+    const p = proveOracle(cnf200, mutated, { kind: "phase", conflictLimit: 20_000 });
+    expect(p.status, p.message).toBe("refuted");
+    expect(failsOn(mutated, cnf200, "phase", p.counterexample!)).toBe(true);
+    expect(p.seconds).toBeLessThan(60);
+  });
+});
+
 describe("cancelPairs (the exact rewrite before a second symbolic run)", () => {
   it("cancels adjacent equal self-inverse gates, nested pairs too, and keeps the rest in order", () => {
     const b = new CircuitBuilder({ search: 2, target: 0, work: 1, clbits: 1 });
