@@ -60,6 +60,11 @@ export function failureBySparse(c: Circuit, f: boolean, layout: OracleLayout, in
     if (e instanceof CircuitFault) return e.message;
     throw e;
   }
+  return failureOfTerms(c, f, layout, input, terms);
+}
+
+/** {@link failureBySparse} on the final terms of a run of `c` on `input` already made. */
+export function failureOfTerms(c: Circuit, f: boolean, layout: OracleLayout, input: OracleInput, terms: readonly Term[]): string | null {
   const live = terms.filter((t) => t.re * t.re + t.im * t.im > 1e-18);
   if (live.length !== 1) return `the state is a superposition of ${live.length} basis states, not one`;
   const t = live[0]!;

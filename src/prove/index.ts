@@ -150,15 +150,16 @@ export interface OracleProof {
 const dimacsOf = (a: readonly boolean[]): string => `${a.map((on, v) => (on ? v + 1 : -(v + 1))).join(" ")}${a.length ? " " : ""}0`;
 
 /**
- * Before reduction QUICK_AFTER (the first two close the lowering's gadgets at the seams the
- * optimizer leaves; the later ones are for rarer seams and cost far more when they fail), or
- * after one that ran out of its work budget, a simulation of QUICK_INPUTS of the falsifier's
- * inputs, at most QUICK_SECONDS: a dropped CNOT in a wide Clifford+T oracle at 60 variables made
- * the third reduction run 180 s before it gave up, one in a lean oracle at 100 the second 77 s.
+ * Before reduction QUICK_AFTER (the first closes the lowering's gadgets, with `regroup` at the
+ * seams too; the later ones are for rarer seams and cost far more when they fail), or after one
+ * that ran out of its work budget, a simulation of the first reduction's focus inputs and of
+ * QUICK_INPUTS of the falsifier's inputs, at most QUICK_SECONDS: a dropped CNOT in a wide
+ * Clifford+T oracle at 60 variables made the third reduction run 180 s before it gave up, one in
+ * a lean oracle at 100 the second 77 s, and a duplicated one in blocks-6 at 60 the second 200 s.
  */
-const QUICK_AFTER = 2;
+const QUICK_AFTER = 1;
 const QUICK_INPUTS = 32;
-const QUICK_SECONDS = 2;
+const QUICK_SECONDS = 5;
 
 /** Conflicts of the first, short SAT attempt (counterexamples are usually found at once). */
 const QUICK_CONFLICTS = 3_000;
@@ -213,7 +214,9 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
    * chosen inputs (first the `focus` ones) may still show it wrong (falsify.ts).
    */
   const unreduced = (message: string, graphNodes: number, focus: readonly FalsifyingInput[] = []): OracleProof => {
-    const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, 128, 10, focus);
+    // As long as the reductions took (at least 10 s), up to 128 inputs: a wrong gadget may fail on one input in ten.
+    const budget = Math.max(UNREDUCED_SECONDS, seconds() * UNREDUCED_SHARE);
+    const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, UNREDUCED_INPUTS, budget, focus);
     if (hit === null) return none(message, graphNodes);
     return refuted("simulation", { variables: 0, clauses: 0 }, graphNodes, hit.assignment, hit.target, hit.outcomes, hit.f, hit.failure);
   };
@@ -222,6 +225,10 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   // close. Each is exact.
   type Attempt = { run: SymbolicRun; f: number; cuts: number[] } | { stuck: Unsupported; run: SymbolicRun } | { open: number } | { hit: SimulatedFailure; size: number };
   let quick = true;
+  // Inputs where the first reduction's stuck Hadamard may go wrong: the quick simulation takes
+  // them first, the last one goes on where it stopped.
+  let stuckFocus: FalsifyingInput[] | null = null;
+  const focusProgress = { focusDone: 0 };
   const attempt = (c: Circuit): Attempt => {
     let lastSize = 0;
     let spent = false;
@@ -230,7 +237,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
         // The later reductions can take minutes where a wrong gadget leaves a path open, and a
         // few simulated inputs usually show such a circuit wrong: those first, briefly.
         quick = false;
-        const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, QUICK_INPUTS, QUICK_SECONDS);
+        const hit = falsifyBySimulation(circuit, inputs, options.expected === undefined ? cnf : null, valueOf, layout, QUICK_INPUTS, QUICK_SECONDS, stuckFocus ?? [], focusProgress);
         if (hit !== null) return { hit, size: lastSize };
       }
       const run = new SymbolicRun(c, search.size, target, reduction);
@@ -240,6 +247,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
       run.g.setCuts(cuts);
       const stuck = run.run();
       if (stuck !== null) return { stuck, run };
+      if (stuckFocus === null && run.stuckAt !== null) stuckFocus = focusOnFactors(run, [run.stuckAt.stray, ...run.stuckAt.factors], inputs, options.expected === undefined ? cnf : null);
       lastSize = run.g.size;
       spent ||= run.exhausted;
       if (run.exhausted || run.openPaths()) continue;
@@ -249,8 +257,9 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
   };
   let tried = attempt(circuit);
   let origin: Int32Array | null = null;
-  if (!("f" in tried)) {
-    // Pairs that cancel may hide what the run reads (cancel.ts); the rewrite is exact.
+  if (!("f" in tried) && !("hit" in tried)) {
+    // Pairs that cancel may hide what the run reads (cancel.ts); the rewrite is exact. (A
+    // simulated failure already found stands: the retry would only spend the later reductions.)
     const simpler = cancelPairs(circuit);
     if (simpler !== null) {
       const again = attempt(simpler.circuit);
@@ -270,7 +279,7 @@ export function proveOracle(cnf: Cnf, circuit: Circuit, options: ProveOptions = 
     return unreduced(`not proven: gate ${gate} is ${stuck.reason}`, run.g.size, focusAt(run, circuit, gate, inputs, options.expected === undefined ? cnf : null));
   }
   if ("open" in tried) {
-    return unreduced("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", tried.open);
+    return unreduced("not proven: the Clifford+T circuit does not reduce to a classical one (a Hadamard's path variable is never summed out: no gadget of the lowering matches there)", tried.open, (stuckFocus ?? []).slice(focusProgress.focusDone));
   }
   const chosen = tried;
   const { run, f, cuts } = chosen;
@@ -392,6 +401,45 @@ function focusAt(run: SymbolicRun, c: Circuit, gate: number, n: number, cnf: Cnf
   if (first.length === 2) first.forEach((input, i) => out.push({ ...input, outcomes: [...input.outcomes, i === 1] }));
   return out;
 }
+
+/**
+ * Where a Hadamard could not sum its path variable out (symbolic.ts, `stuckAt`): inputs on which
+ * its stray sum (the first literal) is 1, on which all the path-free factors of the variable's
+ * phase terms (the other literals) are 1, on which each is 0, and on which each is 1. Those
+ * factors are what the stray phase of a wrong gadget (a dropped CNOT inside it) is conditioned
+ * on, and one value is often rare (a clause node, 0 only where the clause is violated): the
+ * falsifier's candidates (random, models, clause-violating, hill climbs) filtered by it, no solver.
+ */
+export function focusOnFactors(run: SymbolicRun, factors: readonly number[], n: number, cnf: Cnf | null): FalsifyingInput[] {
+  const g = run.g;
+  const out: FalsifyingInput[] = [];
+  const forced = (outcome: (node: number) => boolean): boolean[] => run.events.map((e) => (e.literal <= 1 ? e.literal === TRUE : outcome(e.literal >>> 1) !== ((e.literal & 1) === 1)));
+  // The stray sum first, only where it is 1; then all factors at 1 at once (a CNOT moved off a
+  // blocks-6 gadget at 200 variables fails only there); then each factor at 0 (for a clause node
+  // the rare value), then each at 1.
+  const rest = factors.slice(1);
+  const lits = [factors[0]!, ...(rest.length > 1 ? [g.and(rest)] : []), ...rest.map((l) => l ^ 1), ...rest];
+  for (const lit of lits) {
+    if (lit > 1) {
+      let found = 0;
+      falsify(g, lit, n, cnf, {
+        accept: (input) => {
+          out.push({ assignment: input.assignment, target: input.target, outcomes: forced((node) => input.outcomes[g.index(node)] === true) });
+          return ++found >= FOCUS_PER_FACTOR;
+        },
+      });
+    }
+  }
+  return out;
+}
+
+/** Inputs sought per factor of a stuck Hadamard's path variable. */
+const FOCUS_PER_FACTOR = 4;
+
+/** Inputs and seconds (at least; else the share of the time the reductions took) of the last simulation. */
+const UNREDUCED_INPUTS = 128;
+const UNREDUCED_SECONDS = 10;
+const UNREDUCED_SHARE = 1;
 
 /** Conflicts the solver may spend looking for an input on which a stuck wire has a value. */
 const FOCUS_CONFLICTS = 20_000;

@@ -203,6 +203,14 @@ export class SymbolicRun {
   work = 0;
   /** True when `run` stopped early, its work out of proportion to the circuit. */
   exhausted = false;
+  /**
+   * The first Hadamard that met a path variable it could not sum out: its gate, and the
+   * path-free factors of that variable's phase terms (the values a wrong gadget's phase depends
+   * on, where simulation should look first). Null while every such Hadamard closed.
+   */
+  stuckAt: { readonly gate: number; readonly stray: number; readonly factors: readonly number[] } | null = null;
+  /** The gate `run` is at. */
+  private at = 0;
 
   constructor(private readonly c: Circuit, searchSize: number, targetQubit: number, private readonly reduction: Reduction = REDUCTIONS[0]!) {
     this.wires = new Int32Array(c.qubits);
@@ -227,6 +235,7 @@ export class SymbolicRun {
         return null;
       }
       const name = kinds[c.kind[g]!]!;
+      this.at = g;
       const s = c.opStart[g]!;
       const e = c.opStart[g + 1]!;
       const cond = c.cond[g]! >= 0 ? this.clbits[c.cond[g]!]! : TRUE;
@@ -581,12 +590,45 @@ export class SymbolicRun {
         if (v & 1) this.addPhase(4, m); // (-1)^((1 + y) y') = (-1)^y' (-1)^(y y')
         return;
       }
+      if (this.stuckAt === null) this.stuckAt = { gate: this.at, ...this.strayOf(y) };
     }
     const fresh = g.input(PATH, this.paths++);
     const form = this.formOf(q);
     this.livePaths.add(fresh >>> 1);
     if (!this.phaseOfProduct([form, atom(fresh)], TRUE)) this.addPhase(4, g.and2(v, fresh));
     this.setWire(q, fresh);
+  }
+
+  /**
+   * What keeps y from summing out: `stray`, true where y's phase terms of coefficient other
+   * than 0 mod 4 (k y R_j, R_j free of path variables) add up to other than 0 mod 4 (there the
+   * sum over y does not reduce to a condition on y's partner: the amplitude is wrong); and the
+   * distinct path-free operands of all of y's terms (at most 8).
+   */
+  private strayOf(y: number): { stray: number; factors: number[] } {
+    const g = this.g;
+    const factors: number[] = [];
+    let s0 = FALSE;
+    let s1 = FALSE;
+    for (const m of this.pathTerms) {
+      const k = this.phase.get(m);
+      if (k === undefined || !this.contains(m << 1, y)) continue;
+      let rest = TRUE;
+      if (m !== y) {
+        if (g.kind(m) !== AND) continue;
+        const ops = Array.from(g.operands(m)).filter((o) => o !== y << 1);
+        for (const o of ops) if (o > 1 && !g.hasPath(o) && !factors.includes(o) && factors.length < 8) factors.push(o);
+        if (ops.some((o) => g.hasPath(o))) continue;
+        rest = g.and(ops);
+      }
+      // Two-bit sum mod 4 of (k mod 4) x rest.
+      const a0 = k & 1 ? rest : FALSE;
+      const a1 = k & 2 ? rest : FALSE;
+      const c0 = g.and2(s0, a0);
+      s0 = g.xor(s0, a0);
+      s1 = g.xor(g.xor(s1, a1), c0);
+    }
+    return { stray: g.or([s0, s1]), factors };
   }
 
   /**

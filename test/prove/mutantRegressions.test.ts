@@ -45,6 +45,73 @@ describe("harmful mutants refuted with a counterexample", () => {
   }
 });
 
+// Found by the sweep at 60 variables (the bench's formula, seed 1000 + n): a CNOT dropped from or
+// duplicated in a Clifford+T gadget of the blocks-6 oracle with unitary uncomputation. No reduction closes the
+// gadget's path variable, and the oracle fails on about one input in ten (only where a clause node
+// the stray phase depends on is 0 in the flag case): the inputs are now sought on the stuck
+// Hadamard's factors, and the last simulation runs as long as the reductions took.
+describe("harmful Clifford+T gadget mutants of the blocks-6 oracle at 60 variables", () => {
+  const cnf60 = randomKSat(60, 180, 3, 1060);
+  // The duplicated CNOT fails on every input and the quick simulation found it, but the retry
+  // after cancelling the pair dropped that finding and ran the later reductions for 210 s.
+  const cases: ["phase" | "flag", "drop" | "duplicate", number][] = [
+    ["phase", "drop", 23885],
+    ["flag", "drop", 2428],
+    ["flag", "duplicate", 13851],
+  ];
+  for (const [kind, how, at] of cases) {
+    it(`a ${how === "drop" ? "dropped" : "duplicated"} CNOT (${kind}, gate ${at}) is refuted with a counterexample, within a minute`, () => {
+      const c = compileOracle(cnf60, { kind, construction: "blocks-6", basis: "clifford+t", uncompute: "unitary", structure: false }).circuit;
+      expect(c.kind[at]).toBe(K.cx);
+      const mutated = how === "drop" ? drop(c, at) : duplicate(c, at);
+      const p = proveOracle(cnf60, mutated, { kind, conflictLimit: 20_000 });
+      expect(p.status, p.message).toBe("refuted");
+      expect(failsOn(mutated, cnf60, kind, p.counterexample!)).toBe(true);
+      expect(p.seconds).toBeLessThan(60);
+    });
+  }
+});
+
+// The sweep's one "undecided" lean mutant at 60 variables: the CNOT that closes a Clifford+T
+// gadget of the counter's carry chain (control 73, counter bit 5) moved onto search variable 49
+// in the increment of clause 84. It flips that variable only where 32 of the first 84 clauses are
+// violated, which neither random inputs nor the hill climbs' early steps reach; the tops of
+// climbs over random prefixes now come among the first simulated inputs.
+describe("a harmful wrong target in the lean Clifford+T counter at 60 variables", () => {
+  it("is refuted with a counterexample", () => {
+    const cnf60 = randomKSat(60, 180, 3, 1060);
+    const c = compileOracle(cnf60, { kind: "phase", construction: "lean", basis: "clifford+t", uncompute: "unitary", structure: false }).circuit;
+    const at = 20195;
+    expect(c.kind[at]).toBe(K.cx);
+    expect(Array.from(c.ops.subarray(c.opStart[at]!, c.opStart[at + 1]!))).toEqual([73 << 1, 72 << 1]);
+    const ops = c.ops.slice();
+    ops[c.opStart[at]! + 1] = 48 << 1;
+    const mutated: Circuit = { ...c, ops };
+    const p = proveOracle(cnf60, mutated, { kind: "phase", conflictLimit: 20_000 });
+    expect(p.status, p.message).toBe("refuted");
+    expect(failsOn(mutated, cnf60, "phase", p.counterexample!)).toBe(true);
+  });
+});
+
+// The sweep at 200 variables: the CNOT that closes a blocks-6 gadget moved onto a search variable.
+// It fails only where both path-free factors of the stuck Hadamard's terms are 1 (one input in
+// four); the inputs where all are 1 now come first, so the quick simulation finds it (178 s, now 4 s).
+describe("a CNOT moved off a blocks-6 Clifford+T gadget at 200 variables", () => {
+  it("is refuted with a counterexample within a minute", () => {
+    const cnf200 = randomKSat(200, 600, 3, 1200);
+    const c = compileOracle(cnf200, { kind: "phase", construction: "blocks-6", basis: "clifford+t", uncompute: "unitary", structure: false }).circuit;
+    const at = 91476;
+    expect(Array.from(c.ops.subarray(c.opStart[at]!, c.opStart[at + 1]!))).toEqual([210 << 1, 211 << 1]);
+    const ops = c.ops.slice();
+    ops[c.opStart[at]! + 1] = 134 << 1;
+    const mutated: Circuit = { ...c, ops };
+    const p = proveOracle(cnf200, mutated, { kind: "phase", conflictLimit: 20_000 });
+    expect(p.status, p.message).toBe("refuted");
+    expect(failsOn(mutated, cnf200, "phase", p.counterexample!)).toBe(true);
+    expect(p.seconds).toBeLessThan(60);
+  });
+});
+
 describe("cancelPairs (the exact rewrite before a second symbolic run)", () => {
   it("cancels adjacent equal self-inverse gates, nested pairs too, and keeps the rest in order", () => {
     const b = new CircuitBuilder({ search: 2, target: 0, work: 1, clbits: 1 });
