@@ -157,10 +157,19 @@ export async function verifyOracle(cnf: Cnf, circuit: Circuit, opts: VerifyOptio
   }
   const program = compileBitProgram(circuit);
   const stateVector = "unsupported" in program;
-  const exhaustive = n <= (stateVector ? Math.min(limit, STATE_VECTOR_EXHAUSTIVE) : limit);
-  const inputs = exhaustive ? null : sampledInputs(cnf, opts, seed, stateVector, completion);
+  let exhaustive = n <= (stateVector ? Math.min(limit, STATE_VECTOR_EXHAUSTIVE) : limit);
+  let inputs = exhaustive ? null : sampledInputs(cnf, opts, seed, stateVector, completion);
+  const covering: string[] = [];
+  if (inputs !== null && inputs.covers) {
+    // A sample of half the assignments or more: checking them all costs at most twice as much,
+    // and a count of checked assignments is then a count of distinct ones.
+    covering.push(`the sample asked for (${inputs.samples} random and ${inputs.explicit.length} chosen assignments) is at least half of the ${2 ** n} there are: every assignment was checked instead`);
+    exhaustive = true;
+    inputs = null;
+  }
   const run = stateVector ? runStateVector(cnf, circuit, kind, inputs, opts, seed, completion) : await runBitParallel(cnf, circuit, program, kind, inputs, opts, seed, completion);
-  return { ...verdict(run, inputs, completion !== undefined), register: registerKind };
+  const r = verdict(run, inputs, completion !== undefined);
+  return { ...r, notes: [...covering, ...r.notes], register: registerKind };
 }
 
 /** What one simulator run found, before the verdict. */
@@ -171,10 +180,19 @@ interface Run {
   readonly counterexample: Counterexample | null;
 }
 
-/** The assignments of a sampled check besides the random ones: solver models, then clause-falsifying ones. */
+/**
+ * The assignments of a sampled check: solver models, then clause-falsifying ones, then (up to
+ * DISTINCT_DRAWS_UP_TO variables) the random ones, all distinct; above that the random ones are
+ * drawn by the kernel (hashSamples).
+ */
 interface SampledInputs {
+  /** Random assignments checked. */
   readonly samples: number;
+  /** Random assignments the kernel draws itself (0 up to DISTINCT_DRAWS_UP_TO variables). */
+  readonly hashSamples: number;
   readonly explicit: Uint8Array[];
+  /** The sample would hold half of all assignments or more: check them all instead. */
+  readonly covers: boolean;
   readonly search: ModelSearchReport;
   readonly falsifying: number;
   /** False when no assignment falsifies the formula (every clause is a tautology). */
@@ -196,7 +214,8 @@ function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector:
       a[j % reg.length]! ^= 1;
       flipped.push(a);
     }
-    return { samples: opts.samples ?? (stateVector ? 256 : 4096), explicit: [...projected, ...flipped], search, falsifying: flipped.length, hasNonModels: true };
+    const chosen = distinctAssignments([...projected, ...flipped]);
+    return { ...randomPart(reg.length, chosen, opts.samples ?? (stateVector ? 256 : 4096), seed), search, falsifying: chosen.length - distinctAssignments(projected).length, hasNonModels: true };
   }
   const { clauses, hasNonModels } = falsifiable(cnf);
   // Each assignment falsifies one clause and, where a model was found, agrees with it elsewhere:
@@ -212,13 +231,69 @@ function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector:
     }
     falsifying.push(a);
   }
+  // Falsifying assignments made from different clauses and models may coincide (a model is never
+  // one of them): counted once.
+  const chosen = distinctAssignments([...found.models, ...falsifying]);
   return {
-    samples: opts.samples ?? (stateVector ? 256 : 4096),
-    explicit: [...found.models, ...falsifying],
+    ...randomPart(cnf.variables, chosen, opts.samples ?? (stateVector ? 256 : 4096), seed),
     search,
-    falsifying: falsifying.length,
+    falsifying: chosen.length - distinctAssignments(found.models).length,
     hasNonModels,
   };
+}
+
+/**
+ * Up to this many variables the random assignments are drawn distinct (and distinct from the
+ * chosen ones) here; above it the kernel draws them by hashing, where two of K draws coincide
+ * with probability below K^2 / 2^(n+1) (2^-17 for the default 4096).
+ */
+const DISTINCT_DRAWS_UP_TO = 40;
+
+/** The chosen assignments, each once (first occurrence kept). */
+function distinctAssignments(list: Uint8Array[]): Uint8Array[] {
+  const seen = new Map<number, Uint8Array[]>();
+  const out: Uint8Array[] = [];
+  for (const a of list) {
+    let h = 0x811c9dc5;
+    for (let v = 0; v < a.length; v++) h = Math.imul(h ^ a[v]!, 0x01000193);
+    const bucket = seen.get(h);
+    if (bucket?.some((b) => b.length === a.length && b.every((x, v) => x === a[v]))) continue;
+    if (bucket) bucket.push(a);
+    else seen.set(h, [a]);
+    out.push(a);
+  }
+  return out;
+}
+
+/**
+ * The random part of a sample of `samples` over n variables, beside the chosen assignments
+ * (exported for the tests).
+ * @internal
+ */
+export function randomPart(n: number, chosen: Uint8Array[], samples: number, seed: number): Pick<SampledInputs, "samples" | "hashSamples" | "explicit" | "covers"> {
+  if (n > DISTINCT_DRAWS_UP_TO) return { samples, hashSamples: samples, explicit: chosen, covers: false };
+  const space = 2 ** n;
+  if (2 * (samples + chosen.length) >= space) return { samples, hashSamples: 0, explicit: chosen, covers: true };
+  const valueOf = (a: Uint8Array): number => {
+    let x = 0;
+    for (let v = n - 1; v >= 0; v--) x = x * 2 + a[v]!;
+    return x;
+  };
+  const taken = new Set<number>(chosen.map(valueOf));
+  const drawn: Uint8Array[] = [];
+  // Rejection: the sample is under half of the space, so fewer than two draws per assignment
+  // are expected. Reproducible from the seed.
+  for (let i = 0; drawn.length < samples; i++) {
+    const lo = hash3(seed, i, 0x5a17) >>> 0;
+    const hi = hash3(seed, i, 0x5a18) >>> 0;
+    const x = n <= 32 ? lo % space : (hi % 2 ** (n - 32)) * 2 ** 32 + lo;
+    if (taken.has(x)) continue;
+    taken.add(x);
+    const a = new Uint8Array(n);
+    for (let v = 0, y = x; v < n; v++, y = Math.floor(y / 2)) a[v] = y % 2;
+    drawn.push(a);
+  }
+  return { samples, hashSamples: 0, explicit: [...chosen, ...drawn], covers: false };
 }
 
 /** Clauses that some assignment falsifies (those without a literal and its negation). */
@@ -284,7 +359,7 @@ async function runBitParallel(
   const reg = (role: string) => circuit.registers.find((r) => r.role === role);
   const models = inputs === null ? new Uint8Array(0) : flatten(inputs.explicit, n);
   const modelCount = inputs === null ? 0 : inputs.explicit.length;
-  const samples = inputs === null ? 0 : inputs.samples;
+  const samples = inputs === null ? 0 : inputs.hashSamples;
   const totalWords = inputs === null ? (n >= 5 ? 2 ** (n - 5) : 1) : Math.ceil((samples + modelCount) / 32);
   const work = reg("work");
   // Words per block: 64, or fewer when a block of that many words over every qubit would be large.
@@ -437,7 +512,7 @@ function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inpu
   if (inputs === null) for (let x = 0; x < 2 ** n; x++) list.push(x);
   else {
     for (const a of inputs.explicit) assignments.push(Array.from(a, (b) => b === 1));
-    for (let s = 0; s < inputs.samples; s++) assignments.push(Array.from({ length: n }, (_, v) => (hash3(seed, s, v) & 1) === 1));
+    for (let s = 0; s < inputs.hashSamples; s++) assignments.push(Array.from({ length: n }, (_, v) => (hash3(seed, s, v) & 1) === 1));
   }
   const total = inputs === null ? list.length : assignments.length;
   let models = 0;

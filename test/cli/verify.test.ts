@@ -77,9 +77,10 @@ describe("clausegate verify", () => {
     expect(json.models).toBeGreaterThanOrEqual(5);
     expect(json.non_models).toBeGreaterThan(0);
     expect(json.models + json.non_models).toBe(json.assignments);
-    // 524 = 500 random + 5 models + one assignment falsifying each of the 19 clauses.
+    // 523 = 500 random + 5 models + 18 distinct assignments falsifying one clause each (made for
+    // each of the 19 clauses; two of them coincide and are counted once).
     const text = cli(["verify", "--sample", "examples/launch-rota.cnf", "--exhaustive-limit", "8", "--samples", "500", "--models", "5"]);
-    expect(text.stdout).toMatch(/^verified: sampled \(524 assignments, bit-parallel simulator\); \d+ satisfying, \d+ not\nmodels: 5 found by the CDCL solver in \d+ conflicts?; also checked: 19 assignments falsifying one clause each, 500 random\n$/);
+    expect(text.stdout).toMatch(/^verified: sampled \(523 assignments, bit-parallel simulator\); \d+ satisfying, \d+ not\nmodels: 5 found by the CDCL solver in \d+ conflicts?; also checked: 18 assignments falsifying one clause each, 500 random\n$/);
   });
 });
 
@@ -170,9 +171,10 @@ describe.skipIf(!haveSatlib)("clausegate verify --sample on SATLIB (Hoos & Stuet
     const broken = join(dir, "aim-identity.json");
     writeFileSync(broken, lines.filter((l) => !l.startsWith('{"op":"mcz"')).join("\n").replace(",\n]}", "\n]}"));
     const r = cli(["verify", "--sample", cnf, "--circuit", broken, "--samples", "65536"]);
+    // 65568 = 65536 random + the one model + 31 distinct falsifying assignments (32 made from the one model; two coincide).
     expect(r.code).toBe(1);
-    expect(r.stdout).toMatch(/^mismatch: sampled \(65569 assignments, bit-parallel simulator\)\ncounterexample: (-?\d+ ){50}0\nexpected: phase -1 \(the formula is satisfied\)/);
-    expect(r.stdout).toMatch(/\nmodels: 1 found by the CDCL solver in \d+ conflicts? \(all there are\); also checked: 32 assignments falsifying one clause each, 65536 random\n$/);
+    expect(r.stdout).toMatch(/^mismatch: sampled \(65568 assignments, bit-parallel simulator\)\ncounterexample: (-?\d+ ){50}0\nexpected: phase -1 \(the formula is satisfied\)/);
+    expect(r.stdout).toMatch(/\nmodels: 1 found by the CDCL solver in \d+ conflicts? \(all there are\); also checked: 31 assignments falsifying one clause each, 65536 random\n$/);
     const json = JSON.parse(cli(["verify", "--sample", cnf, "--circuit", broken, "--json"]).stdout);
     expect(json).toMatchObject({ verified: false, method: "sampled", models: 1, model_search: { method: "cdcl", status: "sat", found: 1, all: true } });
     expect(cli(["verify", "--sample", cnf, "--circuit", out]).code).toBe(0);

@@ -55,9 +55,11 @@ describe("verifyOracle with a free register", () => {
   });
 
   it("samples register values above the exhaustive limit (model projections, one bit flipped, random)", async () => {
-    const cnf = cnfOf(randomCircuit(4, { inputs: 6, gates: 8, oneHot: 4 }));
+    // Enough register values that 200 random ones and the chosen ones are under half of them
+    // (a larger sample checks every value instead).
+    const cnf = cnfOf(randomCircuit(4, { inputs: 12, gates: 8, oneHot: 4 }));
     const o = compileOracle(cnf, { register: "free", basis: "toffoli", uncompute: "measured", kind: "flag" });
-    expect(o.register.length).toBeGreaterThan(3);
+    expect(o.register.length).toBeGreaterThan(9);
     const r = await verifyOracle(cnf, o.circuit, { completion: o.completion, exhaustiveLimit: 3, samples: 200, threads: 1 });
     expect(r).toMatchObject({ verified: true, method: "sampled", register: "free" });
     expect(r.models).toBeGreaterThan(0);
