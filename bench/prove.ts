@@ -146,7 +146,10 @@ async function benchMutants(sizes: readonly number[], constructions: readonly st
                   counts.refuted++;
                   continue;
                 }
-                const sim = await verifyOracle(cnf, mutated, { kind, threads: 1, samples: 256, models: 16 });
+                // The cross-check's random sample (MUTANTS_CHECK_SAMPLES, default 256; the exact
+                // sparse simulator takes seconds per input on a 200-variable Clifford+T oracle).
+                const samples = Number(process.env.MUTANTS_CHECK_SAMPLES ?? 256);
+                const sim = await verifyOracle(cnf, mutated, { kind, threads: 1, samples, models: Math.min(16, Math.max(1, samples)) });
                 const where = `${n} ${construction} ${kind} ${basis} ${uncompute} ${m}`;
                 if (p.status === "proved") {
                   if (sim.counterexample !== null) {

@@ -533,7 +533,7 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     const construction = constructionFor(cnf, file, oracle, chooses);
     const gathered = await forecastInputOf(cnf, strategy, uncompute, reg, construction);
     if ("tooLarge" in gathered) {
-      throw new UserError(`${displayName(file)}: error: the search register would have ${gathered.tooLarge} qubits; forecast works with at most ${MAX_FORECAST_QUBITS} (N = 2^n must fit a double); hint: ${reg.register === "full" ? "try --register free (the default), or " : ""}declare only the variables the formula uses`);
+      throw new UserError(`${displayName(file)}: error: the search register would have ${gathered.tooLarge} qubits; forecast works with at most ${MAX_FORECAST_QUBITS} (N = 2^n must fit a double); hint: ${reg.register === "full" ? "try --register free (the default); " : ""}clausegate plan gives N, k and the costs of the search at any size, clausegate cost the counts of the oracle`);
     }
     const measured = measureEvaluationRate(cnf, MEASURE_SECONDS);
     const solverSeconds = solver?.[i];

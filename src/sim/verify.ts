@@ -11,6 +11,7 @@ import type { Cnf } from "../cnf/cnf.js";
 import { evaluate } from "../cnf/evaluate.js";
 import { DEFAULT_CONFLICT_LIMIT, findModels } from "../cnf/findModels.js";
 import { SEARCH_REGISTER, type Circuit } from "../ir/circuit.js";
+import { K } from "../ir/kinds.js";
 import { completeAssignment, isFullCompletion, type Completion } from "../structure/completion.js";
 import { compileBitProgram, newBlock, runBlock, type BitProgram } from "./bitsim.js";
 import { checkOracleSparse } from "./check.js";
@@ -520,7 +521,11 @@ function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inpu
     const a = inputs === null ? Array.from({ length: n }, (_, v) => Math.floor(list[i]! / 2 ** v) % 2 === 1) : assignments[i]!;
     if (value(a)) models++;
   }
-  const seeds = [seed, seed + 1];
+  // A second seed draws other measurement outcomes; without measurements or resets the run is
+  // deterministic and a second one would repeat the first.
+  let draws = false;
+  for (let g = 0; g < circuit.gates && !draws; g++) draws = circuit.kind[g] === K.measure || circuit.kind[g] === K.reset;
+  const seeds = draws ? [seed, seed + 1] : [seed];
   const register = completion === undefined ? undefined : { size: n, value };
   for (const s of seeds) {
     const bad = checkOracleSparse(circuit, cnf, { kind, seed: s, assignments: list, explicit: inputs === null ? undefined : assignments, register });

@@ -123,6 +123,16 @@ describe("options", () => {
     expect(doc).toMatchObject({ solutions: 0, code_distance: null, expected_seconds: null, classical_expected_seconds: null });
     expect(doc.model_limit).toMatch(/unsatisfiable/);
   });
+  it("a register beyond 1000 qubits: exit 2, one line, a hint that holds (every variable is used, so declaring fewer would not help)", () => {
+    const f = join(dir, "chain-1200.cnf");
+    const clauses = Array.from({ length: 1199 }, (_, i) => `${i + 1} -${i + 2} 0`);
+    writeFileSync(f, `p cnf 1200 1199\n${clauses.join("\n")}\n`);
+    const r = cli(["forecast", f]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(/^[^\n]*chain-1200\.cnf: error: the search register would have 1200 qubits; forecast works with at most 1000 \(N = 2\^n must fit a double\); hint: clausegate plan gives N, k and the costs of the search at any size, clausegate cost the counts of the oracle\n$/);
+    expect(r.stderr).not.toMatch(/declare only/);
+  });
 });
 
 describe("a family at growing sizes", () => {
