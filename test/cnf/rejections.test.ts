@@ -44,6 +44,26 @@ const cases: [string, string, number, number, string][] = [
   ["UTF-16 without a byte-order mark", "p\0 \0c\0n\0f\0", 1, 1, "utf16-input"],
 ];
 
+describe("bare carriage returns (classic Mac line ends)", () => {
+  it("the error's hint names the CR and how to convert, in both readers; CRLF and a CR between tokens of the body stay fine", () => {
+    for (const [src, line, column, crColumn] of [["p cnf 3 2\r1 -2 0\r2 3 0\r", 1, 11, 10], ["c made on a Mac\rp cnf 3 2\r1 -2 0\r", 1, 34, 16]] as const) {
+      for (const read of [scanDimacs, readWithGrammarSync]) {
+        const err = read(Buffer.from(src, "latin1")).diagnostics.find((d) => d.severity === "error")!;
+        expect({ line: err.line, column: err.column }).toEqual({ line, column });
+        expect(err.hint).toBe(`the line holds a bare carriage return (CR) at column ${crColumn}: lines of a DIMACS file end with LF or CRLF; convert CR line ends, e.g. tr '\\r' '\\n' < OLD.cnf > NEW.cnf`);
+      }
+    }
+    for (const read of [scanDimacs, readWithGrammarSync]) {
+      expect(read(Buffer.from("p cnf 3 2\r\n1 -2 0\r\n2 3 0\r\n", "latin1")).cnf?.clauseStart.length).toBe(3);
+      expect(read(Buffer.from("p cnf 3 2\n1 -2 0\r2 3 0\n", "latin1")).cnf?.clauseStart.length).toBe(3);
+    }
+    // A bare CR on another line than the error's leaves the error's own hint.
+    const other = scanDimacs(Buffer.from("c a\rb\np cnf 2 1\n1 3 0\n", "latin1")).diagnostics.find((d) => d.severity === "error")!;
+    expect(other.code).toBe("variable-out-of-range");
+    expect(other.hint).not.toMatch(/carriage/);
+  });
+});
+
 describe("rejected inputs", () => {
   const dir = mkdtempSync(join(tmpdir(), "clausegate-rej-"));
   it.each(cases)("%s", (_what, src, line, column, code) => {
