@@ -6,7 +6,13 @@
  *            only those rows;
  *   million  the 1,000,000-clause bench file (bench/out/random3sat-1m.cnf, the reader bench's
  *            seeded formula), default construction (phase, wide, toffoli, unitary): compiled and
- *            proved in a fresh process, timed, with peak memory (target: under 10 minutes).
+ *            proved in a fresh process, timed, with peak memory (target: under 10 minutes);
+ *   mutants  `mutants SIZES CONSTRUCTIONS PICKS BASES CONFLICTS`: the mutation sweep (benchMutants;
+ *            MUTANTS_VERBOSE=1 prints each mutant, MUTANTS_CHECK_SAMPLES sets the cross-check's
+ *            random sample);
+ *   explain  `explain N CONSTRUCTION "KIND BASIS UNCOMPUTE MUTATION" [RANDOM]`: one mutant of the
+ *            sweep, its changed gate and whether that gate acts on the states reached there
+ *            (explainMutant).
  * Prints figures; asserts nothing.
  */
 import { execFileSync } from "node:child_process";
@@ -19,7 +25,11 @@ import { compileOracle, type OracleOptions } from "../src/compile.js";
 import { proveOracle } from "../src/prove/index.js";
 import { verifyOracle } from "../src/sim/verify.js";
 import { seededRandom } from "../src/util/random.js";
-import { MUTATIONS, mutate } from "./mutants.js";
+import { edit, MUTATIONS, mutate } from "./mutants.js";
+import { findModels } from "../src/cnf/findModels.js";
+import { GATE_KINDS } from "../src/ir/kinds.js";
+import type { Circuit } from "../src/ir/circuit.js";
+import { basisTerm, runSparse } from "../src/sim/sparse.js";
 import { randomClauses, writeRandomCnf } from "./random.js";
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -174,11 +184,98 @@ async function benchMutants(sizes: readonly number[], constructions: readonly st
   }
 }
 
+/**
+ * One mutant of the sweep, explained: `node dist/bench/prove.js explain N CONSTRUCTION "KIND
+ * BASIS UNCOMPUTE MUTATION" [random inputs]` rebuilds it (same picks as benchMutants, one per
+ * mutation), names the changed gate and, for a CX or CCX changed (polarity, duplicate = the gate
+ * twice, wrong target), simulates the original circuit exactly up to that gate and reports
+ * whether its controls are 1 in any term of the state there: where they never are, the change
+ * acts on nothing on those inputs. Inputs: the solver's models, random assignments and, since
+ * the lean oracle's counter bits above 2^b are set only by inputs that violate at least 2^b
+ * clauses, assignments made by local search to violate as many clauses as it can. Evidence for
+ * an undecided mutant, not a proof.
+ */
+async function explainMutant(n: number, construction: string, which: string, randomInputs: number): Promise<void> {
+  const cnf = cnfFromClauses(n, [...randomClauses(n, 3 * n, 3, 1000 + n)]);
+  const r = seededRandom(n * 31 + construction.length);
+  const [kindW, basisW] = which.split(" ");
+  for (const kind of ["phase", "flag"] as const) {
+    for (const basis of ["clifford+t"] as const) {
+      for (const uncompute of ["unitary", "measured"] as const) {
+        const c = compileOracle(cnf, { kind, construction, basis, uncompute, structure: false }).circuit;
+        for (const m of MUTATIONS) {
+          const pick = Math.floor(r() * 2 ** 31);
+          if (`${kind} ${basis} ${uncompute} ${m}` !== which) continue;
+          const mutated = mutate(c, m, pick)!;
+          let g = 0;
+          const same = (x: number): boolean => c.kind[x] === mutated.kind[x] && c.opStart[x + 1]! - c.opStart[x]! === mutated.opStart[x + 1]! - mutated.opStart[x]!
+            && c.ops.subarray(c.opStart[x]!, c.opStart[x + 1]!).every((o, i) => o === mutated.ops[mutated.opStart[x]! + i]);
+          while (g < c.gates && same(g)) g++;
+          const ops = (x: Circuit, y: number): number[] => Array.from(x.ops.subarray(x.opStart[y]!, x.opStart[y + 1]!));
+          const show = (x: Circuit, y: number): string => y < x.gates ? `${GATE_KINDS[x.kind[y]!]} ${ops(x, y).map((o) => `${o & 1 ? "!" : ""}${o >>> 1}`).join(",")}` : "(end)";
+          console.log(`${n} ${construction} ${which}: ${c.gates} gates; first change at gate ${g}: ${show(c, g)} -> ${show(mutated, g)}`);
+          const kindName = GATE_KINDS[c.kind[g]!];
+          const changedGate = m === "duplicate" || m === "target" || m === "polarity" ? g : -1;
+          if (changedGate < 0 || (kindName !== "cx" && kindName !== "ccx")) {
+            console.log("  (only a changed CX or CCX is explained)");
+            return;
+          }
+          const controls = ops(c, g).slice(0, -1);
+          const prefix = edit(c, (_b, x) => x >= g);
+          const violated = (a: boolean[]): number => {
+            let v = 0;
+            for (let i = 0; i + 1 < cnf.clauseStart.length; i++) {
+              let sat = false;
+              for (let k = cnf.clauseStart[i]!; k < cnf.clauseStart[i + 1]! && !sat; k++) sat = a[Math.abs(cnf.lits[k]!) - 1] === cnf.lits[k]! > 0;
+              if (!sat) v++;
+            }
+            return v;
+          };
+          const rnd = seededRandom(99);
+          const inputs: { a: boolean[]; why: string }[] = [];
+          for (const model of findModels(cnf, 16, { seed: 3, conflictLimit: 100_000 }).models) inputs.push({ a: Array.from(model, (b) => b === 1), why: "model" });
+          for (let i = 0; i < randomInputs; i++) inputs.push({ a: Array.from({ length: n }, () => rnd() < 0.5), why: "random" });
+          for (let s = 0; s < 8; s++) {
+            const a = Array.from({ length: n }, () => rnd() < 0.5);
+            for (let pass = 0; pass < 3; pass++) {
+              for (let v = 0; v < n; v++) {
+                const before = violated(a);
+                a[v] = !a[v];
+                if (violated(a) < before) a[v] = !a[v];
+              }
+            }
+            inputs.push({ a, why: "local maximum of violated clauses" });
+          }
+          const target = c.registers.find((x) => x.role === "target");
+          let fired = 0;
+          let most = 0;
+          for (const { a, why } of inputs) {
+            most = Math.max(most, violated(a));
+            const ones = a.flatMap((on, v) => (on ? [v] : []));
+            for (const start of kind === "flag" && target ? [ones, [...ones, target.start]] : [ones]) {
+              const terms = runSparse(prefix, [basisTerm(c.qubits, start)], seededRandom(1)).terms;
+              const on = terms.filter((t) => controls.every((o) => (((t.bits[(o >>> 1) >>> 5]! >>> ((o >>> 1) & 31)) & 1) === 1) !== ((o & 1) === 1))).length;
+              if (on > 0) {
+                fired++;
+                console.log(`  controls on in ${on} of ${terms.length} terms: ${why}, ${violated(a)} clauses violated`);
+              }
+            }
+          }
+          console.log(`  ${inputs.length} inputs (${kind === "flag" ? "each with target 0 and 1; " : ""}most clauses violated: ${most} of ${cnf.clauseStart.length - 1}): the gate's controls ${fired === 0 ? "are on in no term of any of them: the change acts on nothing there" : `are on for ${fired} of them`}`);
+          return;
+        }
+      }
+    }
+  }
+  console.log(`${which}: no such mutant (expected "KIND clifford+t UNCOMPUTE MUTATION", e.g. "flag clifford+t unitary target"; basis ${basisW ?? "?"}, kind ${kindW ?? "?"})`);
+}
+
 const part = process.argv[2];
 if (part === "million-here") proveMillionHere(process.argv[3]!);
 else if (import.meta.url === `file://${process.argv[1]}`) {
   if (part === undefined || part === "planted") benchPlanted(process.argv.slice(3));
   if (part === undefined || part === "million") benchMillion();
+  if (part === "explain") await explainMutant(Number(process.argv[3]), process.argv[4]!, process.argv[5]!, Number(process.argv[6] ?? 20));
   if (part === "mutants") {
     // node dist/bench/prove.js mutants [sizes, e.g. 60,100,200] [constructions, e.g. lean,blocks-6] [picks] [bases, e.g. mcx,toffoli] [conflicts per mutant]
     const sizes = (process.argv[3] ?? "60,100,200").split(",").map(Number);
