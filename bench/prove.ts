@@ -211,9 +211,11 @@ async function explainMutant(n: number, construction: string, which: string, ran
           const same = (x: number): boolean => c.kind[x] === mutated.kind[x] && c.opStart[x + 1]! - c.opStart[x]! === mutated.opStart[x + 1]! - mutated.opStart[x]!
             && c.ops.subarray(c.opStart[x]!, c.opStart[x + 1]!).every((o, i) => o === mutated.ops[mutated.opStart[x]! + i]);
           while (g < c.gates && same(g)) g++;
+          // A duplicate is the gate before the first difference, put twice.
+          if (m === "duplicate") g--;
           const ops = (x: Circuit, y: number): number[] => Array.from(x.ops.subarray(x.opStart[y]!, x.opStart[y + 1]!));
           const show = (x: Circuit, y: number): string => y < x.gates ? `${GATE_KINDS[x.kind[y]!]} ${ops(x, y).map((o) => `${o & 1 ? "!" : ""}${o >>> 1}`).join(",")}` : "(end)";
-          console.log(`${n} ${construction} ${which}: ${c.gates} gates; first change at gate ${g}: ${show(c, g)} -> ${show(mutated, g)}`);
+          console.log(`${n} ${construction} ${which}: ${c.gates} gates; changed gate ${g}: ${show(c, g)} -> ${m === "duplicate" ? "twice" : show(mutated, g)}`);
           const kindName = GATE_KINDS[c.kind[g]!];
           const changedGate = m === "duplicate" || m === "target" || m === "polarity" ? g : -1;
           if (changedGate < 0 || (kindName !== "cx" && kindName !== "ccx")) {
