@@ -85,12 +85,12 @@ export type { DistillationProtocol, ProtocolChoice } from "./forecast/factories.
 export { DISTILLATION_PROTOCOLS, DISTILLATION_SOURCE, MAX_TABULATED_ERROR_RATE, chooseDistillation, fifteenToOneQubits, fifteenToOneCycles } from "./forecast/factories.js";
 export { routingPatches, ROUTING_SOURCE } from "./forecast/layout.js";
 export type { LogicalWork, ForecastInput, Machine, Assumption, PhysicalQubits, RegimeEstimate, Forecast } from "./forecast/model.js";
-export { forecastSearch, DEFAULT_MACHINE, MACHINE_DEFAULT_SOURCES } from "./forecast/model.js";
+export { forecastSearch, inputAssumptions, DEFAULT_MACHINE, MACHINE_DEFAULT_SOURCES } from "./forecast/model.js";
 export type { EvaluationRate } from "./forecast/classical.js";
 export { measureEvaluationRate } from "./forecast/classical.js";
 export type { LogLinearFit, Crossover } from "./forecast/fit.js";
 export { fitLogLinear, fitAt, crossoverOf } from "./forecast/fit.js";
-export { formatSeconds, formatCount, SECONDS_PER_YEAR, UNIVERSE_AGE_YEARS } from "./forecast/format.js";
+export { formatSeconds, formatCount, formatLog10Count, formatLog10Seconds, SECONDS_PER_YEAR, UNIVERSE_AGE_YEARS } from "./forecast/format.js";
 export type { ForecastPlotInput, ForecastPlotSeries, ForecastPlotCrossover } from "./draw/forecastPlot.js";
 export { plotForecastSvg } from "./draw/forecastPlot.js";
 

@@ -7,7 +7,7 @@
  * to re-point when those move.
  */
 import {
-  countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatSeconds, LOGICAL_ERROR_MODELS,
+  countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatLog10Count, formatLog10Seconds, formatSeconds, inputAssumptions, LOGICAL_ERROR_MODELS,
   MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, clauseCount, constructionSearchCost, parseConstruction,
   type Assumption, type Cnf, type Crossover, type Forecast, type ForecastInput, type ForecastPlotSeries, type LogLinearFit,
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
@@ -19,8 +19,6 @@ import { claimStdout, printLater } from "./output.js";
 
 /** Seconds the classical evaluator is timed on each formula. */
 const MEASURE_SECONDS = 0.2;
-/** Largest search register: N = 2^n and N/M must stay finite doubles (as in plan). */
-const MAX_FORECAST_QUBITS = 1000;
 
 export const forecastHelp = `Usage: clausegate forecast FILE... [options]
 
@@ -106,7 +104,10 @@ interface Gathered {
   readonly register: string;
   readonly solutions: number;
   readonly solutionsSource: SolutionsSource;
+  /** k (Infinity beyond the range of a double: see log2Iterations). */
   readonly iterations: number;
+  /** log2 of k, at any size (-Infinity for k = 0). */
+  readonly log2Iterations: number;
   readonly successProbability: number;
 }
 
@@ -120,16 +121,17 @@ interface Gathered {
  */
 export async function forecastInputOf(
   cnf: Cnf, strategy: Strategy, uncompute: Uncompute, registerOptions: { register: RegisterMode; structure: boolean } = { register: "free", structure: true }, construction?: string,
-): Promise<Gathered | { unsatisfiable: true } | { tooLarge: number }> {
+): Promise<Gathered | { unsatisfiable: true }> {
   const problem = searchProblem(cnf, registerOptions);
-  if (problem.n > MAX_FORECAST_QUBITS) return { tooLarge: problem.n };
   const counted = await countSolutions(problem.counted);
   const exact = counted.ok;
   const M = exact ? Number(counted.solutions.count) * 2 ** counted.solutions.shift : 1;
   if (M === 0) return { unsatisfiable: true };
   const plan = planSearch(problem.n, M);
-  // k as a double: exact below 2^53, and beyond that the model's times are estimates anyway.
+  // k as a double: exact below 2^53, and beyond that the model's times are estimates anyway;
+  // Infinity past 2^1024 (log2Iterations keeps it).
   const k = plan.iterations === undefined ? 0 : plan.iterations.exact !== undefined ? Number(plan.iterations.exact) : 2 ** plan.iterations.log2;
+  const log2k = plan.iterations === undefined ? -Infinity : plan.iterations.exact !== undefined ? Math.log2(Number(plan.iterations.exact)) : plan.iterations.log2;
   // A named construction (or one chosen within a budget) is costed by itself; else the strategy's row.
   const costs = construction !== undefined
     ? constructionSearchCost(cnf, construction, 1, plan.successProbability, uncompute, registerOptions)
@@ -155,8 +157,20 @@ export async function forecastInputOf(
     solutions: M,
     solutionsSource: exact ? "exact" : "assumed",
     iterations: k,
+    log2Iterations: log2k,
     successProbability: plan.successProbability,
   };
+}
+
+/**
+ * Why there is no quantum estimate when k is beyond the range of a double: the magic states of
+ * the expected search (k x the iteration's T-count / P) and the error each may have, in powers of
+ * ten. Every tabulated protocol stops some 30 decades short of such errors.
+ */
+function beyondDoubles(g: Gathered, m: Machine): string {
+  const log10States = g.log2Iterations * Math.log10(2) + Math.log10(g.input.iteration.tCount) - Math.log10(g.successProbability);
+  const log10Need = Math.log10(m.failureBudget / 2) - log10States;
+  return `no quantum estimate: k = 2^${g.log2Iterations.toFixed(1)} iterations of ${g.input.iteration.tCount} T gates consume about 10^${log10States.toFixed(1)} magic states over the expected search, so each must fail with probability at most 10^${log10Need.toFixed(1)}, far beyond every tabulated distillation protocol (Litinski 2019, "Magic state distillation: not as costly as you think", Quantum 3:205, Table 1); plan and cost give the search's logical figures at this size`;
 }
 
 /** One file's result: the model's estimate (or why there is none) and the classical side. */
@@ -171,7 +185,9 @@ interface Row {
   readonly rate: number;
   readonly measuredSeconds: number;
   readonly log10Evaluations: number | undefined;
+  /** Undefined also when it exceeds a double (see log10ClassicalSeconds). */
   readonly classicalSeconds: number | undefined;
+  readonly log10ClassicalSeconds: number | undefined;
   readonly solverSeconds: number | undefined;
   readonly assumptions: readonly Assumption[];
 }
@@ -209,7 +225,8 @@ function rowJson(r: Row) {
     register_mode: r.registerMode,
     solutions: g ? g.solutions : 0,
     solutions_source: g ? g.solutionsSource : "exact",
-    iterations: g ? g.iterations : null,
+    iterations: g && Number.isFinite(g.iterations) ? g.iterations : null,
+    iterations_log2: g ? num(g.log2Iterations) : null,
     success_probability: g ? g.successProbability : null,
     code_distance: f ? f.reactionLimited.codeDistance : null,
     physical_qubits: f ? f.reactionLimited.physicalQubits.total : null,
@@ -218,6 +235,8 @@ function rowJson(r: Row) {
     expected_seconds: f ? f.reactionLimited.expectedSeconds : null,
     classical_expected_seconds: num(r.classicalSeconds),
     classical_expected_evaluations: r.log10Evaluations === undefined ? null : num(10 ** r.log10Evaluations),
+    classical_expected_evaluations_log10: num(r.log10Evaluations),
+    classical_expected_seconds_log10: num(r.log10ClassicalSeconds),
     classical_evaluations_per_second: r.rate,
     solver_seconds: num(r.solverSeconds),
     quantum_over_classical: quantum !== undefined && r.classicalSeconds ? num(quantum / r.classicalSeconds) : null,
@@ -308,7 +327,7 @@ function singleText(r: Row): string[] {
     const i = g.input;
     lines.push(
       `  search register: ${g.register}`,
-      `  N = 2^${g.searchQubits}; ${g.solutionsSource === "exact" ? `M = ${g.solutions} (exact count)` : "M unknown: M = 1 assumed"}; k = ${formatCount(g.iterations)} iteration${g.iterations === 1 ? "" : "s"}, success probability ${g.successProbability.toPrecision(6)}`,
+      `  N = 2^${g.searchQubits}; ${g.solutionsSource === "exact" ? `M = ${g.solutions} (exact count)` : "M unknown: M = 1 assumed"}; k = ${Number.isFinite(g.iterations) ? formatCount(g.iterations) : `2^${g.log2Iterations.toFixed(1)}`} iteration${g.iterations === 1 ? "" : "s"}, success probability ${g.successProbability.toPrecision(6)}`,
       `  one oracle call: T-count ${i.oracle.tCount}, T-depth ${i.oracle.tDepth}, Toffolis ${i.oracle.toffoliCount}, CNOTs ${i.oracle.cnotCount}`,
       `  one iteration: T-count ${i.iteration.tCount}, T-depth ${i.iteration.tDepth}; logical qubits ${i.logicalQubits}`,
     );
@@ -322,10 +341,10 @@ function singleText(r: Row): string[] {
     if (f.protocol) lines.push(`  factory: ${f.protocol.name} (Litinski 2019, Table 1, p = ${f.protocol.physicalErrorRate}): ${f.protocol.qubits} qubits, ${f.protocol.codeCycles} code cycles per state, output error ${f.protocol.outputError}`);
     lines.push(...regimeLines(f));
   } else if (g !== undefined) lines.push(`  ${r.limit}`);
-  if (r.classicalSeconds !== undefined) {
+  if (r.log10ClassicalSeconds !== undefined) {
     lines.push(
-      `  classical brute force: ${formatCount(10 ** r.log10Evaluations!)} evaluations expected (${g?.solutionsSource === "exact" ? "N/M" : "N: M unknown"}) at ${formatCount(Math.round(r.rate))} assignments/s ` +
-        `(clausegate's bit-parallel evaluator on this formula, measured for ${r.measuredSeconds.toPrecision(2)} s): ${formatSeconds(r.classicalSeconds)}`,
+      `  classical brute force: ${formatLog10Count(r.log10Evaluations!)} evaluations expected (${g?.solutionsSource === "exact" ? "N/M" : "N: M unknown"}) at ${formatCount(Math.round(r.rate))} assignments/s ` +
+        `(clausegate's bit-parallel evaluator on this formula, measured for ${r.measuredSeconds.toPrecision(2)} s): ${formatLog10Seconds(r.log10ClassicalSeconds)}`,
     );
   }
   if (r.solverSeconds !== undefined) lines.push(`  solver: ${formatSeconds(r.solverSeconds)} (given with --classical-time)`);
@@ -402,13 +421,13 @@ function familyText(rows: readonly Row[], fam: FamilyFits): string[] {
       displayName(r.file),
       String(r.variables),
       g ? (g.solutionsSource === "exact" ? String(g.solutions) : "1?") : "0",
-      g ? formatCount(g.iterations) : "-",
+      g ? (Number.isFinite(g.iterations) ? formatCount(g.iterations) : `2^${g.log2Iterations.toFixed(1)}`) : "-",
       f ? String(f.reactionLimited.codeDistance) : "-",
       f ? formatCount(f.reactionLimited.physicalQubits.total) : "-",
       f ? String(f.reactionLimited.factories) : "-",
       f ? formatSeconds(f.reactionLimited.expectedSeconds) : "-",
       f ? formatSeconds(f.oneFactory.expectedSeconds) : "-",
-      r.classicalSeconds !== undefined ? formatSeconds(r.classicalSeconds) : "-",
+      r.log10ClassicalSeconds !== undefined ? formatLog10Seconds(r.log10ClassicalSeconds) : "-",
       r.solverSeconds !== undefined ? formatSeconds(r.solverSeconds) : "-",
       f && r.classicalSeconds ? formatCount(f.reactionLimited.expectedSeconds / r.classicalSeconds) : "-",
     ];
@@ -532,9 +551,6 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     checkCircuitSize(cnf, file, "forecast");
     const construction = constructionFor(cnf, file, oracle, chooses);
     const gathered = await forecastInputOf(cnf, strategy, uncompute, reg, construction);
-    if ("tooLarge" in gathered) {
-      throw new UserError(`${displayName(file)}: error: the search register would have ${gathered.tooLarge} qubits; forecast works with at most ${MAX_FORECAST_QUBITS} (N = 2^n must fit a double); hint: ${reg.register === "full" ? "try --register free (the default); " : ""}clausegate plan gives N, k and the costs of the search at any size, clausegate cost the counts of the oracle`);
-    }
     const measured = measureEvaluationRate(cnf, MEASURE_SECONDS);
     const solverSeconds = solver?.[i];
     const extra: Assumption[] = [
@@ -552,24 +568,28 @@ export async function forecastCommand(argv: string[]): Promise<number> {
       rows.push({
         file, variables: cnf.variables, clauses: clauseCount(cnf), registerMode: reg.register, gathered: undefined, forecast: undefined,
         limit: "the formula is unsatisfiable (exact model count 0): no number of iterations finds a solution, so there is nothing to estimate",
-        rate: measured.evaluationsPerSecond, measuredSeconds: measured.seconds, log10Evaluations: undefined, classicalSeconds: undefined, solverSeconds,
+        rate: measured.evaluationsPerSecond, measuredSeconds: measured.seconds, log10Evaluations: undefined, classicalSeconds: undefined, log10ClassicalSeconds: undefined, solverSeconds,
         assumptions: [...extra, ...(solverSeconds !== undefined ? [{ name: "solver_seconds", value: solverSeconds, source: "given (--classical-time)" }] : [])],
       });
       continue;
     }
-    const forecast = forecastSearch(gathered.input, machine);
+    // A k beyond the range of a double (a register of some 2,000 qubits or more): the model's
+    // numbers cannot be formed, and the magic states it would need are read in logarithms.
+    const forecast = Number.isFinite(gathered.iterations) ? forecastSearch(gathered.input, machine) : undefined;
     // Brute force over the same register the quantum search uses: N = 2^n register values.
     const log10Evaluations = gathered.searchQubits * Math.log10(2) - Math.log10(gathered.solutions);
-    const classicalSeconds = 10 ** log10Evaluations / measured.evaluationsPerSecond;
+    const log10ClassicalSeconds = log10Evaluations - Math.log10(measured.evaluationsPerSecond);
+    const classicalSeconds = Number.isFinite(10 ** log10ClassicalSeconds) ? 10 ** log10ClassicalSeconds : undefined;
+    const k2 = `2^${gathered.log2Iterations.toFixed(1)}`;
     rows.push({
       file, variables: cnf.variables, clauses: clauseCount(cnf), registerMode: reg.register, gathered, forecast,
-      limit: forecast.ok ? undefined : `no quantum estimate: ${forecast.reason}; ${forecast.hint}`,
-      rate: measured.evaluationsPerSecond, measuredSeconds: measured.seconds, log10Evaluations, classicalSeconds, solverSeconds,
+      limit: forecast === undefined ? beyondDoubles(gathered, { ...DEFAULT_MACHINE, ...machine }) : forecast.ok ? undefined : `no quantum estimate: ${forecast.reason}; ${forecast.hint}`,
+      rate: measured.evaluationsPerSecond, measuredSeconds: measured.seconds, log10Evaluations, classicalSeconds, log10ClassicalSeconds, solverSeconds,
       assumptions: [
-        ...forecast.assumptions,
+        ...(forecast?.assumptions ?? inputAssumptions(gathered.input, machine, k2)),
         ...extra,
         {
-          name: "classical_expected_evaluations", value: 10 ** log10Evaluations,
+          name: "classical_expected_evaluations", value: Number.isFinite(10 ** log10Evaluations) ? 10 ** log10Evaluations : `10^${log10Evaluations.toFixed(1)}`,
           source: `${gathered.solutionsSource === "exact" ? "N/M: random guessing with replacement, M from the exact count" : "N: M is unknown (the count was out of reach); the hardest case, M = 1"}; N = 2^${gathered.searchQubits} over the same search register as the quantum search (a value of the free register is completed, then checked)`,
         },
         ...(solverSeconds !== undefined ? [{ name: "solver_seconds", value: solverSeconds, source: "given (--classical-time)" }] : []),

@@ -72,3 +72,38 @@ export function formatCount(x: number): string {
   if (Math.abs(x) >= 1e-3 && Math.abs(x) < 1e6) return sig(x);
   return x.toExponential(2);
 }
+
+/** "10^70663.1": a power of ten with one decimal of its exponent. */
+const powerOfTen = (log10: number): string => `10^${log10.toFixed(1)}`;
+
+/**
+ * A count given by its base-10 logarithm: as {@link formatCount} while the count fits a double,
+ * else as a power of ten ("10^70663.1").
+ *
+ * @example
+ * ```ts
+ * formatLog10Count(6);     // "1.00e+6"
+ * formatLog10Count(70663.1); // "10^70663.1"
+ * ```
+ */
+export function formatLog10Count(log10: number): string {
+  const x = 10 ** log10;
+  return Number.isFinite(x) ? formatCount(x) : powerOfTen(log10);
+}
+
+/**
+ * A duration given by the base-10 logarithm of its seconds: as {@link formatSeconds} while it
+ * fits a double, else in years as a power of ten ("10^70650.6 years (longer than the age of the
+ * universe)").
+ *
+ * @example
+ * ```ts
+ * formatLog10Seconds(0);      // "1 s"
+ * formatLog10Seconds(70658.1); // "10^70650.6 years (longer than the age of the universe)"
+ * ```
+ */
+export function formatLog10Seconds(log10: number): string {
+  const x = 10 ** log10;
+  if (Number.isFinite(x)) return formatSeconds(x);
+  return `${powerOfTen(log10 - Math.log10(SECONDS_PER_YEAR))} years (longer than the age of the universe)`;
+}

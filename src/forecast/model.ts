@@ -216,6 +216,29 @@ function inputProblem(input: ForecastInput, m: Machine): { reason: string; hint:
 }
 
 /**
+ * The machine's and the input's figures with their sources, as the first assumptions of a
+ * forecast. `iterations` replaces the input's k where it is given as text (a k beyond the range
+ * of a double, e.g. "2^117370.0").
+ */
+export function inputAssumptions(input: ForecastInput, machine: Partial<Machine> = {}, iterations?: string): Assumption[] {
+  const m: Machine = { ...DEFAULT_MACHINE, ...machine };
+  const given = (k: keyof Machine): string => (machine[k] !== undefined ? "given" : MACHINE_DEFAULT_SOURCES[k]);
+  return [
+    { name: "physical_error_rate", value: m.physicalErrorRate, source: given("physicalErrorRate") },
+    { name: "cycle_seconds", value: m.cycleSeconds, source: given("cycleSeconds") },
+    { name: "reaction_seconds", value: m.reactionSeconds, source: given("reactionSeconds") },
+    { name: "failure_budget", value: m.failureBudget, source: given("failureBudget") },
+    { name: "logical_qubits", value: input.logicalQubits, source: input.source },
+    { name: "iterations", value: iterations ?? input.iterations, source: input.source },
+    { name: "success_probability", value: input.successProbability, source: input.source },
+    { name: "oracle_t_count", value: input.oracle.tCount, source: input.source },
+    { name: "oracle_t_depth", value: input.oracle.tDepth, source: input.source },
+    { name: "iteration_t_count", value: input.iteration.tCount, source: input.source },
+    { name: "iteration_t_depth", value: input.iteration.tDepth, source: input.source },
+  ];
+}
+
+/**
  * Estimates the physical resources and time of a Grover search from its logical counts.
  *
  * @param input the search's logical counts, iterations and success probability
@@ -234,21 +257,8 @@ function inputProblem(input: ForecastInput, m: Machine): { reason: string; hint:
  */
 export function forecastSearch(input: ForecastInput, machine: Partial<Machine> = {}): Forecast {
   const m: Machine = { ...DEFAULT_MACHINE, ...machine };
-  const given = (k: keyof Machine): string => (machine[k] !== undefined ? "given" : MACHINE_DEFAULT_SOURCES[k]);
   const model = LOGICAL_ERROR_MODELS[m.logicalModel];
-  const assumptions: Assumption[] = [
-    { name: "physical_error_rate", value: m.physicalErrorRate, source: given("physicalErrorRate") },
-    { name: "cycle_seconds", value: m.cycleSeconds, source: given("cycleSeconds") },
-    { name: "reaction_seconds", value: m.reactionSeconds, source: given("reactionSeconds") },
-    { name: "failure_budget", value: m.failureBudget, source: given("failureBudget") },
-    { name: "logical_qubits", value: input.logicalQubits, source: input.source },
-    { name: "iterations", value: input.iterations, source: input.source },
-    { name: "success_probability", value: input.successProbability, source: input.source },
-    { name: "oracle_t_count", value: input.oracle.tCount, source: input.source },
-    { name: "oracle_t_depth", value: input.oracle.tDepth, source: input.source },
-    { name: "iteration_t_count", value: input.iteration.tCount, source: input.source },
-    { name: "iteration_t_depth", value: input.iteration.tDepth, source: input.source },
-  ];
+  const assumptions = inputAssumptions(input, machine);
   const problem = inputProblem(input, m);
   if (problem !== undefined) return { ok: false, ...problem, assumptions };
   assumptions.push(

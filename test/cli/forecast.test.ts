@@ -123,15 +123,34 @@ describe("options", () => {
     expect(doc).toMatchObject({ solutions: 0, code_distance: null, expected_seconds: null, classical_expected_seconds: null });
     expect(doc.model_limit).toMatch(/unsatisfiable/);
   });
-  it("a register beyond 1000 qubits: exit 2, one line, a hint that holds (every variable is used, so declaring fewer would not help)", () => {
-    const f = join(dir, "chain-1200.cnf");
-    const clauses = Array.from({ length: 1199 }, (_, i) => `${i + 1} -${i + 2} 0`);
-    writeFileSync(f, `p cnf 1200 1199\n${clauses.join("\n")}\n`);
+  it("works at any register size: k and the classical time as powers beyond a double, and why there is no quantum estimate", () => {
+    // x_i or x_(i+1) for i < n: every variable used, no unit clause, so all n stay in the free register.
+    const chain = (n: number): string => `p cnf ${n} ${n - 1}\n${Array.from({ length: n - 1 }, (_, i) => `${i + 1} ${i + 2} 0`).join("\n")}\n`;
+    const f = join(dir, "chain-3000.cnf");
+    writeFileSync(f, chain(3000));
     const r = cli(["forecast", f]);
-    expect(r.code).toBe(2);
-    expect(r.stdout).toBe("");
-    expect(r.stderr).toMatch(/^[^\n]*chain-1200\.cnf: error: the search register would have 1200 qubits; forecast works with at most 1000 \(N = 2\^n must fit a double\); hint: clausegate plan gives N, k and the costs of the search at any size, clausegate cost the counts of the oracle\n$/);
-    expect(r.stderr).not.toMatch(/declare only/);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toBe("");
+    // M cannot be counted here: M = 1, k = floor(pi / (4 asin(2^-1500))) = 2^1499.65 (log2(pi/4) = -0.349).
+    expect(r.stdout).toMatch(/\n  N = 2\^3000; M unknown: M = 1 assumed; k = 2\^1499\.7 iterations, /);
+    expect(r.stdout).toMatch(/\n  no quantum estimate: k = 2\^1499\.7 iterations of \d+ T gates consume about 10\^\d+\.\d magic states over the expected search, so each must fail with probability at most 10\^-\d+\.\d, far beyond every tabulated distillation protocol/);
+    expect(r.stdout).toMatch(/\n  classical brute force: 10\^903\.1 evaluations expected \(N: M unknown\) at .*: 10\^\d+\.\d years \(longer than the age of the universe\)\n/);
+    expect(r.stdout).not.toMatch(/Infinity|NaN|beyond the range of a double/);
+    const doc = JSON.parse(cli(["forecast", f, "--json"]).stdout);
+    expect(doc).toMatchObject({ search_qubits: 3000, iterations: null, classical_expected_seconds: null, expected_seconds: null });
+    expect(doc.iterations_log2).toBeCloseTo(1500 + Math.log2(Math.PI / 4), 6);
+    // log10(2^3000) = 903.09; seconds = evaluations / the measured rate.
+    expect(doc.classical_expected_evaluations_log10).toBeCloseTo(3000 * Math.log10(2), 9);
+    expect(doc.classical_expected_seconds_log10).toBeCloseTo(3000 * Math.log10(2) - Math.log10(doc.classical_evaluations_per_second), 9);
+    expect(doc.assumptions.find((a: { name: string }) => a.name === "iterations").value).toBe("2^1499.7");
+    // Within doubles (1,200 qubits) the model runs and says why it has no estimate either; the classical time is a power of ten too.
+    const g = join(dir, "chain-1200.cnf");
+    writeFileSync(g, chain(1200));
+    const s = cli(["forecast", g]);
+    expect(s.code).toBe(0);
+    expect(s.stdout).toMatch(/k = 3\.26e\+180 iterations/);
+    expect(s.stdout).toMatch(/no quantum estimate: the search consumes so many magic states/);
+    expect(s.stdout).toMatch(/: 10\^\d+\.\d years \(longer than the age of the universe\)/);
   });
 });
 

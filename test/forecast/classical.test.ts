@@ -1,7 +1,7 @@
 // The classical side: the evaluator's measured rate, the family fit and crossover, and printing
 // times that may be astronomically large.
 import { describe, expect, it } from "vitest";
-import { cnfFromClauses, crossoverOf, fitAt, fitLogLinear, formatCount, formatSeconds, measureEvaluationRate, readDimacsFile } from "../helpers/lib.js";
+import { cnfFromClauses, crossoverOf, fitAt, fitLogLinear, formatCount, formatLog10Count, formatLog10Seconds, formatSeconds, measureEvaluationRate, readDimacsFile } from "../helpers/lib.js";
 import { ROOT } from "../helpers/cli.js";
 import { join } from "node:path";
 
@@ -70,5 +70,13 @@ describe("printing times", () => {
     expect(formatCount(Infinity)).not.toMatch(/Infinity/);
     expect(formatCount(4620)).toBe("4620");
     expect(formatCount(2.6e7)).toBe("2.60e+7");
+  });
+  it("takes logarithms for what a double cannot hold: as before within range, a power of ten beyond", () => {
+    expect(formatLog10Seconds(Math.log10(0.0040818))).toBe("4.08 ms");
+    expect(formatLog10Seconds(300)).toBe("3.17e+292 years (longer than the age of the universe)");
+    // 10^400 s is 10^(400 - 7.499) years (a Julian year is 31,557,600 s).
+    expect(formatLog10Seconds(400)).toBe("10^392.5 years (longer than the age of the universe)");
+    expect(formatLog10Count(6)).toBe("1.00e+6");
+    expect(formatLog10Count(903.09)).toBe("10^903.1");
   });
 });
