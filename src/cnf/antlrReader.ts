@@ -14,7 +14,7 @@ import { DimacsLexer } from "./generated/DimacsLexer.js";
 import { DimacsParser } from "./generated/DimacsParser.js";
 import {
   MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero,
-  tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
+  placeError, tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
 } from "./messages.js";
 import type { ReadResult } from "./scanner.js";
 
@@ -192,6 +192,6 @@ export function readDimacsWithGrammar(b: Uint8Array): ReadResult {
     return { cnf, diagnostics: warnings };
   } catch (e) {
     if (!(e instanceof Stop)) throw e;
-    return { cnf: undefined, diagnostics: [...warnings, place(b, e.finding, origin)] };
+    return { cnf: undefined, diagnostics: [...warnings, placeError(b, e.finding, origin)] };
   }
 }

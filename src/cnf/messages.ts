@@ -3,7 +3,7 @@
  * ANTLR reader give the same code, message and hint for the same input (the differential test
  * compares them).
  */
-import type { Finding } from "../diag/diagnostic.js";
+import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
 
 /** Largest count or variable index accepted: DIMACS readers commonly store them in 32-bit ints. */
 export const MAX_INDEX = 2147483647;
@@ -210,4 +210,42 @@ export function checkEncoding(bytes: Uint8Array, findNul = true): { start: numbe
   }
   const bom = b0 === 0xef && b1 === 0xbb && bytes[2] === 0xbf;
   return { start: bom ? 3 : 0 };
+}
+
+/** Errors a bare CR on the error's own line most likely causes (the header is line-structured). */
+const CR_CAUSED = new Set(["header-trailing", "missing-header", "missing-count", "bad-count", "missing-format", "unsupported-format"]);
+
+/**
+ * Places a reader's error, with a word about bare carriage returns (a CR not followed by LF:
+ * classic Mac line ends, which DIMACS readers do not take as line ends) where one stands before
+ * it: on the error's own line of the header it is the likely cause and its hint replaces the
+ * error's; elsewhere it is added to the hint (a comment line holding one swallows what follows
+ * it, the header or clauses among them).
+ */
+export function placeError(bytes: Uint8Array, f: Finding, origin = 0): Diagnostic {
+  const d = place(bytes, f, origin);
+  const end = Math.min(f.offset, bytes.length);
+  // The first bare CR on the error's line, or on an earlier comment or header line (a CR between
+  // the tokens of a clause is only a blank there).
+  let cr = -1;
+  let runsOn = "";
+  let lineStart = origin;
+  for (let i = origin; i < end && cr < 0; i++) {
+    if (bytes[i] === 10) lineStart = i + 1;
+    else if (bytes[i] === 13 && bytes[i + 1] !== 10) {
+      let k = lineStart;
+      while (k < i && (bytes[k] === 32 || bytes[k] === 9)) k++;
+      const sameLine = !bytes.subarray(i, end).includes(10);
+      if (sameLine || bytes[k] === 99 /* c */ || bytes[k] === 112 /* p */) {
+        cr = i;
+        runsOn = bytes[k] === 99 ? "the comment" : "the header";
+      }
+    }
+  }
+  if (cr < 0) return d;
+  const at = place(bytes, { ...f, offset: cr }, origin);
+  const convert = "lines of a DIMACS file end with LF or CRLF; convert CR line ends, e.g. tr '\\r' '\\n' < OLD.cnf > NEW.cnf";
+  if (at.line === d.line && CR_CAUSED.has(f.code)) return { ...d, hint: `the line holds a bare carriage return (CR) at column ${at.column}: ${convert}` };
+  const where = at.line === d.line ? `this line holds a bare carriage return (CR) at column ${at.column}, which is not a line end` : `line ${at.line} holds a bare carriage return (CR) at column ${at.column}, which is not a line end (${runsOn} runs on past it)`;
+  return { ...d, hint: `${d.hint === undefined ? "" : `${d.hint}; `}${where}: ${convert}` };
 }

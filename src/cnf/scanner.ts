@@ -8,7 +8,7 @@ import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
 import type { Cnf } from "./cnf.js";
 import {
   MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero, nulByte,
-  tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
+  placeError, tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
 } from "./messages.js";
 
 /** What a reader returns: the formula when the input is accepted, and every diagnostic. */
@@ -245,7 +245,7 @@ export function scanDimacs(b: Uint8Array): ReadResult {
     // what it read, so look for one only now that the input is rejected anyway.
     const nul = b.indexOf(0);
     if (nul >= 0) return { cnf: undefined, diagnostics: [place(b, nulByte(nul))] };
-    return { cnf: undefined, diagnostics: [...warnings, place(b, e.finding, origin)] };
+    return { cnf: undefined, diagnostics: [...warnings, placeError(b, e.finding, origin)] };
   }
 }
 

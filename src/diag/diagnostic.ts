@@ -50,23 +50,9 @@ export function locate(bytes: Uint8Array, offset: number, origin = 0): { line: n
   return { line, column: Math.max(offset, origin) - lineStart + 1 };
 }
 
-/**
- * Places a finding in its source. An error met on a line that holds a bare carriage return (a CR
- * not followed by LF: classic Mac line ends, which DIMACS readers do not take as line ends) gets
- * a hint about that instead: the message alone (a header running into the clauses) would not
- * show the cause.
- */
+/** Places a finding in its source. */
 export function place(bytes: Uint8Array, f: Finding, origin = 0): Diagnostic {
   const { line, column } = locate(bytes, f.offset, origin);
-  if (f.severity === "error" && f.code !== "non-ascii-input" && f.code !== "utf16-input" && f.code !== "nul-byte" && f.code !== "io-error") {
-    const lineStart = Math.max(origin, f.offset - column + 1);
-    const end = Math.min(f.offset, bytes.length);
-    for (let i = lineStart; i < end; i++) {
-      if (bytes[i] === 13 && bytes[i + 1] !== 10) {
-        return { ...f, line, column, hint: `the line holds a bare carriage return (CR) at column ${i - lineStart + 1}: lines of a DIMACS file end with LF or CRLF; convert CR line ends, e.g. tr '\\r' '\\n' < OLD.cnf > NEW.cnf` };
-      }
-    }
-  }
   return { ...f, line, column };
 }
 

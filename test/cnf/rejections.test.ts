@@ -57,10 +57,21 @@ describe("bare carriage returns (classic Mac line ends)", () => {
       expect(read(Buffer.from("p cnf 3 2\r\n1 -2 0\r\n2 3 0\r\n", "latin1")).cnf?.clauseStart.length).toBe(3);
       expect(read(Buffer.from("p cnf 3 2\n1 -2 0\r2 3 0\n", "latin1")).cnf?.clauseStart.length).toBe(3);
     }
-    // A bare CR on another line than the error's leaves the error's own hint.
-    const other = scanDimacs(Buffer.from("c a\rb\np cnf 2 1\n1 3 0\n", "latin1")).diagnostics.find((d) => d.severity === "error")!;
-    expect(other.code).toBe("variable-out-of-range");
-    expect(other.hint).not.toMatch(/carriage/);
+    for (const read of [scanDimacs, readWithGrammarSync]) {
+      const error = (src: string) => read(Buffer.from(src, "latin1")).diagnostics.find((d) => d.severity === "error")!;
+      // Elsewhere the error keeps its own hint, and the CR is added to it.
+      const body = error("p cnf 3 2\n1 -2 0\r2 4 0\r");
+      expect(body.code).toBe("variable-out-of-range");
+      expect(body.hint).toMatch(/^declare at least 4 variables in the header: 'p cnf 4 \.\.\.'; this line holds a bare carriage return \(CR\) at column 7, which is not a line end: /);
+      // A comment line holding one swallows what follows (here the header).
+      const comment = error("c made on a Mac\rp cnf 3 2\n1 -2 0\n");
+      expect({ code: comment.code, line: comment.line }).toEqual({ code: "missing-header", line: 2 });
+      expect(comment.hint).toMatch(/; line 1 holds a bare carriage return \(CR\) at column 16, which is not a line end \(the comment runs on past it\): /);
+      // A CR between the tokens of an earlier clause line is only a blank: not named.
+      const blank = error("p cnf 3 2\n1 -2 0\r2 3 0\n1 4 0\n");
+      expect(blank.code).toBe("too-many-clauses");
+      expect(blank.hint).not.toMatch(/carriage/);
+    }
   });
 });
 
