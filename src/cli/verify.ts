@@ -45,7 +45,9 @@ ${ORACLE_HELP}
                               --no-optimize and --check-passes apply only without --circuit)
 ${registerHelp("full")}
   --exhaustive-limit N        check every assignment up to N variables (default ${DEFAULT_EXHAUSTIVE_LIMIT}, at most ${MAX_EXHAUSTIVE_LIMIT})
-  --samples K                 random assignments to sample above the limit (default 4096; 256 for state vectors)
+  --samples K                 random assignments to sample above the limit (default 4096; 256 for state vectors),
+                              distinct up to 40 variables; a sample of half the assignments or more checks
+                              them all instead
   --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
   --conflict-limit N          conflicts the solver may spend finding them (default ${DEFAULT_CONFLICT_LIMIT})
   --seed S                    seed for samples, the solver and measurement outcomes (default 1)

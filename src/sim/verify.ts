@@ -15,7 +15,7 @@ import { K } from "../ir/kinds.js";
 import { completeAssignment, isFullCompletion, type Completion } from "../structure/completion.js";
 import { compileBitProgram, newBlock, runBlock, type BitProgram } from "./bitsim.js";
 import { checkOracleSparse } from "./check.js";
-import { hash3, runVerifyRange, sampleBit, type CompletionProgram, type RangeResult, type VerifyJob } from "./verifyKernel.js";
+import { drawIndex, drawPermuted, hash3, runVerifyRange, sampleBit, unskipped, type CompletionProgram, type RangeResult, type VerifyJob } from "./verifyKernel.js";
 
 /** Options of {@link verifyOracle}. */
 export interface VerifyOptions {
@@ -182,15 +182,15 @@ interface Run {
 }
 
 /**
- * The assignments of a sampled check: solver models, then clause-falsifying ones, then (up to
- * DISTINCT_DRAWS_UP_TO variables) the random ones, all distinct; above that the random ones are
- * drawn by the kernel (hashSamples).
+ * The assignments of a sampled check: random ones drawn by the kernel (distinct, and distinct from
+ * the others, up to DISTINCT_DRAWS_UP_TO variables), then the chosen ones: solver models and
+ * clause-falsifying ones, each once.
  */
 interface SampledInputs {
-  /** Random assignments checked. */
+  /** Random assignments checked (drawn by the kernel, before the chosen ones). */
   readonly samples: number;
-  /** Random assignments the kernel draws itself (0 up to DISTINCT_DRAWS_UP_TO variables). */
-  readonly hashSamples: number;
+  /** Up to DISTINCT_DRAWS_UP_TO variables: the sorted draw indices to skip (see randomPart); else null (hashed draws). */
+  readonly distinct: Float64Array | null;
   readonly explicit: Uint8Array[];
   /** The sample would hold half of all assignments or more: check them all instead. */
   readonly covers: boolean;
@@ -268,33 +268,21 @@ function distinctAssignments(list: Uint8Array[]): Uint8Array[] {
 
 /**
  * The random part of a sample of `samples` over n variables, beside the chosen assignments
- * (exported for the tests).
+ * (exported for the tests). Up to DISTINCT_DRAWS_UP_TO variables the kernel draws them through a
+ * keyed bijection (drawPermuted), skipping the indices whose draw is a chosen assignment: all
+ * distinct, in memory for the chosen ones only.
  * @internal
  */
-export function randomPart(n: number, chosen: Uint8Array[], samples: number, seed: number): Pick<SampledInputs, "samples" | "hashSamples" | "explicit" | "covers"> {
-  if (n > DISTINCT_DRAWS_UP_TO) return { samples, hashSamples: samples, explicit: chosen, covers: false };
-  const space = 2 ** n;
-  if (2 * (samples + chosen.length) >= space) return { samples, hashSamples: 0, explicit: chosen, covers: true };
+export function randomPart(n: number, chosen: Uint8Array[], samples: number, seed: number): Pick<SampledInputs, "samples" | "distinct" | "explicit" | "covers"> {
+  if (n > DISTINCT_DRAWS_UP_TO) return { samples, distinct: null, explicit: chosen, covers: false };
+  if (n <= MAX_EXHAUSTIVE_LIMIT && 2 * (samples + chosen.length) >= 2 ** n) return { samples, distinct: null, explicit: chosen, covers: true };
   const valueOf = (a: Uint8Array): number => {
     let x = 0;
     for (let v = n - 1; v >= 0; v--) x = x * 2 + a[v]!;
     return x;
   };
-  const taken = new Set<number>(chosen.map(valueOf));
-  const drawn: Uint8Array[] = [];
-  // Rejection: the sample is under half of the space, so fewer than two draws per assignment
-  // are expected. Reproducible from the seed.
-  for (let i = 0; drawn.length < samples; i++) {
-    const lo = hash3(seed, i, 0x5a17) >>> 0;
-    const hi = hash3(seed, i, 0x5a18) >>> 0;
-    const x = n <= 32 ? lo % space : (hi % 2 ** (n - 32)) * 2 ** 32 + lo;
-    if (taken.has(x)) continue;
-    taken.add(x);
-    const a = new Uint8Array(n);
-    for (let v = 0, y = x; v < n; v++, y = Math.floor(y / 2)) a[v] = y % 2;
-    drawn.push(a);
-  }
-  return { samples, hashSamples: 0, explicit: [...chosen, ...drawn], covers: false };
+  const skip = Float64Array.from(chosen, (a) => drawIndex(seed, n, valueOf(a))).sort();
+  return { samples, distinct: skip, explicit: chosen, covers: false };
 }
 
 /** Clauses that some assignment falsifies (those without a literal and its negation). */
@@ -360,7 +348,7 @@ async function runBitParallel(
   const reg = (role: string) => circuit.registers.find((r) => r.role === role);
   const models = inputs === null ? new Uint8Array(0) : flatten(inputs.explicit, n);
   const modelCount = inputs === null ? 0 : inputs.explicit.length;
-  const samples = inputs === null ? 0 : inputs.hashSamples;
+  const samples = inputs === null ? 0 : inputs.samples;
   const totalWords = inputs === null ? (n >= 5 ? 2 ** (n - 5) : 1) : Math.ceil((samples + modelCount) / 32);
   const work = reg("work");
   // Words per block: 64, or fewer when a block of that many words over every qubit would be large.
@@ -372,6 +360,7 @@ async function runBitParallel(
     workStart: work?.start ?? 0, workEnd: (work?.start ?? 0) + (work?.size ?? 0),
     seed, mode: inputs === null ? "exhaustive" : "sampled",
     blockWords, fromWord: 0, toWord: totalWords, samples, models, modelCount,
+    ...(inputs?.distinct ? { distinct: { skip: inputs.distinct } } : {}),
     ...(completed === undefined ? {} : { completion: completed }),
   };
   const result = await runJob(job, totalWords, opts);
@@ -513,7 +502,14 @@ function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inpu
   if (inputs === null) for (let x = 0; x < 2 ** n; x++) list.push(x);
   else {
     for (const a of inputs.explicit) assignments.push(Array.from(a, (b) => b === 1));
-    for (let s = 0; s < inputs.hashSamples; s++) assignments.push(Array.from({ length: n }, (_, v) => (hash3(seed, s, v) & 1) === 1));
+    for (let s = 0; s < inputs.samples; s++) {
+      const skip = inputs.distinct;
+      if (skip === null) assignments.push(Array.from({ length: n }, (_, v) => (hash3(seed, s, v) & 1) === 1));
+      else {
+        const x = drawPermuted(seed, n, unskipped(skip, s));
+        assignments.push(Array.from({ length: n }, (_, v) => Math.floor(x / 2 ** v) % 2 === 1));
+      }
+    }
   }
   const total = inputs === null ? list.length : assignments.length;
   let models = 0;

@@ -51,6 +51,11 @@ export interface VerifyJob {
   readonly toWord: number;
   /** Sampled: number of random assignments, then `models` (n bits each, flattened). */
   readonly samples: number;
+  /**
+   * The random assignments are distinct (up to 40 variables): sample s is drawPermuted of the
+   * s-th index not in `skip` (sorted indices whose value is one of the models).
+   */
+  readonly distinct?: { readonly skip: Float64Array };
   readonly models: Uint8Array;
   readonly modelCount: number;
   /** A free register: the expected marking is the formula on the completed assignment. */
@@ -78,9 +83,77 @@ export function hash3(a: number, b: number, c: number): number {
   return (h ^ (h >>> 15)) | 0;
 }
 
+/**
+ * A keyed bijection of [0, 2^n) for n <= 40: a four-round Feistel network on two halves of
+ * ceil(n/2) bits, walked again while the value is 2^n or more (cycle-walking, Black & Rogaway
+ * 2002, from memory). Draws distinct random assignments without storing them.
+ */
+export function drawPermuted(seed: number, n: number, index: number): number {
+  if (n === 0) return 0;
+  const h = (n + 1) >>> 1;
+  const half = 2 ** h;
+  const mask = half - 1;
+  const space = 2 ** n;
+  let x = index;
+  do {
+    let l = Math.floor(x / half);
+    let r = x % half;
+    for (let round = 0; round < 4; round++) {
+      const t = l ^ (hash3(seed, 0x5f3759 + round, r) & mask);
+      l = r;
+      r = t;
+    }
+    x = l * half + r;
+  } while (x >= space);
+  return x;
+}
+
+/** The inverse of {@link drawPermuted}: the index whose draw is x. */
+export function drawIndex(seed: number, n: number, x: number): number {
+  if (n === 0) return 0;
+  const h = (n + 1) >>> 1;
+  const half = 2 ** h;
+  const mask = half - 1;
+  const space = 2 ** n;
+  let y = x;
+  do {
+    let l = Math.floor(y / half);
+    let r = y % half;
+    for (let round = 3; round >= 0; round--) {
+      const t = r ^ (hash3(seed, 0x5f3759 + round, l) & mask);
+      r = l;
+      l = t;
+    }
+    y = l * half + r;
+  } while (y >= space);
+  return y;
+}
+
+/** The s-th index that is not in the sorted list `skip`. */
+export function unskipped(skip: Float64Array, s: number): number {
+  let idx = s;
+  // idx = s + (entries <= idx): a few rounds, each a binary search.
+  for (;;) {
+    let lo = 0;
+    let hi = skip.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (skip[mid]! <= idx) lo = mid + 1;
+      else hi = mid;
+    }
+    if (s + lo === idx) return idx;
+    idx = s + lo;
+  }
+}
+
+/** The value of random lane s < job.samples of a distinct sample. */
+function drawnValue(job: VerifyJob, s: number): number {
+  return drawPermuted(job.seed, job.variables, unskipped(job.distinct!.skip, s));
+}
+
 /** Variable v (0-based) of sampled lane s. */
 export function sampleBit(job: VerifyJob, s: number, v: number): number {
-  if (s < job.samples) return hash3(job.seed, s, v) & 1;
+  if (s < job.samples) return job.distinct !== undefined ? Math.floor(drawnValue(job, s) / 2 ** v) % 2 : hash3(job.seed, s, v) & 1;
   const k = s - job.samples;
   return job.models[k * job.variables + v]!;
 }
@@ -97,6 +170,24 @@ function validLanes(job: VerifyJob, word: number): number {
 function fillSearch(job: VerifyJob, b: BitBlock, word0: number): void {
   const W = b.words;
   const n = job.variables;
+  if (job.mode === "sampled" && job.distinct !== undefined) {
+    // One draw per lane, spread over the variables (n <= 40: two 32-bit halves).
+    b.state.fill(0, 0, n * W);
+    for (let w = 0; w < W; w++) {
+      for (let lane = 0; lane < 32; lane++) {
+        const s = (word0 + w) * 32 + lane;
+        if (s >= job.samples) {
+          for (let v = 0; v < n; v++) b.state[v * W + w]! |= sampleBit(job, s, v) << lane;
+          continue;
+        }
+        const x = drawnValue(job, s);
+        const lo = x % 4294967296;
+        const hi = Math.floor(x / 4294967296);
+        for (let v = 0; v < n; v++) b.state[v * W + w]! |= (v < 32 ? (lo >>> v) & 1 : (hi >>> (v - 32)) & 1) << lane;
+      }
+    }
+    return;
+  }
   for (let v = 0; v < n; v++) {
     for (let w = 0; w < W; w++) {
       const g = word0 + w;

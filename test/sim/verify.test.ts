@@ -9,6 +9,7 @@ import { join, resolve } from "node:path";
 import { ROOT } from "../helpers/cli.js";
 import { evaluate } from "../../dist/src/cnf/evaluate.js";
 import { randomPart } from "../../dist/src/sim/verify.js";
+import { drawIndex, drawPermuted, unskipped } from "../../dist/src/sim/verifyKernel.js";
 import {
   checkOracleSparse, cnfFromClauses, collect, compileOracle, countModels, emitJson, emitQasm3, readCircuit, readDimacs,
   simulateClassical, verifyOracle, type Circuit, type Cnf,
@@ -314,23 +315,46 @@ describe("a sample counts distinct assignments", () => {
     expect(r).toMatchObject({ verified: true, method: "exhaustive", assignments: 8, models: 4, nonModels: 4 });
     expect(r.notes[0]).toMatch(/^the sample asked for \(4096 random and \d+ chosen assignments\) is at least half of the 8 there are/);
   });
-  it("random draws are distinct, differ from the chosen ones and repeat with the seed", () => {
-    for (const n of [9, 12, 20, 33, 40]) {
+  it("random draws are distinct, differ from the chosen ones and repeat with the seed (a keyed bijection, nothing stored)", () => {
+    for (const n of [1, 9, 12, 20, 33, 40]) {
+      const space = 2 ** n;
+      // The permutation is a bijection of [0, 2^n) and its inverse undoes it.
+      const seen = new Set<number>();
+      const probe = Math.min(space, 3000);
+      for (let i = 0; i < probe; i++) {
+        const x = drawPermuted(7, n, i);
+        expect(x >= 0 && x < space && Number.isInteger(x), `n=${n}`).toBe(true);
+        expect(drawIndex(7, n, x)).toBe(i);
+        seen.add(x);
+      }
+      expect(seen.size).toBe(probe);
+      if (n < 4) continue;
       const chosen = [new Uint8Array(n), new Uint8Array(n).fill(1)];
       const samples = n === 9 ? 200 : 1000;
       const a = randomPart(n, chosen, samples, 7);
       expect(a.covers).toBe(false);
-      expect(a.hashSamples).toBe(0);
-      expect(a.explicit.length).toBe(samples + 2);
-      const keys = a.explicit.map((x) => x.join(""));
-      expect(new Set(keys).size, `n=${n}`).toBe(keys.length);
-      expect(randomPart(n, chosen, samples, 7).explicit.map((x) => x.join(""))).toEqual(keys);
+      expect(a.explicit).toHaveLength(2);
+      // The kernel's draws: the s-th index not skipped; none is a chosen value (0 or 2^n - 1).
+      const values = Array.from({ length: samples }, (_, s) => drawPermuted(7, n, unskipped(a.distinct!, s)));
+      expect(new Set(values).size, `n=${n}`).toBe(samples);
+      expect(values.includes(0) || values.includes(space - 1)).toBe(false);
+      expect(randomPart(n, chosen, samples, 7).distinct).toEqual(a.distinct);
     }
-    // 255 + 2 of 512 is not half: drawn; 256 + 2 is: covered.
+    // 253 + 2 of 512 is not half: drawn; 254 + 2 is: covered.
     expect(randomPart(9, [new Uint8Array(9), new Uint8Array(9).fill(1)], 253, 1).covers).toBe(false);
     expect(randomPart(9, [new Uint8Array(9), new Uint8Array(9).fill(1)], 254, 1).covers).toBe(true);
-    // Above 40 variables the kernel draws them (a repeat has probability below 2^-17).
-    expect(randomPart(41, [], 4096, 1)).toMatchObject({ hashSamples: 4096, covers: false });
+    // Above 40 variables the kernel hashes its draws (a repeat has probability below 2^-17); above 36 a sample never turns exhaustive.
+    expect(randomPart(41, [], 4096, 1)).toMatchObject({ distinct: null, covers: false });
+    expect(randomPart(37, [], 2 ** 36, 1).covers).toBe(false);
+  });
+  it("a chosen value that a draw would hit is skipped: every index lands elsewhere", () => {
+    const n = 10;
+    // Choose the values of draws 0, 5 and 6: the sample must step over those indices.
+    const bits = (x: number) => Uint8Array.from({ length: n }, (_, v) => Math.floor(x / 2 ** v) % 2);
+    const chosen = [0, 5, 6].map((i) => bits(drawPermuted(3, n, i)));
+    const a = randomPart(n, chosen, 100, 3);
+    expect(Array.from(a.distinct!)).toEqual([0, 5, 6]);
+    expect(Array.from({ length: 8 }, (_, s) => unskipped(a.distinct!, s))).toEqual([1, 2, 3, 4, 7, 8, 9, 10]);
   });
   it("a sampled check of 11 variables reports distinct assignments only", async () => {
     const cnf = randomKSat(11, 30, 3, 4);
