@@ -135,7 +135,7 @@ export async function forecastInputOf(
   // A named construction (or one chosen within a budget) is costed by itself; else the strategy's row.
   const costs = construction !== undefined
     ? constructionSearchCost(cnf, construction, 1, plan.successProbability, uncompute, registerOptions)
-    : searchCosts(cnf, 1, plan.successProbability, uncompute, registerOptions).find((c) => c.strategy === strategy)!;
+    : searchCosts(cnf, 1, plan.successProbability, uncompute, registerOptions, strategy)[0]!;
   const work = (p: { t_count: number; t_depth: number; toffoli_count: number; cnot_count: number; depth: number }) => ({
     tCount: p.t_count, tDepth: p.t_depth, toffoliCount: p.toffoli_count, cnotCount: p.cnot_count, depth: p.depth,
   });
