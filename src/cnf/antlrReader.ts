@@ -14,7 +14,7 @@ import { DimacsLexer } from "./generated/DimacsLexer.js";
 import { DimacsParser } from "./generated/DimacsParser.js";
 import {
   MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero,
-  placeError, tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
+  crInComment, placeError, tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
 } from "./messages.js";
 import type { ReadResult } from "./scanner.js";
 
@@ -182,6 +182,8 @@ export function readDimacsWithGrammar(b: Uint8Array): ReadResult {
     parser.dimacs();
     const end = builder.end >= 0 ? builder.end : b.length;
     const { lits, starts } = builder;
+    const cr = crInComment(b, origin, end);
+    if (cr !== null) warnings.push(place(b, cr, origin));
     if (builder.pendingZero >= 0) warnings.push(place(b, trailingZeroEndMarker(builder.pendingZero, builder.declared), origin));
     if (lits.length > starts[starts.length - 1]!) {
       warnings.push(place(b, missingTerminator(end), origin));

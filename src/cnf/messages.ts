@@ -249,3 +249,29 @@ export function placeError(bytes: Uint8Array, f: Finding, origin = 0): Diagnosti
   const where = at.line === d.line ? `this line holds a bare carriage return (CR) at column ${at.column}, which is not a line end` : `line ${at.line} holds a bare carriage return (CR) at column ${at.column}, which is not a line end (${runsOn} runs on past it)`;
   return { ...d, hint: `${d.hint === undefined ? "" : `${d.hint}; `}${where}: ${convert}` };
 }
+
+/**
+ * The first comment line (before `end`) that holds a bare carriage return with text after it: a
+ * CR is not a line end, so that text (a header, clauses) was read as part of the comment. A
+ * warning (the input is valid DIMACS), or null. One scan with the native search for CR bytes.
+ */
+export function crInComment(bytes: Uint8Array, origin: number, end: number): Finding | null {
+  for (let i = bytes.indexOf(13, origin); i >= 0 && i < end; i = bytes.indexOf(13, i + 1)) {
+    if (bytes[i + 1] === 10) continue;
+    let k = i + 1;
+    while (k < end && (bytes[k] === 32 || bytes[k] === 9 || bytes[k] === 13)) k++;
+    if (k >= end || bytes[k] === 10) continue;
+    let start = i;
+    while (start > origin && bytes[start - 1] !== 10) start--;
+    while (start < i && (bytes[start] === 32 || bytes[start] === 9)) start++;
+    if (bytes[start] !== 99 /* c */) continue;
+    return {
+      code: "cr-in-comment",
+      severity: "warning",
+      message: "a comment line holds a bare carriage return (CR), which is not a line end: the text after it was read as part of the comment",
+      offset: k,
+      hint: "lines of a DIMACS file end with LF or CRLF; convert CR line ends, e.g. tr '\\r' '\\n' < OLD.cnf > NEW.cnf, and check that the formula is the one meant",
+    };
+  }
+  return null;
+}

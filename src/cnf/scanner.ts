@@ -8,7 +8,7 @@ import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
 import type { Cnf } from "./cnf.js";
 import {
   MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero, nulByte,
-  placeError, tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
+  crInComment, placeError, tooFewClauses, tooManyClauses, trailingZeroEndMarker, unexpected, variableOutOfRange, type Found,
 } from "./messages.js";
 
 /** What a reader returns: the formula when the input is accepted, and every diagnostic. */
@@ -277,6 +277,8 @@ function scanFrom(b: Uint8Array, origin: number, warnings: Diagnostic[]): Cnf {
   let { nc } = st;
   // What follows the end marker is never read, but a NUL byte there still makes the input binary.
   if (end < n && b.indexOf(0, end) >= 0) throw new Stop(nulByte(end));
+  const cr = crInComment(b, origin, end);
+  if (cr !== null) warnings.push(place(b, cr, origin));
   if (st.zeroEnd >= 0) warnings.push(place(b, trailingZeroEndMarker(st.zeroEnd, declared), origin));
   if (nl > starts[nc]!) {
     warnings.push(place(b, missingTerminator(end), origin));

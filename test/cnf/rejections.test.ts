@@ -75,6 +75,21 @@ describe("bare carriage returns (classic Mac line ends)", () => {
   });
 });
 
+describe("a bare CR inside a comment line", () => {
+  it("swallows the rest of the line into the comment: a warning in both readers (the input stays valid), none for CRLF or a trailing CR", () => {
+    for (const read of [scanDimacs, readWithGrammarSync]) {
+      const r = read(Buffer.from("p cnf 2 1\nc x\r1 0\n2 0\n", "latin1"));
+      expect(r.cnf?.clauseStart.length).toBe(2);
+      expect(Array.from(r.cnf!.lits)).toEqual([2]);
+      expect(r.diagnostics).toHaveLength(1);
+      expect(r.diagnostics[0]).toMatchObject({ code: "cr-in-comment", severity: "warning", line: 2, column: 5 });
+      for (const fine of ["p cnf 2 1\r\nc x\r\n1 0\r\n", "p cnf 2 1\nc x\r\n1 0\n", "c note\r\r\np cnf 1 1\n1 0\n", "p cnf 2 2\n1 -2 0\r2 0\n"]) {
+        expect(read(Buffer.from(fine, "latin1")).diagnostics, JSON.stringify(fine)).toEqual([]);
+      }
+    }
+  });
+});
+
 describe("rejected inputs", () => {
   const dir = mkdtempSync(join(tmpdir(), "clausegate-rej-"));
   it.each(cases)("%s", (_what, src, line, column, code) => {
