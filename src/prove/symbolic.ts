@@ -137,6 +137,8 @@ const WORK_BASE = 1_000_000;
  */
 const EFFORT_PER_GATE = 1024;
 const EFFORT_BASE = 20_000_000;
+/** Thrown inside a gate whose expansion passes the effort limit; caught by SymbolicRun.run. */
+const EXHAUSTED = new Error("symbolic run: effort limit reached");
 /** Largest merged parity `regroup` opens inside a path variable's terms, and most terms it writes. */
 const REGROUP_ARITY = 8;
 const REGROUP_TERMS = 4096;
@@ -203,6 +205,8 @@ export class SymbolicRun {
   work = 0;
   /** True when `run` stopped early, its work out of proportion to the circuit. */
   exhausted = false;
+  /** The run's graph-effort limit (see run). */
+  private effortCap = Infinity;
   /**
    * The first Hadamard that met a path variable it could not sum out: its gate, and the
    * path-free factors of that variable's phase terms (the values a wrong gadget's phase depends
@@ -223,11 +227,27 @@ export class SymbolicRun {
 
   /** Runs every gate; returns null, or why a gate could not be simulated. */
   run(): Unsupported | null {
+    // The work limits are checked between gates and, through effortCap, inside the expansion of
+    // one gate's phase terms: a wrong circuit's open paths can make a single gate run for minutes
+    // (a CNOT put twice in a blocks-6 gadget at 60 variables: 100 s in one gate, twice).
+    try {
+      return this.runGates();
+    } catch (e) {
+      if (e !== EXHAUSTED) throw e;
+      this.exhausted = true;
+      return null;
+    } finally {
+      this.effortCap = Infinity;
+    }
+  }
+
+  private runGates(): Unsupported | null {
     const c = this.c;
     const kinds = GATE_KINDS;
     const ctl: number[] = [];
     const limit = WORK_PER_GATE * c.gates + WORK_BASE;
     const effortLimit = EFFORT_PER_GATE * c.gates + EFFORT_BASE;
+    this.effortCap = effortLimit;
     for (let g = 0; g < c.gates; g++) {
       if (this.work > limit || this.g.effort > effortLimit) {
         // This reduction grows out of proportion here (another may not): stop it.
@@ -480,6 +500,7 @@ export class SymbolicRun {
    * only ever occur uncomplemented in monomials.
    */
   private expand(k: number, lit: number, emit: (k: number, m: number) => void): void {
+    if (this.g.effort > this.effortCap) throw EXHAUSTED;
     k &= 7;
     if (k === 0 || lit === FALSE) return;
     if (lit === TRUE) return emit(k, TRUE);

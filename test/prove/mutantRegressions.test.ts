@@ -8,6 +8,8 @@ import { randomKSat } from "../helpers/formulas.js";
 import { edit, failsOn } from "../helpers/prove.js";
 import { compileOracle, proveOracle, type Circuit } from "../helpers/lib.js";
 import { cancelPairs } from "../../dist/src/prove/cancel.js";
+import { formulaLiteral } from "../../dist/src/prove/miter.js";
+import { REDUCTIONS, SymbolicRun } from "../../dist/src/prove/symbolic.js";
 
 const cnf = randomKSat(20, 60, 3, 1020);
 const drop = (c: Circuit, at: number): Circuit => edit(c, (_b, g) => g === at);
@@ -121,5 +123,31 @@ describe("cancelPairs (the exact rewrite before a second symbolic run)", () => {
     expect(Array.from(r.circuit.kind)).toEqual([K.t, K.t, K.h, K.measure]);
     expect(Array.from(r.circuit.ops.subarray(r.circuit.opStart[3]!, r.circuit.opStart[4]!))).toEqual([4, 0]);
     expect(cancelPairs(r.circuit)).toBeNull();
+  });
+});
+
+describe("a reduction stops at its effort limit inside a gate, not only between gates", () => {
+  // The bench sweep's blocks-6 flag oracle with measured uncomputation at 60 variables (bench/prove.ts
+  // mutants: formula seed 1060), its CNOT 14,930 put twice: the third reduction's expansion of one
+  // gate's phase terms ran 108 s and reached 2.1 billion operand reads (50 times the limit) before
+  // the check between gates saw it; the proof took 347 s. Now the run stops at the limit (2 s) and
+  // the simulation that follows refutes the mutant.
+  it("the run ends exhausted within a hair of its limit, and the prover refutes the mutant", () => {
+    const cnf60 = randomKSat(60, 180, 3, 1060);
+    const c = compileOracle(cnf60, { kind: "flag", construction: "blocks-6", basis: "clifford+t", uncompute: "measured", structure: false }).circuit;
+    expect(c.kind[14930]).toBe(K.cx);
+    const mutated = duplicate(c, 14930);
+    const target = c.registers.find((r) => r.role === "target")!.start;
+    const run = new SymbolicRun(mutated, 60, target, REDUCTIONS[2]);
+    const cuts: number[] = [];
+    formulaLiteral(run.g, cnf60, run.vars, cuts);
+    run.g.setCuts(cuts);
+    run.run();
+    const limit = 1024 * mutated.gates + 20_000_000; // EFFORT_PER_GATE x gates + EFFORT_BASE (symbolic.ts)
+    expect(run.exhausted).toBe(true);
+    expect(run.g.effort).toBeLessThan(1.01 * limit);
+    const proof = proveOracle(cnf60, mutated, { kind: "flag" });
+    expect(proof.status).toBe("refuted");
+    expect(failsOn(mutated, cnf60, "flag", proof.counterexample!)).toBe(true);
   });
 });
