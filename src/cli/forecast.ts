@@ -165,7 +165,8 @@ export async function forecastInputOf(
 /**
  * Why there is no quantum estimate when k is beyond the range of a double: the magic states of
  * the expected search (k x the iteration's T-count / P) and the error each may have, in powers of
- * ten. Every tabulated protocol stops some 30 decades short of such errors.
+ * ten. Such a search needs each state below 10^-300 or so, hundreds of decades beyond every
+ * tabulated protocol.
  */
 function beyondDoubles(g: Gathered, m: Machine): string {
   const log10States = g.log2Iterations * Math.log10(2) + Math.log10(g.input.iteration.tCount) - Math.log10(g.successProbability);

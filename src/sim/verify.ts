@@ -244,9 +244,9 @@ function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector:
 }
 
 /**
- * Up to this many variables the random assignments are drawn distinct (and distinct from the
- * chosen ones) here; above it the kernel draws them by hashing, where two of K draws coincide
- * with probability below K^2 / 2^(n+1) (2^-17 for the default 4096).
+ * Up to this many variables the kernel's random assignments are distinct, and distinct from the
+ * chosen ones (a keyed bijection: see randomPart); above it they are hashed, and two of K draws
+ * coincide with probability below K^2 / 2^(n+1) (below 2^-17 for the default 4096).
  */
 const DISTINCT_DRAWS_UP_TO = 40;
 
