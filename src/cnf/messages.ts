@@ -230,12 +230,14 @@ export function placeError(bytes: Uint8Array, f: Finding, origin = 0): Diagnosti
   let cr = -1;
   let runsOn = "";
   let lineStart = origin;
+  // The error's line starts here (its column counts from there): one pass, linear in the offset.
+  const errorLine = f.offset - d.column + 1;
   for (let i = origin; i < end && cr < 0; i++) {
     if (bytes[i] === 10) lineStart = i + 1;
     else if (bytes[i] === 13 && bytes[i + 1] !== 10) {
       let k = lineStart;
       while (k < i && (bytes[k] === 32 || bytes[k] === 9)) k++;
-      const sameLine = !bytes.subarray(i, end).includes(10);
+      const sameLine = i >= errorLine;
       if (sameLine || bytes[k] === 99 /* c */ || bytes[k] === 112 /* p */) {
         cr = i;
         runsOn = bytes[k] === 99 ? "the comment" : "the header";
@@ -256,13 +258,17 @@ export function placeError(bytes: Uint8Array, f: Finding, origin = 0): Diagnosti
  * warning (the input is valid DIMACS), or null. One scan with the native search for CR bytes.
  */
 export function crInComment(bytes: Uint8Array, origin: number, end: number): Finding | null {
+  // Line starts are found going forward (each byte read once): a file of bare CRs alone is one
+  // long line, and walking back from every CR would be quadratic.
+  let lineStart = origin;
+  let scanned = origin;
   for (let i = bytes.indexOf(13, origin); i >= 0 && i < end; i = bytes.indexOf(13, i + 1)) {
     if (bytes[i + 1] === 10) continue;
     let k = i + 1;
     while (k < end && (bytes[k] === 32 || bytes[k] === 9 || bytes[k] === 13)) k++;
     if (k >= end || bytes[k] === 10) continue;
-    let start = i;
-    while (start > origin && bytes[start - 1] !== 10) start--;
+    for (; scanned < i; scanned++) if (bytes[scanned] === 10) lineStart = scanned + 1;
+    let start = lineStart;
     while (start < i && (bytes[start] === 32 || bytes[start] === 9)) start++;
     if (bytes[start] !== 99 /* c */) continue;
     return {
