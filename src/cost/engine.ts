@@ -116,6 +116,11 @@ export interface EngineResult {
   readonly lagShort: boolean;
   /** Run without stage 2, the circuit turned out to have two phase gates or more (see EngineOptions.second). */
   readonly secondNeeded: boolean;
+  /**
+   * True for a Toffoli count tallied from the logical operations (toffolis.ts): `toffoliCount`
+   * and `instances` (operations) hold; the other figures are 0, not counted.
+   */
+  readonly toffoliOnly?: boolean;
 }
 
 const KIND_CX = K.cx;

@@ -24,6 +24,7 @@ import { BUILD_LIMIT, DEFAULT_LAG, HISTORY_BYTES, run } from "./run.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, textbookOracle, wideOracle, type Fraction, type OracleOps } from "./sources.js";
 import { StructuredSource } from "./structuredSource.js";
+import { wideToffolis } from "./toffolis.js";
 import { constructionFamily, constructionName, countConstructionOracle, parseConstruction, type ConstructionFamily } from "./front.js";
 
 /** Options of the cost functions. */
@@ -342,6 +343,8 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // until the mark.
   const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
   const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount, records, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+  // The wide oracle's Toffolis need no replay (toffolis.ts says why none is ever removed).
+  if (s.strategy === "wide" && s.basis === "toffoli" && s.optimize && !s.levels) return wideToffolis(s.f, s.kind, s.uncompute);
   if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || (BLOCKS_IN_AUTO && s.f.clauseStart.length - 1 >= BLOCKS_FROM))) {
     const blocks = new LeanBlocks(s.f, s.kind, mode);
     const r = new BlockCounter(blocks, { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run();
@@ -450,6 +453,9 @@ const MICROS_PER_LITERAL: Record<AnyStrategy, readonly [cliffordT: number, toffo
   textbook: [2.7, 1.8],
 };
 
+/** The same for the wide oracle's Toffoli tally (toffolis.ts), roughly. */
+const TALLY_MICROS_PER_LITERAL = 0.05;
+
 /**
  * The runs of one cost table and what they give: every strategy and uncomputation (the textbook
  * reference too, unless left out), each counted in Clifford+T and in the toffoli basis.
@@ -496,6 +502,8 @@ export class TableCounter {
       else if (sw !== undefined) bytes = levels && uncompute === "unitary" ? (sw + 64) * BYTES_PER_INSTANCE : (f.variables + 64) * BYTES_PER_WIRE;
       // Counted block by block from BLOCKS_FROM clauses (a few MB of states and keys), else a window of instances.
       else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? 16 << 20 : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);
+      // The wide oracle's Toffolis are tallied from its operations, no replay (toffolis.ts).
+      if (strategy === "wide" && !levels && sw === undefined) return { row, basis, weight: L / 20 + 1, seconds: (TALLY_MICROS_PER_LITERAL * L) / 1e6, bytes: 4 * (f.variables + m) };
       return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][levels ? 0 : 1] * literals) / 1e6, bytes };
     }));
   }
