@@ -16,7 +16,9 @@ not shrink the enumeration, every variable occurring in a clause is enumerated (
 them, with splitting and unit propagation).
 
 Options:
-  --json                 print {"variables":..,"clauses":..,"models":..}
+  --json                 print {"variables":..,"clauses":..,"models":..,"log2_models":..}; models
+                         is a number up to 2^53 - 1, a decimal string above (exact either way);
+                         log2_models is its base-2 logarithm (null for 0)
   --max-variables N      refuse to enumerate more than N variables: the free variables left by
                          structure recovery, else those occurring in clauses (default ${DEFAULT_COUNT_LIMIT}, at most ${MAX_COUNT_LIMIT})
   --no-structure         skip structure recovery: enumerate every variable occurring in a clause
@@ -55,9 +57,20 @@ export async function countCommand(argv: string[]): Promise<number> {
   if (!r.ok) throw new UserError(`clausegate count: error: ${r.reason}`);
   const clauses = clauseCount(cnf);
   if (values.json) {
-    process.stdout.write(`{"variables":${cnf.variables},"clauses":${clauses},"models":${r.models}}\n`);
+    // As plan --json does: a count a double cannot hold exactly is a decimal string (JSON readers
+    // parse long number literals into doubles, silently rounded), with its base-2 logarithm beside.
+    const models = r.models <= BigInt(Number.MAX_SAFE_INTEGER) ? String(r.models) : `"${r.models}"`;
+    process.stdout.write(`{"variables":${cnf.variables},"clauses":${clauses},"models":${models},"log2_models":${JSON.stringify(log2Big(r.models))}}\n`);
   } else {
     process.stdout.write(`variables ${cnf.variables}\nclauses   ${clauses}\nmodels    ${r.models}\n`);
   }
   return 0;
+}
+
+/** log2 of a non-negative whole number (null for 0), from its top 53 bits. */
+function log2Big(x: bigint): number | null {
+  if (x === 0n) return null;
+  const bits = x.toString(2).length;
+  if (bits <= 53) return Math.log2(Number(x));
+  return bits - 53 + Math.log2(Number(x >> BigInt(bits - 53)));
 }

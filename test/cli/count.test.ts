@@ -11,11 +11,20 @@ describe("clausegate count", () => {
   it("prints JSON with --json, reading standard input from -", () => {
     const r = cli(["count", "-", "--json"], "p cnf 3 1\n1 2 0\n");
     expect(r.code).toBe(0);
-    expect(JSON.parse(r.stdout)).toEqual({ variables: 3, clauses: 1, models: 6 });
+    expect(JSON.parse(r.stdout)).toEqual({ variables: 3, clauses: 1, models: 6, log2_models: Math.log2(6) });
   });
-  it("prints counts beyond 2^53 exactly in JSON", () => {
+  it("prints counts beyond 2^53 exactly in JSON, as decimal strings a JSON reader cannot round", () => {
     const r = cli(["count", "-", "--json"], "p cnf 70 0\n");
-    expect(r.stdout).toBe(`{"variables":70,"clauses":0,"models":${2n ** 70n}}\n`);
+    expect(r.stdout).toBe(`{"variables":70,"clauses":0,"models":"${2n ** 70n}","log2_models":70}\n`);
+    // 2^53 - 1 is the largest whole number a double holds with all below it (ECMA-262
+    // Number.MAX_SAFE_INTEGER): one clause (1 2) excludes a quarter of the assignments, so 54
+    // variables give 3 * 2^52 models (above: a string) and 53 give 3 * 2^51 (below: a number).
+    const safe = JSON.parse(cli(["count", "-", "--json"], "p cnf 54 1\n1 2 0\n").stdout);
+    expect(safe.models).toBe(String(3n * 2n ** 52n));
+    const small = JSON.parse(cli(["count", "-", "--json"], "p cnf 53 1\n1 2 0\n").stdout);
+    expect(small.models).toBe(3 * 2 ** 51);
+    expect(small.log2_models).toBeCloseTo(Math.log2(3) + 51, 12);
+    expect(JSON.parse(cli(["count", "-", "--json"], "p cnf 1 2\n1 0\n-1 0\n").stdout).log2_models).toBe(null);
   });
   it("warns about a missing final 0 on stderr and still counts", () => {
     const r = cli(["count", "-"], "p cnf 2 1\n1");
