@@ -358,8 +358,29 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
 }
 
 /** Counts a circuit given as logical operations (search parts). */
-function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG): EngineResult {
-  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, { lag, history: 4, wires: base + 64, ids: base + 1024 });
+function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG, sizing: OpsSizing = {}): EngineResult {
+  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, {
+    lag, history: sizing.history ?? 4, wires: base + (sizing.work ?? 0) + 64, ids: base + (sizing.ids ?? sizing.work ?? 0) + 1024,
+    ...(sizing.records ? { records: sizing.records } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}),
+  });
+}
+
+/**
+ * How much a search part's counting holds, known ahead (the tables are sized once: growing them
+ * by half as the wide oracle of a million clauses took its 3 million wires held old and new
+ * copies at once, and four copies per wire took 490 MB where one does).
+ */
+interface OpsSizing {
+  /** Work wires expected. */
+  readonly work?: number;
+  /** Work qubit ids live at once (default: work). */
+  readonly ids?: number;
+  /** Wire-record memory shared by the runs of one search's costs (see EngineOptions.wireMemory). */
+  readonly wireMemory?: WireMemory;
+  /** Copies kept per wire (default 4; a wide oracle's millions of wires: 1, raised if a walk falls short). */
+  readonly history?: number;
+  /** Numbers of the AND records live at once (see countOracle). */
+  readonly records?: number;
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -663,7 +684,11 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
       const src = logicals.source("phase", strategy);
       ops = (sink, ids, p) => src.emit(sink, ids, p);
     }
-    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress);
+    // Sized as countOracle sizes the oracle's own run.
+    const sizing: OpsSizing = logicals.structured(strategy)
+      ? { work: logicals.source("phase", strategy).checkQubits, history: strategy === "wide" ? 1 : 4 }
+      : strategy === "wide" ? { work: f.lits.length, ids: f.clauseStart.length, history: 1, records: 3 * f.lits.length + 2 * f.clauseStart.length + 1024 } : {};
+    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress, sizing);
   });
   progress.emit(1);
   return costs;
@@ -705,23 +730,33 @@ export function constructionSearchCost(
  * totals over the expected runs.
  */
 function searchCostOf<S extends Strategy | ConstructionFamily>(
-  strategy: S, n: number, ops: OracleOps, logical: () => Circuit, oracleWeight: number, iterations: number, successProbability: number, uncompute: Uncompute, progress: Progress,
+  strategy: S, n: number, ops: OracleOps, logical: () => Circuit, oracleWeight: number, iterations: number, successProbability: number, uncompute: Uncompute, progress: Progress, sizing: OpsSizing = {},
 ): Omit<SearchCost, "strategy"> & { readonly strategy: S } {
   const runs = successProbability > 0 ? 1 / successProbability : Infinity;
-  const both = (emit: (low: LoweringStream, ids: VirtualIds, p?: Fraction) => void, w: number, lag?: number): [EngineResult, EngineResult] => {
+  // One wire-record buffer for the six runs, each taking the one before's (a million clauses'
+  // wide oracle: some 240 MB each).
+  const memory: WireMemory = { buffer: null, records: null };
+  // Sized for the whole run (the oracle's wires and the diffusion's) from the first, so that the
+  // buffer is allocated once.
+  sizing = { ...sizing, work: (sizing.work ?? 0) + n, wireMemory: memory };
+  const both = (emit: (low: LoweringStream, ids: VirtualIds, p?: Fraction) => void, w: number, lag: number, size: OpsSizing): [EngineResult, EngineResult] => {
     const p1 = progress.step(w / 2);
     const p2 = progress.step(w / 2);
     return [
-      countOps(n, "clifford+t", uncompute, true, (low, ids) => emit(low, ids, p1), lag),
-      countOps(n, "toffoli", uncompute, false, (low, ids) => emit(low, ids, p2), lag),
+      countOps(n, "clifford+t", uncompute, true, (low, ids) => emit(low, ids, p1), lag, size),
+      countOps(n, "toffoli", uncompute, false, (low, ids) => emit(low, ids, p2), lag, size),
     ];
   };
-  const [oct, otof] = both((low, ids, p) => ops(low, ids, p), oracleWeight);
-  const [dct, dtof] = both((low) => diffusionOps(n, low), 1);
+  const [oct, otof] = both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, sizing);
+  const [dct, dtof] = both((low) => diffusionOps(n, low), 1, DEFAULT_LAG, { work: n, wireMemory: memory });
   // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
-  // templates, so that the cancellations at those seams stay inside the window.
-  const lag = Math.min(MAX_LAG, 2 ** Math.ceil(Math.log2(2 * (oct.instances + dct.instances) + DEFAULT_LAG)));
-  const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight, lag);
+  // templates, so that the cancellations at those seams stay inside the window. With one
+  // iteration, the diffusion's tree still takes the wires the oracle freed last, the k-th AND
+  // the k-th last freed, with the H and X layers between: some 7n instances at most (a million
+  // clauses, n = 234,740: the default window fell short, the whole run was kept, 1.6 GB).
+  const reach = iterations <= 1 ? 8 * n : 2 * (oct.instances + dct.instances);
+  const lag = Math.min(MAX_LAG, 2 ** Math.ceil(Math.log2(reach + DEFAULT_LAG)));
+  const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight, lag, sizing);
   let oracle = part(oct, otof);
   let diffusion = part(dct, dtof);
   let whole = part(wct, wtof);
