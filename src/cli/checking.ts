@@ -178,7 +178,7 @@ export function reportLines(r: VerifyResult, file: string): string[] {
       ? `none, as the CDCL solver proved in ${plural(s.conflicts, "conflict")}`
       : s.status === "unknown"
         ? `none found by the CDCL solver within its budget of ${plural(s.conflictLimit, "conflict")}`
-        : `${s.found} found by the CDCL solver in ${plural(s.conflicts, "conflict")}${s.all ? " (all there are)" : ""}`;
+        : `${r.register === "free" ? `${plural(s.found, "register value")} of the models` : s.found} found by the CDCL solver in ${plural(s.conflicts, "conflict")}${s.all ? " (all there are)" : ""}`;
     lines.push(`models: ${found}; also checked: ${plural(r.falsifying, "assignment")} falsifying one clause each, ${r.samples} random`);
   }
   for (const note of r.notes) lines.push(`note: ${note}`);

@@ -48,7 +48,7 @@ export interface VerifyOptions {
 export interface ModelSearchReport {
   /** "sat": models found; "unsat": the solver proved there are none; "unknown": its budget ran out first. */
   readonly status: "sat" | "unsat" | "unknown";
-  /** Distinct models the solver found and the check included. */
+  /** Distinct models the solver found and the check included (for a free register: distinct register values of them). */
   readonly found: number;
   /** True when they are all the formula has. */
   readonly all: boolean;
@@ -208,7 +208,9 @@ function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector:
     // A free register: the models' register values (marked), and each with one register bit
     // flipped (mostly unmarked: just outside the projection).
     const reg = completion.register;
-    const projected = found.models.map((m) => Uint8Array.from(reg, (v) => m[v - 1]!));
+    // Models that differ only outside the register (a variable in no open clause) give one
+    // register value: counted once, here and in the report.
+    const projected = distinctAssignments(found.models.map((m) => Uint8Array.from(reg, (v) => m[v - 1]!)));
     const flipped: Uint8Array[] = [];
     for (let j = 0; j < FALSIFYING && reg.length > 0; j++) {
       const a = projected.length > 0 ? projected[j % projected.length]!.slice() : Uint8Array.from(reg, (_, i) => hash3(seed, -1 - j, i) & 1);
@@ -216,7 +218,7 @@ function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector:
       flipped.push(a);
     }
     const chosen = distinctAssignments([...projected, ...flipped]);
-    return { ...randomPart(reg.length, chosen, opts.samples ?? (stateVector ? 256 : 4096), seed), search, falsifying: chosen.length - distinctAssignments(projected).length, hasNonModels: true };
+    return { ...randomPart(reg.length, chosen, opts.samples ?? (stateVector ? 256 : 4096), seed), search: { ...search, found: projected.length }, falsifying: chosen.length - projected.length, hasNonModels: true };
   }
   const { clauses, hasNonModels } = falsifiable(cnf);
   // Each assignment falsifies one clause and, where a model was found, agrees with it elsewhere:

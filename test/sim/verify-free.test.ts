@@ -3,7 +3,7 @@
 // simulators and in workers; a failure names the register value and its completion.
 import { describe, expect, it } from "vitest";
 import { multiplier, randomCircuit, type Encoded } from "../helpers/encoders.js";
-import { colouring } from "../helpers/formulas.js";
+import { colouring, rng } from "../helpers/formulas.js";
 import { cnfFromClauses, compileOracle, evaluate, fullCompletion, verifyOracle, type Cnf } from "../helpers/lib.js";
 
 const cnfOf = (f: Encoded): Cnf => cnfFromClauses(f.variables, f.clauses);
@@ -88,5 +88,35 @@ describe("verifyOracle with a free register", () => {
     expect(r).toMatchObject({ verified: true, method: "exhaustive", register: "free" });
     const others = cnf.variables - o.register.length - o.completion.fixed.length - o.completion.definitions.length;
     expect(r.models * 2 ** others).toBe(2184);
+  });
+});
+
+describe("verifyOracle's model search over a free register", () => {
+  it("counts distinct register values, not models that differ only outside the register", async () => {
+    // A seeded random 3-SAT formula over variables 1 to 14 (near the threshold: few models);
+    // variables 15 to 17 occur in no clause: each model of 1..14 comes with all 8 values of
+    // them, and all 8 have the same register value.
+    const r3 = rng(20261203);
+    const clauses = Array.from({ length: 52 }, () => {
+      const vs = new Set<number>();
+      while (vs.size < 3) vs.add(1 + Math.floor(r3() * 14));
+      return [...vs].map((v) => (r3() < 0.5 ? v : -v));
+    });
+    const cnf = cnfFromClauses(17, clauses);
+    const o = compileOracle(cnf, { register: "free", basis: "toffoli", uncompute: "measured" });
+    const r = await verifyOracle(cnf, o.circuit, { completion: o.completion, exhaustiveLimit: 1, samples: 2, models: 1000, threads: 1 });
+    expect(r).toMatchObject({ verified: true, method: "sampled", register: "free" });
+    // Expected by enumeration: the distinct register values of the models (the solver found them all).
+    const values = new Set<string>();
+    let models = 0;
+    for (let x = 0; x < 1 << 17; x++) {
+      const a = Array.from({ length: 17 }, (_, v) => (x >> v) & 1);
+      if (!evaluate(cnf, Uint8Array.from(a))) continue;
+      models++;
+      values.add(Array.from(o.register, (v) => a[v - 1]).join(""));
+    }
+    expect(r.modelSearch).toMatchObject({ status: "sat", all: true });
+    expect(models).toBeGreaterThan(values.size);
+    expect(r.modelSearch!.found).toBe(values.size);
   });
 });
