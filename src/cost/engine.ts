@@ -69,6 +69,12 @@ export interface EngineOptions {
   /** With lag Infinity: instances expected (sizes the ring once). */
   readonly ring?: number;
   /**
+   * Use the whole lag from the first instance (default false: the window starts short and grows
+   * with the stream, so that small circuits stay cheap, which makes a stream whose cancellations
+   * reach far early on fall short, e.g. a search's second iteration taking up the first one's wires).
+   */
+  readonly eagerLag?: boolean;
+  /**
    * A holder for the per-wire records' memory, shared by the runs of one cost table: a run takes
    * the buffer left by the one before (a million clauses' wide oracle needs some 200 MB of them)
    * instead of allocating its own while the last one waits for the garbage collector.
@@ -235,7 +241,7 @@ export class CountingEngine implements InstanceSink {
     this.levels = opts.levels;
     this.second = opts.second ?? true;
     this.maxLag = opts.lag ?? 65536;
-    this.lag = this.maxLag === Infinity ? Infinity : Math.min(1024, this.maxLag);
+    this.lag = this.maxLag === Infinity || opts.eagerLag === true ? this.maxLag : Math.min(1024, this.maxLag);
     this.ringSize = 0;
     this.ringMask = 0;
     this.rT = new Uint8Array(0);

@@ -362,6 +362,7 @@ function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Unco
   return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, {
     lag, history: sizing.history ?? 4, wires: base + (sizing.work ?? 0) + 64, ids: base + (sizing.ids ?? sizing.work ?? 0) + 1024,
     ...(sizing.records ? { records: sizing.records } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}),
+    ...(sizing.ring ? { ring: sizing.ring } : {}), ...(sizing.eagerLag ? { eagerLag: true } : {}),
   });
 }
 
@@ -381,6 +382,10 @@ interface OpsSizing {
   readonly history?: number;
   /** Numbers of the AND records live at once (see countOracle). */
   readonly records?: number;
+  /** With an infinite lag: instances expected (the ring sized once). */
+  readonly ring?: number;
+  /** The whole window from the first instance (see EngineOptions.eagerLag). */
+  readonly eagerLag?: boolean;
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -686,7 +691,7 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
     }
     // Sized as countOracle sizes the oracle's own run.
     const sizing: OpsSizing = logicals.structured(strategy)
-      ? { work: logicals.source("phase", strategy).checkQubits, history: strategy === "wide" ? 1 : 4 }
+      ? strategy === "wide" ? { work: logicals.source("phase", strategy).checkQubits, history: 1 } : { ids: logicals.source("phase", strategy).checkQubits }
       : strategy === "wide" ? { work: f.lits.length, ids: f.clauseStart.length, history: 1, records: 3 * f.lits.length + 2 * f.clauseStart.length + 1024 } : {};
     return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress, sizing);
   });
@@ -754,9 +759,15 @@ function searchCostOf<S extends Strategy | ConstructionFamily>(
   // iteration, the diffusion's tree still takes the wires the oracle freed last, the k-th AND
   // the k-th last freed, with the H and X layers between: some 7n instances at most (a million
   // clauses, n = 234,740: the default window fell short, the whole run was kept, 1.6 GB).
+  // The window is whole from the first instance (eagerLag: a growing one is still short when the
+  // second iteration starts). Everything is kept instead when the window's ring (twice the window)
+  // would hold the whole run, or when the reach exceeds the longest window (it would fall short,
+  // then keep everything anyway).
   const reach = iterations <= 1 ? 8 * n : 2 * (oct.instances + dct.instances);
-  const lag = Math.min(MAX_LAG, 2 ** Math.ceil(Math.log2(reach + DEFAULT_LAG)));
-  const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight, lag, sizing);
+  const total = iterations * (oct.instances + dct.instances) + 4 * n + 64;
+  const window = 2 ** Math.ceil(Math.log2(reach + DEFAULT_LAG));
+  const keepAll = 2 * window >= total || window > MAX_LAG;
+  const [wct, wtof] = both((low, ids, p) => searchOps(n, ops, iterations, true, low, ids, p), iterations * oracleWeight, keepAll ? Infinity : window, keepAll ? { ...sizing, ring: total } : { ...sizing, eagerLag: true });
   let oracle = part(oct, otof);
   let diffusion = part(dct, dtof);
   let whole = part(wct, wtof);
