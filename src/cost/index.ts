@@ -689,11 +689,17 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
       const src = logicals.source("phase", strategy);
       ops = (sink, ids, p) => src.emit(sink, ids, p);
     }
-    // Sized as countOracle sizes the oracle's own run.
-    const sizing: OpsSizing = logicals.structured(strategy)
-      ? strategy === "wide" ? { work: logicals.source("phase", strategy).checkQubits, history: 1 } : { ids: logicals.source("phase", strategy).checkQubits }
-      : strategy === "wide" ? { work: f.lits.length, ids: f.clauseStart.length, history: 1, records: 3 * f.lits.length + 2 * f.clauseStart.length + 1024 } : {};
-    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress, sizing);
+    // Sized as countOracle sizes the oracle's own run; a structured lean oracle whose work ids
+    // stay idle longer than the window (far seams, see countOracle) is kept whole from the start.
+    let sizing: OpsSizing = {};
+    let farOracle: number | null = null;
+    if (logicals.structured(strategy)) {
+      const src = logicals.source("phase", strategy);
+      sizing = strategy === "wide" ? { work: src.checkQubits, history: 1 } : { ids: src.checkQubits };
+      const idle = strategy === "lean" && uncompute === "unitary" ? src.idleStretch() : null;
+      if (idle !== null && idle.longest >= DEFAULT_LAG) farOracle = idle.operations;
+    } else if (strategy === "wide") sizing = { work: f.lits.length, ids: f.clauseStart.length, history: 1, records: 3 * f.lits.length + 2 * f.clauseStart.length + 1024 };
+    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress, sizing, farOracle);
   });
   progress.emit(1);
   return costs;
@@ -735,7 +741,7 @@ export function constructionSearchCost(
  * totals over the expected runs.
  */
 function searchCostOf<S extends Strategy | ConstructionFamily>(
-  strategy: S, n: number, ops: OracleOps, logical: () => Circuit, oracleWeight: number, iterations: number, successProbability: number, uncompute: Uncompute, progress: Progress, sizing: OpsSizing = {},
+  strategy: S, n: number, ops: OracleOps, logical: () => Circuit, oracleWeight: number, iterations: number, successProbability: number, uncompute: Uncompute, progress: Progress, sizing: OpsSizing = {}, farOracle: number | null = null,
 ): Omit<SearchCost, "strategy"> & { readonly strategy: S } {
   const runs = successProbability > 0 ? 1 / successProbability : Infinity;
   // One wire-record buffer for the six runs, each taking the one before's (a million clauses'
@@ -752,7 +758,9 @@ function searchCostOf<S extends Strategy | ConstructionFamily>(
       countOps(n, "toffoli", uncompute, false, (low, ids) => emit(low, ids, p2), lag, size),
     ];
   };
-  const [oct, otof] = both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, sizing);
+  const [oct, otof] = farOracle === null
+    ? both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, sizing)
+    : both((low, ids, p) => ops(low, ids, p), oracleWeight, Infinity, { ...sizing, ring: farOracle + 64 });
   const [dct, dtof] = both((low) => diffusionOps(n, low), 1, DEFAULT_LAG, { work: n, wireMemory: memory });
   // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
   // templates, so that the cancellations at those seams stay inside the window. With one
