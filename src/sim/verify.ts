@@ -212,9 +212,13 @@ function sampledInputs(cnf: Cnf, opts: VerifyOptions, seed: number, stateVector:
     // register value: counted once, here and in the report.
     const projected = distinctAssignments(found.models.map((m) => Uint8Array.from(reg, (v) => m[v - 1]!)));
     const flipped: Uint8Array[] = [];
+    // Flip j: value j mod p, bit floor(j / p) mod r (p values found, r register bits), so that
+    // every (value, bit) pair comes up when there are at most FALSIFYING of them (value j mod p
+    // with bit j mod r left half the pairs out when p and r share a factor).
+    const p = projected.length;
     for (let j = 0; j < FALSIFYING && reg.length > 0; j++) {
-      const a = projected.length > 0 ? projected[j % projected.length]!.slice() : Uint8Array.from(reg, (_, i) => hash3(seed, -1 - j, i) & 1);
-      a[j % reg.length]! ^= 1;
+      const a = p > 0 ? projected[j % p]!.slice() : Uint8Array.from(reg, (_, i) => hash3(seed, -1 - j, i) & 1);
+      a[Math.floor(j / Math.max(1, p)) % reg.length]! ^= 1;
       flipped.push(a);
     }
     const chosen = distinctAssignments([...projected, ...flipped]);

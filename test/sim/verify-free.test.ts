@@ -120,3 +120,19 @@ describe("verifyOracle's model search over a free register", () => {
     expect(r.modelSearch!.found).toBe(values.size);
   });
 });
+
+describe("verifyOracle's chosen neighbours over a free register", () => {
+  it("flips every bit of every register value found when there are at most 32 such pairs", async () => {
+    // x1 = x2 = ... = x10 as a chain of implications and x11 fixed by a unit clause, structure
+    // recovery off: a register of the 10 free variables and 2 models (all 0, all 1). Their 20
+    // one-bit neighbours are all non-models; each must be checked (value j mod 2 with bit j mod 10
+    // reached only 10 of them).
+    const clauses = [...Array.from({ length: 9 }, (_, i) => [[-(i + 1), i + 2], [i + 1, -(i + 2)]]).flat(), [11]];
+    const cnf = cnfFromClauses(11, clauses);
+    const o = compileOracle(cnf, { register: "free", structure: false, basis: "toffoli", uncompute: "measured" });
+    expect(o.register.length).toBe(10);
+    const r = await verifyOracle(cnf, o.circuit, { completion: o.completion, exhaustiveLimit: 1, samples: 2, threads: 1 });
+    expect(r).toMatchObject({ verified: true, method: "sampled", register: "free", modelSearch: { found: 2, all: true } });
+    expect(r.falsifying).toBe(20);
+  });
+});
