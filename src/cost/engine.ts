@@ -75,6 +75,11 @@ export interface EngineOptions {
    */
   readonly eagerLag?: boolean;
   /**
+   * Report when the last this-many wires still free at the end were freed (EngineResult.freedAt):
+   * a search's diffusion takes them up next (see cost/index.ts searchCostOf).
+   */
+  readonly keepFreed?: number;
+  /**
    * A holder for the per-wire records' memory, shared by the runs of one cost table: a run takes
    * the buffer left by the one before (a million clauses' wide oracle needs some 200 MB of them)
    * instead of allocating its own while the last one waits for the garbage collector.
@@ -122,6 +127,11 @@ export interface EngineResult {
   readonly lagShort: boolean;
   /** Run without stage 2, the circuit turned out to have two phase gates or more (see EngineOptions.second). */
   readonly secondNeeded: boolean;
+  /**
+   * With EngineOptions.keepFreed: the instance numbers at which the wires still free at the end
+   * were freed, the last `keepFreed` of them, oldest first (reuse takes the last one first).
+   */
+  readonly freedAt?: Int32Array;
   /**
    * True for a Toffoli count tallied from the logical operations (toffolis.ts): `toffoliCount`
    * and `instances` (operations) hold; the other figures are 0, not counted.
@@ -211,7 +221,10 @@ export class CountingEngine implements InstanceSink {
   private wireOf: Int32Array = new Int32Array(1024).fill(-1);
   /** Wires given back, a stack (reuse takes the last one given back). */
   private freeWires = new Int32Array(256);
+  /** The instance at which each wire of freeWires was freed. */
+  private freedAt = new Int32Array(256);
   private freeTop = 0;
+  private readonly keepFreed: number;
   private workWires = 0;
 
   // Figures.
@@ -262,6 +275,7 @@ export class CountingEngine implements InstanceSink {
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
     this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
     this.truncated = opts.truncated ?? null;
+    this.keepFreed = opts.keepFreed ?? 0;
   }
 
   /** A ring for the current lag (at least twice the lag and a margin for walks), entries kept. */
@@ -449,7 +463,11 @@ export class CountingEngine implements InstanceSink {
           const f = new Int32Array(this.freeWires.length * 2);
           f.set(this.freeWires);
           this.freeWires = f;
+          const g = new Int32Array(this.freedAt.length * 2);
+          g.set(this.freedAt);
+          this.freedAt = g;
         }
+        this.freedAt[this.freeTop] = id;
         this.freeWires[this.freeTop++] = this.wireOf[v]!;
         this.wireOf[v] = -1;
       }
@@ -496,6 +514,7 @@ export class CountingEngine implements InstanceSink {
       historyShort: this.historyShort,
       lagShort: this.lagShort,
       secondNeeded,
+      ...(this.keepFreed > 0 ? { freedAt: this.freedAt.slice(Math.max(0, this.freeTop - this.keepFreed), this.freeTop) } : {}),
     };
   }
 

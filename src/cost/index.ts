@@ -362,7 +362,7 @@ function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Unco
   return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, {
     lag, history: sizing.history ?? 4, wires: base + (sizing.work ?? 0) + 64, ids: base + (sizing.ids ?? sizing.work ?? 0) + 1024,
     ...(sizing.records ? { records: sizing.records } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}),
-    ...(sizing.ring ? { ring: sizing.ring } : {}), ...(sizing.eagerLag ? { eagerLag: true } : {}),
+    ...(sizing.ring ? { ring: sizing.ring } : {}), ...(sizing.eagerLag ? { eagerLag: true } : {}), ...(sizing.keepFreed ? { keepFreed: sizing.keepFreed } : {}),
   });
 }
 
@@ -386,6 +386,8 @@ interface OpsSizing {
   readonly ring?: number;
   /** The whole window from the first instance (see EngineOptions.eagerLag). */
   readonly eagerLag?: boolean;
+  /** See EngineOptions.keepFreed. */
+  readonly keepFreed?: number;
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -529,7 +531,7 @@ export class TableCounter {
       // Counted block by block from BLOCKS_FROM clauses (a few MB of states and keys), else a window of instances.
       else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? 16 << 20 : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);
       // The wide oracle's Toffolis are tallied from its operations, no replay (toffolis.ts).
-      if (strategy === "wide" && !levels && sw === undefined) return { row, basis, weight: L / 20 + 1, seconds: (TALLY_MICROS_PER_LITERAL * L) / 1e6, bytes: 4 * (f.variables + m) };
+      if (strategy === "wide" && !levels && sw === undefined) return { row, basis, weight: L / 20 + 1, seconds: (TALLY_MICROS_PER_LITERAL * L) / 1e6, bytes: 4 * f.variables + 12 * m };
       return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][levels ? 0 : 1] * literals) / 1e6, bytes };
     }));
   }
@@ -695,6 +697,8 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
     let farOracle: number | null = null;
     if (logicals.structured(strategy)) {
       const src = logicals.source("phase", strategy);
+      // One copy per wire: a run that falls short goes again with more (bw_large.d's wide search
+      // run does not: 3.3 s and 203 MB, against 6.6 s and 368 MB with countOracle's 16).
       sizing = strategy === "wide" ? { work: src.checkQubits, history: 1 } : { ids: src.checkQubits };
       const idle = strategy === "lean" && uncompute === "unitary" ? src.idleStretch() : null;
       if (idle !== null && idle.longest >= DEFAULT_LAG) farOracle = idle.operations;
@@ -758,20 +762,30 @@ function searchCostOf<S extends Strategy | ConstructionFamily>(
       countOps(n, "toffoli", uncompute, false, (low, ids) => emit(low, ids, p2), lag, size),
     ];
   };
+  // The oracle's runs say when the wires free at their end were freed: the diffusion's tree takes
+  // the last n of them (its n - 2 ANDs).
   const [oct, otof] = farOracle === null
-    ? both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, sizing)
-    : both((low, ids, p) => ops(low, ids, p), oracleWeight, Infinity, { ...sizing, ring: farOracle + 64 });
+    ? both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, { ...sizing, keepFreed: n })
+    : both((low, ids, p) => ops(low, ids, p), oracleWeight, Infinity, { ...sizing, ring: farOracle + 64, keepFreed: n });
   const [dct, dtof] = both((low) => diffusionOps(n, low), 1, DEFAULT_LAG, { work: n, wireMemory: memory });
   // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
   // templates, so that the cancellations at those seams stay inside the window. With one
   // iteration, the diffusion's tree still takes the wires the oracle freed last, the k-th AND
-  // the k-th last freed, with the H and X layers between: some 7n instances at most (a million
-  // clauses, n = 234,740: the default window fell short, the whole run was kept, 1.6 GB).
+  // the k-th last freed (an AND's opening H cancels the closing H of the uncompute that freed
+  // the wire): the reach is from the oldest of those frees to the end of the diffusion (a million
+  // clauses: the default window fell short, the whole run was kept, 1.6 GB).
   // The window is whole from the first instance (eagerLag: a growing one is still short when the
   // second iteration starts). Everything is kept instead when the window's ring (twice the window)
   // would hold the whole run, or when the reach exceeds the longest window (it would fall short,
   // then keep everything anyway).
-  const reach = iterations <= 1 ? 8 * n : 2 * (oct.instances + dct.instances);
+  const since = (r: EngineResult): number => {
+    const need = Math.max(0, n - 2);
+    const at = r.freedAt;
+    return at === undefined || need > at.length ? r.instances : need === 0 ? 0 : r.instances - at[at.length - need]!;
+  };
+  // The diffusion's ANDs come in its first half (H and X layers, the tree; then its undo and the
+  // H layer again).
+  const reach = iterations <= 1 ? Math.max(since(oct), since(otof)) + Math.ceil(Math.max(dct.instances, dtof.instances) / 2) + n : 2 * (oct.instances + dct.instances);
   const total = iterations * (oct.instances + dct.instances) + 4 * n + 64;
   const window = 2 ** Math.ceil(Math.log2(reach + DEFAULT_LAG));
   const keepAll = 2 * window >= total || window > MAX_LAG;

@@ -18,7 +18,7 @@ export const HISTORY_BYTES = 256 << 20;
  * or a cancellation across a long stretch), runs it again keeping more, and at last everything,
  * where nothing can fall short: a shortfall never reaches a result.
  */
-export function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number; eagerLag?: boolean }): EngineResult {
+export function run(base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number; eagerLag?: boolean; keepFreed?: number }): EngineResult {
   let { lag, history } = sizing;
   let wires = sizing.wires;
   // Instances expected when everything is kept (the ring sized once; it grows if there are more).
@@ -27,7 +27,7 @@ export function run(base: number, optimize: boolean, levels: boolean, mode: { ba
   // without the second cancel-inverses, which the pipeline then skips.
   let second = levels;
   for (let attempt = 0; ; attempt++) {
-    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(ring > 0 ? { ring } : {}), ...(sizing.eagerLag ? { eagerLag: true } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
+    const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, ...(ring > 0 ? { ring } : {}), ...(sizing.eagerLag ? { eagerLag: true } : {}), ...(sizing.keepFreed ? { keepFreed: sizing.keepFreed } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
     const ids = new VirtualIds(base);
     const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
     emit(low, ids);

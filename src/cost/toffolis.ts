@@ -6,16 +6,19 @@
  * Why no Toffoli of that circuit is ever removed by the passes (so the count is the lowering's):
  * cancel-inverses removes a CCX only against an identical one (same target, same controls) with
  * nothing between them on their qubits that fails to commute with it. Every AND node of the wide
- * oracle (a clause's 2-input ANDs, the mark's tree) has a target of its own, taken fresh and held
- * until that node is uncomputed, so the only identical pairs are a node's compute and its unitary
- * uncompute. Between the two, the node's target is a control of the gate that consumes it: its
+ * oracle (a clause's 2-input ANDs, the mark's tree) has a target of its own: work-qubit reuse
+ * (reuseWork) renumbers work qubits, but the wide oracle frees none before the mark and takes
+ * none after it, so no two nodes share a wire, and the only identical pairs are a node's compute
+ * and its unitary uncompute. Between the two, the node's target is a control of the gate that consumes it: its
  * parent node's CCX, or the mark's last gate (CZ, Z, CX or CCX onto the flag), all of which act
  * diagonally on that qubit while the pair acts as X there: they do not commute. The consumer is
  * itself never removed: the mark's last gate has no identical partner, and a parent node's pair is
  * blocked the same way by its own consumer (induction from the mark down the trees). Lazy X gates
- * on the target between the pair do not change this. merge-phases and the second cancel-inverses
- * see no phase gates in the toffoli basis, and fold-x-polarity and drop-identities leave CCX gates
- * alone (engine.ts). A test holds the tally equal to the engine on random formulas of widths 1 to 20.
+ * on the target between the pair do not change this. merge-phases meets at most one phase gate in
+ * the toffoli basis (the mark's Z, when it has one control) and so changes nothing, and fold-x-polarity and
+ * drop-identities leave CCX gates alone (engine.ts). test/cost/toffolis.test.ts holds the tally
+ * equal to the built circuits on 300 random formulas of widths 1 to 20, and to the engine's replay
+ * on two formulas with long clauses and shared prefixes.
  */
 import type { OracleKind, SimplifiedCnf } from "../synth/index.js";
 import type { Uncompute } from "../passes/lower.js";
