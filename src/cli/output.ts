@@ -75,7 +75,9 @@ function destination(path: string, what: string): { dest: string; existing: Stat
     } else existing = l;
   } catch (e) {
     if (e instanceof OutputError) throw e;
-    if ((e as { code?: string }).code !== "ENOENT") throw e;
+    // A name too long, a path through a regular file, a folder not readable: nothing can be
+    // written there; said in one line, as for the write itself.
+    if ((e as { code?: string }).code !== "ENOENT") throw new OutputError(`${path}: error: cannot write ${what} (${reason(e)}); hint: name a writable file`);
   }
   if (existing !== undefined && !existing.isFile()) {
     throw new OutputError(`${path}: error: refusing to replace ${kindOf(existing)} with ${what}; hint: name a regular file${existing.isDirectory() ? " inside it" : ", or - for standard output"}`);

@@ -82,6 +82,20 @@ describe("output destinations", () => {
     expect(r.code).toBe(0);
     expect(existsSync(name)).toBe(true);
   });
+  it("refuses a name too long for the file system and a path through a regular file: one line, exit 2", () => {
+    // 256 bytes: one more than Linux's NAME_MAX (limits.h), for the circuit and for the report.
+    for (const args of [["-o", join(dir, "o".repeat(251) + ".qasm")], ["--report", join(dir, "r".repeat(251) + ".json")]]) {
+      const r = cli(["oracle", EXAMPLE, ...args]);
+      expect(r.code).toBe(2);
+      oneLine(r.stderr);
+      expect(r.stderr).toMatch(/cannot write the (circuit|report) \(the name is too long\); hint: /);
+    }
+    const through = cli(["oracle", EXAMPLE, "-o", join(EXAMPLE, "x.qasm")]);
+    expect(through.code).toBe(2);
+    oneLine(through.stderr);
+    expect(through.stderr).toMatch(/a part of the path is not a folder/);
+    expect(leftovers(dir)).toEqual([]);
+  });
   it("keeps the mode of a file it replaces", () => {
     const out = join(dir, "mode.qasm");
     writeFileSync(out, "old\n");
