@@ -5,7 +5,7 @@
  */
 import { basisTerm, compileSearch, runSparse, seededRandom, type Cnf, type OracleOptions } from "../internal.js";
 import { displayName, MAX_CIRCUIT_VARIABLES, UserError } from "./io.js";
-import { intOption } from "./options.js";
+import { constructionLabel, constructionPhrase, intOption } from "./options.js";
 import { bitsText, completeValue, modelLine, parseRegisterValue, registerText, type SearchProblem } from "./register.js";
 
 /** Largest search register --shots simulates (2^16 basis states in superposition). */
@@ -112,7 +112,7 @@ export function shotLines(file: string, cnf: Cnf, p: SearchProblem, o: OracleOpt
   for (let x = 0; x < size; x++) if (probability[x]! > 0 && completion(x).satisfies) success += probability[x]!;
   const lines = [
     `formula: ${displayName(file)}; search register: ${p.n} qubit${p.n === 1 ? "" : "s"}, ${registerText(p)}`,
-    `simulated: the search circuit (${K} iteration${K === 1 ? "" : "s"}, strategy ${o.strategy}, basis ${o.basis}, uncompute ${o.uncompute}) on the exact state-vector simulator, ${shots} shot${shots === 1 ? "" : "s"} drawn with seed ${seed}`,
+    `simulated: the search circuit (${K} iteration${K === 1 ? "" : "s"}, ${constructionPhrase(constructionLabel(o))}, basis ${o.basis}, uncompute ${o.uncompute}) on the exact state-vector simulator, ${shots} shot${shots === 1 ? "" : "s"} drawn with seed ${seed}`,
     `probability that a shot completes to a model: ${Number(success.toPrecision(10))}`,
   ];
   let models = 0;

@@ -132,6 +132,8 @@ describe("search: measured values completed to models", { timeout: 120_000 }, ()
         if (m![3] === "a model") models++;
       }
       expect(r.stdout).toContain(`models among the shots: ${models} of 40`);
+      // The construction simulated is named (the default: wide), never "undefined".
+      expect(r.stdout).toMatch(/simulated: the search circuit \(\d+ iterations?, strategy wide, basis /);
     }
   });
   it("the probability printed is what the plan says: sin^2((2K+1) theta) with sin^2 theta = M/N = 10/16 on the lock", () => {
