@@ -97,8 +97,8 @@ ${SHOTS_HELP}
   -h, --help                  show this help
 
 Exit codes: 0, 1 when a value given to --complete does not complete to a model, 2 bad input or a
-circuit too large to build or simulate, 3 when the formula is unsatisfiable and --iterations is not
-given (there is nothing to search for).
+circuit too large to build or simulate, 3 when the formula is unsatisfiable (or --solutions 0 says so)
+and --iterations is not given (there is nothing to search for).
 `;
 
 export const drawHelp = `Usage: clausegate draw FILE|- -o FILE.svg [--search [--iterations K]] [oracle options]
@@ -424,7 +424,8 @@ async function iterationsFor(problem: SearchProblem, rawK: string | undefined, r
   if (s.M === undefined) throw new UserError(`clausegate ${command}: error: the number of solutions is unknown (${s.why}); hint: give --iterations K or --solutions M`);
   const plan = planSearch(problem.n, s.M);
   if (plan.verdict === "unsatisfiable") {
-    throw new UserError(`clausegate ${command}: error: the formula is unsatisfiable: there is nothing to search for; hint: give --iterations K to build the circuit anyway`, EXIT_UNSATISFIABLE);
+    const why = s.source === "given" ? "--solutions 0 says no assignment satisfies the formula" : "the formula is unsatisfiable";
+    throw new UserError(`clausegate ${command}: error: ${why}: there is nothing to search for; hint: give --iterations K to build the circuit anyway`, EXIT_UNSATISFIABLE);
   }
   const k = plan.iterations!;
   if (k.exact === undefined || k.exact > BigInt(MAX_ITERATIONS)) {

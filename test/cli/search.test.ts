@@ -244,6 +244,12 @@ describe("clausegate search", { timeout: 60_000 }, () => {
   it("refuses to search an unsatisfiable formula (exit 3) unless told how many iterations", () => {
     expect(cli(["search", "--register", "full", "examples/herb-spiral.cnf"]).code).toBe(3);
     expect(cli(["search", "--register", "full", "examples/herb-spiral.cnf", "--iterations", "1"]).code).toBe(0);
+    const unsat = cli(["search", "--register", "full", "examples/herb-spiral.cnf"]);
+    expect(unsat.stderr).toMatch(/error: the formula is unsatisfiable: there is nothing to search for; hint: give --iterations K/);
+    // M = 0 given for a satisfiable formula: exit 3 too, saying that it was given, not that the formula is unsatisfiable.
+    const given = cli(["search", "examples/launch-rota.cnf", "--solutions", "0"]);
+    expect(given.code).toBe(3);
+    expect(given.stderr).toMatch(/^clausegate search: error: --solutions 0 says no assignment satisfies the formula: there is nothing to search for; hint: /);
   });
   it("estimates the size before building and refuses with it (exit 2, one line)", () => {
     const max = cli(["search", "--register", "full", "examples/launch-rota.cnf", "--iterations", "1048576"]);
