@@ -595,6 +595,12 @@ class Qasm3Reader {
     const out: { text: string; at: number }[] = [];
     let lineStart = 0;
     for (const raw of this.text.split("\n")) {
+      // A carriage return not followed by LF is not a line end here: a comment would run on past
+      // it and swallow what follows (a file with CR line ends read as one comment, "no qubits").
+      const cr = raw.indexOf("\r");
+      if (cr >= 0 && cr < raw.length - 1) {
+        throw qstop(lineStart + cr, "a bare carriage return (CR, not followed by LF): it is not a line end", "lines of an OpenQASM file end with LF or CRLF; convert CR line ends, e.g. tr '\\r' '\\n' < OLD.qasm > NEW.qasm");
+      }
       const comment = raw.indexOf("//");
       const line = (comment >= 0 ? raw.slice(0, comment) : raw).replace(/\r$/, "");
       const lead = line.length - line.trimStart().length;

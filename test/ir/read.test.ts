@@ -198,6 +198,9 @@ describe("readCircuitQasm3: every fault class is refused at the offending operan
     // Text that is no OpenQASM: said so, not that its first line lacks a ';'.
     ["a DIMACS file", `// ${WIDE}\n  §p cnf 3 2\n1 -2 0\n`, /^expected 'OPENQASM 3\.0;' first but found 'p cnf 3 2'$/],
     ["null", `§null`, /^expected 'OPENQASM 3\.0;' first but found 'null'$/],
+    // CR line ends: the whole file would be one line, all of it after the first // a comment.
+    ["bare CR line ends", `OPENQASM 3.0;§\r// ${WIDE}\rinclude "stdgates.inc";\rqubit[4] vars;\r`, /^a bare carriage return \(CR, not followed by LF\): it is not a line end$/],
+    ["a bare CR inside a line", `${head}qubit[1] work;§\rx vars[0];\n`, /bare carriage return/],
   ];
   for (const [name, template, message] of cases) it(name, () => expectRejected(template, message, readCircuitQasm3));
   it("invalid UTF-8 in a comment is refused at its byte", () => {
