@@ -37,7 +37,8 @@ ${registerHelp("full")}
                               --samples, --models, --conflict-limit, --seed and --sample (which refuse
                               to be given without --verify or --prove)
   --prove                     prove the oracle first (as clausegate verify --prove, any size); write only
-                              if the proof succeeds; takes --conflict-limit
+                              if the proof succeeds; takes --conflict-limit (the simulation's options
+                              and --verify are refused with it)
   -h, --help                  show this help
 `;
 
@@ -136,6 +137,16 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   }
   if (values.prove && values.sample) {
     throw new UserError("clausegate oracle: error: --prove and --sample ask for a proof and for sampling only; hint: give one of them");
+  }
+  if (values.prove && values.verify) {
+    throw new UserError("clausegate oracle: error: --prove and --verify ask for a proof and for a simulation (or a proof where none is in reach); hint: give one of them");
+  }
+  if (values.prove) {
+    // A proof takes only a conflict budget: the simulation's options would be silently ignored.
+    const unused = (["exhaustive-limit", "samples", "models", "seed"] as const).find((k) => values[k] !== undefined);
+    if (unused !== undefined) {
+      throw new UserError(`clausegate oracle: error: --${unused} shapes the simulation that --verify runs, and --prove runs none; hint: use --verify instead, or leave out --${unused}`);
+    }
   }
   const file = oneInput(positionals, "oracle");
   const format = choice(values.format, "--format", FORMATS, "qasm3");

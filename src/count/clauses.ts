@@ -88,7 +88,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
       ok: false,
       enumerated: plan.used,
       reason: `refusing to enumerate 2^${plan.used} assignments (${plan.used} variables occur in clauses; the limit is ${limit}): ` +
-        `that would take about ${humanTime(seconds)} on two cores; hint: raise the limit to try anyway (--max-variables N)`,
+        `that would take ${humanTime(seconds)} on two cores; hint: raise the limit to try anyway (--max-variables N)`,
     };
   }
   if (plan.used > SPLIT_ABOVE) {
@@ -112,14 +112,15 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
 }
 
 
-/** "12 seconds", "3 minutes", ...: a duration for messages. */
+/** "about 12 seconds", "about 3 minutes", "under a second", ...: a duration for messages. */
 export function humanTime(seconds: number): string {
-  if (seconds < 120) return `${Math.ceil(seconds)} seconds`;
-  if (seconds < 7200) return `${Math.round(seconds / 60)} minutes`;
-  if (seconds < 172800) return `${Math.round(seconds / 3600)} hours`;
-  if (seconds < 63072000) return `${Math.round(seconds / 86400)} days`;
+  if (seconds < 1) return "under a second";
+  if (seconds < 120) return `about ${Math.ceil(seconds)} second${Math.ceil(seconds) === 1 ? "" : "s"}`;
+  if (seconds < 7200) return `about ${Math.round(seconds / 60)} minutes`;
+  if (seconds < 172800) return `about ${Math.round(seconds / 3600)} hours`;
+  if (seconds < 63072000) return `about ${Math.round(seconds / 86400)} days`;
   const years = seconds / 31557600;
   // 2^n / rate overflows a double above n = 1024 or so: say it by its power of ten instead.
-  if (!Number.isFinite(years) || years >= 1e15) return `10^${Number.isFinite(years) ? Math.floor(Math.log10(years)) : "300+"} years or more`;
-  return `${Math.round(years).toLocaleString("en-US")} years`;
+  if (!Number.isFinite(years) || years >= 1e15) return `about 10^${Number.isFinite(years) ? Math.floor(Math.log10(years)) : "300+"} years or more`;
+  return `about ${Math.round(years).toLocaleString("en-US")} years`;
 }

@@ -75,7 +75,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
       ok: false,
       enumerated: F,
       reason: `refusing to enumerate 2^${F} assignments (${F} free variables left by structure recovery, of ${occurring} in clauses; the limit is ${limit}): ` +
-        `that would take about ${humanTime(seconds)} on two cores; hint: raise the limit to try anyway (--max-variables N)`,
+        `that would take ${humanTime(seconds)} on two cores; hint: raise the limit to try anyway (--max-variables N)`,
     };
   }
   const blocks = structuredBlocks(plan);

@@ -37,6 +37,10 @@ describe("clausegate count", () => {
     const r = cli(["count", "-", "--max-variables", "30"], `p cnf 40 40\n${clauses}\n`);
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/refusing to enumerate 2\^40 assignments.*the limit is 30.*--max-variables/);
+    // A tiny enumeration refused by a limit of 0: no "about 1 seconds".
+    const tiny = cli(["count", "-", "--max-variables", "0"], "p cnf 2 1\n1 2 0\n");
+    expect(tiny.code).toBe(2);
+    expect(tiny.stderr).toMatch(/that would take under a second on two cores; hint: /);
   });
   it("rejects bad option values and unknown options with exit code 2", () => {
     expect(cli(["count", "-", "--max-variables", "x"]).stderr).toMatch(/--max-variables expects a whole number/);

@@ -47,6 +47,21 @@ describe("oracle: the check options without a check", () => {
     const name = opt.split("=")[0]!;
     expect(r.stderr).toBe(`clausegate oracle: error: ${name} shapes the check that --verify or --prove runs, and neither is given; hint: add --verify (or --prove), or leave out ${name}\n`);
   });
+  it.each(["--exhaustive-limit=5", "--samples=5", "--models=5", "--seed=5"])("%s with --prove (which runs no simulation) is refused, not ignored", (opt) => {
+    const r = cli(["oracle", EXAMPLE, "--prove", opt]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    const name = opt.split("=")[0]!;
+    expect(r.stderr).toBe(`clausegate oracle: error: ${name} shapes the simulation that --verify runs, and --prove runs none; hint: use --verify instead, or leave out ${name}\n`);
+  });
+  it("--prove with --verify is refused; --prove takes --conflict-limit", () => {
+    const both = cli(["oracle", EXAMPLE, "--prove", "--verify"]);
+    expect(both.code).toBe(2);
+    expect(both.stderr).toMatch(/^clausegate oracle: error: --prove and --verify ask for a proof and for a simulation .*; hint: give one of them\n$/);
+    const p = cli(["oracle", EXAMPLE, "--prove", "--conflict-limit", "100000"]);
+    expect(p.code).toBe(0);
+    expect(p.stderr).toMatch(/^proved: /);
+  });
   it("--prove with --sample is refused as verify refuses it; with --verify the options apply", () => {
     const r = cli(["oracle", EXAMPLE, "--prove", "--sample"]);
     expect(r.code).toBe(2);
