@@ -408,6 +408,8 @@ const qstop = (at: number, message: string, hint = HINT): Stop => new Stop(err(a
 class Qasm3Reader {
   private readonly sizes = new Map<string, number>();
   private clbitName = "";
+  /** Whether `include "stdgates.inc";` came (the gates other than gphase, measure, reset need it). */
+  private stdgates = false;
   private clbitCount = 0;
   private b: CircuitBuilder | undefined;
   private checker: GateChecker | undefined;
@@ -428,7 +430,14 @@ class Qasm3Reader {
     let inBlock = false;
     for (const s of stmts) {
       const t = s.text;
-      if (t.startsWith("include ")) continue;
+      if (t.startsWith("include ")) {
+        // The standard library is the one include an oracle needs (OpenQASM 3: qelib1.inc is
+        // OpenQASM 2's); once, before the gates it defines.
+        if (t !== 'include "stdgates.inc"') throw qstop(s.at, `expected 'include "stdgates.inc";' but found '${t}'`);
+        if (this.stdgates) throw qstop(s.at, `expected 'include "stdgates.inc";' once but found it again`);
+        this.stdgates = true;
+        continue;
+      }
       let m = /^(qubit|bit)\[(\d+)\] (\w+)$/.exec(t);
       if (m) {
         this.declare(m[1] as "qubit" | "bit", m[2]!, m[3]!, s.at);
@@ -568,6 +577,8 @@ class Qasm3Reader {
     }
     m = /^((?:(?:ctrl|negctrl)(?:\(\d+\))? @ )*)(\w+) (.+)$/.exec(t);
     if (!m || !FIXED.has(m[2]!)) throw qstop(at, `expected a gate, gphase, measure or reset but found '${t}'`);
+    // Gates other than gphase, measure and reset are defined by the standard library.
+    if (!this.stdgates) throw qstop(at + m[1]!.length, `gate '${m[2]}' is defined in stdgates.inc, which the program does not include before it`, `add 'include "stdgates.inc";' after the OPENQASM line`);
     const { qubits, offsets } = this.qubitList(m[3]!, at + t.length - m[3]!.length);
     const polarity: number[] = [];
     for (const mod of m[1]!.matchAll(/(ctrl|negctrl)(?:\((\d+)\))? @ /g)) {

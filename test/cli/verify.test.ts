@@ -133,8 +133,13 @@ describe("clausegate verify --circuit refuses malformed circuits with exit 2 and
   it("a ccx with a repeated qubit is reported at the repeated qubit, in JSON and OpenQASM 3", () => {
     const text = `${head}"gates":[\n{"op":"x","qubits":[5]},\n{"op":"ccx","qubits":[4,5,4]}]}`;
     expectRefused(run("rep.json", text), /rep\.json:3:27: error: expected distinct qubits but qubit 4 appears twice in gate 1 \(ccx\)/);
-    const qasm = 'OPENQASM 3.0;\n// Größe ✓\nqubit[4] vars;\nqubit[6] work;\nx vars[1]; ccx vars[0], vars[1], vars[0];\n';
-    expectRefused(run("rep.qasm", qasm), /rep\.qasm:5:34: error: expected distinct qubits but vars\[0\] appears twice; hint: /);
+    const qasm = 'OPENQASM 3.0;\n// Größe ✓\ninclude "stdgates.inc";\nqubit[4] vars;\nqubit[6] work;\nx vars[1]; ccx vars[0], vars[1], vars[0];\n';
+    expectRefused(run("rep.qasm", qasm), /rep\.qasm:6:34: error: expected distinct qubits but vars\[0\] appears twice; hint: /);
+    // Gates without the standard library that defines them (OpenQASM 3: stdgates.inc) are refused.
+    const bare = 'OPENQASM 3.0;\nqubit[4] vars;\nx vars[1];\n';
+    expectRefused(run("bare.qasm", bare), /bare\.qasm:3:1: error: gate 'x' is defined in stdgates\.inc, which the program does not include before it; hint: /);
+    const old = 'OPENQASM 3.0;\ninclude "qelib1.inc";\nqubit[4] vars;\nx vars[1];\n';
+    expectRefused(run("old.qasm", old), /old\.qasm:2:1: error: expected 'include "stdgates\.inc";' but found 'include "qelib1\.inc"'/);
   });
   it("an absurd register size is bad input (exit 2), not an internal error", () => {
     const text = head.replace('"size":6', '"size":1e15') + '"gates":[]}';
