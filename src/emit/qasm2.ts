@@ -33,6 +33,9 @@ export function emitQasm2(c: Circuit, out: Sink, comments: readonly string[] = [
   for (const t of comments) w.write(`// ${t}\n`);
   w.write('include "qelib1.inc";\n');
   for (const r of c.registers) if (r.size > 0) w.write(`qreg ${r.name}[${r.size}];\n`);
+  // OpenQASM 2 conditions test a whole creg: one creg per bit, named so that outcome[i] of the
+  // OpenQASM 3 and JSON forms (and of the comments above) is outcome<i> here.
+  if (c.clbits > 0) w.write(`// outcome[i] is the one-bit creg outcome<i> (OpenQASM 2 conditions test a whole creg)\n`);
   for (let b = 0; b < c.clbits; b++) w.write(`creg outcome${b}[1];\n`);
   for (let g = 0; g < c.gates; g++) {
     const cond = c.cond[g]!;

@@ -96,6 +96,8 @@ describe("OpenQASM 2 through the npm package quantum-circuit", () => {
   it("writes measured uncomputation with one classical register per measurement", () => {
     const text = collect((s) => emitQasm2(compileOracle(randomKSat(5, 8, 3, 1), { basis: "toffoli", uncompute: "measured" }).circuit, s));
     expect(text).toMatch(/^creg outcome0\[1\];$/m);
+    // The comment says how outcome[i] of the other forms maps to these cregs.
+    expect(text).toMatch(/^\/\/ outcome\[i\] is the one-bit creg outcome<i> /m);
     expect(text).toMatch(/^measure work\[\d+\] -> outcome0\[0\];$/m);
     expect(text).toMatch(/^if\(outcome\d+==1\) cz /m);
   });
