@@ -321,7 +321,7 @@ function verdict(run: Run, inputs: SampledInputs | null, free: boolean): Omit<Ve
   const common = { simulator: run.simulator, assignments: run.assignments, models: run.models, nonModels, counterexample: run.counterexample };
   if (inputs === null) {
     if (run.models === 0) notes.push(NO_MODELS);
-    if (nonModels === 0) notes.push(NO_NON_MODELS);
+    if (nonModels === 0) notes.push(free ? "no unmarked inputs: every register value completes to a model" : NO_NON_MODELS);
     return { ...common, verified: run.counterexample === null, method: "exhaustive", modelSearch: null, falsifying: 0, samples: 0, notes };
   }
   const s = inputs.search;

@@ -47,6 +47,14 @@ describe("verifyOracle with a free register", () => {
     expect(other.problem).toBe(`the register's completion is for a formula of ${cnf.variables} variables but this one declares 3`);
   });
 
+  it("says every register value completes to a model when none is unmarked (not that every assignment satisfies)", async () => {
+    const cnf = cnfFromClauses(3, [[1], [-2]]);
+    const o = compileOracle(cnf, { register: "free", basis: "toffoli" });
+    const r = await verifyOracle(cnf, o.circuit, { completion: o.completion });
+    expect(r).toMatchObject({ verified: true, register: "free", nonModels: 0 });
+    expect(r.notes).toEqual(["no unmarked inputs: every register value completes to a model"]);
+  });
+
   it("treats the full register's completion as the plain check", async () => {
     const cnf = cnfFromClauses(4, [[1, -2], [2, 3, -4]]);
     const o = compileOracle(cnf, { basis: "mcx" });
