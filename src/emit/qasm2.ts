@@ -16,9 +16,9 @@ export function qasm2Problem(c: Circuit): string | null {
     const kind = GATE_KINDS[c.kind[g]!]!;
     const n = operands(c, g).length;
     if ((kind === "mcx" || kind === "and" || kind === "unand") && n - 1 > 2) {
-      return `a ${n - 1}-controlled X gate (OpenQASM 2.0 has none beyond ccx); use --basis toffoli or --basis clifford+t`;
+      return `a ${n - 1}-controlled X gate (the qelib1.inc of OpenQASM 2.0, Cross et al. 2017, has none beyond ccx); use --basis toffoli or --basis clifford+t`;
     }
-    if (kind === "mcz" && n > 2) return `a ${n - 1}-controlled Z gate (OpenQASM 2.0 has none beyond cz); use --basis toffoli or --basis clifford+t`;
+    if (kind === "mcz" && n > 2) return `a ${n - 1}-controlled Z gate (the qelib1.inc of OpenQASM 2.0, Cross et al. 2017, has none beyond cz); use --basis toffoli or --basis clifford+t`;
   }
   return null;
 }

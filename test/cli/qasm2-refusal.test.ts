@@ -9,7 +9,7 @@ describe("--format qasm2 refusals", () => {
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
     expect(r.stderr.split("\n").filter((l) => l.includes("error"))).toEqual([
-      "clausegate: error: cannot write OpenQASM 2.0: the circuit has a 3-controlled X gate (OpenQASM 2.0 has none beyond ccx); hint: choose --basis toffoli or --basis clifford+t, or write --format qasm3 or json",
+      "clausegate: error: cannot write OpenQASM 2.0: the circuit has a 3-controlled X gate (the qelib1.inc of OpenQASM 2.0, Cross et al. 2017, has none beyond ccx); hint: choose --basis toffoli or --basis clifford+t, or write --format qasm3 or json",
     ]);
   });
   it("a circuit with no qubits (a formula of no variables)", () => {
