@@ -36,7 +36,9 @@ export const MAX_CIRCUIT_VARIABLES = 1_000_000;
 /** Refuses formulas whose search register would be too large to build. */
 export function checkCircuitSize(cnf: Cnf, file: string, command: string): void {
   if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
-    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits; hint: declare only the variables the formula uses`);
+    // The limit is on declared variables even for a free register: the commands that build an
+    // oracle keep per-variable tables (completions, assignments) sized by the header.
+    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits and reads formulas of at most ${MAX_CIRCUIT_VARIABLES} declared variables (with --register free too); hint: declare only the variables the formula uses`);
   }
 }
 

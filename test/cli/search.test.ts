@@ -114,6 +114,13 @@ describe("clausegate plan at any size", { timeout: 60_000 }, () => {
     expect(huge).toMatchObject({ n_assignments: null, log2_n_assignments: 5000, iterations: null, success_probability: 1, failure_probability: null });
     expect(huge.log2_iterations).toBeCloseTo(Math.log2(Math.PI / 4) + (5000 - Math.log2(3)) / 2, 9);
   });
+  it("the commands that build an oracle refuse 2^31 - 1 declared variables, saying that a free register does not lift it", () => {
+    for (const command of ["oracle", "cost", "verify"]) {
+      const r = cli([command, "-", "--register", "free"], "p cnf 2147483647 1\n1 0\n");
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(/^<stdin>: error: the header declares 2147483647 variables; .* \(with --register free too\); hint: declare only the variables the formula uses\n$/);
+    }
+  });
   it("plans a header declaring 2^31 - 1 variables, counting only the variables that occur", () => {
     const input = "p cnf 2147483647 2\n1 2 0\n-1 5 0\n";
     const r = cli(["plan", "--register", "full", "-"], input);
