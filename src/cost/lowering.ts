@@ -163,7 +163,7 @@ export class LoweringStream implements LogicalSink {
         return;
       }
     }
-    const c = this.normalize(ctrls);
+    const c = normalizeControls(ctrls);
     if (c === null) {
       this.remember(t, -1, []);
       return;
@@ -215,7 +215,7 @@ export class LoweringStream implements LogicalSink {
   /** A multi-controlled X (encoded controls) onto t; `dies`: t is never used again. */
   mcx(ctrls: ArrayLike<number>, t: number, dies: boolean): void {
     this.room(t);
-    const c = this.normalize(ctrls);
+    const c = normalizeControls(ctrls);
     if (c === null) return;
     this.plain(t);
     if (c.length === 0) {
@@ -243,7 +243,7 @@ export class LoweringStream implements LogicalSink {
 
   /** A multi-controlled Z over encoded qubits. */
   mcz(qs: ArrayLike<number>): void {
-    const c = this.normalize(qs);
+    const c = normalizeControls(qs);
     if (c === null) return;
     if (c.length === 0) {
       this.out.put(T_GPHASE, -1, -1, -1, 0);
@@ -422,38 +422,38 @@ export class LoweringStream implements LogicalSink {
       this.ids.give(record[i + 2]!);
     }
   }
+}
 
-  /**
-   * lower.ts's normalizeControls: a repeated control is dropped; a qubit wanted both on |0> and
-   * on |1> means the gate never fires (null). Order of first occurrence is kept.
-   */
-  private normalize(ops: ArrayLike<number>): number[] | null {
-    const out: number[] = [];
-    if (ops.length <= 16) {
-      // Small gates (nearly all): a quadratic scan, as lower.ts does.
-      next: for (let i = 0; i < ops.length; i++) {
-        const op = ops[i]!;
-        for (let j = 0; j < out.length; j++) {
-          if (out[j]! >>> 1 !== op >>> 1) continue;
-          if (out[j] !== op) return null;
-          continue next;
-        }
-        out.push(op);
-      }
-      return out;
-    }
-    // A large gate (the wide oracle's mark): the encoded op seen per qubit, plus one (0: none).
-    let top = 0;
-    for (let i = 0; i < ops.length; i++) top = Math.max(top, ops[i]! >>> 1);
-    const seen = new Int32Array(top + 1);
-    for (let i = 0; i < ops.length; i++) {
+/**
+ * lower.ts's normalizeControls: a repeated control is dropped; a qubit wanted both on |0> and
+ * on |1> means the gate never fires (null). Order of first occurrence is kept.
+ */
+export function normalizeControls(ops: ArrayLike<number>): number[] | null {
+  const out: number[] = [];
+  if (ops.length <= 16) {
+    // Small gates (nearly all): a quadratic scan, as lower.ts does.
+    next: for (let i = 0; i < ops.length; i++) {
       const op = ops[i]!;
-      const prev = seen[op >>> 1]!;
-      if (prev === 0) {
-        seen[op >>> 1] = op + 1;
-        out.push(op);
-      } else if (prev !== op + 1) return null;
+      for (let j = 0; j < out.length; j++) {
+        if (out[j]! >>> 1 !== op >>> 1) continue;
+        if (out[j] !== op) return null;
+        continue next;
+      }
+      out.push(op);
     }
     return out;
   }
+  // A large gate (the wide oracle's mark): the encoded op seen per qubit, plus one (0: none).
+  let top = 0;
+  for (let i = 0; i < ops.length; i++) top = Math.max(top, ops[i]! >>> 1);
+  const seen = new Int32Array(top + 1);
+  for (let i = 0; i < ops.length; i++) {
+    const op = ops[i]!;
+    const prev = seen[op >>> 1]!;
+    if (prev === 0) {
+      seen[op >>> 1] = op + 1;
+      out.push(op);
+    } else if (prev !== op + 1) return null;
+  }
+  return out;
 }

@@ -24,7 +24,7 @@ import type { OracleKind, SimplifiedCnf } from "../synth/index.js";
 import type { Uncompute } from "../passes/lower.js";
 import type { EngineResult } from "./engine.js";
 import { wideOracle } from "./sources.js";
-import { VirtualIds, type LogicalSink } from "./lowering.js";
+import { normalizeControls, VirtualIds, type LogicalSink } from "./lowering.js";
 
 /**
  * Counts the CCX gates lowering.ts emits in the toffoli basis, operation by operation, without
@@ -37,6 +37,7 @@ class ToffoliTally implements LogicalSink {
   operations = 0;
   /** CCX gates each live AND was computed with (by qubit id), for its uncompute. */
   private held = new Int32Array(1024);
+  private readonly pair = new Int32Array(2);
 
   constructor(private readonly unitary: boolean) {}
 
@@ -54,7 +55,9 @@ class ToffoliTally implements LogicalSink {
   }
 
   andPair(a: number, b: number, t: number): void {
-    this.and([a, b], t);
+    this.pair[0] = a;
+    this.pair[1] = b;
+    this.and(this.pair, t);
   }
 
   unand(t: number): void {
@@ -94,40 +97,9 @@ class ToffoliTally implements LogicalSink {
   }
 }
 
-/**
- * Distinct qubits among encoded controls (lower.ts's normalizeControls: a repeated control is
- * dropped), or -1 when one qubit is wanted both on |0> and |1> (the gate never fires).
- */
+/** Distinct qubits among encoded controls, as lowering.ts normalizes them; -1 when the gate never fires. */
 function distinct(ops: ArrayLike<number>): number {
-  const n = ops.length;
-  if (n <= 16) {
-    let count = 0;
-    next: for (let i = 0; i < n; i++) {
-      const op = ops[i]!;
-      for (let j = 0; j < i; j++) {
-        const o = ops[j]!;
-        if (o >>> 1 !== op >>> 1) continue;
-        if (o !== op) return -1;
-        continue next;
-      }
-      count++;
-    }
-    return count;
-  }
-  // A large gate (the mark): the encoded control seen per qubit, plus one (0: none).
-  let top = 0;
-  for (let i = 0; i < n; i++) top = Math.max(top, ops[i]! >>> 1);
-  const seen = new Int32Array(top + 1);
-  let count = 0;
-  for (let i = 0; i < n; i++) {
-    const op = ops[i]!;
-    const prev = seen[op >>> 1]!;
-    if (prev === 0) {
-      seen[op >>> 1] = op + 1;
-      count++;
-    } else if (prev !== op + 1) return -1;
-  }
-  return count;
+  return normalizeControls(ops)?.length ?? -1;
 }
 
 /**
