@@ -20,7 +20,7 @@ import { BlockCounter } from "./blocks.js";
 import { builtCounts } from "./built.js";
 import { LeanBlocks } from "./leanBlocks.js";
 import type { EngineResult, WireMemory } from "./engine.js";
-import { BUILD_LIMIT, DEFAULT_LAG, HISTORY_BYTES, run } from "./run.js";
+import { BUILD_LIMIT, DEFAULT_LAG, HISTORY_BYTES, run, runSwept } from "./run.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, textbookOracle, wideOracle, type Fraction, type OracleOps } from "./sources.js";
 import { StructuredSource } from "./structuredSource.js";
@@ -271,9 +271,10 @@ class Logicals {
 }
 
 /**
- * How a lean oracle is counted: "blocks" by the block counter (blocks.ts: work per clause, exact,
- * falling back to the engine where it cannot go on), "instances" by the engine instance by
- * instance, "auto" by blocks from BLOCKS_FROM clauses on.
+ * How an oracle is counted: a lean one "blocks" by the block counter (blocks.ts: work per clause,
+ * exact, falling back to the engine where it cannot go on), "instances" by the engine instance by
+ * instance (the wide and textbook ones too, without the sweep of sweep.ts), "auto" by blocks from
+ * BLOCKS_FROM clauses on and by the sweep first.
  */
 export type CountEngine = "auto" | "blocks" | "instances";
 
@@ -329,7 +330,7 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
     const wires = base + (s.strategy === "lean" ? 64 : src.checkQubits + 64);
     const history = Math.max(1, Math.min(16, Math.floor(HISTORY_BYTES / 40 / wires)));
     const sizing = { lag: far ? Infinity : DEFAULT_LAG, history, wires, ids: base + src.checkQubits + 1024, farReach: s.strategy === "lean", ...(far ? { ring: idle.operations } : {}), ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
-    return run(base, s.optimize, s.levels, mode, (low, ids) => src.emit(low, ids, progress), sizing);
+    return runSwept(s.strategy !== "lean" && s.engine !== "instances", base, s.optimize, s.levels, mode, (low, ids) => src.emit(low, ids, progress), sizing);
   }
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
   // Wires: a wide or textbook oracle has about one per literal (clause bits, AND trees, the
@@ -350,7 +351,7 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
     const r = new BlockCounter(blocks, { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run();
     if (r !== null) return r;
   }
-  return run(base, s.optimize, s.levels, mode, (low, ids) => {
+  return runSwept(s.strategy !== "lean" && s.engine !== "instances", base, s.optimize, s.levels, mode, (low, ids) => {
     // The oracles are streamed as synthesis would build them (sources.ts; a test holds them equal).
     const stream = s.strategy === "lean" ? leanOracle : s.strategy === "wide" ? wideOracle : textbookOracle;
     stream(s.f, s.kind, low, ids, s.f.variables, progress);

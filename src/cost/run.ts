@@ -5,6 +5,7 @@
 import type { Uncompute } from "../passes/lower.js";
 import { CountingEngine, type EngineResult, type WireMemory } from "./engine.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
+import { sweepCount } from "./sweep.js";
 
 /** Built instead of counted when the engine cannot be exact and the circuit has at most this many template instances. */
 export const BUILD_LIMIT = 400_000;
@@ -55,3 +56,20 @@ export function run(base: number, optimize: boolean, levels: boolean, mode: { ba
   }
 }
 
+
+/**
+ * The sweep (sweep.ts) first where it may cover the stream (the optimizer on, levels counted: a
+ * wide or textbook oracle's Clifford+T run), the engine where it gives up or is not asked.
+ */
+export function runSwept(sweep: boolean, base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number; eagerLag?: boolean; keepFreed?: number }): EngineResult {
+  if (sweep && optimize && levels && sizing.keepFreed === undefined) {
+    const r = sweepCount({ base, levels, wires: sizing.wires, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) }, (sink) => {
+      const ids = new VirtualIds(base);
+      const low = new LoweringStream(sink, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
+      emit(low, ids);
+      low.finish();
+    });
+    if (r !== null) return r;
+  }
+  return run(base, optimize, levels, mode, emit, sizing);
+}

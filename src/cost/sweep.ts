@@ -1,0 +1,741 @@
+/**
+ * The sweep: the counting engine's replay (engine.ts) for streams whose cancellations stay close
+ * together, such as the wide and textbook oracles (a million clauses' wide oracle cancels 4 gates
+ * of its 11 million template instances, all at the mark's root, and the textbook oracle cancels
+ * one H pair per clause on its reused V-chain wire, two operations apart), without the engine's
+ * per-wire copies of old instances.
+ *
+ * The engine walks every gate that can leave its template back along its target. Most walks
+ * stop at the first gate they meet: a gate acting there in another role (Z, X or other, as
+ * commute.ts's roles) stops them unless it undoes them, and an undoing gate acts in the same
+ * role. So the sweep keeps, per wire, a summary of the gates since the wire's last change of role
+ * (the "stretch" a walk of that role could pass): the role, how many gates, which phase kinds, an
+ * X, a gate on more qubits, the kind of the last gate. A walk is replayed (as the engine does it,
+ * over a short ring of recent instances) only when the summary says it could find a partner;
+ * otherwise it stops without one, as the engine's would. Once a gate on a wire is cancelled the
+ * wire's summary no longer bounds its stretch (the stretch may now reach past the cancelled gate):
+ * every walk along that wire is replayed until the wire changes role again.
+ *
+ * The tally (levels, merge-phases, counts) is the engine's settle, with levels in 32-bit integers.
+ * The sweep gives up (returns null: run the engine) where the engine would need more than the
+ * ring: a walk reaching an instance that left it, a cancellation reaching an instance already
+ * counted, a level past 2^30, or any case where the engine would report an upper bound.
+ * test/cost/sweep.test.ts holds its figures equal to the engine's.
+ */
+import { INVERSE_KIND, K, ROLE_OTHER, ROLE_X, ROLE_Z } from "../ir/kinds.js";
+import type { EngineResult, WireMemory } from "./engine.js";
+import type { InstanceSink } from "./lowering.js";
+import {
+  FIRST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, LAST_TOUCH, SLOT_GATES, SLOTS, TEMPLATE_COUNT, WINDOW,
+  exitingGates, gatesOf,
+} from "./templates.js";
+import { finalRun, NONE, transferOf } from "./transfer.js";
+
+/** Instances kept (a power of two) and instances replayed before one is counted. */
+const RING = 1 << 10;
+const LAG = RING >> 2;
+/** Levels past this give up (32-bit levels). */
+const LEVEL_LIMIT = 2 ** 30;
+
+/** Summary modes: the role of the wire's current stretch. */
+const MODE_NONE = 0;
+const MODE_Z = 1;
+const MODE_X = 2;
+const MODE_OTHER = 3;
+/** In `cnt`: the stretch may reach past a cancelled gate (replay every walk). */
+const DIRTY = 128;
+const COUNT_MASK = 127;
+/**
+ * In `flags`: a phase gate of eighths k (bit PHASE_BIT[k]), an X, a gate on several qubits, any
+ * other one-qubit gate.
+ */
+const PHASE_BIT = [0, 1, 2, 0, 4, 0, 8, 16];
+const F_X = 32;
+const F_MULTI = 64;
+const F_ODD = 128;
+
+/** Thrown to stop the stream where the sweep gives up. */
+class GiveUp extends Error {}
+
+/** Options of a sweep. */
+export interface SweepOptions {
+  /** Search + target qubits: ids below this are wires themselves. */
+  readonly base: number;
+  /** Depth, T-depth and merge-phases (false: Toffolis, T and CNOTs only). */
+  readonly levels: boolean;
+  /** Wires expected (sizes the per-wire tables once). */
+  readonly wires?: number;
+  /** Qubit ids expected. */
+  readonly ids?: number;
+  /** The per-wire tables' memory, shared with the other runs of a cost table (see EngineOptions.wireMemory). */
+  readonly wireMemory?: WireMemory;
+}
+
+const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
+/** Index of gate e in its slot's list: GATE_SLOT_INDEX[e * 3 + s]. */
+const GATE_SLOT_INDEX = new Int8Array(GATE_START[TEMPLATE_COUNT]! * 3).fill(-1);
+for (let t = 0; t < TEMPLATE_COUNT; t++) {
+  for (let s = 0; s < 3; s++) {
+    const list = SLOT_GATES[t * 3 + s]!;
+    for (let i = 0; i < list.length; i++) GATE_SLOT_INDEX[(GATE_START[t]! + list[i]!) * 3 + s] = i;
+  }
+}
+/** Summary flag a live gate adds on its slot s: FLAG_OF[e * 3 + s] (0 where it does not touch s). */
+const FLAG_OF = new Uint8Array(GATE_START[TEMPLATE_COUNT]! * 3);
+for (let e = 0; e < GATE_START[TEMPLATE_COUNT]!; e++) {
+  const nq = G_NQ[e]!;
+  for (let i = 0; i < nq; i++) {
+    const s = G_OP[e * 3 + i]!;
+    const role = G_ROLE[e * 3 + s]!;
+    if (nq > 1) FLAG_OF[e * 3 + s] = F_MULTI;
+    else if (role === ROLE_Z && G_PHASE[e]! >= 0) FLAG_OF[e * 3 + s] = PHASE_BIT[G_PHASE[e]!]!;
+    else if (role === ROLE_X && G_KIND[e] === K.x) FLAG_OF[e * 3 + s] = F_X;
+    else FLAG_OF[e * 3 + s] = F_ODD;
+  }
+}
+
+/** A summary: mode, count (with DIRTY), flags, kind of the last gate. */
+interface Summary {
+  mode: number;
+  cnt: number;
+  flags: number;
+  lastKind: number;
+}
+
+/** Adds a live gate of the given role, flag and kind to a summary (the rule of the whole sweep). */
+function addTo(m: Summary, role: number, flag: number, kind: number): void {
+  const mode = role === ROLE_Z ? MODE_Z : role === ROLE_X ? MODE_X : MODE_OTHER;
+  const c = m.cnt;
+  if (mode !== MODE_OTHER && mode === m.mode) {
+    m.cnt = (c & DIRTY) | Math.min(COUNT_MASK, (c & COUNT_MASK) + 1);
+    m.flags |= flag;
+  } else {
+    // A change of role: the gate before bounds the new stretch (unless it is cancelled later),
+    // and a gate of role "other" bounds it itself. After a cancellation the role of the live
+    // gate before is not known: the wire stays dirty until a change is seen.
+    m.cnt = (c & DIRTY) !== 0 && m.mode === MODE_NONE && mode !== MODE_OTHER ? DIRTY | 1 : 1;
+    m.mode = mode;
+    m.flags = flag;
+  }
+  m.lastKind = kind;
+}
+
+/**
+ * What the live gates of one slot of a template do to the summary of its wire, folded once:
+ * either a stretch of one role (accumulated onto the wire's when it has that role), or, when the
+ * role changes inside or a gate has role "other", a summary of their own from the last change on.
+ */
+interface SlotFold {
+  /** Live gates on the slot. */
+  readonly n: number;
+  /** The role changes between two of them, or one has role "other": `fixed` is the result. */
+  readonly breaks: boolean;
+  /** Without a break: their role and flags. */
+  readonly role: number;
+  readonly flag: number;
+  /** The summary they make from an empty one (with a break: whatever the wire had). */
+  readonly fixed: Summary;
+}
+
+const foldCache = new Map<number, SlotFold>();
+
+function slotFold(t: number, dead: number, s: number): SlotFold {
+  const key = (t * 3 + s) * 4294967296 + (dead >>> 0);
+  let f = foldCache.get(key);
+  if (f !== undefined) return f;
+  const list = SLOT_GATES[t * 3 + s]!;
+  const base = GATE_START[t]!;
+  let n = 0;
+  let breaks = false;
+  let role = -1;
+  let flag = 0;
+  const fixed: Summary = { mode: MODE_NONE, cnt: 0, flags: 0, lastKind: 255 };
+  for (let i = 0; i < list.length; i++) {
+    if ((dead >>> list[i]!) & 1) continue;
+    const e = base + list[i]!;
+    const r = G_ROLE[e * 3 + s]!;
+    if ((n > 0 && r !== role) || r === ROLE_OTHER) breaks = true;
+    role = r;
+    flag |= FLAG_OF[e * 3 + s]!;
+    addTo(fixed, r, FLAG_OF[e * 3 + s]!, G_KIND[e]!);
+    n++;
+  }
+  f = { n, breaks, role, flag, fixed };
+  foldCache.set(key, f);
+  return f;
+}
+
+const FOLD0: SlotFold[] = [];
+for (let t = 0; t < TEMPLATE_COUNT; t++) for (let s = 0; s < 3; s++) FOLD0[t * 3 + s] = slotFold(t, 0, s);
+
+/**
+ * Counts a stream of template instances as the engine does (optimizer on), or gives up. Use
+ * through {@link sweepCount}.
+ */
+export class SweepCounter implements InstanceSink {
+  private readonly base: number;
+  private readonly levels: boolean;
+  // Instances, in a ring (as the engine's).
+  private readonly rT = new Uint8Array(RING);
+  private readonly rW = new Int32Array(RING * 3);
+  private readonly rDead = new Int32Array(RING);
+  private readonly rMask1 = new Int32Array(RING);
+  private readonly rRecheck = new Int32Array(RING);
+  private readonly rPrev = new Int32Array(RING * 3);
+  private readonly rPrevSlot = new Int8Array(RING * 3);
+  private nextId = 0;
+  private done = 0;
+
+  // Wires.
+  private lvl: Int32Array = new Int32Array(0);
+  private tlvl: Int32Array = new Int32Array(0);
+  private pend: Uint8Array = new Uint8Array(0);
+  private lastId: Int32Array = new Int32Array(0);
+  private lastSlot: Uint8Array = new Uint8Array(0);
+  private mode: Uint8Array = new Uint8Array(0);
+  private cnt: Uint8Array = new Uint8Array(0);
+  private flags: Uint8Array = new Uint8Array(0);
+  private lastKind: Uint8Array = new Uint8Array(0);
+  private wireCap = 0;
+
+  private wireOf: Int32Array;
+  private freeWires = new Int32Array(256);
+  private freeTop = 0;
+  private workWires = 0;
+
+  private tCount = 0;
+  private cnotCount = 0;
+  private toffoliCount = 0;
+  private measurements = 0;
+  private phaseGates = 0;
+  private bitL = 0;
+  private bitTL = 0;
+  private flagSecond: string | null = null;
+  /** Walks replayed (for the bench's figures). */
+  walks = 0;
+  /** Why the sweep gave up, or null. */
+  gaveUp: string | null = null;
+
+  private readonly wireMemory: WireMemory | null;
+
+  constructor(opts: SweepOptions) {
+    this.base = opts.base;
+    this.levels = opts.levels;
+    this.wireMemory = opts.wireMemory ?? null;
+    this.growWires(Math.max(64, opts.base + 64, opts.wires ?? 0));
+    this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
+  }
+
+  /** Bytes per wire of the tables below. */
+  private static readonly WIRE_BYTES = 4 + 4 + 4 + 6;
+
+  private growWires(n: number): void {
+    if (n <= this.wireCap) return;
+    const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
+    const held = this.wireMemory?.buffer ?? null;
+    let buf: ArrayBuffer;
+    if (this.wireCap === 0 && held !== null && held.byteLength >= cap * SweepCounter.WIRE_BYTES) buf = held;
+    else {
+      buf = new ArrayBuffer(cap * SweepCounter.WIRE_BYTES);
+      if (this.wireMemory !== null) this.wireMemory.buffer = buf;
+    }
+    let at = 0;
+    const i32 = (old: Int32Array, fill: number): Int32Array => {
+      const b = new Int32Array(buf, at, cap);
+      at += 4 * cap;
+      b.set(old);
+      b.fill(fill, old.length);
+      return b;
+    };
+    const u8 = (old: Uint8Array, fill: number): Uint8Array => {
+      const b = new Uint8Array(buf, at, cap);
+      at += cap;
+      b.set(old);
+      b.fill(fill, old.length);
+      return b;
+    };
+    this.lvl = i32(this.lvl, 0);
+    this.tlvl = i32(this.tlvl, 0);
+    this.lastId = i32(this.lastId, -1);
+    this.pend = u8(this.pend, 0);
+    this.lastSlot = u8(this.lastSlot, 0);
+    this.mode = u8(this.mode, 0);
+    this.cnt = u8(this.cnt, 0);
+    this.flags = u8(this.flags, 0);
+    this.lastKind = u8(this.lastKind, 255);
+    this.wireCap = cap;
+  }
+
+  private giveUp(reason: string): never {
+    this.gaveUp = reason;
+    throw new GiveUp(reason);
+  }
+
+  private wireFor(v: number): number {
+    if (v < this.base) return v;
+    if (v >= this.wireOf.length) {
+      const w = new Int32Array(Math.max(v + 1, Math.ceil(this.wireOf.length * 1.5))).fill(-1);
+      w.set(this.wireOf);
+      this.wireOf = w;
+    }
+    let w = this.wireOf[v]!;
+    if (w < 0) {
+      w = this.freeTop > 0 ? this.freeWires[--this.freeTop]! : this.base + this.workWires++;
+      if (w >= this.wireCap) this.growWires(w + 1);
+      this.wireOf[v] = w;
+    }
+    return w;
+  }
+
+  put(t: number, a: number, b: number, c: number, dies: number): void {
+    const id = this.nextId++;
+    if (id > 0x7ffffff0) this.giveUp("more than 2^31 template instances");
+    const x = id & (RING - 1);
+    const touch = FIRST_TOUCH[t]!;
+    for (let i = 0; i < touch.length; i++) {
+      const s = touch[i]!;
+      this.rW[x * 3 + s] = this.wireFor(s === 0 ? a : s === 1 ? b : c);
+    }
+    this.rT[x] = t;
+    this.rDead[x] = 0;
+    this.rRecheck[x] = 0;
+    const slots = SLOTS[t]!;
+    for (let s = 0; s < slots; s++) {
+      const w = this.rW[x * 3 + s]!;
+      this.rPrev[x * 3 + s] = this.lastId[w]!;
+      this.rPrevSlot[x * 3 + s] = this.lastSlot[w]!;
+      this.lastId[w] = id;
+      this.lastSlot[w] = s;
+    }
+    this.cancel(id, x);
+    this.rMask1[x] = this.rDead[x]!;
+    if (dies !== 0) {
+      const order = LAST_TOUCH[t]!;
+      for (let i = 0; i < order.length; i++) {
+        const s = order[i]!;
+        if (((dies >>> s) & 1) === 0) continue;
+        const v = s === 0 ? a : s === 1 ? b : c;
+        if (this.freeTop === this.freeWires.length) {
+          const f = new Int32Array(this.freeWires.length * 2);
+          f.set(this.freeWires);
+          this.freeWires = f;
+        }
+        this.freeWires[this.freeTop++] = this.wireOf[v]!;
+        this.wireOf[v] = -1;
+      }
+    }
+    while (this.done <= id - LAG) this.settle(this.done);
+  }
+
+  /** The engine's figures, or null where the sweep gave up. */
+  finish(): EngineResult | null {
+    if (this.gaveUp !== null) return null;
+    try {
+      while (this.done < this.nextId) this.settle(this.done);
+    } catch (e) {
+      if (e instanceof GiveUp) return null;
+      throw e;
+    }
+    const wires = this.base + this.workWires;
+    let depth = 0;
+    let tDepth = 0;
+    for (let w = 0; w < wires; w++) {
+      let l = this.lvl[w]!;
+      let tl = this.tlvl[w]!;
+      if (this.levels) {
+        const run = finalRun(this.pend[w]!);
+        l += run.gates;
+        tl += run.tGates;
+        this.tCount += run.tGates;
+      }
+      if (l > depth) depth = l;
+      if (tl > tDepth) tDepth = tl;
+    }
+    // As the engine: the second cancel-inverses runs only when merge-phases met two phase gates.
+    if (this.phaseGates >= 2 && this.flagSecond !== null) {
+      this.gaveUp = this.flagSecond;
+      return null;
+    }
+    return {
+      qubits: wires, tCount: this.tCount, tDepth: this.levels ? tDepth : 0, cnotCount: this.cnotCount, toffoliCount: this.toffoliCount,
+      depth: this.levels ? depth : 0, measurements: this.measurements, instances: this.nextId, exact: true, upperBound: false, reason: null,
+      historyShort: false, lagShort: false, secondNeeded: false,
+    };
+  }
+
+  // ---- the summaries -----------------------------------------------------------------------
+
+  /**
+   * Whether gate p of the instance at ring index x (dead gates `dead`) could find a partner
+   * walking along its target's wire, by that wire's summary as it stands before the gate (false:
+   * its walk stops without one, as the engine's would).
+   */
+  private mayPair(x: number, t: number, dead: number, p: number): boolean {
+    const e = GATE_START[t]! + p;
+    if (G_COND[e]) return false; // undoes nothing (commute.ts), and stops at its first gate
+    const nq = G_NQ[e]!;
+    const ts = G_OP[e * 3 + nq - 1]!;
+    const w = this.rW[x * 3 + ts]!;
+    const m = this.at;
+    m.mode = this.mode[w]!;
+    m.cnt = this.cnt[w]!;
+    m.flags = this.flags[w]!;
+    m.lastKind = this.lastKind[w]!;
+    // The instance's own live gates before it on that slot.
+    const list = SLOT_GATES[t * 3 + ts]!;
+    const upto = GATE_SLOT_INDEX[e * 3 + ts]!;
+    const base = GATE_START[t]!;
+    for (let i = 0; i < upto; i++) {
+      const q = list[i]!;
+      if ((dead >>> q) & 1) continue;
+      const f = base + q;
+      addTo(m, G_ROLE[f * 3 + ts]!, FLAG_OF[f * 3 + ts]!, G_KIND[f]!);
+    }
+    const c = m.cnt;
+    if ((c & DIRTY) !== 0) return true;
+    const role = G_ROLE[e * 3 + ts]!;
+    if (role === ROLE_OTHER) return INVERSE_KIND[G_KIND[e]!] === m.lastKind;
+    if ((role === ROLE_Z ? MODE_Z : MODE_X) !== m.mode) return false;
+    if ((c & COUNT_MASK) >= WINDOW - 1) return true;
+    // A walker passes every gate of its stretch that shares only this wire with it; its partner
+    // has its kind's inverse and as many qubits.
+    const f = m.flags;
+    if (nq > 1) return (f & F_MULTI) !== 0;
+    if ((f & F_ODD) !== 0) return true;
+    if (role === ROLE_Z) {
+      const k = G_PHASE[e]!;
+      return k < 0 || (f & PHASE_BIT[(8 - k) & 7]!) !== 0;
+    }
+    return G_KIND[e] !== K.x || (f & F_X) !== 0;
+  }
+
+  private readonly at: Summary = { mode: 0, cnt: 0, flags: 0, lastKind: 255 };
+
+  /** Folds the instance's live gates into the summaries of its wires. */
+  private fold(x: number, t: number, dead: number): void {
+    for (let s = 0; s < SLOTS[t]!; s++) {
+      const f = dead === 0 ? FOLD0[t * 3 + s]! : slotFold(t, dead, s);
+      if (f.n === 0) continue;
+      const w = this.rW[x * 3 + s]!;
+      if (f.breaks) {
+        this.mode[w] = f.fixed.mode;
+        this.cnt[w] = f.fixed.cnt;
+        this.flags[w] = f.fixed.flags;
+        this.lastKind[w] = f.fixed.lastKind;
+        continue;
+      }
+      const mode = f.role === ROLE_Z ? MODE_Z : MODE_X;
+      const c = this.cnt[w]!;
+      const was = this.mode[w]!;
+      const n = Math.min(COUNT_MASK, f.n);
+      if (mode === was) {
+        this.cnt[w] = (c & DIRTY) | Math.min(COUNT_MASK, (c & COUNT_MASK) + n);
+        this.flags[w] = this.flags[w]! | f.flag;
+      } else {
+        this.cnt[w] = (c & DIRTY) !== 0 && was === MODE_NONE ? DIRTY | n : n;
+        this.mode[w] = mode;
+        this.flags[w] = f.flag;
+      }
+      this.lastKind[w] = f.fixed.lastKind;
+    }
+  }
+
+  /** A gate on these wires was cancelled: their stretches may now reach past it. */
+  private dirty(x: number, e: number): void {
+    for (let i = 0; i < G_NQ[e]!; i++) {
+      const w = this.rW[x * 3 + G_OP[e * 3 + i]!]!;
+      this.cnt[w] = this.cnt[w]! | DIRTY;
+      this.mode[w] = MODE_NONE;
+    }
+  }
+
+  // ---- cancel-inverses (engine.ts's, over the ring) -----------------------------------------
+
+  private cancel(id: number, x: number): void {
+    const t = this.rT[x]!;
+    const n = gatesOf(t);
+    let exits = EXIT0[t]!;
+    let known = 0;
+    let walked = 0;
+    const base = GATE_START[t]!;
+    for (let p = 0; p < n; p++) {
+      const dead = this.rDead[x]!;
+      if ((dead >>> p) & 1) continue;
+      if (dead !== known) {
+        known = dead;
+        exits = exitingGates(t, dead);
+      }
+      const e = base + p;
+      if (((exits >>> p) & 1) !== 0) {
+        const kind = G_KIND[e]!;
+        const nq = G_NQ[e]!;
+        if (nq !== 0 && kind !== K.measure && kind !== K.reset) {
+          const partner = this.mayPair(x, t, dead, p) ? this.findPartner(id, x, p) : -1;
+          if (partner >= 0) {
+            const hid = Math.floor(partner / 32);
+            const hp = partner % 32;
+            if (hid < this.done) this.giveUp("a cancellation reached a part already counted");
+            const hx = hid & (RING - 1);
+            this.rDead[hx] = this.rDead[hx]! | (1 << hp);
+            this.rDead[x] = this.rDead[x]! | (1 << p);
+            this.dirty(x, e);
+            for (let i = 0; i < nq; i++) this.markRecheck(x, G_OP[e * 3 + i]!, hid);
+            this.rRecheck[x] = this.rRecheck[x]! | walked;
+            continue;
+          }
+          walked |= 1 << p;
+        }
+      }
+    }
+    this.fold(x, t, this.rDead[x]!);
+  }
+
+  private markRecheck(x: number, s: number, from: number): void {
+    const low = this.nextId - RING;
+    let loc = x;
+    let slot = s;
+    for (;;) {
+      const prev = this.rPrev[loc * 3 + slot]!;
+      if (prev <= from || prev < low) return;
+      const pl = prev & (RING - 1);
+      this.rRecheck[pl] = -1;
+      slot = this.rPrevSlot[loc * 3 + slot]!;
+      loc = pl;
+    }
+  }
+
+  /** The ring index of instance `prev`, giving up when it left the ring. */
+  private inRing(prev: number): number {
+    if (prev < this.nextId - RING) this.giveUp("a walk reached an instance no longer kept");
+    return prev & (RING - 1);
+  }
+
+  /** engine.ts's findPartner, over the ring. */
+  private findPartner(id: number, x: number, p: number): number {
+    this.walks++;
+    const t = this.rT[x]!;
+    const e = GATE_START[t]! + p;
+    const nq = G_NQ[e]!;
+    const ts = G_OP[e * 3 + nq - 1]!;
+    let steps = 0;
+    let loc = x;
+    let cur = id;
+    let slot = ts;
+    let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
+    for (;;) {
+      const ct = this.rT[loc]!;
+      const list = SLOT_GATES[ct * 3 + slot]!;
+      const dead = this.rDead[loc]!;
+      for (; k >= 0; k--) {
+        const hp = list[k]!;
+        if ((dead >>> hp) & 1) continue;
+        if (steps >= WINDOW) {
+          if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
+          return -1;
+        }
+        steps++;
+        const f = GATE_START[ct]! + hp;
+        if (this.inversePair(x, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
+        if (!this.commute(x, e, loc, f)) return -1;
+      }
+      const prev = this.rPrev[loc * 3 + slot]!;
+      if (prev < 0) return -1;
+      const ps = this.rPrevSlot[loc * 3 + slot]!;
+      loc = this.inRing(prev);
+      cur = prev;
+      slot = ps;
+      k = SLOT_GATES[this.rT[loc]! * 3 + slot]!.length - 1;
+    }
+  }
+
+  private noteSecond(reason: string): void {
+    if (this.flagSecond === null) this.flagSecond = reason;
+  }
+
+  private inversePair(x: number, e: number, loc: number, f: number): boolean {
+    if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
+    const nq = G_NQ[e]!;
+    if (G_NQ[f] !== nq) return false;
+    for (let i = 0; i < nq; i++) if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== this.rW[loc * 3 + G_OP[f * 3 + i]!]) return false;
+    return true;
+  }
+
+  private commute(x: number, e: number, loc: number, f: number): boolean {
+    const nq = G_NQ[e]!;
+    const rw = this.rW;
+    const xb = loc * 3;
+    for (let i = 0; i < nq; i++) {
+      const s = G_OP[e * 3 + i]!;
+      const w = rw[x * 3 + s]!;
+      let rh = -1;
+      if (rw[xb] === w) rh = G_ROLE[f * 3]!;
+      if (rh < 0 && rw[xb + 1] === w) rh = G_ROLE[f * 3 + 1]!;
+      if (rh < 0 && rw[xb + 2] === w) rh = G_ROLE[f * 3 + 2]!;
+      if (rh < 0) continue;
+      const rg = G_ROLE[e * 3 + s]!;
+      if (rg === ROLE_OTHER || rg !== rh) return false;
+    }
+    return true;
+  }
+
+  /** engine.ts's clearBetween, over the ring. */
+  private clearBetween(id: number, x: number, p: number, hid: number, hp: number): boolean {
+    const t = this.rT[x]!;
+    const e = GATE_START[t]! + p;
+    const nq = G_NQ[e]!;
+    for (let i = 0; i + 1 < nq; i++) {
+      const s0 = G_OP[e * 3 + i]!;
+      let steps = 0;
+      let loc = x;
+      let cur = id;
+      let slot = s0;
+      let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
+      for (;;) {
+        const ct = this.rT[loc]!;
+        const list = SLOT_GATES[ct * 3 + slot]!;
+        const dead = this.rDead[loc]!;
+        let stop = false;
+        for (; k >= 0; k--) {
+          const xp = list[k]!;
+          if (cur < hid || (cur === hid && xp <= hp)) {
+            stop = true;
+            break;
+          }
+          if ((dead >>> xp) & 1) continue;
+          if (++steps > WINDOW) {
+            this.noteSecond("the second cancel-inverses reaches its window");
+            return false;
+          }
+          if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
+        }
+        if (stop || cur <= hid) break;
+        const prev = this.rPrev[loc * 3 + slot]!;
+        if (prev < 0) break;
+        const ps = this.rPrevSlot[loc * 3 + slot]!;
+        loc = this.inRing(prev);
+        cur = prev;
+        slot = ps;
+        k = SLOT_GATES[this.rT[loc]! * 3 + slot]!.length - 1;
+      }
+    }
+    return true;
+  }
+
+  // ---- stage 2 (detecting) and the tally: engine.ts's settle --------------------------------
+
+  private settle(id: number): void {
+    const x = id & (RING - 1);
+    const t = this.rT[x]!;
+    const dead = this.rDead[x]!;
+    const slots = SLOTS[t]!;
+    this.done = id + 1;
+    if (this.flagSecond === null) {
+      const later = dead ^ this.rMask1[x]!;
+      const again = this.rRecheck[x]!;
+      if (again !== 0 || later !== 0) {
+        const exits = exitingGates(t, dead);
+        for (let m = exits; m !== 0; m &= m - 1) {
+          const p = 31 - Math.clz32(m & -m);
+          if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
+          const e = GATE_START[t]! + p;
+          const kind = G_KIND[e]!;
+          if (G_NQ[e] === 0 || kind === K.measure || kind === K.reset) continue;
+          if (this.findPartner(id, x, p) >= 0) {
+            this.noteSecond("the second cancel-inverses would cancel more");
+            break;
+          }
+        }
+      }
+    }
+    if (!this.levels) {
+      const base = GATE_START[t]!;
+      const n = gatesOf(t);
+      for (let p = 0; p < n; p++) {
+        if ((dead >>> p) & 1) continue;
+        const k = G_KIND[base + p]!;
+        if (k === K.t || k === K.tdg) this.tCount++;
+        else if (k === K.cx || k === K.cz) this.cnotCount++;
+        else if (k === K.ccx) this.toffoliCount++;
+        else if (k === K.measure) this.measurements++;
+        if (G_PHASE[base + p]! >= 0) this.phaseGates++;
+      }
+      return;
+    }
+    const w0 = this.rW[x * 3]!;
+    const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
+    const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
+    const pend = this.pend;
+    const tr = transferOf(t, dead, slots > 0 ? pend[w0]! : 0, w1 >= 0 ? pend[w1]! : 0, w2 >= 0 ? pend[w2]! : 0, true);
+    this.tCount += tr.tCount;
+    this.cnotCount += tr.cnotCount;
+    this.toffoliCount += tr.toffoliCount;
+    this.measurements += tr.measurements;
+    this.phaseGates += tr.phaseGates;
+    if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
+    if (slots === 0) return;
+    const lv = this.lvl;
+    const tv = this.tlvl;
+    const l0 = lv[w0]!;
+    const l1 = w1 >= 0 ? lv[w1]! : 0;
+    const l2 = w2 >= 0 ? lv[w2]! : 0;
+    const t0 = tv[w0]!;
+    const t1 = w1 >= 0 ? tv[w1]! : 0;
+    const t2 = w2 >= 0 ? tv[w2]! : 0;
+    const lb = this.bitL;
+    const tb = this.bitTL;
+    if (tr.bit !== null) {
+      this.bitL = maxPlus(tr.bit, 0, l0, l1, l2, lb);
+      this.bitTL = maxPlus(tr.bitT!, 0, t0, t1, t2, tb);
+    }
+    const d = tr.d;
+    const dt = tr.dt;
+    const n0 = maxPlus(d, 0, l0, l1, l2, lb);
+    if (n0 > LEVEL_LIMIT) this.giveUp("a level past 2^30");
+    lv[w0] = n0;
+    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
+    pend[w0] = tr.pendOut[0]!;
+    if (w1 >= 0) {
+      const n1 = maxPlus(d, 4, l0, l1, l2, lb);
+      if (n1 > LEVEL_LIMIT) this.giveUp("a level past 2^30");
+      lv[w1] = n1;
+      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
+      pend[w1] = tr.pendOut[1]!;
+    }
+    if (w2 >= 0) {
+      const n2 = maxPlus(d, 8, l0, l1, l2, lb);
+      if (n2 > LEVEL_LIMIT) this.giveUp("a level past 2^30");
+      lv[w2] = n2;
+      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
+      pend[w2] = tr.pendOut[2]!;
+    }
+  }
+}
+
+/** max over inputs j of in_j + o[k + j] (NONE: no path from that input). */
+function maxPlus(o: Int32Array, k: number, a: number, b: number, c: number, bit: number): number {
+  let r = -2147483648;
+  const da = o[k]!;
+  const db = o[k + 1]!;
+  const dc = o[k + 2]!;
+  const dd = o[k + 3]!;
+  if (da !== NONE) r = a + da;
+  if (db !== NONE && b + db > r) r = b + db;
+  if (dc !== NONE && c + dc > r) r = c + dc;
+  if (dd !== NONE && bit + dd > r) r = bit + dd;
+  return r;
+}
+
+/**
+ * Runs `emit` into a sweep; the engine's figures for that stream (optimizer on), or null where
+ * the sweep gave up (the caller then runs the engine).
+ */
+export function sweepCount(opts: SweepOptions, emit: (sink: SweepCounter) => void): EngineResult | null {
+  const sweep = new SweepCounter(opts);
+  try {
+    emit(sweep);
+  } catch (e) {
+    if (e instanceof GiveUp) return null;
+    throw e;
+  }
+  return sweep.finish();
+}

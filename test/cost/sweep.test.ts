@@ -1,0 +1,87 @@
+// The sweep (cost/sweep.ts) against the engine it shortcuts: wherever the sweep gives figures
+// they must be the engine's, on every stream it may be handed (wide, textbook and lean oracles,
+// both kinds, both uncomputations, both bases), and it must not give up on the streams it is
+// used for (the wide and textbook oracles of random formulas, where it is meant to be faster).
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import { cnfFromClauses, type Cnf } from "../helpers/lib.js";
+import { run } from "../../dist/src/cost/run.js";
+import { sweepCount } from "../../dist/src/cost/sweep.js";
+import { LoweringStream, VirtualIds } from "../../dist/src/cost/lowering.js";
+import { leanOracle, textbookOracle, wideOracle } from "../../dist/src/cost/sources.js";
+import { simplify } from "../../dist/src/synth/simplify.js";
+import { randomKSat } from "../helpers/formulas.js";
+
+type Strategy = "wide" | "textbook" | "lean";
+type Kind = "phase" | "flag";
+type Unc = "unitary" | "measured";
+type Basis = "clifford+t" | "toffoli";
+
+const FIGURES = ["qubits", "tCount", "tDepth", "cnotCount", "toffoliCount", "depth", "measurements", "instances", "exact"] as const;
+
+function both(cnf: Cnf, strategy: Strategy, kind: Kind, uncompute: Unc, basis: Basis) {
+  const f = simplify(cnf);
+  const levels = basis === "clifford+t";
+  const mode = { basis, uncompute, toffoliAnds: strategy === "textbook" };
+  const base = f.variables + (kind === "flag" ? 1 : 0);
+  const stream = strategy === "wide" ? wideOracle : strategy === "textbook" ? textbookOracle : leanOracle;
+  const emit = (low: LoweringStream, ids: VirtualIds): void => stream(f, kind, low, ids, f.variables);
+  const engine = run(base, true, levels, mode, emit, { lag: 2048, history: 1, wires: base + 64, ids: base + 1024 });
+  const swept = sweepCount({ base, levels, wires: base + 64, ids: base + 1024 }, (sink) => {
+    const ids = new VirtualIds(base);
+    const low = new LoweringStream(sink, ids, mode, base + 1024, 1024);
+    emit(low, ids);
+    low.finish();
+  });
+  return { engine, swept };
+}
+
+const figures = (r: Record<string, unknown>): Record<string, unknown> => Object.fromEntries(FIGURES.map((k) => [k, r[k]]));
+
+// Few variables and clauses of 1 to 8 literals (repeats and opposite literals included), so that
+// neighbouring clauses share wires, polarities and the work wires reuse hands on.
+const formula = fc.integer({ min: 1, max: 12 }).chain((n) =>
+  fc.record({
+    n: fc.constant(n),
+    clauses: fc.array(fc.array(fc.integer({ min: 1, max: n }).chain((v) => fc.constantFrom(v, -v)), { minLength: 1, maxLength: 8 }), { maxLength: 24 }),
+  }),
+);
+
+describe("sweepCount", () => {
+  it("gives the engine's figures wherever it does not give up (random formulas, every stream, kind, uncomputation and basis)", () => {
+    let swept = 0;
+    fc.assert(
+      fc.property(
+        formula,
+        fc.constantFrom<Strategy>("wide", "textbook", "lean"),
+        fc.constantFrom<Kind>("phase", "flag"),
+        fc.constantFrom<Unc>("unitary", "measured"),
+        fc.constantFrom<Basis>("clifford+t", "toffoli"),
+        ({ n, clauses }, strategy, kind, uncompute, basis) => {
+          const r = both(cnfFromClauses(n, clauses), strategy, kind, uncompute, basis);
+          if (r.swept === null) return;
+          swept++;
+          expect(figures(r.swept as unknown as Record<string, unknown>)).toEqual(figures(r.engine as unknown as Record<string, unknown>));
+        },
+      ),
+      { numRuns: 1500, seed: 20261203 },
+    );
+    // Most runs are swept (it gives up mainly where a walk goes far back).
+    expect(swept).toBeGreaterThan(1000);
+  });
+
+  it("sweeps the Clifford+T wide and textbook oracles of random 3-SAT formulas, with the engine's figures", () => {
+    for (const [n, m, seed] of [[300, 1200, 1], [1000, 4200, 2], [4000, 17000, 3]] as const) {
+      const cnf = randomKSat(n, m, 3, seed);
+      for (const strategy of ["wide", "textbook"] as const) {
+        for (const uncompute of strategy === "wide" ? (["unitary", "measured"] as const) : (["unitary"] as const)) {
+          for (const kind of ["phase", "flag"] as const) {
+            const r = both(cnf, strategy, kind, uncompute, "clifford+t");
+            expect(r.swept, `${strategy} ${uncompute} ${kind} n=${n}`).not.toBeNull();
+            expect(figures(r.swept as unknown as Record<string, unknown>)).toEqual(figures(r.engine as unknown as Record<string, unknown>));
+          }
+        }
+      }
+    }
+  });
+});
