@@ -103,6 +103,11 @@ export class LoweringStream implements LogicalSink {
   private readonly measured: boolean;
   private readonly toffoliAnds: boolean;
   private readonly pair = new Int32Array(2);
+  /** Scratch of one operation: its controls, then what tree() leaves of them. */
+  private tb = new Int32Array(64);
+  /** Scratch of one operation: its ANDs' triples (a, b, w), rn numbers. */
+  private rb = new Int32Array(192);
+  private rn = 0;
 
   /**
    * `qubits`: the ids expected (sizes the per-id tables once; they grow if need be); `records`:
@@ -163,21 +168,24 @@ export class LoweringStream implements LogicalSink {
         return;
       }
     }
-    const c = normalizeControls(ctrls);
-    if (c === null) {
-      this.remember(t, -1, []);
+    const c = this.loadControls(ctrls);
+    this.rn = 0;
+    if (c < 0) {
+      this.remember(t, -1);
       return;
     }
-    if (c.length === 1) {
-      this.copy(c[0]!, t, false);
-      this.remember(t, c[0]!, []);
+    if (c === 1) {
+      const only = this.tb[0]!;
+      this.copy(only, t, false);
+      this.remember(t, only);
       return;
     }
-    const record: number[] = [];
-    const [a, b] = this.tree(c, 2, record);
-    this.and2(a!, b!, t);
-    record.push(a!, b!, t);
-    this.remember(t, -1, record);
+    this.tree(c, 2);
+    const a = this.tb[0]!;
+    const b = this.tb[1]!;
+    this.and2(a, b, t);
+    this.pushTriple(a, b, t);
+    this.remember(t, -1);
   }
 
   andPair(a: number, b: number, t: number): void {
@@ -215,49 +223,48 @@ export class LoweringStream implements LogicalSink {
   /** A multi-controlled X (encoded controls) onto t; `dies`: t is never used again. */
   mcx(ctrls: ArrayLike<number>, t: number, dies: boolean): void {
     this.room(t);
-    const c = normalizeControls(ctrls);
-    if (c === null) return;
+    const c = this.loadControls(ctrls);
+    if (c < 0) return;
     this.plain(t);
-    if (c.length === 0) {
+    if (c === 0) {
       this.out.put(T_X, t, -1, -1, dies ? 1 : 0);
       return;
     }
-    if (c.length === 1) {
-      const qa = this.control(c[0]!);
+    if (c === 1) {
+      const qa = this.control(this.tb[0]!);
       this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
       return;
     }
-    const record: number[] = [];
+    this.rn = 0;
     if (this.cliffordT && this.measured && !this.toffoliAnds) {
-      const [a] = this.tree(c, 1, record);
-      const qa = this.control(a!);
+      this.tree(c, 1);
+      const qa = this.control(this.tb[0]!);
       this.out.put(T_CX, qa, t, -1, dies ? 2 : 0);
     } else {
-      const [a, b] = this.tree(c, 2, record);
-      const qa = this.control(a!);
-      const qb = this.control(b!);
+      this.tree(c, 2);
+      const qa = this.control(this.tb[0]!);
+      const qb = this.control(this.tb[1]!);
       this.ccx(qa, qb, t, dies ? 4 : 0);
     }
-    this.undoTree(record);
+    this.undoTree();
   }
 
   /** A multi-controlled Z over encoded qubits. */
   mcz(qs: ArrayLike<number>): void {
-    const c = normalizeControls(qs);
-    if (c === null) return;
-    if (c.length === 0) {
+    const c = this.loadControls(qs);
+    if (c < 0) return;
+    if (c === 0) {
       this.out.put(T_GPHASE, -1, -1, -1, 0);
       return;
     }
-    const record: number[] = [];
-    const [a, b] = this.tree(c, 2, record);
-    if (b === undefined) this.out.put(T_Z, this.control(a!), -1, -1, 0);
+    this.rn = 0;
+    if (this.tree(c, 2) === 1) this.out.put(T_Z, this.control(this.tb[0]!), -1, -1, 0);
     else {
-      const qa = this.control(a!);
-      const qb = this.control(b);
+      const qa = this.control(this.tb[0]!);
+      const qb = this.control(this.tb[1]!);
       this.out.put(T_CZ, qa, qb, -1, 0);
     }
-    this.undoTree(record);
+    this.undoTree();
   }
 
   /** A plain one-qubit gate (template T_X or T_H) on q, after undoing a pending flip of q. */
@@ -318,8 +325,10 @@ export class LoweringStream implements LogicalSink {
     this.top = need;
   }
 
-  private remember(t: number, copied: number, triples: readonly number[]): void {
-    const need = this.top + 2 + triples.length;
+  /** Records the AND into t: the triples in the scratch (rn numbers), or the control it copied. */
+  private remember(t: number, copied: number): void {
+    const n = this.rn;
+    const need = this.top + 2 + n;
     if (need > this.records.length) {
       const r = this.biggerRecords(need);
       r.set(this.records.subarray(0, this.top));
@@ -327,9 +336,9 @@ export class LoweringStream implements LogicalSink {
     }
     this.recordAt[t] = this.top;
     const r = this.records;
-    r[this.top] = triples.length / 3;
+    r[this.top] = n / 3;
     r[this.top + 1] = copied;
-    for (let i = 0; i < triples.length; i++) r[this.top + 2 + i] = triples[i]!;
+    for (let i = 0; i < n; i++) r[this.top + 2 + i] = this.rb[i]!;
     this.top = need;
   }
 
@@ -388,38 +397,91 @@ export class LoweringStream implements LogicalSink {
     this.out.put(this.cliffordT ? T_TOF7 : T_CCX, a, b, t, dies);
   }
 
-  /** Reduces encoded controls to r of them by 2-input ANDs into fresh qubits (lower.ts's tree). */
-  private tree(items: number[], r: number, record: number[]): number[] {
-    if (items.length === r + 1) {
-      const w = this.ids.take();
-      this.room(w);
-      this.and2(items[0]!, items[1]!, w);
-      record.push(items[0]!, items[1]!, w);
-      return r === 1 ? [pos(w)] : [pos(w), items[2]!];
+  /**
+   * lower.ts's normalizeControls into the scratch `tb`: the number of distinct controls, or -1
+   * when the gate never fires (a qubit wanted both on |0> and on |1>).
+   */
+  private loadControls(ops: ArrayLike<number>): number {
+    const n = ops.length;
+    if (n > this.tb.length) this.tb = new Int32Array(Math.max(n, 2 * this.tb.length));
+    const out = this.tb;
+    if (n > 16) {
+      const c = normalizeControls(ops);
+      if (c === null) return -1;
+      out.set(c);
+      return c.length;
     }
-    while (items.length > r) {
-      const next: number[] = [];
-      let excess = items.length - r;
-      for (let i = 0; i < items.length; ) {
-        if (excess > 0 && i + 1 < items.length) {
-          const w = this.ids.take();
-          this.room(w);
-          this.and2(items[i]!, items[i + 1]!, w);
-          record.push(items[i]!, items[i + 1]!, w);
-          next.push(pos(w));
-          excess--;
-          i += 2;
-        } else next.push(items[i++]!);
+    // Small gates (nearly all): a quadratic scan, as lower.ts does.
+    let k = 0;
+    next: for (let i = 0; i < n; i++) {
+      const op = ops[i]!;
+      for (let j = 0; j < k; j++) {
+        if (out[j]! >>> 1 !== op >>> 1) continue;
+        if (out[j] !== op) return -1;
+        continue next;
       }
-      items = next;
+      out[k++] = op;
     }
-    return items;
+    return k;
   }
 
-  private undoTree(record: readonly number[]): void {
-    for (let i = record.length - 3; i >= 0; i -= 3) {
-      this.unand2(record[i]!, record[i + 1]!, record[i + 2]!, 4);
-      this.ids.give(record[i + 2]!);
+  private pushTriple(a: number, b: number, w: number): void {
+    if (this.rn + 3 > this.rb.length) {
+      const r = new Int32Array(2 * this.rb.length);
+      r.set(this.rb);
+      this.rb = r;
+    }
+    this.rb[this.rn++] = a;
+    this.rb[this.rn++] = b;
+    this.rb[this.rn++] = w;
+  }
+
+  /**
+   * lower.ts's tree over the n encoded controls in `tb`: reduced to r of them by 2-input ANDs
+   * into fresh qubits, level by level, in place; returns how many are left (at the start of
+   * `tb`). The ANDs' triples are added to the scratch `rb`.
+   */
+  private tree(n: number, r: number): number {
+    const tb = this.tb;
+    if (n === r + 1) {
+      const a = tb[0]!;
+      const b = tb[1]!;
+      const w = this.ids.take();
+      this.room(w);
+      this.and2(a, b, w);
+      this.pushTriple(a, b, w);
+      tb[0] = pos(w);
+      if (r === 1) return 1;
+      tb[1] = tb[2]!;
+      return 2;
+    }
+    while (n > r) {
+      let excess = n - r;
+      let j = 0;
+      for (let i = 0; i < n; ) {
+        if (excess > 0 && i + 1 < n) {
+          const a = tb[i]!;
+          const b = tb[i + 1]!;
+          const w = this.ids.take();
+          this.room(w);
+          this.and2(a, b, w);
+          this.pushTriple(a, b, w);
+          tb[j++] = pos(w);
+          excess--;
+          i += 2;
+        } else tb[j++] = tb[i++]!;
+      }
+      n = j;
+    }
+    return n;
+  }
+
+  /** Uncomputes the scratch's ANDs, last first. */
+  private undoTree(): void {
+    const rb = this.rb;
+    for (let i = this.rn - 3; i >= 0; i -= 3) {
+      this.unand2(rb[i]!, rb[i + 1]!, rb[i + 2]!, 4);
+      this.ids.give(rb[i + 2]!);
     }
   }
 }
