@@ -36,13 +36,15 @@ export function leanOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
   let maxK = 0;
   for (let i = 0; i < m; i++) maxK = Math.max(maxK, f.clauseStart[i + 1]! - f.clauseStart[i]!);
   const ctrls = new Int32Array(maxK);
+  // One view per width, made once (a view per clause was a million allocations).
+  const views: Int32Array[] = [];
   const carries = new Int32Array(Math.max(0, w - 1));
   const step = Math.max(1, Math.floor(m / 50));
   const clause = (i: number): Int32Array => {
     const s = f.clauseStart[i]!;
     const k = f.clauseStart[i + 1]! - s;
     for (let j = 0; j < k; j++) ctrls[j] = violatedBy(f.lits[s + j]!);
-    return ctrls.subarray(0, k);
+    return views[k] ?? (views[k] = ctrls.subarray(0, k));
   };
   for (let i = 0; i < m; i++) {
     if (progress && i % step === 0) progress(i / (2 * m));
@@ -140,6 +142,8 @@ export function wideOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
   let maxK = 1;
   for (let i = 0; i < m; i++) maxK = Math.max(maxK, f.clauseStart[i + 1]! - f.clauseStart[i]!);
   const ctrls = new Int32Array(maxK);
+  // One view per width, made once (a view per clause was a million allocations).
+  const views: Int32Array[] = [];
   const bit = new Int32Array(m).fill(-1);
   const ok = new Int32Array(m + (kind === "flag" ? 1 : 0));
   const step = Math.max(1, Math.floor(m / 50));
@@ -147,7 +151,7 @@ export function wideOracle(f: SimplifiedCnf, kind: OracleKind, sink: LogicalSink
     const s = f.clauseStart[i]!;
     const k = f.clauseStart[i + 1]! - s;
     for (let j = 0; j < k; j++) ctrls[j] = violatedBy(f.lits[s + j]!);
-    return ctrls.subarray(0, k);
+    return views[k] ?? (views[k] = ctrls.subarray(0, k));
   };
   for (let i = 0; i < m; i++) {
     if (progress && i % step === 0) progress(i / (2 * m));
@@ -188,6 +192,8 @@ export function textbookOracle(f: SimplifiedCnf, kind: OracleKind, sink: Logical
   let maxK = 1;
   for (let i = 0; i < m; i++) maxK = Math.max(maxK, f.clauseStart[i + 1]! - f.clauseStart[i]!);
   const ctrls = new Int32Array(maxK);
+  // One view per width, made once (a view per clause was a million allocations).
+  const views: Int32Array[] = [];
   const bit = new Int32Array(m);
   const ok = new Int32Array(m);
   const step = Math.max(1, Math.floor(m / 50));
@@ -195,7 +201,7 @@ export function textbookOracle(f: SimplifiedCnf, kind: OracleKind, sink: Logical
     const s = f.clauseStart[i]!;
     const k = f.clauseStart[i + 1]! - s;
     for (let j = 0; j < k; j++) ctrls[j] = violatedBy(f.lits[s + j]!);
-    return ctrls.subarray(0, k);
+    return views[k] ?? (views[k] = ctrls.subarray(0, k));
   };
   const clauseValue = (c: Int32Array, t: number, dies: boolean): void => {
     if (c.length === 1) sink.mcx1(c[0]!, t, dies);

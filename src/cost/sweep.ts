@@ -47,12 +47,22 @@ const DIRTY = 128;
 const COUNT_MASK = 127;
 /**
  * In `flags`: a phase gate of eighths k (bit PHASE_BIT[k]), an X, a gate on several qubits, any
- * other one-qubit gate.
+ * other one-qubit gate, two gates on several qubits (then `mh` no longer says which they are).
  */
 const PHASE_BIT = [0, 1, 2, 0, 4, 0, 8, 16];
 const F_X = 32;
 const F_MULTI = 64;
 const F_ODD = 128;
+const F_MULTI2 = 256;
+
+/** A hash of a gate's kind and operand wires in order (equal gates, equal hashes). */
+function gateHash(kind: number, nq: number, w0: number, w1: number, w2: number): number {
+  let h = Math.imul(kind + 1, 0x9e3779b1);
+  h = Math.imul(h ^ w0, 0x85ebca6b);
+  if (nq > 1) h = Math.imul(h ^ w1, 0xc2b2ae35);
+  if (nq > 2) h = Math.imul(h ^ w2, 0x27d4eb2f);
+  return (h ^ (h >>> 15)) | 1; // never 0 (none)
+}
 
 /** Thrown to stop the stream where the sweep gives up. */
 class GiveUp extends Error {}
@@ -94,20 +104,25 @@ for (let e = 0; e < GATE_START[TEMPLATE_COUNT]!; e++) {
   }
 }
 
-/** A summary: mode, count (with DIRTY), flags, kind of the last gate. */
+/** A summary: mode, count (with DIRTY), flags, kind of the last gate, hash of the last gate on several qubits (0: none). */
 interface Summary {
   mode: number;
   cnt: number;
   flags: number;
   lastKind: number;
+  mh: number;
 }
 
-/** Adds a live gate of the given role, flag and kind to a summary (the rule of the whole sweep). */
-function addTo(m: Summary, role: number, flag: number, kind: number): void {
+/** Adds a live gate of the given role, flag, kind and hash to a summary (the rule of the whole sweep). */
+function addTo(m: Summary, role: number, flag: number, kind: number, hash: number): void {
   const mode = role === ROLE_Z ? MODE_Z : role === ROLE_X ? MODE_X : MODE_OTHER;
   const c = m.cnt;
   if (mode !== MODE_OTHER && mode === m.mode) {
     m.cnt = (c & DIRTY) | Math.min(COUNT_MASK, (c & COUNT_MASK) + 1);
+    if ((flag & F_MULTI) !== 0) {
+      if ((m.flags & F_MULTI) !== 0) m.flags |= F_MULTI2;
+      m.mh = hash;
+    }
     m.flags |= flag;
   } else {
     // A change of role: the gate before bounds the new stretch (unless it is cancelled later),
@@ -116,6 +131,7 @@ function addTo(m: Summary, role: number, flag: number, kind: number): void {
     m.cnt = (c & DIRTY) !== 0 && m.mode === MODE_NONE && mode !== MODE_OTHER ? DIRTY | 1 : 1;
     m.mode = mode;
     m.flags = flag;
+    m.mh = (flag & F_MULTI) !== 0 ? hash : 0;
   }
   m.lastKind = kind;
 }
@@ -130,9 +146,11 @@ interface SlotFold {
   readonly n: number;
   /** The role changes between two of them, or one has role "other": `fixed` is the result. */
   readonly breaks: boolean;
-  /** Without a break: their role and flags. */
+  /** Without a break: their role and flags (F_MULTI2 with two gates on several qubits). */
   readonly role: number;
   readonly flag: number;
+  /** The last gate on several qubits of the final stretch (-1: none), whose hash goes to `mh`. */
+  readonly lastMulti: number;
   /** The summary they make from an empty one (with a break: whatever the wire had). */
   readonly fixed: Summary;
 }
@@ -149,18 +167,24 @@ function slotFold(t: number, dead: number, s: number): SlotFold {
   let breaks = false;
   let role = -1;
   let flag = 0;
-  const fixed: Summary = { mode: MODE_NONE, cnt: 0, flags: 0, lastKind: 255 };
+  let lastMulti = -1;
+  const fixed: Summary = { mode: MODE_NONE, cnt: 0, flags: 0, lastKind: 255, mh: 0 };
   for (let i = 0; i < list.length; i++) {
     if ((dead >>> list[i]!) & 1) continue;
     const e = base + list[i]!;
     const r = G_ROLE[e * 3 + s]!;
     if ((n > 0 && r !== role) || r === ROLE_OTHER) breaks = true;
     role = r;
-    flag |= FLAG_OF[e * 3 + s]!;
-    addTo(fixed, r, FLAG_OF[e * 3 + s]!, G_KIND[e]!);
+    const fl = FLAG_OF[e * 3 + s]!;
+    if ((fl & F_MULTI) !== 0 && (flag & F_MULTI) !== 0) flag |= F_MULTI2;
+    flag |= fl;
+    // The hash is the instance's: 1 marks "some" here; fold() puts the real one.
+    addTo(fixed, r, fl, G_KIND[e]!, 1);
+    if (fixed.mh === 0) lastMulti = -1;
+    else if ((fl & F_MULTI) !== 0) lastMulti = e;
     n++;
   }
-  f = { n, breaks, role, flag, fixed };
+  f = { n, breaks, role, flag, lastMulti, fixed };
   foldCache.set(key, f);
   return f;
 }
@@ -194,8 +218,9 @@ export class SweepCounter implements InstanceSink {
   private lastSlot: Uint8Array = new Uint8Array(0);
   private mode: Uint8Array = new Uint8Array(0);
   private cnt: Uint8Array = new Uint8Array(0);
-  private flags: Uint8Array = new Uint8Array(0);
+  private flags: Uint16Array = new Uint16Array(0);
   private lastKind: Uint8Array = new Uint8Array(0);
+  private mh: Int32Array = new Int32Array(0);
   private wireCap = 0;
 
   private wireOf: Int32Array;
@@ -227,7 +252,7 @@ export class SweepCounter implements InstanceSink {
   }
 
   /** Bytes per wire of the tables below. */
-  private static readonly WIRE_BYTES = 4 + 4 + 4 + 6;
+  private static readonly WIRE_BYTES = 4 + 4 + 4 + 4 + 2 + 5;
 
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
@@ -247,6 +272,13 @@ export class SweepCounter implements InstanceSink {
       b.fill(fill, old.length);
       return b;
     };
+    const u16 = (old: Uint16Array, fill: number): Uint16Array => {
+      const b = new Uint16Array(buf, at, cap);
+      at += 2 * cap;
+      b.set(old);
+      b.fill(fill, old.length);
+      return b;
+    };
     const u8 = (old: Uint8Array, fill: number): Uint8Array => {
       const b = new Uint8Array(buf, at, cap);
       at += cap;
@@ -257,11 +289,12 @@ export class SweepCounter implements InstanceSink {
     this.lvl = i32(this.lvl, 0);
     this.tlvl = i32(this.tlvl, 0);
     this.lastId = i32(this.lastId, -1);
+    this.mh = i32(this.mh, 0);
+    this.flags = u16(this.flags, 0);
     this.pend = u8(this.pend, 0);
     this.lastSlot = u8(this.lastSlot, 0);
     this.mode = u8(this.mode, 0);
     this.cnt = u8(this.cnt, 0);
-    this.flags = u8(this.flags, 0);
     this.lastKind = u8(this.lastKind, 255);
     this.wireCap = cap;
   }
@@ -381,6 +414,7 @@ export class SweepCounter implements InstanceSink {
     m.cnt = this.cnt[w]!;
     m.flags = this.flags[w]!;
     m.lastKind = this.lastKind[w]!;
+    m.mh = this.mh[w]!;
     // The instance's own live gates before it on that slot.
     const list = SLOT_GATES[t * 3 + ts]!;
     const upto = GATE_SLOT_INDEX[e * 3 + ts]!;
@@ -389,7 +423,7 @@ export class SweepCounter implements InstanceSink {
       const q = list[i]!;
       if ((dead >>> q) & 1) continue;
       const f = base + q;
-      addTo(m, G_ROLE[f * 3 + ts]!, FLAG_OF[f * 3 + ts]!, G_KIND[f]!);
+      addTo(m, G_ROLE[f * 3 + ts]!, FLAG_OF[f * 3 + ts]!, G_KIND[f]!, G_NQ[f]! > 1 ? this.hashOf(x, f) : 0);
     }
     const c = m.cnt;
     if ((c & DIRTY) !== 0) return true;
@@ -400,7 +434,15 @@ export class SweepCounter implements InstanceSink {
     // A walker passes every gate of its stretch that shares only this wire with it; its partner
     // has its kind's inverse and as many qubits.
     const f = m.flags;
-    if (nq > 1) return (f & F_MULTI) !== 0;
+    if (nq > 1) {
+      // Its partner would be the gate of the inverse kind on the same wires in the same order.
+      if ((f & F_MULTI2) !== 0) return true;
+      if ((f & F_MULTI) === 0) return false;
+      const w0 = this.rW[x * 3 + G_OP[e * 3]!]!;
+      const w1 = this.rW[x * 3 + G_OP[e * 3 + 1]!]!;
+      const w2 = nq > 2 ? this.rW[x * 3 + G_OP[e * 3 + 2]!]! : -1;
+      return m.mh === gateHash(INVERSE_KIND[G_KIND[e]!]!, nq, w0, w1, w2);
+    }
     if ((f & F_ODD) !== 0) return true;
     if (role === ROLE_Z) {
       const k = G_PHASE[e]!;
@@ -409,7 +451,16 @@ export class SweepCounter implements InstanceSink {
     return G_KIND[e] !== K.x || (f & F_X) !== 0;
   }
 
-  private readonly at: Summary = { mode: 0, cnt: 0, flags: 0, lastKind: 255 };
+  private readonly at: Summary = { mode: 0, cnt: 0, flags: 0, lastKind: 255, mh: 0 };
+
+  /** gateHash of gate e of the instance at ring index x. */
+  private hashOf(x: number, e: number): number {
+    const nq = G_NQ[e]!;
+    const w0 = this.rW[x * 3 + G_OP[e * 3]!]!;
+    const w1 = nq > 1 ? this.rW[x * 3 + G_OP[e * 3 + 1]!]! : -1;
+    const w2 = nq > 2 ? this.rW[x * 3 + G_OP[e * 3 + 2]!]! : -1;
+    return gateHash(G_KIND[e]!, nq, w0, w1, w2);
+  }
 
   /** Folds the instance's live gates into the summaries of its wires. */
   private fold(x: number, t: number, dead: number): void {
@@ -422,6 +473,7 @@ export class SweepCounter implements InstanceSink {
         this.cnt[w] = f.fixed.cnt;
         this.flags[w] = f.fixed.flags;
         this.lastKind[w] = f.fixed.lastKind;
+        this.mh[w] = f.lastMulti >= 0 ? this.hashOf(x, f.lastMulti) : 0;
         continue;
       }
       const mode = f.role === ROLE_Z ? MODE_Z : MODE_X;
@@ -430,11 +482,14 @@ export class SweepCounter implements InstanceSink {
       const n = Math.min(COUNT_MASK, f.n);
       if (mode === was) {
         this.cnt[w] = (c & DIRTY) | Math.min(COUNT_MASK, (c & COUNT_MASK) + n);
-        this.flags[w] = this.flags[w]! | f.flag;
+        const old = this.flags[w]!;
+        this.flags[w] = old | f.flag | ((old & f.flag & F_MULTI) !== 0 ? F_MULTI2 : 0);
+        if (f.lastMulti >= 0) this.mh[w] = this.hashOf(x, f.lastMulti);
       } else {
         this.cnt[w] = (c & DIRTY) !== 0 && was === MODE_NONE ? DIRTY | n : n;
         this.mode[w] = mode;
         this.flags[w] = f.flag;
+        this.mh[w] = f.lastMulti >= 0 ? this.hashOf(x, f.lastMulti) : 0;
       }
       this.lastKind[w] = f.fixed.lastKind;
     }
