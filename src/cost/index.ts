@@ -467,19 +467,20 @@ export interface TableRun {
   readonly bytes: number;
 }
 
-/** Engine bytes per wire (engine.ts: one copy per wire kept) and per instance kept. */
+/** Engine bytes per wire (engine.ts: one copy per wire kept) and per instance kept; the sweep's per wire (sweep.ts). */
 const BYTES_PER_WIRE = 54;
 const BYTES_PER_INSTANCE = 64;
+const SWEEP_BYTES_PER_WIRE = 23;
 
 /**
  * Estimated CPU microseconds per literal of one run of each construction, measured on a
- * million-clause random 3-SAT formula on this kind of 2-core machine (engine and block counter):
+ * million-clause random 3-SAT formula on this kind of 2-core machine (sweep and block counter):
  * used only to share runs between threads, never in a figure.
  */
 const MICROS_PER_LITERAL: Record<AnyStrategy, readonly [cliffordT: number, toffoli: number]> = {
-  wide: [2.1, 1.3],
+  wide: [1.2, 1.3],
   lean: [1.1, 1.2],
-  textbook: [2.7, 1.8],
+  textbook: [1.6, 1.0],
 };
 
 /** The same for the wide oracle's Toffoli tally (toffolis.ts), roughly. */
@@ -527,7 +528,7 @@ export class TableCounter {
       // A structured stream's weight is in instances, about 4 per literal of the clause stream.
       const literals = sw === undefined ? L : sw / 4;
       let bytes: number;
-      if (strategy !== "lean") bytes = (f.variables + literals + 64) * BYTES_PER_WIRE;
+      if (strategy !== "lean") bytes = (f.variables + literals + 64) * SWEEP_BYTES_PER_WIRE;
       else if (sw !== undefined) bytes = levels && uncompute === "unitary" ? (sw + 64) * BYTES_PER_INSTANCE : (f.variables + 64) * BYTES_PER_WIRE;
       // Counted block by block from BLOCKS_FROM clauses (a few MB of states and keys), else a window of instances.
       else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? 16 << 20 : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);

@@ -156,12 +156,24 @@ interface SlotFold {
 }
 
 const foldCache = new Map<number, SlotFold>();
+/** A direct-mapped cache in front of the map (folds of instances with cancelled gates, per instance). */
+const FRONT_BITS = 10;
+const frontKey = new Float64Array(1 << FRONT_BITS).fill(-1);
+const frontVal: SlotFold[] = new Array<SlotFold>(1 << FRONT_BITS);
 
-function slotFold(t: number, dead: number, s: number): SlotFold {
-  const key = (t * 3 + s) * 4294967296 + (dead >>> 0);
+/** The fold of the first `upto` gates of slot s of template t (all of them by default), gates `dead` left out. */
+function slotFold(t: number, dead: number, s: number, upto = SLOT_GATES[t * 3 + s]!.length): SlotFold {
+  const hi = (t * 3 + s) * 64 + upto;
+  const key = hi * 4294967296 + (dead >>> 0);
+  const h = (Math.imul(dead, 0x9e3779b1) ^ Math.imul(hi, 0x85ebca6b)) >>> (32 - FRONT_BITS);
+  if (frontKey[h] === key) return frontVal[h]!;
   let f = foldCache.get(key);
-  if (f !== undefined) return f;
-  const list = SLOT_GATES[t * 3 + s]!;
+  if (f !== undefined) {
+    frontKey[h] = key;
+    frontVal[h] = f;
+    return f;
+  }
+  const list = SLOT_GATES[t * 3 + s]!.subarray(0, upto);
   const base = GATE_START[t]!;
   let n = 0;
   let breaks = false;
@@ -191,6 +203,15 @@ function slotFold(t: number, dead: number, s: number): SlotFold {
 
 const FOLD0: SlotFold[] = [];
 for (let t = 0; t < TEMPLATE_COUNT; t++) for (let s = 0; s < 3; s++) FOLD0[t * 3 + s] = slotFold(t, 0, s);
+/** With nothing dead: the fold of the gates before gate e on its target's slot, PRE0[e]. */
+const PRE0: SlotFold[] = [];
+for (let t = 0; t < TEMPLATE_COUNT; t++) {
+  for (let e = GATE_START[t]!; e < GATE_START[t + 1]!; e++) {
+    const nq = G_NQ[e]!;
+    const ts = nq > 0 ? G_OP[e * 3 + nq - 1]! : 0;
+    PRE0[e] = slotFold(t, 0, ts, nq > 0 ? GATE_SLOT_INDEX[e * 3 + ts]! : 0);
+  }
+}
 
 /**
  * Counts a stream of template instances as the engine does (optimizer on), or gives up. Use
@@ -415,16 +436,8 @@ export class SweepCounter implements InstanceSink {
     m.flags = this.flags[w]!;
     m.lastKind = this.lastKind[w]!;
     m.mh = this.mh[w]!;
-    // The instance's own live gates before it on that slot.
-    const list = SLOT_GATES[t * 3 + ts]!;
-    const upto = GATE_SLOT_INDEX[e * 3 + ts]!;
-    const base = GATE_START[t]!;
-    for (let i = 0; i < upto; i++) {
-      const q = list[i]!;
-      if ((dead >>> q) & 1) continue;
-      const f = base + q;
-      addTo(m, G_ROLE[f * 3 + ts]!, FLAG_OF[f * 3 + ts]!, G_KIND[f]!, G_NQ[f]! > 1 ? this.hashOf(x, f) : 0);
-    }
+    // With the instance's own live gates before it on that slot.
+    this.combine(m, x, dead === 0 ? PRE0[e]! : slotFold(t, dead, ts, GATE_SLOT_INDEX[e * 3 + ts]!));
     const c = m.cnt;
     if ((c & DIRTY) !== 0) return true;
     const role = G_ROLE[e * 3 + ts]!;
@@ -460,6 +473,33 @@ export class SweepCounter implements InstanceSink {
     const w1 = nq > 1 ? this.rW[x * 3 + G_OP[e * 3 + 1]!]! : -1;
     const w2 = nq > 2 ? this.rW[x * 3 + G_OP[e * 3 + 2]!]! : -1;
     return gateHash(G_KIND[e]!, nq, w0, w1, w2);
+  }
+
+  /** Folds gates of the instance at ring index x (as folded in f) into summary m. */
+  private combine(m: Summary, x: number, f: SlotFold): void {
+    if (f.n === 0) return;
+    if (f.breaks) {
+      m.mode = f.fixed.mode;
+      m.cnt = f.fixed.cnt;
+      m.flags = f.fixed.flags;
+      m.lastKind = f.fixed.lastKind;
+      m.mh = f.lastMulti >= 0 ? this.hashOf(x, f.lastMulti) : 0;
+      return;
+    }
+    const mode = f.role === ROLE_Z ? MODE_Z : MODE_X;
+    const c = m.cnt;
+    const n = Math.min(COUNT_MASK, f.n);
+    if (mode === m.mode) {
+      m.cnt = (c & DIRTY) | Math.min(COUNT_MASK, (c & COUNT_MASK) + n);
+      m.flags = m.flags | f.flag | ((m.flags & f.flag & F_MULTI) !== 0 ? F_MULTI2 : 0);
+      if (f.lastMulti >= 0) m.mh = this.hashOf(x, f.lastMulti);
+    } else {
+      m.cnt = (c & DIRTY) !== 0 && m.mode === MODE_NONE ? DIRTY | n : n;
+      m.mode = mode;
+      m.flags = f.flag;
+      m.mh = f.lastMulti >= 0 ? this.hashOf(x, f.lastMulti) : 0;
+    }
+    m.lastKind = f.fixed.lastKind;
   }
 
   /** Folds the instance's live gates into the summaries of its wires. */
