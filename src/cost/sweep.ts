@@ -136,6 +136,22 @@ function addTo(m: Summary, role: number, flag: number, kind: number, hash: numbe
   m.lastKind = kind;
 }
 
+/** A wire's summary as one number (see SweepCounter.sum). */
+function pack(m: Summary): number {
+  return m.mode | (m.cnt << 2) | (m.flags << 10) | (m.lastKind << 19);
+}
+
+function unpack(m: Summary, v: number, mh: number): void {
+  m.mode = v & 3;
+  m.cnt = (v >>> 2) & 255;
+  m.flags = (v >>> 10) & 511;
+  m.lastKind = (v >>> 19) & 255;
+  m.mh = mh;
+}
+
+/** A wire with no gate yet. */
+const EMPTY_SUM = 255 << 19;
+
 /**
  * What the live gates of one slot of a template do to the summary of its wire, folded once:
  * either a stretch of one role (accumulated onto the wire's when it has that role), or, when the
@@ -237,10 +253,8 @@ export class SweepCounter implements InstanceSink {
   private pend: Uint8Array = new Uint8Array(0);
   private lastId: Int32Array = new Int32Array(0);
   private lastSlot: Uint8Array = new Uint8Array(0);
-  private mode: Uint8Array = new Uint8Array(0);
-  private cnt: Uint8Array = new Uint8Array(0);
-  private flags: Uint16Array = new Uint16Array(0);
-  private lastKind: Uint8Array = new Uint8Array(0);
+  /** The summary of each wire, packed: mode (bits 0-1), count with DIRTY (2-9), flags (10-18), kind of the last gate (19-26). */
+  private sum: Int32Array = new Int32Array(0);
   private mh: Int32Array = new Int32Array(0);
   private wireCap = 0;
 
@@ -273,7 +287,7 @@ export class SweepCounter implements InstanceSink {
   }
 
   /** Bytes per wire of the tables below. */
-  private static readonly WIRE_BYTES = 4 + 4 + 4 + 4 + 2 + 5;
+  private static readonly WIRE_BYTES = 4 + 4 + 4 + 4 + 4 + 2;
 
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
@@ -293,13 +307,6 @@ export class SweepCounter implements InstanceSink {
       b.fill(fill, old.length);
       return b;
     };
-    const u16 = (old: Uint16Array, fill: number): Uint16Array => {
-      const b = new Uint16Array(buf, at, cap);
-      at += 2 * cap;
-      b.set(old);
-      b.fill(fill, old.length);
-      return b;
-    };
     const u8 = (old: Uint8Array, fill: number): Uint8Array => {
       const b = new Uint8Array(buf, at, cap);
       at += cap;
@@ -311,12 +318,9 @@ export class SweepCounter implements InstanceSink {
     this.tlvl = i32(this.tlvl, 0);
     this.lastId = i32(this.lastId, -1);
     this.mh = i32(this.mh, 0);
-    this.flags = u16(this.flags, 0);
+    this.sum = i32(this.sum, EMPTY_SUM);
     this.pend = u8(this.pend, 0);
     this.lastSlot = u8(this.lastSlot, 0);
-    this.mode = u8(this.mode, 0);
-    this.cnt = u8(this.cnt, 0);
-    this.lastKind = u8(this.lastKind, 255);
     this.wireCap = cap;
   }
 
@@ -431,11 +435,7 @@ export class SweepCounter implements InstanceSink {
     const ts = G_OP[e * 3 + nq - 1]!;
     const w = this.rW[x * 3 + ts]!;
     const m = this.at;
-    m.mode = this.mode[w]!;
-    m.cnt = this.cnt[w]!;
-    m.flags = this.flags[w]!;
-    m.lastKind = this.lastKind[w]!;
-    m.mh = this.mh[w]!;
+    unpack(m, this.sum[w]!, this.mh[w]!);
     // With the instance's own live gates before it on that slot.
     this.combine(m, x, dead === 0 ? PRE0[e]! : slotFold(t, dead, ts, GATE_SLOT_INDEX[e * 3 + ts]!));
     const c = m.cnt;
@@ -504,34 +504,15 @@ export class SweepCounter implements InstanceSink {
 
   /** Folds the instance's live gates into the summaries of its wires. */
   private fold(x: number, t: number, dead: number): void {
+    const m = this.at;
     for (let s = 0; s < SLOTS[t]!; s++) {
       const f = dead === 0 ? FOLD0[t * 3 + s]! : slotFold(t, dead, s);
       if (f.n === 0) continue;
       const w = this.rW[x * 3 + s]!;
-      if (f.breaks) {
-        this.mode[w] = f.fixed.mode;
-        this.cnt[w] = f.fixed.cnt;
-        this.flags[w] = f.fixed.flags;
-        this.lastKind[w] = f.fixed.lastKind;
-        this.mh[w] = f.lastMulti >= 0 ? this.hashOf(x, f.lastMulti) : 0;
-        continue;
-      }
-      const mode = f.role === ROLE_Z ? MODE_Z : MODE_X;
-      const c = this.cnt[w]!;
-      const was = this.mode[w]!;
-      const n = Math.min(COUNT_MASK, f.n);
-      if (mode === was) {
-        this.cnt[w] = (c & DIRTY) | Math.min(COUNT_MASK, (c & COUNT_MASK) + n);
-        const old = this.flags[w]!;
-        this.flags[w] = old | f.flag | ((old & f.flag & F_MULTI) !== 0 ? F_MULTI2 : 0);
-        if (f.lastMulti >= 0) this.mh[w] = this.hashOf(x, f.lastMulti);
-      } else {
-        this.cnt[w] = (c & DIRTY) !== 0 && was === MODE_NONE ? DIRTY | n : n;
-        this.mode[w] = mode;
-        this.flags[w] = f.flag;
-        this.mh[w] = f.lastMulti >= 0 ? this.hashOf(x, f.lastMulti) : 0;
-      }
-      this.lastKind[w] = f.fixed.lastKind;
+      unpack(m, this.sum[w]!, this.mh[w]!);
+      this.combine(m, x, f);
+      this.sum[w] = pack(m);
+      this.mh[w] = m.mh;
     }
   }
 
@@ -539,8 +520,7 @@ export class SweepCounter implements InstanceSink {
   private dirty(x: number, e: number): void {
     for (let i = 0; i < G_NQ[e]!; i++) {
       const w = this.rW[x * 3 + G_OP[e * 3 + i]!]!;
-      this.cnt[w] = this.cnt[w]! | DIRTY;
-      this.mode[w] = MODE_NONE;
+      this.sum[w] = (this.sum[w]! & ~3) | (DIRTY << 2);
     }
   }
 
