@@ -624,8 +624,12 @@ class Qasm3Reader {
         continue;
       }
       let col = 0;
-      for (const part of body.split(";")) {
+      const parts = body.split(";");
+      for (let i = 0; i < parts.length; i++) {
+        const part = parts[i]!;
         if (part.trim() !== "") out.push({ text: part.trim(), at: at + col + (part.length - part.trimStart().length) });
+        // The official grammar (qasm3Parser.g4) has no empty statement: a ';' must end one.
+        else if (i < parts.length - 1) throw qstop(at + col + part.length, "expected a statement before ';' but found none (OpenQASM 3 has no empty statement)", "remove the extra ';'");
         col += part.length + 1;
       }
       if (!body.endsWith(";")) {

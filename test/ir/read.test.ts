@@ -201,6 +201,9 @@ describe("readCircuitQasm3: every fault class is refused at the offending operan
     // CR line ends: the whole file would be one line, all of it after the first // a comment.
     ["bare CR line ends", `OPENQASM 3.0;§\r// ${WIDE}\rinclude "stdgates.inc";\rqubit[4] vars;\r`, /^a bare carriage return \(CR, not followed by LF\): it is not a line end$/],
     ["a bare CR inside a line", `${head}qubit[1] work;§\rx vars[0];\n`, /bare carriage return/],
+    // No empty statement in the official grammar (qasm3Parser.g4, openqasm/openqasm).
+    ["a lone ';'", `${head}x vars[0];\n§;\n`, /^expected a statement before ';' but found none/],
+    ["a doubled ';'", `${head}x vars[0];§;\n`, /^expected a statement before ';' but found none/],
   ];
   for (const [name, template, message] of cases) it(name, () => expectRejected(template, message, readCircuitQasm3));
   it("invalid UTF-8 in a comment is refused at its byte", () => {
