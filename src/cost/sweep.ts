@@ -439,10 +439,15 @@ export class SweepCounter implements InstanceSink {
     // With the instance's own live gates before it on that slot.
     this.combine(m, x, dead === 0 ? PRE0[e]! : slotFold(t, dead, ts, GATE_SLOT_INDEX[e * 3 + ts]!));
     const c = m.cnt;
-    if ((c & DIRTY) !== 0) return true;
+    // A dirty wire: the stretch may reach past a cancelled gate. But every gate added since the
+    // last cancellation on it is live (a cancellation resets the mode to none), so while the mode
+    // is known the newest gate is known: a walk of another role stops there, and a walk of role
+    // "other" pairs only with it.
+    const known = (c & DIRTY) === 0 || m.mode !== MODE_NONE;
     const role = G_ROLE[e * 3 + ts]!;
-    if (role === ROLE_OTHER) return INVERSE_KIND[G_KIND[e]!] === m.lastKind;
-    if ((role === ROLE_Z ? MODE_Z : MODE_X) !== m.mode) return false;
+    if (role === ROLE_OTHER) return !known || INVERSE_KIND[G_KIND[e]!] === m.lastKind;
+    if ((role === ROLE_Z ? MODE_Z : MODE_X) !== m.mode) return !known;
+    if ((c & DIRTY) !== 0) return true;
     if ((c & COUNT_MASK) >= WINDOW - 1) return true;
     // A walker passes every gate of its stretch that shares only this wire with it; its partner
     // has its kind's inverse and as many qubits.
