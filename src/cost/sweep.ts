@@ -10,11 +10,13 @@
  * commute.ts's roles) stops them unless it undoes them, and an undoing gate acts in the same
  * role. So the sweep keeps, per wire, a summary of the gates since the wire's last change of role
  * (the "stretch" a walk of that role could pass): the role, how many gates, which phase kinds, an
- * X, a gate on more qubits, the kind of the last gate. A walk is replayed (as the engine does it,
- * over a short ring of recent instances) only when the summary says it could find a partner;
- * otherwise it stops without one, as the engine's would. Once a gate on a wire is cancelled the
- * wire's summary no longer bounds its stretch (the stretch may now reach past the cancelled gate):
- * every walk along that wire is replayed until the wire changes role again.
+ * X, whether one or more gates on several qubits (and a hash of the last one's kind and wires),
+ * the kind of the newest gate. A walk is replayed (as the engine does it, over a short ring of
+ * recent instances) only when the summary says it could find a partner; otherwise it stops without
+ * one, as the engine's would. Once a gate on a wire is cancelled the wire's summary no longer
+ * bounds its stretch (the stretch may now reach past the cancelled gate): every walk of the
+ * stretch's role along that wire is replayed until the wire changes role again (a walk of
+ * another role still stops at the newest gate, which is live and known).
  *
  * The tally (levels, merge-phases, counts) is the engine's settle, with levels in 32-bit integers.
  * The sweep gives up (returns null: run the engine) where the engine would need more than the
@@ -271,7 +273,7 @@ export class SweepCounter implements InstanceSink {
   private bitL = 0;
   private bitTL = 0;
   private flagSecond: string | null = null;
-  /** Walks replayed (for the bench's figures). */
+  /** Walks replayed (a measure of how often the summaries could not decide). */
   walks = 0;
   /** Why the sweep gave up, or null. */
   gaveUp: string | null = null;
