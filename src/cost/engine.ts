@@ -29,11 +29,11 @@
  */
 import { K, INVERSE_KIND } from "../ir/kinds.js";
 import {
-  FIRST_TOUCH, LAST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
+  FIRST_TOUCH, LAST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
   exitingGates, gatesOf, ROLE_OTHER, ROLE_Z, TEMPLATE_COUNT,
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
-import { finalRun, NONE, transferOf } from "./transfer.js";
+import { InstanceTally } from "./tally.js";
 
 /** What the engine counts. */
 export interface EngineOptions {
@@ -139,11 +139,6 @@ export interface EngineResult {
   readonly toffoliOnly?: boolean;
 }
 
-const KIND_CX = K.cx;
-const KIND_CZ = K.cz;
-const KIND_CCX = K.ccx;
-const KIND_T = K.t;
-const KIND_TDG = K.tdg;
 const KIND_MEASURE = K.measure;
 const KIND_RESET = K.reset;
 
@@ -161,7 +156,6 @@ for (let t = 0; t < TEMPLATE_COUNT; t++) {
 export class CountingEngine implements InstanceSink {
   private base: number;
   private readonly optimize: boolean;
-  private readonly levels: boolean;
   private readonly second: boolean;
   /** Instances replayed before one is final; grows with the stream up to maxLag. */
   private lag = 64;
@@ -228,13 +222,7 @@ export class CountingEngine implements InstanceSink {
   private workWires = 0;
 
   // Figures.
-  private tCount = 0;
-  private cnotCount = 0;
-  private toffoliCount = 0;
-  private measurements = 0;
-  private bitL = 0;
-  private bitTL = 0;
-  private phaseGates = 0;
+  private readonly tally: InstanceTally;
   private flagHard: string | null = null;
   private historyShort = false;
   private lagShort = false;
@@ -251,8 +239,8 @@ export class CountingEngine implements InstanceSink {
   constructor(opts: EngineOptions) {
     this.base = opts.base;
     this.optimize = opts.optimize;
-    this.levels = opts.levels;
     this.second = opts.second ?? true;
+    this.tally = new InstanceTally(opts.levels, opts.optimize);
     this.maxLag = opts.lag ?? 65536;
     this.lag = this.maxLag === Infinity || opts.eagerLag === true ? this.maxLag : Math.min(1024, this.maxLag);
     this.ringSize = 0;
@@ -372,6 +360,9 @@ export class CountingEngine implements InstanceSink {
     pend.fill(0, old);
     this.lvl = lvl;
     this.tlvl = tlvl;
+    this.tally.lvl = lvl;
+    this.tally.tlvl = tlvl;
+    this.tally.pend = pend;
     this.lastId = lastId;
     this.seq = seq;
     this.cp = cp;
@@ -479,34 +470,22 @@ export class CountingEngine implements InstanceSink {
   finish(): EngineResult {
     while (this.done < this.nextId) this.settle(this.done);
     const wires = this.base + this.workWires;
-    let depth = 0;
-    let tDepth = 0;
-    for (let w = 0; w < wires; w++) {
-      if (this.levels && this.optimize) {
-        // merge-phases' last flush, in qubit order.
-        const run = finalRun(this.pend[w]!);
-        this.lvl[w]! += run.gates;
-        this.tlvl[w]! += run.tGates;
-        this.tCount += run.tGates;
-        this.pend[w] = 0;
-      }
-      depth = Math.max(depth, this.lvl[w]!);
-      tDepth = Math.max(tDepth, this.tlvl[w]!);
-    }
+    const { depth, tDepth } = this.tally.finish(wires);
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
-    if (this.phaseGates >= 2 && this.flagSecond !== null && this.flagBound === null) this.flagBound = this.flagSecond;
-    const secondNeeded = this.optimize && !this.second && this.phaseGates >= 2;
+    const tally = this.tally;
+    if (tally.phaseGates >= 2 && this.flagSecond !== null && this.flagBound === null) this.flagBound = this.flagSecond;
+    const secondNeeded = this.optimize && !this.second && tally.phaseGates >= 2;
     if (secondNeeded) this.flagHard ??= "the second cancel-inverses was not replayed";
     const exact = this.flagHard === null && this.flagBound === null;
     return {
       qubits: wires,
-      tCount: this.tCount,
-      tDepth: this.levels ? tDepth : 0,
-      cnotCount: this.cnotCount,
-      toffoliCount: this.toffoliCount,
-      depth: this.levels ? depth : 0,
-      measurements: this.measurements,
+      tCount: tally.tCount,
+      tDepth,
+      cnotCount: tally.cnotCount,
+      toffoliCount: tally.toffoliCount,
+      depth,
+      measurements: tally.measurements,
       instances: this.nextId,
       exact,
       upperBound: !exact && this.flagHard === null,
@@ -573,11 +552,7 @@ export class CountingEngine implements InstanceSink {
     this.ringLow = 0;
     this.freeTop = 0;
     this.workWires = 0;
-    this.tCount = 0;
-    this.cnotCount = 0;
-    this.toffoliCount = 0;
-    this.measurements = 0;
-    this.phaseGates = 0;
+    this.tally.reset();
     this.flagHard = null;
     this.historyShort = false;
     this.lagShort = false;
@@ -952,74 +927,9 @@ export class CountingEngine implements InstanceSink {
         }
       }
     }
-    if (!this.levels) {
-      const base = GATE_START[t]!;
-      const n = gatesOf(t);
-      for (let p = 0; p < n; p++) {
-        if ((dead >>> p) & 1) continue;
-        const k = G_KIND[base + p]!;
-        if (k === KIND_T || k === KIND_TDG) this.tCount++;
-        else if (k === KIND_CX || k === KIND_CZ) this.cnotCount++;
-        else if (k === KIND_CCX) this.toffoliCount++;
-        else if (k === KIND_MEASURE) this.measurements++;
-        if (G_PHASE[base + p]! >= 0) this.phaseGates++;
-      }
-      return;
-    }
-    const w0 = this.rW[x * 3]!;
+    const w0 = slots > 0 ? this.rW[x * 3]! : -1;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
     const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
-    const pend = this.pend;
-    const tr = transferOf(t, dead, slots > 0 ? pend[w0]! : 0, w1 >= 0 ? pend[w1]! : 0, w2 >= 0 ? pend[w2]! : 0, this.optimize);
-    this.tCount += tr.tCount;
-    this.cnotCount += tr.cnotCount;
-    this.toffoliCount += tr.toffoliCount;
-    this.measurements += tr.measurements;
-    this.phaseGates += tr.phaseGates;
-    if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
-    if (slots === 0) return;
-    const lv = this.lvl;
-    const tv = this.tlvl;
-    const l0 = lv[w0]!;
-    const l1 = w1 >= 0 ? lv[w1]! : 0;
-    const l2 = w2 >= 0 ? lv[w2]! : 0;
-    const t0 = tv[w0]!;
-    const t1 = w1 >= 0 ? tv[w1]! : 0;
-    const t2 = w2 >= 0 ? tv[w2]! : 0;
-    const lb = this.bitL;
-    const tb = this.bitTL;
-    if (tr.bit !== null) {
-      this.bitL = maxPlus(tr.bit, 0, l0, l1, l2, lb);
-      this.bitTL = maxPlus(tr.bitT!, 0, t0, t1, t2, tb);
-    }
-    const d = tr.d;
-    const dt = tr.dt;
-    lv[w0] = maxPlus(d, 0, l0, l1, l2, lb);
-    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
-    pend[w0] = tr.pendOut[0]!;
-    if (w1 >= 0) {
-      lv[w1] = maxPlus(d, 4, l0, l1, l2, lb);
-      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
-      pend[w1] = tr.pendOut[1]!;
-    }
-    if (w2 >= 0) {
-      lv[w2] = maxPlus(d, 8, l0, l1, l2, lb);
-      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
-      pend[w2] = tr.pendOut[2]!;
-    }
+    if (this.tally.add(t, dead, w0, w1, w2)) this.noteSecond("merge-phases removed a run of phase gates alone");
   }
-}
-
-/** max over inputs j of in_j + o[k + j] (NONE: no path from that input). */
-function maxPlus(o: Int32Array, k: number, a: number, b: number, c: number, bit: number): number {
-  let r = -Infinity;
-  const da = o[k]!;
-  const db = o[k + 1]!;
-  const dc = o[k + 2]!;
-  const dd = o[k + 3]!;
-  if (da !== NONE) r = a + da;
-  if (db !== NONE && b + db > r) r = b + db;
-  if (dc !== NONE && c + dc > r) r = c + dc;
-  if (dd !== NONE && bit + dd > r) r = bit + dd;
-  return r;
 }

@@ -470,7 +470,7 @@ export interface TableRun {
 /** Engine bytes per wire (engine.ts: one copy per wire kept) and per instance kept; the sweep's per wire (sweep.ts). */
 const BYTES_PER_WIRE = 54;
 const BYTES_PER_INSTANCE = 64;
-const SWEEP_BYTES_PER_WIRE = 22;
+const SWEEP_BYTES_PER_WIRE = 30;
 
 /**
  * Estimated CPU microseconds per literal of one run of each construction, measured on a

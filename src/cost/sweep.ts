@@ -18,10 +18,10 @@
  * stretch's role along that wire is replayed until the wire changes role again (a walk of
  * another role still stops at the newest gate, which is live and known).
  *
- * The tally (levels, merge-phases, counts) is the engine's settle, with levels in 32-bit integers.
- * The sweep gives up (returns null: run the engine) where the engine would need more than the
- * ring: a walk reaching an instance that left it, a cancellation reaching an instance already
- * counted, a level past 2^30, or any case where the engine would report an upper bound.
+ * The tally (levels, merge-phases, counts) is the engine's (tally.ts). The sweep gives up
+ * (returns null: run the engine) where the engine would need more than the ring (a walk reaching
+ * an instance that left it, a cancellation reaching an instance already counted), or where the
+ * engine would report an upper bound.
  * test/cost/sweep.test.ts holds its figures equal to the engine's.
  */
 import { INVERSE_KIND, K, ROLE_OTHER, ROLE_X, ROLE_Z } from "../ir/kinds.js";
@@ -31,13 +31,11 @@ import {
   FIRST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, LAST_TOUCH, SLOT_GATES, SLOTS, TEMPLATE_COUNT, WINDOW,
   exitingGates, gatesOf,
 } from "./templates.js";
-import { finalRun, NONE, transferOf } from "./transfer.js";
+import { InstanceTally } from "./tally.js";
 
 /** Instances kept (a power of two) and instances replayed before one is counted. */
 const RING = 1 << 10;
 const LAG = RING >> 2;
-/** Levels past this give up (32-bit levels). */
-const LEVEL_LIMIT = 2 ** 30;
 
 /** Summary modes: the role of the wire's current stretch. */
 const MODE_NONE = 0;
@@ -237,7 +235,6 @@ for (let t = 0; t < TEMPLATE_COUNT; t++) {
  */
 export class SweepCounter implements InstanceSink {
   private readonly base: number;
-  private readonly levels: boolean;
   // Instances, in a ring (as the engine's).
   private readonly rT = new Uint8Array(RING);
   private readonly rW = new Int32Array(RING * 3);
@@ -250,8 +247,8 @@ export class SweepCounter implements InstanceSink {
   private done = 0;
 
   // Wires.
-  private lvl: Int32Array = new Int32Array(0);
-  private tlvl: Int32Array = new Int32Array(0);
+  private lvl: Float64Array = new Float64Array(0);
+  private tlvl: Float64Array = new Float64Array(0);
   private pend: Uint8Array = new Uint8Array(0);
   private lastId: Int32Array = new Int32Array(0);
   private lastSlot: Uint8Array = new Uint8Array(0);
@@ -265,13 +262,7 @@ export class SweepCounter implements InstanceSink {
   private freeTop = 0;
   private workWires = 0;
 
-  private tCount = 0;
-  private cnotCount = 0;
-  private toffoliCount = 0;
-  private measurements = 0;
-  private phaseGates = 0;
-  private bitL = 0;
-  private bitTL = 0;
+  private readonly tally: InstanceTally;
   private flagSecond: string | null = null;
   /** Walks replayed (a measure of how often the summaries could not decide). */
   walks = 0;
@@ -282,14 +273,14 @@ export class SweepCounter implements InstanceSink {
 
   constructor(opts: SweepOptions) {
     this.base = opts.base;
-    this.levels = opts.levels;
+    this.tally = new InstanceTally(opts.levels, true);
     this.wireMemory = opts.wireMemory ?? null;
     this.growWires(Math.max(64, opts.base + 64, opts.wires ?? 0));
     this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
   }
 
   /** Bytes per wire of the tables below. */
-  private static readonly WIRE_BYTES = 4 + 4 + 4 + 4 + 4 + 2;
+  private static readonly WIRE_BYTES = 8 + 8 + 4 + 4 + 4 + 2;
 
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
@@ -302,6 +293,13 @@ export class SweepCounter implements InstanceSink {
       if (this.wireMemory !== null) this.wireMemory.buffer = buf;
     }
     let at = 0;
+    const f64 = (old: Float64Array): Float64Array => {
+      const b = new Float64Array(buf, at, cap);
+      at += 8 * cap;
+      b.set(old);
+      b.fill(0, old.length);
+      return b;
+    };
     const i32 = (old: Int32Array, fill: number): Int32Array => {
       const b = new Int32Array(buf, at, cap);
       at += 4 * cap;
@@ -316,12 +314,15 @@ export class SweepCounter implements InstanceSink {
       b.fill(fill, old.length);
       return b;
     };
-    this.lvl = i32(this.lvl, 0);
-    this.tlvl = i32(this.tlvl, 0);
+    this.lvl = f64(this.lvl);
+    this.tlvl = f64(this.tlvl);
     this.lastId = i32(this.lastId, -1);
     this.mh = i32(this.mh, 0);
     this.sum = i32(this.sum, EMPTY_SUM);
     this.pend = u8(this.pend, 0);
+    this.tally.lvl = this.lvl;
+    this.tally.tlvl = this.tlvl;
+    this.tally.pend = this.pend;
     this.lastSlot = u8(this.lastSlot, 0);
     this.wireCap = cap;
   }
@@ -397,28 +398,16 @@ export class SweepCounter implements InstanceSink {
       throw e;
     }
     const wires = this.base + this.workWires;
-    let depth = 0;
-    let tDepth = 0;
-    for (let w = 0; w < wires; w++) {
-      let l = this.lvl[w]!;
-      let tl = this.tlvl[w]!;
-      if (this.levels) {
-        const run = finalRun(this.pend[w]!);
-        l += run.gates;
-        tl += run.tGates;
-        this.tCount += run.tGates;
-      }
-      if (l > depth) depth = l;
-      if (tl > tDepth) tDepth = tl;
-    }
+    const { depth, tDepth } = this.tally.finish(wires);
+    const tally = this.tally;
     // As the engine: the second cancel-inverses runs only when merge-phases met two phase gates.
-    if (this.phaseGates >= 2 && this.flagSecond !== null) {
+    if (tally.phaseGates >= 2 && this.flagSecond !== null) {
       this.gaveUp = this.flagSecond;
       return null;
     }
     return {
-      qubits: wires, tCount: this.tCount, tDepth: this.levels ? tDepth : 0, cnotCount: this.cnotCount, toffoliCount: this.toffoliCount,
-      depth: this.levels ? depth : 0, measurements: this.measurements, instances: this.nextId, exact: true, upperBound: false, reason: null,
+      qubits: wires, tCount: tally.tCount, tDepth, cnotCount: tally.cnotCount, toffoliCount: tally.toffoliCount,
+      depth, measurements: tally.measurements, instances: this.nextId, exact: true, upperBound: false, reason: null,
       historyShort: false, lagShort: false, secondNeeded: false,
     };
   }
@@ -729,82 +718,11 @@ export class SweepCounter implements InstanceSink {
         }
       }
     }
-    if (!this.levels) {
-      const base = GATE_START[t]!;
-      const n = gatesOf(t);
-      for (let p = 0; p < n; p++) {
-        if ((dead >>> p) & 1) continue;
-        const k = G_KIND[base + p]!;
-        if (k === K.t || k === K.tdg) this.tCount++;
-        else if (k === K.cx || k === K.cz) this.cnotCount++;
-        else if (k === K.ccx) this.toffoliCount++;
-        else if (k === K.measure) this.measurements++;
-        if (G_PHASE[base + p]! >= 0) this.phaseGates++;
-      }
-      return;
-    }
-    const w0 = this.rW[x * 3]!;
+    const w0 = slots > 0 ? this.rW[x * 3]! : -1;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
     const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
-    const pend = this.pend;
-    const tr = transferOf(t, dead, slots > 0 ? pend[w0]! : 0, w1 >= 0 ? pend[w1]! : 0, w2 >= 0 ? pend[w2]! : 0, true);
-    this.tCount += tr.tCount;
-    this.cnotCount += tr.cnotCount;
-    this.toffoliCount += tr.toffoliCount;
-    this.measurements += tr.measurements;
-    this.phaseGates += tr.phaseGates;
-    if (tr.vanished) this.noteSecond("merge-phases removed a run of phase gates alone");
-    if (slots === 0) return;
-    const lv = this.lvl;
-    const tv = this.tlvl;
-    const l0 = lv[w0]!;
-    const l1 = w1 >= 0 ? lv[w1]! : 0;
-    const l2 = w2 >= 0 ? lv[w2]! : 0;
-    const t0 = tv[w0]!;
-    const t1 = w1 >= 0 ? tv[w1]! : 0;
-    const t2 = w2 >= 0 ? tv[w2]! : 0;
-    const lb = this.bitL;
-    const tb = this.bitTL;
-    if (tr.bit !== null) {
-      this.bitL = maxPlus(tr.bit, 0, l0, l1, l2, lb);
-      this.bitTL = maxPlus(tr.bitT!, 0, t0, t1, t2, tb);
-    }
-    const d = tr.d;
-    const dt = tr.dt;
-    const n0 = maxPlus(d, 0, l0, l1, l2, lb);
-    if (n0 > LEVEL_LIMIT) this.giveUp("a level past 2^30");
-    lv[w0] = n0;
-    tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
-    pend[w0] = tr.pendOut[0]!;
-    if (w1 >= 0) {
-      const n1 = maxPlus(d, 4, l0, l1, l2, lb);
-      if (n1 > LEVEL_LIMIT) this.giveUp("a level past 2^30");
-      lv[w1] = n1;
-      tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
-      pend[w1] = tr.pendOut[1]!;
-    }
-    if (w2 >= 0) {
-      const n2 = maxPlus(d, 8, l0, l1, l2, lb);
-      if (n2 > LEVEL_LIMIT) this.giveUp("a level past 2^30");
-      lv[w2] = n2;
-      tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
-      pend[w2] = tr.pendOut[2]!;
-    }
+    if (this.tally.add(t, dead, w0, w1, w2)) this.noteSecond("merge-phases removed a run of phase gates alone");
   }
-}
-
-/** max over inputs j of in_j + o[k + j] (NONE: no path from that input). */
-function maxPlus(o: Int32Array, k: number, a: number, b: number, c: number, bit: number): number {
-  let r = -2147483648;
-  const da = o[k]!;
-  const db = o[k + 1]!;
-  const dc = o[k + 2]!;
-  const dd = o[k + 3]!;
-  if (da !== NONE) r = a + da;
-  if (db !== NONE && b + db > r) r = b + db;
-  if (dc !== NONE && c + dc > r) r = c + dc;
-  if (dd !== NONE && bit + dd > r) r = bit + dd;
-  return r;
 }
 
 /**
