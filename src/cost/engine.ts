@@ -27,10 +27,10 @@
  * longer kept, makes the run fall short (lagShort, historyShort): cost/index.ts then runs it again
  * keeping more, at last everything, so that a shortfall never reaches a result.
  */
-import { K, INVERSE_KIND } from "../ir/kinds.js";
+import { K } from "../ir/kinds.js";
 import {
-  FIRST_TOUCH, LAST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
-  exitingGates, gatesOf, ROLE_OTHER, ROLE_Z, TEMPLATE_COUNT,
+  FIRST_TOUCH, LAST_TOUCH, G_KIND, G_NQ, G_OP, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
+  commuteOn, exitingGates, gatesOf, inverseOn, ROLE_Z, TEMPLATE_COUNT,
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
 import { InstanceTally } from "./tally.js";
@@ -812,35 +812,12 @@ export class CountingEngine implements InstanceSink {
 
   /** commute.ts's inversePair for gate e of the instance at ring index x and gate f at loc. */
   private inversePair(x: number, e: number, loc: number, f: number): boolean {
-    if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
-    const nq = G_NQ[e]!;
-    if (G_NQ[f] !== nq) return false;
-    const wa = loc >= 0 ? this.rW : this.cp;
-    const xb = loc >= 0 ? loc * 3 : -loc;
-    for (let i = 0; i < nq; i++) {
-      if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== wa[xb + G_OP[f * 3 + i]!]) return false;
-    }
-    return true;
+    return inverseOn(e, this.rW, x * 3, f, loc >= 0 ? this.rW : this.cp, loc >= 0 ? loc * 3 : -loc);
   }
 
   /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
   private commute(x: number, e: number, loc: number, f: number): boolean {
-    const nq = G_NQ[e]!;
-    const wa = loc >= 0 ? this.rW : this.cp;
-    const xb = loc >= 0 ? loc * 3 : -loc;
-    for (let i = 0; i < nq; i++) {
-      const s = G_OP[e * 3 + i]!;
-      const w = this.rW[x * 3 + s]!;
-      // The role of f on wire w (slots of an instance are distinct wires; unused ones are stale).
-      let rh = -1;
-      if (wa[xb] === w) rh = G_ROLE[f * 3]!;
-      if (rh < 0 && wa[xb + 1] === w) rh = G_ROLE[f * 3 + 1]!;
-      if (rh < 0 && wa[xb + 2] === w) rh = G_ROLE[f * 3 + 2]!;
-      if (rh < 0) continue;
-      const rg = G_ROLE[e * 3 + s]!;
-      if (rg === ROLE_OTHER || rg !== rh) return false;
-    }
-    return true;
+    return commuteOn(e, this.rW, x * 3, f, loc >= 0 ? this.rW : this.cp, loc >= 0 ? loc * 3 : -loc);
   }
 
   /**

@@ -29,7 +29,7 @@ import type { EngineResult, WireMemory } from "./engine.js";
 import type { InstanceSink } from "./lowering.js";
 import {
   FIRST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, LAST_TOUCH, SLOT_GATES, SLOTS, TEMPLATE_COUNT, WINDOW,
-  exitingGates, gatesOf,
+  commuteOn, exitingGates, gatesOf, inverseOn,
 } from "./templates.js";
 import { InstanceTally } from "./tally.js";
 
@@ -624,29 +624,11 @@ export class SweepCounter implements InstanceSink {
   }
 
   private inversePair(x: number, e: number, loc: number, f: number): boolean {
-    if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
-    const nq = G_NQ[e]!;
-    if (G_NQ[f] !== nq) return false;
-    for (let i = 0; i < nq; i++) if (this.rW[x * 3 + G_OP[e * 3 + i]!] !== this.rW[loc * 3 + G_OP[f * 3 + i]!]) return false;
-    return true;
+    return inverseOn(e, this.rW, x * 3, f, this.rW, loc * 3);
   }
 
   private commute(x: number, e: number, loc: number, f: number): boolean {
-    const nq = G_NQ[e]!;
-    const rw = this.rW;
-    const xb = loc * 3;
-    for (let i = 0; i < nq; i++) {
-      const s = G_OP[e * 3 + i]!;
-      const w = rw[x * 3 + s]!;
-      let rh = -1;
-      if (rw[xb] === w) rh = G_ROLE[f * 3]!;
-      if (rh < 0 && rw[xb + 1] === w) rh = G_ROLE[f * 3 + 1]!;
-      if (rh < 0 && rw[xb + 2] === w) rh = G_ROLE[f * 3 + 2]!;
-      if (rh < 0) continue;
-      const rg = G_ROLE[e * 3 + s]!;
-      if (rg === ROLE_OTHER || rg !== rh) return false;
-    }
-    return true;
+    return commuteOn(e, this.rW, x * 3, f, this.rW, loc * 3);
   }
 
   /** engine.ts's clearBetween, over the ring. */

@@ -243,4 +243,34 @@ export function inverseInTemplate(e: number, f: number): boolean {
   return true;
 }
 
+/**
+ * commute.ts's inversePair for gate e of an instance whose slots' wires are ew[eb..eb+2] and gate f
+ * of one whose are fw[fb..fb+2]: inverse kinds, no condition, the same wires in the same order.
+ */
+export function inverseOn(e: number, ew: Int32Array, eb: number, f: number, fw: Int32Array, fb: number): boolean {
+  if (INVERSE_KIND[G_KIND[e]!] !== G_KIND[f] || G_COND[e] || G_COND[f]) return false;
+  const nq = G_NQ[e]!;
+  if (G_NQ[f] !== nq) return false;
+  for (let i = 0; i < nq; i++) if (ew[eb + G_OP[e * 3 + i]!] !== fw[fb + G_OP[f * 3 + i]!]) return false;
+  return true;
+}
+
+/** commute.ts's commute for gate e and gate f of instances on the given wires (as inverseOn). */
+export function commuteOn(e: number, ew: Int32Array, eb: number, f: number, fw: Int32Array, fb: number): boolean {
+  const nq = G_NQ[e]!;
+  for (let i = 0; i < nq; i++) {
+    const s = G_OP[e * 3 + i]!;
+    const w = ew[eb + s]!;
+    // The role of f on wire w (slots of an instance are distinct wires; unused ones are stale).
+    let rh = -1;
+    if (fw[fb] === w) rh = G_ROLE[f * 3]!;
+    if (rh < 0 && fw[fb + 1] === w) rh = G_ROLE[f * 3 + 1]!;
+    if (rh < 0 && fw[fb + 2] === w) rh = G_ROLE[f * 3 + 2]!;
+    if (rh < 0) continue;
+    const rg = G_ROLE[e * 3 + s]!;
+    if (rg === ROLE_OTHER || rg !== rh) return false;
+  }
+  return true;
+}
+
 export { ROLE_Z, ROLE_OTHER };
