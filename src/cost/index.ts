@@ -20,7 +20,7 @@ import { BlockCounter } from "./blocks.js";
 import { builtCounts } from "./built.js";
 import { LeanBlocks } from "./leanBlocks.js";
 import type { EngineResult, WireMemory } from "./engine.js";
-import { BUILD_LIMIT, DEFAULT_LAG, HISTORY_BYTES, run, runSwept } from "./run.js";
+import { BUILD_LIMIT, DEFAULT_LAG, HISTORY_BYTES, runSwept } from "./run.js";
 import { LoweringStream, VirtualIds } from "./lowering.js";
 import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, replayLogical, searchOps, textbookOracle, wideOracle, type Fraction, type OracleOps } from "./sources.js";
 import { StructuredSource } from "./structuredSource.js";
@@ -360,7 +360,7 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
 
 /** Counts a circuit given as logical operations (search parts). */
 function countOps(base: number, basis: "toffoli" | "clifford+t", uncompute: Uncompute, levels: boolean, emit: (low: LoweringStream, ids: VirtualIds) => void, lag = DEFAULT_LAG, sizing: OpsSizing = {}): EngineResult {
-  return run(base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, {
+  return runSwept(sizing.sweep === true, base, true, levels, { basis, uncompute, toffoliAnds: false }, emit, {
     lag, history: sizing.history ?? 4, wires: base + (sizing.work ?? 0) + 64, ids: base + (sizing.ids ?? sizing.work ?? 0) + 1024,
     ...(sizing.records ? { records: sizing.records } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}),
     ...(sizing.ring ? { ring: sizing.ring } : {}), ...(sizing.eagerLag ? { eagerLag: true } : {}), ...(sizing.keepFreed ? { keepFreed: sizing.keepFreed } : {}),
@@ -389,6 +389,8 @@ interface OpsSizing {
   readonly eagerLag?: boolean;
   /** See EngineOptions.keepFreed. */
   readonly keepFreed?: number;
+  /** Try the sweep first (sweep.ts; a wide oracle alone: a whole run's seams reach too far back for its ring). */
+  readonly sweep?: boolean;
 }
 
 /** Splits one progress callback over weighted steps. */
@@ -767,7 +769,7 @@ function searchCostOf<S extends Strategy | ConstructionFamily>(
   // The oracle's runs say when the wires free at their end were freed: the diffusion's tree takes
   // the last n of them (its n - 2 ANDs).
   const [oct, otof] = farOracle === null
-    ? both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, { ...sizing, keepFreed: n })
+    ? both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, { ...sizing, keepFreed: n, sweep: strategy === "wide" })
     : both((low, ids, p) => ops(low, ids, p), oracleWeight, Infinity, { ...sizing, ring: farOracle + 64, keepFreed: n });
   const [dct, dtof] = both((low) => diffusionOps(n, low), 1, DEFAULT_LAG, { work: n, wireMemory: memory });
   // Work wires of one iteration are taken up again by the next: keep an iteration's worth of

@@ -62,8 +62,8 @@ export function run(base: number, optimize: boolean, levels: boolean, mode: { ba
  * the optimizer on), the engine where it gives up or is not asked.
  */
 export function runSwept(sweep: boolean, base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number; eagerLag?: boolean; keepFreed?: number }): EngineResult {
-  if (sweep && optimize && sizing.keepFreed === undefined) {
-    const r = sweepCount({ base, levels, wires: sizing.wires, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) }, (sink) => {
+  if (sweep && optimize) {
+    const r = sweepCount({ base, levels, wires: sizing.wires, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}), ...(sizing.keepFreed ? { keepFreed: sizing.keepFreed } : {}) }, (sink) => {
       const ids = new VirtualIds(base);
       const low = new LoweringStream(sink, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
       emit(low, ids);

@@ -79,6 +79,8 @@ export interface SweepOptions {
   readonly ids?: number;
   /** The per-wire tables' memory, shared with the other runs of a cost table (see EngineOptions.wireMemory). */
   readonly wireMemory?: WireMemory;
+  /** As EngineOptions.keepFreed: report when the last this-many wires still free at the end were freed. */
+  readonly keepFreed?: number;
 }
 
 const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
@@ -259,7 +261,10 @@ export class SweepCounter implements InstanceSink {
 
   private wireOf: Int32Array;
   private freeWires = new Int32Array(256);
+  /** The instance at which each wire of freeWires was freed. */
+  private freedAt = new Int32Array(256);
   private freeTop = 0;
+  private readonly keepFreed: number;
   private workWires = 0;
 
   private readonly tally: InstanceTally;
@@ -275,6 +280,7 @@ export class SweepCounter implements InstanceSink {
     this.base = opts.base;
     this.tally = new InstanceTally(opts.levels, true);
     this.wireMemory = opts.wireMemory ?? null;
+    this.keepFreed = opts.keepFreed ?? 0;
     this.growWires(Math.max(64, opts.base + 64, opts.wires ?? 0));
     this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
   }
@@ -380,7 +386,11 @@ export class SweepCounter implements InstanceSink {
           const f = new Int32Array(this.freeWires.length * 2);
           f.set(this.freeWires);
           this.freeWires = f;
+          const g = new Int32Array(this.freedAt.length * 2);
+          g.set(this.freedAt);
+          this.freedAt = g;
         }
+        this.freedAt[this.freeTop] = id;
         this.freeWires[this.freeTop++] = this.wireOf[v]!;
         this.wireOf[v] = -1;
       }
@@ -409,6 +419,7 @@ export class SweepCounter implements InstanceSink {
       qubits: wires, tCount: tally.tCount, tDepth, cnotCount: tally.cnotCount, toffoliCount: tally.toffoliCount,
       depth, measurements: tally.measurements, instances: this.nextId, exact: true, upperBound: false, reason: null,
       historyShort: false, lagShort: false, secondNeeded: false,
+      ...(this.keepFreed > 0 ? { freedAt: this.freedAt.slice(Math.max(0, this.freeTop - this.keepFreed), this.freeTop) } : {}),
     };
   }
 

@@ -20,7 +20,7 @@ type Kind = "phase" | "flag";
 type Unc = "unitary" | "measured";
 type Basis = "clifford+t" | "toffoli";
 
-const FIGURES = ["qubits", "tCount", "tDepth", "cnotCount", "toffoliCount", "depth", "measurements", "instances", "exact"] as const;
+const FIGURES = ["qubits", "tCount", "tDepth", "cnotCount", "toffoliCount", "depth", "measurements", "instances", "exact", "freedAt"] as const;
 
 function both(cnf: Cnf, strategy: Strategy, kind: Kind, uncompute: Unc, basis: Basis) {
   const f = simplify(cnf);
@@ -29,8 +29,9 @@ function both(cnf: Cnf, strategy: Strategy, kind: Kind, uncompute: Unc, basis: B
   const base = f.variables + (kind === "flag" ? 1 : 0);
   const stream = strategy === "wide" ? wideOracle : strategy === "textbook" ? textbookOracle : leanOracle;
   const emit = (low: LoweringStream, ids: VirtualIds): void => stream(f, kind, low, ids, f.variables);
-  const engine = run(base, true, levels, mode, emit, { lag: 2048, history: 1, wires: base + 64, ids: base + 1024 });
-  const swept = sweepCount({ base, levels, wires: base + 64, ids: base + 1024 }, (sink) => {
+  // keepFreed: when the wires free at the end were freed (a search's diffusion takes them next).
+  const engine = run(base, true, levels, mode, emit, { lag: 2048, history: 1, wires: base + 64, ids: base + 1024, keepFreed: 6 });
+  const swept = sweepCount({ base, levels, wires: base + 64, ids: base + 1024, keepFreed: 6 }, (sink) => {
     const ids = new VirtualIds(base);
     const low = new LoweringStream(sink, ids, mode, base + 1024, 1024);
     emit(low, ids);
@@ -39,7 +40,7 @@ function both(cnf: Cnf, strategy: Strategy, kind: Kind, uncompute: Unc, basis: B
   return { engine, swept };
 }
 
-const figures = (r: Record<string, unknown>): Record<string, unknown> => Object.fromEntries(FIGURES.map((k) => [k, r[k]]));
+const figures = (r: Record<string, unknown>): Record<string, unknown> => Object.fromEntries(FIGURES.map((k) => [k, r[k] instanceof Int32Array ? Array.from(r[k]) : r[k]]));
 
 // Few variables and clauses of 1 to 8 literals (repeats and opposite literals included), so that
 // neighbouring clauses share wires, polarities and the work wires reuse hands on.
