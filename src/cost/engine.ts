@@ -34,6 +34,7 @@ import {
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
 import { InstanceTally } from "./tally.js";
+import { WireReuse } from "./reuse.js";
 
 /** What the engine counts. */
 export interface EngineOptions {
@@ -212,14 +213,9 @@ export class CountingEngine implements InstanceSink {
   private readonly wireMemory: WireMemory | null;
 
   // Virtual ids -> wires.
-  private wireOf: Int32Array = new Int32Array(1024).fill(-1);
+  private readonly reuse: WireReuse;
   /** Wires given back, a stack (reuse takes the last one given back). */
-  private freeWires = new Int32Array(256);
-  /** The instance at which each wire of freeWires was freed. */
-  private freedAt = new Int32Array(256);
-  private freeTop = 0;
   private readonly keepFreed: number;
-  private workWires = 0;
 
   // Figures.
   private readonly tally: InstanceTally;
@@ -261,7 +257,7 @@ export class CountingEngine implements InstanceSink {
     this.cs = 8 * this.depth;
     this.wireMemory = opts.wireMemory ?? null;
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
-    this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
+    this.reuse = new WireReuse(this.base, opts.ids ?? 0);
     this.truncated = opts.truncated ?? null;
     this.keepFreed = opts.keepFreed ?? 0;
   }
@@ -385,18 +381,8 @@ export class CountingEngine implements InstanceSink {
   }
 
   private wireFor(v: number): number {
-    if (v < this.base) return v;
-    if (v >= this.wireOf.length) {
-      const w = new Int32Array(Math.max(v + 1, Math.ceil(this.wireOf.length * 1.5))).fill(-1);
-      w.set(this.wireOf);
-      this.wireOf = w;
-    }
-    let w = this.wireOf[v]!;
-    if (w < 0) {
-      w = this.freeTop > 0 ? this.freeWires[--this.freeTop]! : this.base + this.workWires++;
-      if (w >= this.wireCap) this.growWires(w + 1);
-      this.wireOf[v] = w;
-    }
+    const w = this.reuse.wireFor(v);
+    if (w >= this.wireCap) this.growWires(w + 1);
     return w;
   }
 
@@ -449,18 +435,7 @@ export class CountingEngine implements InstanceSink {
       for (let i = 0; i < order.length; i++) {
         const s = order[i]!;
         if (((dies >>> s) & 1) === 0) continue;
-        const v = s === 0 ? a : s === 1 ? b : c;
-        if (this.freeTop === this.freeWires.length) {
-          const f = new Int32Array(this.freeWires.length * 2);
-          f.set(this.freeWires);
-          this.freeWires = f;
-          const g = new Int32Array(this.freedAt.length * 2);
-          g.set(this.freedAt);
-          this.freedAt = g;
-        }
-        this.freedAt[this.freeTop] = id;
-        this.freeWires[this.freeTop++] = this.wireOf[v]!;
-        this.wireOf[v] = -1;
+        this.reuse.release(s === 0 ? a : s === 1 ? b : c, id);
       }
     }
     while (this.done <= id - this.lag) this.settle(this.done);
@@ -469,7 +444,7 @@ export class CountingEngine implements InstanceSink {
   /** Flushes everything; call once after the last instance. */
   finish(): EngineResult {
     while (this.done < this.nextId) this.settle(this.done);
-    const wires = this.base + this.workWires;
+    const wires = this.base + this.reuse.workWires;
     const { depth, tDepth } = this.tally.finish(wires);
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
@@ -493,7 +468,7 @@ export class CountingEngine implements InstanceSink {
       historyShort: this.historyShort,
       lagShort: this.lagShort,
       secondNeeded,
-      ...(this.keepFreed > 0 ? { freedAt: this.freedAt.slice(Math.max(0, this.freeTop - this.keepFreed), this.freeTop) } : {}),
+      ...(this.keepFreed > 0 ? { freedAt: this.reuse.freedAt(this.keepFreed) } : {}),
     };
   }
 
@@ -550,8 +525,7 @@ export class CountingEngine implements InstanceSink {
     this.nextId = 0;
     this.done = 0;
     this.ringLow = 0;
-    this.freeTop = 0;
-    this.workWires = 0;
+    this.reuse.reset(base);
     this.tally.reset();
     this.flagHard = null;
     this.historyShort = false;

@@ -32,6 +32,7 @@ import {
   commuteOn, exitingGates, gatesOf, inverseOn,
 } from "./templates.js";
 import { InstanceTally } from "./tally.js";
+import { WireReuse } from "./reuse.js";
 
 /** Instances kept (a power of two) and instances replayed before one is counted. */
 const RING = 1 << 10;
@@ -259,13 +260,8 @@ export class SweepCounter implements InstanceSink {
   private mh: Int32Array = new Int32Array(0);
   private wireCap = 0;
 
-  private wireOf: Int32Array;
-  private freeWires = new Int32Array(256);
-  /** The instance at which each wire of freeWires was freed. */
-  private freedAt = new Int32Array(256);
-  private freeTop = 0;
+  private readonly reuse: WireReuse;
   private readonly keepFreed: number;
-  private workWires = 0;
 
   private readonly tally: InstanceTally;
   private flagSecond: string | null = null;
@@ -282,7 +278,7 @@ export class SweepCounter implements InstanceSink {
     this.wireMemory = opts.wireMemory ?? null;
     this.keepFreed = opts.keepFreed ?? 0;
     this.growWires(Math.max(64, opts.base + 64, opts.wires ?? 0));
-    this.wireOf = new Int32Array(Math.max(1024, opts.ids ?? 0)).fill(-1);
+    this.reuse = new WireReuse(opts.base, opts.ids ?? 0);
   }
 
   /** Bytes per wire of the tables below. */
@@ -339,18 +335,8 @@ export class SweepCounter implements InstanceSink {
   }
 
   private wireFor(v: number): number {
-    if (v < this.base) return v;
-    if (v >= this.wireOf.length) {
-      const w = new Int32Array(Math.max(v + 1, Math.ceil(this.wireOf.length * 1.5))).fill(-1);
-      w.set(this.wireOf);
-      this.wireOf = w;
-    }
-    let w = this.wireOf[v]!;
-    if (w < 0) {
-      w = this.freeTop > 0 ? this.freeWires[--this.freeTop]! : this.base + this.workWires++;
-      if (w >= this.wireCap) this.growWires(w + 1);
-      this.wireOf[v] = w;
-    }
+    const w = this.reuse.wireFor(v);
+    if (w >= this.wireCap) this.growWires(w + 1);
     return w;
   }
 
@@ -381,18 +367,7 @@ export class SweepCounter implements InstanceSink {
       for (let i = 0; i < order.length; i++) {
         const s = order[i]!;
         if (((dies >>> s) & 1) === 0) continue;
-        const v = s === 0 ? a : s === 1 ? b : c;
-        if (this.freeTop === this.freeWires.length) {
-          const f = new Int32Array(this.freeWires.length * 2);
-          f.set(this.freeWires);
-          this.freeWires = f;
-          const g = new Int32Array(this.freedAt.length * 2);
-          g.set(this.freedAt);
-          this.freedAt = g;
-        }
-        this.freedAt[this.freeTop] = id;
-        this.freeWires[this.freeTop++] = this.wireOf[v]!;
-        this.wireOf[v] = -1;
+        this.reuse.release(s === 0 ? a : s === 1 ? b : c, id);
       }
     }
     while (this.done <= id - LAG) this.settle(this.done);
@@ -407,7 +382,7 @@ export class SweepCounter implements InstanceSink {
       if (e instanceof GiveUp) return null;
       throw e;
     }
-    const wires = this.base + this.workWires;
+    const wires = this.base + this.reuse.workWires;
     const { depth, tDepth } = this.tally.finish(wires);
     const tally = this.tally;
     // As the engine: the second cancel-inverses runs only when merge-phases met two phase gates.
@@ -419,7 +394,7 @@ export class SweepCounter implements InstanceSink {
       qubits: wires, tCount: tally.tCount, tDepth, cnotCount: tally.cnotCount, toffoliCount: tally.toffoliCount,
       depth, measurements: tally.measurements, instances: this.nextId, exact: true, upperBound: false, reason: null,
       historyShort: false, lagShort: false, secondNeeded: false,
-      ...(this.keepFreed > 0 ? { freedAt: this.freedAt.slice(Math.max(0, this.freeTop - this.keepFreed), this.freeTop) } : {}),
+      ...(this.keepFreed > 0 ? { freedAt: this.reuse.freedAt(this.keepFreed) } : {}),
     };
   }
 

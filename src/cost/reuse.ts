@@ -1,0 +1,63 @@
+/**
+ * Work-qubit reuse (passes/reuseWork.ts) over the virtual ids of a stream: a work qubit takes a
+ * wire at its first gate (the wire freed last, else a new one) and frees it after its last gate.
+ * Shared by the counting engine (engine.ts) and the sweep (sweep.ts).
+ */
+export class WireReuse {
+  private wireOf: Int32Array;
+  /** Wires given back, a stack (reuse takes the last one given back). */
+  private free = new Int32Array(256);
+  /** The instance at which each wire of `free` was freed. */
+  private at = new Int32Array(256);
+  private top = 0;
+  /** Work wires made so far: wires base .. base + workWires - 1. */
+  workWires = 0;
+
+  /** `base`: ids below it are wires themselves; `ids`: ids expected (sizes the table once). */
+  constructor(private base: number, ids: number) {
+    this.wireOf = new Int32Array(Math.max(1024, ids)).fill(-1);
+  }
+
+  /** The wire of id v (taken now if v has none). */
+  wireFor(v: number): number {
+    if (v < this.base) return v;
+    if (v >= this.wireOf.length) {
+      const w = new Int32Array(Math.max(v + 1, Math.ceil(this.wireOf.length * 1.5))).fill(-1);
+      w.set(this.wireOf);
+      this.wireOf = w;
+    }
+    let w = this.wireOf[v]!;
+    if (w < 0) {
+      w = this.top > 0 ? this.free[--this.top]! : this.base + this.workWires++;
+      this.wireOf[v] = w;
+    }
+    return w;
+  }
+
+  /** Frees the wire of id v after instance `id`. */
+  release(v: number, id: number): void {
+    if (this.top === this.free.length) {
+      const f = new Int32Array(this.free.length * 2);
+      f.set(this.free);
+      this.free = f;
+      const g = new Int32Array(this.at.length * 2);
+      g.set(this.at);
+      this.at = g;
+    }
+    this.at[this.top] = id;
+    this.free[this.top++] = this.wireOf[v]!;
+    this.wireOf[v] = -1;
+  }
+
+  /** The instances at which the last `keep` wires still free were freed, oldest first. */
+  freedAt(keep: number): Int32Array {
+    return this.at.slice(Math.max(0, this.top - keep), this.top);
+  }
+
+  /** A new replay over `base` fixed wires: no work wire made, none free (see engine.resetReplay). */
+  reset(base: number): void {
+    this.base = base;
+    this.top = 0;
+    this.workWires = 0;
+  }
+}
