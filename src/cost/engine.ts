@@ -29,12 +29,13 @@
  */
 import { K } from "../ir/kinds.js";
 import {
-  FIRST_TOUCH, LAST_TOUCH, G_KIND, G_NQ, G_OP, G_ROLE, GATE_START, SLOT_GATES, SLOTS, WINDOW,
-  commuteOn, exitingGates, gatesOf, inverseOn, ROLE_Z, TEMPLATE_COUNT,
+  FIRST_TOUCH, LAST_TOUCH, G_KIND, G_NQ, G_OP, GATE_START, SLOTS,
+  exitingGates, gatesOf, TEMPLATE_COUNT,
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
 import { InstanceTally } from "./tally.js";
 import { WireReuse } from "./reuse.js";
+import { findPartner, markRecheck, restageWalks, type WalkStore } from "./walks.js";
 
 /** What the engine counts. */
 export interface EngineOptions {
@@ -145,16 +146,7 @@ const KIND_RESET = K.reset;
 
 /** Exiting gates with nothing dead, per template. */
 const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
-/** Index of gate e in its slot's list, per slot: GATE_SLOT_INDEX[e * 3 + s]. */
-const GATE_SLOT_INDEX = new Int8Array(GATE_START[TEMPLATE_COUNT]! * 3).fill(-1);
-for (let t = 0; t < TEMPLATE_COUNT; t++) {
-  for (let s = 0; s < 3; s++) {
-    const list = SLOT_GATES[t * 3 + s]!;
-    for (let i = 0; i < list.length; i++) GATE_SLOT_INDEX[(GATE_START[t]! + list[i]!) * 3 + s] = i;
-  }
-}
-
-export class CountingEngine implements InstanceSink {
+export class CountingEngine implements InstanceSink, WalkStore {
   private base: number;
   private readonly optimize: boolean;
   private readonly second: boolean;
@@ -162,23 +154,23 @@ export class CountingEngine implements InstanceSink {
   private lag = 64;
   private readonly maxLag: number;
   private ringSize: number;
-  private ringMask: number;
+  ringMask: number;
   /** The oldest instance still in the ring (older ones survive only as a wire's copy). */
-  private ringLow = 0;
+  ringLow = 0;
 
   // Instances, in a ring.
-  private rT: Uint8Array;
-  private rW: Int32Array;
-  private rDead: Int32Array;
-  private rPrev: Int32Array;
-  private rPrevSlot: Int8Array;
+  rT: Uint8Array;
+  rW: Int32Array;
+  rDead: Int32Array;
+  rPrev: Int32Array;
+  rPrevSlot: Int8Array;
   private rNext: Int32Array;
   /** Cancelled gates of each instance right after its own stage 1. */
-  private rMask1: Int32Array;
+  rMask1: Int32Array;
   /** Per slot: how many instances its wire had with this one (see evict). */
   private rSeq: Int32Array;
   /** Gates whose walk stage 2 repeats: a gate they passed went after their stage 1 (-1: all). */
-  private rRecheck: Int32Array;
+  rRecheck: Int32Array;
   private nextId = 0;
   /** Instances below this have been through stage 2 and the tally. */
   private done = 0;
@@ -203,7 +195,7 @@ export class CountingEngine implements InstanceSink {
    * + 7 its slot), cs ints per wire: a walk along a wire seldom used may need the last few
    * instances on it long after they left.
    */
-  private cp = new Int32Array(0);
+  cp = new Int32Array(0);
   /** Ints per wire in cp. */
   private readonly cs: number;
   /** Copies kept per wire. */
@@ -225,7 +217,7 @@ export class CountingEngine implements InstanceSink {
   private flagBound: string | null = null;
   /** Set when the second cancel-inverses might change something (irrelevant if it never runs). */
   private flagSecond: string | null = null;
-  private truncated: Uint8Array | null;
+  truncated: Uint8Array | null;
   /** Wires where a walk reached the left-out part (see EngineOptions.truncated). */
   readonly truncatedHits: number[] = [];
   /** In restage: window events are the walk's own result, not a flag of the run. */
@@ -554,27 +546,17 @@ export class CountingEngine implements InstanceSink {
    */
   restage(id: number): [walked: number, positive: number] {
     const x = id & this.ringMask;
-    const t = this.rT[x]!;
-    const dead = this.rDead[x]!;
-    const later = dead ^ this.rMask1[x]!;
-    const again = this.rRecheck[x]!;
-    if (again === 0 && later === 0) return [0, 0];
     let walked = 0;
     let positive = 0;
-    const exits = exitingGates(t, dead);
-    for (let m = exits; m !== 0; m &= m - 1) {
-      const p = 31 - Math.clz32(m & -m);
-      if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
-      const e = GATE_START[t]! + p;
-      const kind = G_KIND[e]!;
-      if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
+    restageWalks(this, x, (p) => {
       walked |= 1 << p;
       this.probing = true;
       this.probeHit = false;
-      const found = this.findPartner(id, x, p) >= 0;
+      const found = findPartner(this, id, x, p) >= 0;
       this.probing = false;
       if (found || this.probeHit) positive |= 1 << p;
-    }
+      return true;
+    });
     return [walked, positive];
   }
 
@@ -651,7 +633,7 @@ export class CountingEngine implements InstanceSink {
   }
 
   /** Where instance `id` is kept, seen from wire w: ring index, -2 - the index of its copy in cp, or -1. */
-  private locate(id: number, w: number): number {
+  locate(id: number, w: number): number {
     if (id >= this.ringLow) return id & this.ringMask;
     const b = w * this.cs;
     for (let i = 0; i < this.depth; i++) if (this.cp[b + 8 * i] === id) return -2 - (b + 8 * i);
@@ -680,7 +662,7 @@ export class CountingEngine implements InstanceSink {
       const e = base + p;
       const kind = G_KIND[e]!;
       if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
-      const partner = this.findPartner(id, x, p);
+      const partner = findPartner(this, id, x, p);
       if (partner >= 0) {
         const hid = Math.floor(partner / 32);
         const hp = partner % 32;
@@ -696,82 +678,13 @@ export class CountingEngine implements InstanceSink {
         // Walks that passed over the partner before it went may go further now: stage 2
         // repeats them (see settle): of the instances after it on its wires, and of this
         // instance's gates walked before. The partner's own later gates see it in its mask.
-        for (let i = 0; i < G_NQ[e]!; i++) this.markRecheck(x, G_OP[e * 3 + i]!, hid);
+        for (let i = 0; i < G_NQ[e]!; i++) markRecheck(this, x, G_OP[e * 3 + i]!, hid);
         this.rRecheck[x] = this.rRecheck[x]! | walked;
       } else walked |= 1 << p;
     }
   }
 
-  /** Marks the instances on the wire of slot s between instance `from` and instance x (both exclusive). */
-  private markRecheck(x: number, s: number, from: number): void {
-    let loc = x;
-    let slot = s;
-    for (;;) {
-      const prev = this.rPrev[loc * 3 + slot]!;
-      if (prev <= from || prev < this.ringLow) return;
-      const pl = prev & this.ringMask;
-      this.rRecheck[pl] = -1;
-      slot = this.rPrevSlot[loc * 3 + slot]!;
-      loc = pl;
-    }
-  }
-
-  /**
-   * cancelInverses.ts's findPartner for gate p of instance `id` (at ring index x): the most
-   * recent live gate that undoes it with only commuting gates between, as id * 32 + position,
-   * or -1.
-   */
-  private findPartner(id: number, x: number, p: number): number {
-    const t = this.rT[x]!;
-    const e = GATE_START[t]! + p;
-    const nq = G_NQ[e]!;
-    const ts = G_OP[e * 3 + nq - 1]!;
-    const w = this.rW[x * 3 + ts]!;
-    let steps = 0;
-    let loc = x;
-    let cur = id;
-    let slot = ts;
-    let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
-    for (;;) {
-      const ct = loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!;
-      const list = SLOT_GATES[ct * 3 + slot]!;
-      const dead = loc >= 0 ? this.rDead[loc]! : this.cp[3 - loc]!;
-      for (; k >= 0; k--) {
-        const hp = list[k]!;
-        if ((dead >>> hp) & 1) continue;
-        if (steps >= WINDOW) {
-          // merge-phases changes how many phase gates a walk diagonal on its qubit passes (never
-          // those an X-like or other walk passes: it stops at the first phase gate): only such a
-          // walk could reach further in the second cancel-inverses.
-          // Stage 1 notes it too: stage 2 repeats only the walks that something changed (settle).
-          if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
-          return -1;
-        }
-        steps++;
-        const f = GATE_START[ct]! + hp;
-        if (this.inversePair(x, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
-        if (!this.commute(x, e, loc, f)) return -1;
-      }
-      // The previous instance on this wire.
-      const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.cp[4 - loc]!;
-      if (prev < 0) {
-        if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
-        return -1;
-      }
-      const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.cp[5 - loc]!;
-      const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
-      if (pl === -1) {
-        this.unavailable();
-        return -1;
-      }
-      loc = pl;
-      cur = prev;
-      slot = ps;
-      k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!) * 3 + slot]!.length - 1;
-    }
-  }
-
-  private noteSecond(reason: string): void {
+  noteSecond(reason: string): void {
     if (this.probing) {
       this.probeHit = true;
       return;
@@ -779,75 +692,9 @@ export class CountingEngine implements InstanceSink {
     if (this.flagSecond === null) this.flagSecond = reason;
   }
 
-  private unavailable(): void {
+  unavailable(): void {
     this.historyShort = true;
     if (this.flagHard === null) this.flagHard = "a cancel-inverses walk needed a part no longer kept";
-  }
-
-  /** commute.ts's inversePair for gate e of the instance at ring index x and gate f at loc. */
-  private inversePair(x: number, e: number, loc: number, f: number): boolean {
-    return inverseOn(e, this.rW, x * 3, f, loc >= 0 ? this.rW : this.cp, loc >= 0 ? loc * 3 : -loc);
-  }
-
-  /** commute.ts's commute for gate e of the instance at ring index x and gate f at loc. */
-  private commute(x: number, e: number, loc: number, f: number): boolean {
-    return commuteOn(e, this.rW, x * 3, f, loc >= 0 ? this.rW : this.cp, loc >= 0 ? loc * 3 : -loc);
-  }
-
-  /**
-   * cancelInverses.ts's clearBetween: every live gate after gate hp of instance hid on the other
-   * qubits of gate p of instance id commutes with it (at most WINDOW of them per qubit).
-   */
-  private clearBetween(id: number, x: number, p: number, hid: number, hp: number): boolean {
-    const t = this.rT[x]!;
-    const e = GATE_START[t]! + p;
-    const nq = G_NQ[e]!;
-    for (let i = 0; i + 1 < nq; i++) {
-      const s0 = G_OP[e * 3 + i]!;
-      const w = this.rW[x * 3 + s0]!;
-      let steps = 0;
-      let loc = x;
-      let cur = id;
-      let slot = s0;
-      let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
-      for (;;) {
-        const ct = loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!;
-        const list = SLOT_GATES[ct * 3 + slot]!;
-        const dead = loc >= 0 ? this.rDead[loc]! : this.cp[3 - loc]!;
-        let stop = false;
-        for (; k >= 0; k--) {
-          const xp = list[k]!;
-          if (cur < hid || (cur === hid && xp <= hp)) {
-            stop = true;
-            break;
-          }
-          if ((dead >>> xp) & 1) continue;
-          if (++steps > WINDOW) {
-            // The gates passed here are diagonal on this qubit (controls), phase gates among them.
-            this.noteSecond("the second cancel-inverses reaches its window");
-            return false;
-          }
-          if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
-        }
-        if (stop || cur <= hid) break;
-        const prev = loc >= 0 ? this.rPrev[loc * 3 + slot]! : this.cp[4 - loc]!;
-        if (prev < 0) {
-          if (this.truncated !== null && this.truncated[w] === 1) this.truncatedHits.push(w);
-          break;
-        }
-        const ps = loc >= 0 ? this.rPrevSlot[loc * 3 + slot]! : this.cp[5 - loc]!;
-        const pl = prev >= this.ringLow ? prev & this.ringMask : this.locate(prev, w);
-        if (pl === -1) {
-          this.unavailable();
-          return false;
-        }
-        loc = pl;
-        cur = prev;
-        slot = ps;
-        k = SLOT_GATES[(loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!) * 3 + slot]!.length - 1;
-      }
-    }
-    return true;
   }
 
   // ---- final instances: second cancel-inverses (detection), merge-phases, tally ----------
@@ -858,25 +705,14 @@ export class CountingEngine implements InstanceSink {
     const dead = this.rDead[x]!;
     const slots = SLOTS[t]!;
     this.done = id + 1;
-    if (this.optimize && this.second && this.flagSecond === null) {
+    if (this.optimize && this.second && this.flagSecond === null && (this.rRecheck[x] !== 0 || dead !== this.rMask1[x])) {
       // Stage 2 (the second cancel-inverses, detecting only). A walk from this instance is the
       // one of stage 1 unless a gate it passes went after that: then it is repeated.
-      const later = dead ^ this.rMask1[x]!;
-      const again = this.rRecheck[x]!;
-      if (again !== 0 || later !== 0) {
-        const exits = exitingGates(t, dead);
-        for (let m = exits; m !== 0; m &= m - 1) {
-          const p = 31 - Math.clz32(m & -m);
-          if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
-          const e = GATE_START[t]! + p;
-          const kind = G_KIND[e]!;
-          if (G_NQ[e] === 0 || kind === KIND_MEASURE || kind === KIND_RESET) continue;
-          if (this.findPartner(id, x, p) >= 0) {
-            this.noteSecond("the second cancel-inverses would cancel more");
-            break;
-          }
-        }
-      }
+      restageWalks(this, x, (p) => {
+        if (findPartner(this, id, x, p) < 0) return true;
+        this.noteSecond("the second cancel-inverses would cancel more");
+        return false;
+      });
     }
     const w0 = slots > 0 ? this.rW[x * 3]! : -1;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;

@@ -29,10 +29,11 @@ import type { EngineResult, WireMemory } from "./engine.js";
 import type { InstanceSink } from "./lowering.js";
 import {
   FIRST_TOUCH, G_COND, G_KIND, G_NQ, G_OP, G_PHASE, G_ROLE, GATE_START, LAST_TOUCH, SLOT_GATES, SLOTS, TEMPLATE_COUNT, WINDOW,
-  commuteOn, exitingGates, gatesOf, inverseOn,
+  exitingGates, gatesOf,
 } from "./templates.js";
 import { InstanceTally } from "./tally.js";
 import { WireReuse } from "./reuse.js";
+import { findPartner, GATE_SLOT_INDEX, markRecheck, restageWalks, type WalkStore } from "./walks.js";
 
 /** Instances kept (a power of two) and instances replayed before one is counted. */
 const RING = 1 << 10;
@@ -85,14 +86,6 @@ export interface SweepOptions {
 }
 
 const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
-/** Index of gate e in its slot's list: GATE_SLOT_INDEX[e * 3 + s]. */
-const GATE_SLOT_INDEX = new Int8Array(GATE_START[TEMPLATE_COUNT]! * 3).fill(-1);
-for (let t = 0; t < TEMPLATE_COUNT; t++) {
-  for (let s = 0; s < 3; s++) {
-    const list = SLOT_GATES[t * 3 + s]!;
-    for (let i = 0; i < list.length; i++) GATE_SLOT_INDEX[(GATE_START[t]! + list[i]!) * 3 + s] = i;
-  }
-}
 /** Summary flag a live gate adds on its slot s: FLAG_OF[e * 3 + s] (0 where it does not touch s). */
 const FLAG_OF = new Uint8Array(GATE_START[TEMPLATE_COUNT]! * 3);
 for (let e = 0; e < GATE_START[TEMPLATE_COUNT]!; e++) {
@@ -236,16 +229,23 @@ for (let t = 0; t < TEMPLATE_COUNT; t++) {
  * Counts a stream of template instances as the engine does (optimizer on), or gives up. Use
  * through {@link sweepCount}.
  */
-export class SweepCounter implements InstanceSink {
+export class SweepCounter implements InstanceSink, WalkStore {
   private readonly base: number;
   // Instances, in a ring (as the engine's).
-  private readonly rT = new Uint8Array(RING);
-  private readonly rW = new Int32Array(RING * 3);
-  private readonly rDead = new Int32Array(RING);
-  private readonly rMask1 = new Int32Array(RING);
-  private readonly rRecheck = new Int32Array(RING);
-  private readonly rPrev = new Int32Array(RING * 3);
-  private readonly rPrevSlot = new Int8Array(RING * 3);
+  readonly rT = new Uint8Array(RING);
+  readonly rW = new Int32Array(RING * 3);
+  readonly rDead = new Int32Array(RING);
+  readonly rMask1 = new Int32Array(RING);
+  readonly rRecheck = new Int32Array(RING);
+  readonly rPrev = new Int32Array(RING * 3);
+  readonly rPrevSlot = new Int8Array(RING * 3);
+  readonly ringMask = RING - 1;
+  /** The oldest instance still in the ring. */
+  ringLow = 0;
+  /** No copies of instances that left the ring, no left-out parts (see walks.ts's WalkStore). */
+  readonly cp = new Int32Array(0);
+  readonly truncated = null;
+  readonly truncatedHits: number[] = [];
   private nextId = 0;
   private done = 0;
 
@@ -342,6 +342,8 @@ export class SweepCounter implements InstanceSink {
 
   put(t: number, a: number, b: number, c: number, dies: number): void {
     const id = this.nextId++;
+    // This instance takes the ring slot of the one RING before it.
+    if (id >= RING) this.ringLow = id - RING + 1;
     if (id > 0x7ffffff0) this.giveUp("more than 2^31 template instances");
     const x = id & (RING - 1);
     const touch = FIRST_TOUCH[t]!;
@@ -527,7 +529,7 @@ export class SweepCounter implements InstanceSink {
         const kind = G_KIND[e]!;
         const nq = G_NQ[e]!;
         if (nq !== 0 && kind !== K.measure && kind !== K.reset) {
-          const partner = this.mayPair(x, t, dead, p) ? this.findPartner(id, x, p) : -1;
+          const partner = this.mayPair(x, t, dead, p) ? findPartner(this, id, x, p) : -1;
           if (partner >= 0) {
             const hid = Math.floor(partner / 32);
             const hp = partner % 32;
@@ -536,7 +538,7 @@ export class SweepCounter implements InstanceSink {
             this.rDead[hx] = this.rDead[hx]! | (1 << hp);
             this.rDead[x] = this.rDead[x]! | (1 << p);
             this.dirty(x, e);
-            for (let i = 0; i < nq; i++) this.markRecheck(x, G_OP[e * 3 + i]!, hid);
+            for (let i = 0; i < nq; i++) markRecheck(this, x, G_OP[e * 3 + i]!, hid);
             this.rRecheck[x] = this.rRecheck[x]! | walked;
             continue;
           }
@@ -547,117 +549,18 @@ export class SweepCounter implements InstanceSink {
     this.fold(x, t, this.rDead[x]!);
   }
 
-  private markRecheck(x: number, s: number, from: number): void {
-    const low = this.nextId - RING;
-    let loc = x;
-    let slot = s;
-    for (;;) {
-      const prev = this.rPrev[loc * 3 + slot]!;
-      if (prev <= from || prev < low) return;
-      const pl = prev & (RING - 1);
-      this.rRecheck[pl] = -1;
-      slot = this.rPrevSlot[loc * 3 + slot]!;
-      loc = pl;
-    }
+
+  /** Nothing older than the ring is kept. */
+  locate(): number {
+    return -1;
   }
 
-  /** The ring index of instance `prev`, giving up when it left the ring. */
-  private inRing(prev: number): number {
-    if (prev < this.nextId - RING) this.giveUp("a walk reached an instance no longer kept");
-    return prev & (RING - 1);
+  unavailable(): void {
+    this.giveUp("a walk reached an instance no longer kept");
   }
 
-  /** engine.ts's findPartner, over the ring. */
-  private findPartner(id: number, x: number, p: number): number {
-    this.walks++;
-    const t = this.rT[x]!;
-    const e = GATE_START[t]! + p;
-    const nq = G_NQ[e]!;
-    const ts = G_OP[e * 3 + nq - 1]!;
-    let steps = 0;
-    let loc = x;
-    let cur = id;
-    let slot = ts;
-    let k = GATE_SLOT_INDEX[e * 3 + ts]! - 1;
-    for (;;) {
-      const ct = this.rT[loc]!;
-      const list = SLOT_GATES[ct * 3 + slot]!;
-      const dead = this.rDead[loc]!;
-      for (; k >= 0; k--) {
-        const hp = list[k]!;
-        if ((dead >>> hp) & 1) continue;
-        if (steps >= WINDOW) {
-          if (G_ROLE[e * 3 + ts] === ROLE_Z) this.noteSecond("the second cancel-inverses reaches its window");
-          return -1;
-        }
-        steps++;
-        const f = GATE_START[ct]! + hp;
-        if (this.inversePair(x, e, loc, f) && this.clearBetween(id, x, p, cur, hp)) return cur * 32 + hp;
-        if (!this.commute(x, e, loc, f)) return -1;
-      }
-      const prev = this.rPrev[loc * 3 + slot]!;
-      if (prev < 0) return -1;
-      const ps = this.rPrevSlot[loc * 3 + slot]!;
-      loc = this.inRing(prev);
-      cur = prev;
-      slot = ps;
-      k = SLOT_GATES[this.rT[loc]! * 3 + slot]!.length - 1;
-    }
-  }
-
-  private noteSecond(reason: string): void {
+  noteSecond(reason: string): void {
     if (this.flagSecond === null) this.flagSecond = reason;
-  }
-
-  private inversePair(x: number, e: number, loc: number, f: number): boolean {
-    return inverseOn(e, this.rW, x * 3, f, this.rW, loc * 3);
-  }
-
-  private commute(x: number, e: number, loc: number, f: number): boolean {
-    return commuteOn(e, this.rW, x * 3, f, this.rW, loc * 3);
-  }
-
-  /** engine.ts's clearBetween, over the ring. */
-  private clearBetween(id: number, x: number, p: number, hid: number, hp: number): boolean {
-    const t = this.rT[x]!;
-    const e = GATE_START[t]! + p;
-    const nq = G_NQ[e]!;
-    for (let i = 0; i + 1 < nq; i++) {
-      const s0 = G_OP[e * 3 + i]!;
-      let steps = 0;
-      let loc = x;
-      let cur = id;
-      let slot = s0;
-      let k = GATE_SLOT_INDEX[e * 3 + s0]! - 1;
-      for (;;) {
-        const ct = this.rT[loc]!;
-        const list = SLOT_GATES[ct * 3 + slot]!;
-        const dead = this.rDead[loc]!;
-        let stop = false;
-        for (; k >= 0; k--) {
-          const xp = list[k]!;
-          if (cur < hid || (cur === hid && xp <= hp)) {
-            stop = true;
-            break;
-          }
-          if ((dead >>> xp) & 1) continue;
-          if (++steps > WINDOW) {
-            this.noteSecond("the second cancel-inverses reaches its window");
-            return false;
-          }
-          if (!this.commute(x, e, loc, GATE_START[ct]! + xp)) return false;
-        }
-        if (stop || cur <= hid) break;
-        const prev = this.rPrev[loc * 3 + slot]!;
-        if (prev < 0) break;
-        const ps = this.rPrevSlot[loc * 3 + slot]!;
-        loc = this.inRing(prev);
-        cur = prev;
-        slot = ps;
-        k = SLOT_GATES[this.rT[loc]! * 3 + slot]!.length - 1;
-      }
-    }
-    return true;
   }
 
   // ---- stage 2 (detecting) and the tally: engine.ts's settle --------------------------------
@@ -668,23 +571,12 @@ export class SweepCounter implements InstanceSink {
     const dead = this.rDead[x]!;
     const slots = SLOTS[t]!;
     this.done = id + 1;
-    if (this.flagSecond === null) {
-      const later = dead ^ this.rMask1[x]!;
-      const again = this.rRecheck[x]!;
-      if (again !== 0 || later !== 0) {
-        const exits = exitingGates(t, dead);
-        for (let m = exits; m !== 0; m &= m - 1) {
-          const p = 31 - Math.clz32(m & -m);
-          if (((again >>> p) & 1) === 0 && (later & ((1 << p) - 1)) === 0) continue;
-          const e = GATE_START[t]! + p;
-          const kind = G_KIND[e]!;
-          if (G_NQ[e] === 0 || kind === K.measure || kind === K.reset) continue;
-          if (this.findPartner(id, x, p) >= 0) {
-            this.noteSecond("the second cancel-inverses would cancel more");
-            break;
-          }
-        }
-      }
+    if (this.flagSecond === null && (this.rRecheck[x] !== 0 || dead !== this.rMask1[x])) {
+      restageWalks(this, x, (p) => {
+        if (findPartner(this, id, x, p) < 0) return true;
+        this.noteSecond("the second cancel-inverses would cancel more");
+        return false;
+      });
     }
     const w0 = slots > 0 ? this.rW[x * 3]! : -1;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
