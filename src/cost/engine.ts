@@ -30,12 +30,12 @@
 import { K } from "../ir/kinds.js";
 import {
   FIRST_TOUCH, LAST_TOUCH, G_KIND, G_NQ, G_OP, GATE_START, SLOTS,
-  exitingGates, gatesOf, TEMPLATE_COUNT,
+  exitingGates, gatesOf,
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
 import { InstanceTally } from "./tally.js";
 import { WireReuse } from "./reuse.js";
-import { findPartner, markRecheck, restageWalks, type WalkStore } from "./walks.js";
+import { EXIT0, findPartner, markRecheck, restageWalks, type WalkStore } from "./walks.js";
 
 /** What the engine counts. */
 export interface EngineOptions {
@@ -144,8 +144,6 @@ export interface EngineResult {
 const KIND_MEASURE = K.measure;
 const KIND_RESET = K.reset;
 
-/** Exiting gates with nothing dead, per template. */
-const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
 export class CountingEngine implements InstanceSink, WalkStore {
   private base: number;
   private readonly optimize: boolean;

@@ -33,7 +33,7 @@ import {
 } from "./templates.js";
 import { InstanceTally } from "./tally.js";
 import { WireReuse } from "./reuse.js";
-import { findPartner, GATE_SLOT_INDEX, markRecheck, restageWalks, type WalkStore } from "./walks.js";
+import { EXIT0, findPartner, GATE_SLOT_INDEX, markRecheck, restageWalks, type WalkStore } from "./walks.js";
 
 /** Instances kept (a power of two) and instances replayed before one is counted. */
 const RING = 1 << 10;
@@ -85,7 +85,6 @@ export interface SweepOptions {
   readonly keepFreed?: number;
 }
 
-const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
 /** Summary flag a live gate adds on its slot s: FLAG_OF[e * 3 + s] (0 where it does not touch s). */
 const FLAG_OF = new Uint8Array(GATE_START[TEMPLATE_COUNT]! * 3);
 for (let e = 0; e < GATE_START[TEMPLATE_COUNT]!; e++) {

@@ -37,6 +37,9 @@ export interface WalkStore {
   unavailable(): void;
 }
 
+/** The gates of each template whose walk can leave it when nothing is cancelled (templates.ts's exitingGates). */
+export const EXIT0 = Int32Array.from({ length: TEMPLATE_COUNT }, (_, t) => exitingGates(t, 0));
+
 /** Index of gate e in its slot's list, per slot: GATE_SLOT_INDEX[e * 3 + s]. */
 export const GATE_SLOT_INDEX = new Int8Array(GATE_START[TEMPLATE_COUNT]! * 3).fill(-1);
 for (let t = 0; t < TEMPLATE_COUNT; t++) {
