@@ -61,7 +61,7 @@ export type { VerifyOptions, VerifyResult, Counterexample, ModelSearchReport } f
 export { DEFAULT_CONFLICT_LIMIT } from "./cnf/findModels.js";
 export { verifyOracle, DEFAULT_EXHAUSTIVE_LIMIT, MAX_EXHAUSTIVE_LIMIT } from "./sim/verify.js";
 export type { ProveOptions, OracleProof, ProofCounterexample, ProofMethod, ExpectedFunction, FunctionBuilder } from "./prove/index.js";
-export { proveOracle, exhaustiveInReach } from "./prove/index.js";
+export { proveOracle, exhaustiveInReach, DEFAULT_SOLVER_SECONDS } from "./prove/index.js";
 export { expectedOfCompletion } from "./prove/completion.js";
 export type { CircuitReadResult } from "./ir/read.js";
 export type { SearchPlan, ScheduleRound, ScaledCount, Solutions, BigCount, Probability, ExpectedCalls } from "./search/plan.js";

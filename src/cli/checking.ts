@@ -11,6 +11,8 @@ export interface VerifyFlags {
   samples?: number;
   models?: number;
   conflictLimit?: number;
+  /** Seconds a proof's SAT solver may spend (--proof-seconds). */
+  proofSeconds?: number;
   seed: number;
   /**
    * `prove`: a proof or nothing (--prove); `sample`: simulation only (--sample); `auto`: exhaustive
@@ -24,6 +26,7 @@ export const VERIFY_ARGS = {
   samples: { type: "string" },
   models: { type: "string" },
   "conflict-limit": { type: "string" },
+  "proof-seconds": { type: "string" },
   seed: { type: "string" },
   prove: { type: "boolean" },
   sample: { type: "boolean" },
@@ -34,11 +37,13 @@ export function verifyFlags(values: Record<string, string | boolean | undefined>
   const samples = intOption(str("samples"), "--samples", 1, 1 << 24);
   const models = intOption(str("models"), "--models", 1, 1 << 16);
   const conflictLimit = intOption(str("conflict-limit"), "--conflict-limit", 0, 2 ** 31 - 1);
+  const proofSeconds = intOption(str("proof-seconds"), "--proof-seconds", 1, 86_400);
   return {
     exhaustiveLimit: intOption(str("exhaustive-limit"), "--exhaustive-limit", 0, MAX_EXHAUSTIVE_LIMIT) ?? DEFAULT_EXHAUSTIVE_LIMIT,
     ...(samples === undefined ? {} : { samples }),
     ...(models === undefined ? {} : { models }),
     ...(conflictLimit === undefined ? {} : { conflictLimit }),
+    ...(proofSeconds === undefined ? {} : { proofSeconds }),
     seed: intOption(str("seed"), "--seed", 0, 2 ** 31 - 1) ?? 1,
     mode: values.prove === true ? "prove" : values.sample === true ? "sample" : "auto",
   };
@@ -72,6 +77,7 @@ export async function runCheck(cnf: Cnf, circuit: Circuit, flags: VerifyFlags, k
   const proof = proveOracle(cnf, circuit, {
     ...(kind ? { kind } : {}),
     ...(flags.conflictLimit !== undefined ? { conflictLimit: flags.conflictLimit } : {}),
+    ...(flags.proofSeconds !== undefined ? { solverSeconds: flags.proofSeconds } : {}),
     ...(completion !== undefined ? { expected: expectedOfCompletion(cnf, completion) } : {}),
   });
   const free = completion !== undefined ? { completion } : {};

@@ -34,11 +34,11 @@ ${registerHelp("full")}
                               value completes to a model
   --verify                    verify the oracle first (as clausegate verify: simulation in reach, else a
                               proof); write only if it passes; takes verify's --exhaustive-limit,
-                              --samples, --models, --conflict-limit, --seed and --sample (which refuse
-                              to be given without --verify or --prove)
+                              --samples, --models, --conflict-limit, --proof-seconds, --seed and --sample
+                              (which refuse to be given without --verify or --prove)
   --prove                     prove the oracle first (as clausegate verify --prove, any size); write only
-                              if the proof succeeds; takes --conflict-limit (the simulation's options
-                              and --verify are refused with it)
+                              if the proof succeeds; takes --conflict-limit and --proof-seconds (the
+                              simulation's options and --verify are refused with it)
   -h, --help                  show this help
 `;
 
@@ -130,7 +130,7 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   }
   const flags = verifyFlags(values);
   if (!values.verify && !values.prove) {
-    const unused = (["exhaustive-limit", "samples", "models", "conflict-limit", "seed", "sample"] as const).find((k) => values[k] !== undefined);
+    const unused = (["exhaustive-limit", "samples", "models", "conflict-limit", "proof-seconds", "seed", "sample"] as const).find((k) => values[k] !== undefined);
     if (unused !== undefined) {
       throw new UserError(`clausegate oracle: error: --${unused} shapes the check that --verify or --prove runs, and neither is given; hint: add --verify (or --prove), or leave out --${unused}`);
     }
@@ -164,7 +164,7 @@ export async function oracleCommand(argv: string[]): Promise<number> {
     if (!r.ok) {
       process.stderr.write(r.proof?.counterexample
         ? "clausegate oracle: error: the oracle failed its proof; nothing was written; hint: please report this with the input\n"
-        : "clausegate oracle: error: the oracle was not proven; nothing was written; hint: raise --conflict-limit, or use --verify to check it by simulation\n");
+        : "clausegate oracle: error: the oracle was not proven; nothing was written; hint: raise --conflict-limit or --proof-seconds, or use --verify to check it by simulation\n");
       return 1;
     }
   } else if (values.verify) {

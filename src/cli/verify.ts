@@ -1,7 +1,7 @@
 /** `clausegate verify`: check an oracle against its formula; `oracle --verify` uses it too. */
 import { readFile } from "node:fs/promises";
 import {
-  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
+  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, DEFAULT_SOLVER_SECONDS, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
   type Completion,
 } from "../internal.js";
 import { checkCircuitSize, displayName, loadCnf, UserError } from "./io.js";
@@ -50,6 +50,8 @@ ${registerHelp("full")}
                               them all instead
   --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
   --conflict-limit N          conflicts the solver may spend finding them (default ${DEFAULT_CONFLICT_LIMIT})
+  --proof-seconds S           seconds a proof's SAT solver may spend on the miter (default ${DEFAULT_SOLVER_SECONDS}); the
+                              proof then ends "not proven" and the check falls back to simulation
   --seed S                    seed for samples, the solver and measurement outcomes (default 1)
   --prove                     prove at any size (no exhaustive simulation); exit 0 only when proved
   --sample                    simulate only: sample above the exhaustive limit instead of proving

@@ -161,25 +161,33 @@ export class CdclSolver {
    * Searches for a model, spending at most `conflictBudget` more conflicts. "unknown" when the
    * budget runs out; the solver can be called again to go on.
    */
-  solve(conflictBudget = Infinity): SolveStatus {
+  solve(conflictBudget = Infinity, resume = false): SolveStatus {
     if (!this.ok) return "unsat";
     const stop = this.conflicts + conflictBudget;
-    let restart = 0;
-    let nextReduce = this.conflicts + 2000;
-    let reduceStep = 2000;
+    // `resume`: go on with the restart and reduction schedules where the last call left them,
+    // so that a search cut into slices (to look at a clock) keeps them (a slice's end only cuts
+    // one restart short).
+    if (!resume) {
+      this.restart = 0;
+      this.nextReduce = this.conflicts + 2000;
+      this.reduceStep = 2000;
+    }
     for (;;) {
-      const limit = 100 * luby(++restart);
+      const limit = 100 * luby(++this.restart);
       const status = this.search(limit, stop);
       if (status !== "unknown") return status;
       this.cancelUntil(0);
       if (this.conflicts >= stop) return "unknown";
-      if (this.conflicts >= nextReduce) {
+      if (this.conflicts >= this.nextReduce) {
         this.reduceLearnts();
-        reduceStep += 300;
-        nextReduce = this.conflicts + reduceStep;
+        this.reduceStep += 300;
+        this.nextReduce = this.conflicts + this.reduceStep;
       }
     }
   }
+  private restart = 0;
+  private nextReduce = 0;
+  private reduceStep = 2000;
 
   /** The model found by the last successful {@link solve}: 0/1 per variable (index v - 1). */
   model(): Uint8Array {

@@ -40,7 +40,7 @@ describe("a value that starts with '-' after a space", () => {
 });
 
 describe("oracle: the check options without a check", () => {
-  it.each(["--exhaustive-limit=5", "--samples=5", "--models=5", "--conflict-limit=5", "--seed=5", "--sample"])("%s without --verify or --prove is refused", (opt) => {
+  it.each(["--exhaustive-limit=5", "--samples=5", "--models=5", "--conflict-limit=5", "--proof-seconds=5", "--seed=5", "--sample"])("%s without --verify or --prove is refused", (opt) => {
     const r = cli(["oracle", EXAMPLE, opt]);
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");

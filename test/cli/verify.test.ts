@@ -189,6 +189,18 @@ describe.skipIf(!haveSatlib)("clausegate verify --sample on SATLIB (Hoos & Stuet
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^verified: sampled \(4128 assignments, bit-parallel simulator\); 0 satisfying, 4128 not\nmodels: none, as the CDCL solver proved in \d+ conflicts?; .*\nnote: no models: the formula is unsatisfiable\n$/);
   });
+  it("SATLIB ais6's lean oracle: the proof ends at --proof-seconds and the check falls back to simulation; --prove then says not proven (exit 1); a bad value is refused", () => {
+    const ais6 = resolve(SATLIB, "ais/ais6.cnf");
+    const r = cli(["verify", ais6, "--strategy", "lean", "--proof-seconds", "1"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^not proven: the solver ran out of its time budget of 1 s \(\d+ conflicts\) \(after \d+\.\d+ s\); checked by simulation instead\nverified: sampled \(/);
+    const p = cli(["verify", ais6, "--strategy", "lean", "--proof-seconds", "1", "--prove"]);
+    expect(p.code).toBe(1);
+    expect(p.stdout).toMatch(/time budget of 1 s/);
+    const bad = cli(["verify", ais6, "--proof-seconds", "0"]);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toBe("clausegate: error: --proof-seconds expects a whole number in 1..86400 but got '0'; hint: give a value in that range\n");
+  }, 120_000);
   it("a solver out of budget: exit 1 and the reason, with a hint", () => {
     const r = cli(["verify", "--sample", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0"]);
     expect(r.code).toBe(1);

@@ -225,6 +225,22 @@ describe("the regression of the issue", () => {
   });
 });
 
+describe("the solver's time budget (solverSeconds)", () => {
+  it.skipIf(!haveSatlib)("SATLIB (Hoos & Stuetzle 2000) ais6: the lean oracle's miter, hard for the solver, ends \"not proven\" once its seconds are spent, not after a million conflicts", () => {
+    const cnf = readDimacs(readFileSync(resolve(SATLIB, "ais/ais6.cnf"))).cnf!;
+    const c = compileOracle(cnf, { strategy: "lean", basis: "toffoli" }).circuit;
+    const t0 = performance.now();
+    const p = proveOracle(cnf, c, { solverSeconds: 1 });
+    const spent = (performance.now() - t0) / 1000;
+    expect(p.status).toBe("unknown");
+    expect(p.message).toMatch(/^not proven: the solver ran out of its time budget of 1 s \(\d+ conflicts\)/);
+    // The quick attempts before it took 2 s here: the budget cut a search of minutes short.
+    expect(spent).toBeLessThan(60);
+    // A conflict budget spent first still says so.
+    expect(proveOracle(cnf, c, { solverSeconds: 3600, conflictLimit: 4000 }).message).toMatch(/its budget of 4000 conflicts/);
+  }, 120_000);
+});
+
 describe("the expected function in place of the formula (the hook for oracles over a subset of the variables)", () => {
   const cnf = randomKSat(12, 40, 3, 5);
   const c = compileOracle(cnf, { basis: "toffoli" }).circuit;
