@@ -8,11 +8,11 @@
  */
 import {
   countSolutions, crossoverOf, DEFAULT_MACHINE, fitLogLinear, forecastSearch, formatCount, formatLog10Count, formatLog10Seconds, formatSeconds, inputAssumptions, LOGICAL_ERROR_MODELS,
-  MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, clauseCount, constructionSearchCost, parseConstruction,
+  MAX_TABULATED_ERROR_RATE, measureEvaluationRate, planSearch, plotForecastSvg, searchConstruction, searchCosts, sharingPlans, clauseCount, constructionSearchCost, parseConstruction,
   type Assumption, type Cnf, type Crossover, type Forecast, type ForecastInput, type ForecastPlotSeries, type LogLinearFit,
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
 } from "../internal.js";
-import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
+import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
 import { choice, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
 import { plural, registerText, searchProblem } from "./register.js";
 import { claimStdout, printLater } from "./output.js";
@@ -549,9 +549,13 @@ export async function forecastCommand(argv: string[]): Promise<number> {
   let unsatisfiable = false;
   for (const [i, file] of positionals.entries()) {
     const cnf = await loadCnf(file);
-    checkCircuitSize(cnf, file, "forecast");
+    checkCircuitSize(cnf, file, "forecast", reg.register);
     const construction = constructionFor(cnf, file, oracle, chooses);
-    const gathered = await forecastInputOf(cnf, strategy, uncompute, reg, construction);
+    // The register's check and the figures plan the same formula: once (sharingPlans).
+    const gathered = await sharingPlans(async () => {
+      if (reg.register === "free") checkFreeRegister(searchProblem(cnf, reg).n, file, "forecast");
+      return forecastInputOf(cnf, strategy, uncompute, reg, construction);
+    });
     const measured = measureEvaluationRate(cnf, MEASURE_SECONDS);
     const solverSeconds = solver?.[i];
     const extra: Assumption[] = [

@@ -33,12 +33,33 @@ export function displayName(path: string): string {
 /** Most variables a circuit-making command accepts (the search register is one qubit per variable). */
 export const MAX_CIRCUIT_VARIABLES = 1_000_000;
 
-/** Refuses formulas whose search register would be too large to build. */
-export function checkCircuitSize(cnf: Cnf, file: string, command: string): void {
+/**
+ * Refuses formulas whose search register would be too large to build: with a full register
+ * (one qubit per declared variable), more than MAX_CIRCUIT_VARIABLES declared variables. A free
+ * register holds only the free variables: its size is checked once known (checkFreeRegister).
+ */
+export function checkCircuitSize(cnf: Cnf, file: string, command: string, register: "full" | "free" = "full"): void {
+  if (register === "full" && cnf.variables > MAX_CIRCUIT_VARIABLES) {
+    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits (one per declared variable with --register full); hint: declare only the variables the formula uses, or use --register free`);
+  }
+}
+
+/** Refuses a free search register of more than MAX_CIRCUIT_VARIABLES qubits (see checkCircuitSize). */
+export function checkFreeRegister(qubits: number, file: string, command: string): void {
+  if (qubits > MAX_CIRCUIT_VARIABLES) {
+    throw new UserError(`${displayName(file)}: error: the free search register has ${qubits} qubits; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits; hint: clausegate plan gives the numbers of the search`);
+  }
+}
+
+/**
+ * Refuses, for a check (verify, oracle --verify or --prove), more than MAX_CIRCUIT_VARIABLES
+ * declared variables whatever the register: a counterexample is an assignment of every declared
+ * variable (a free register's value completed to one).
+ */
+export function checkCheckSize(cnf: Cnf, file: string, command: string): void {
   if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
-    // The limit is on declared variables even for a free register: the commands that build an
-    // oracle keep per-variable tables (completions, assignments) sized by the header.
-    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits and reads formulas of at most ${MAX_CIRCUIT_VARIABLES} declared variables (with --register free too); hint: declare only the variables the formula uses`);
+    const leaveOut = command.startsWith("oracle ") ? `, or leave out ${command.slice(7)}` : "";
+    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} checks formulas of at most ${MAX_CIRCUIT_VARIABLES} declared variables, with --register free too (a counterexample is an assignment of every declared variable); hint: declare only the variables the formula uses${leaveOut}`);
   }
 }
 

@@ -3,7 +3,7 @@ import {
   chooseAmong, constructionRow, costConstructions, costFront, costTables, oracleResources, plotFrontSvg, reduceSearch, registerOf, sharingPlans, type Cnf, type ConstructionCost,
   type CostRow, type Oracle, type RegisterMode,
 } from "../internal.js";
-import { checkCircuitSize, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
+import { checkCheckSize, checkCircuitSize, checkFreeRegister, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
 import { claimStdout } from "./output.js";
 import { checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
@@ -154,8 +154,10 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   claimStdout("the report", values.report);
   claimStdout("the circuit", values.output ?? "-");
   const cnf = await loadCnf(file);
-  checkCircuitSize(cnf, file, "oracle");
+  checkCircuitSize(cnf, file, "oracle", options.register);
+  if (values.verify || values.prove) checkCheckSize(cnf, file, values.prove ? "oracle --prove" : "oracle --verify");
   const oracle = compileWithOptions(cnf, options, "oracle");
+  if (options.register === "free") checkFreeRegister(oracle.register.length, file, "oracle");
   noteSimplification(oracle, file);
   const completionOf = options.register === "free" ? oracle.completion : undefined;
   if (values.prove) {
@@ -226,9 +228,10 @@ export async function costCommand(argv: string[]): Promise<number> {
   claimStdout("the cost front", "-");
   claimStdout("the plot", values.plot);
   const cnf = await loadCnf(file);
-  checkCircuitSize(cnf, file, "cost");
+  checkCircuitSize(cnf, file, "cost", reg.register);
   // The register lines and both tables plan the same formula: once each (sharingPlans).
   return sharingPlans(async () => {
+    if (reg.register === "free") checkFreeRegister(registerOf(cnf, reg).register.length, file, "cost");
     const head = `${kind} oracle for ${displayName(file)}: ${plural(cnf.variables, "variable")}, ${plural(cnf.clauseStart.length - 1, "clause")}`;
     if (values.front) return frontCommand(cnf, file, head, { kind, uncompute: uncompute ?? "measured", basis: basis ?? "clifford+t", json: values.json === true, plot: values.plot, ...reg });
     if (maxQubits !== undefined) return budgetCommand(cnf, head, { kind, uncompute, maxQubits, prefer, json: values.json === true, ...reg });

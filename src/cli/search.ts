@@ -5,7 +5,7 @@ import {
   successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type ScheduleRound, type SearchPlan,
   type Solutions,
 } from "../internal.js";
-import { checkCircuitSize, displayName, EXIT_UNSATISFIABLE, loadCnf, MAX_CIRCUIT_VARIABLES, progress, UserError, writeAtomic } from "./io.js";
+import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, progress, UserError, writeAtomic } from "./io.js";
 import { claimStdout, printLater } from "./output.js";
 import {
   basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
@@ -509,9 +509,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const original = await loadCnf(file);
   if (o.register === "full") checkCircuitSize(original, file, "search");
   const problem = searchProblem(original, o);
-  if (problem.n > MAX_CIRCUIT_VARIABLES) {
-    throw new UserError(`${displayName(file)}: error: the free search register has ${problem.n} qubits; clausegate search builds at most ${MAX_CIRCUIT_VARIABLES}; hint: clausegate plan gives the numbers`);
-  }
+  checkFreeRegister(problem.n, file, "search");
   if (sampling.complete !== undefined) {
     // Values measured elsewhere: completed and checked; nothing is built.
     const r = completionLines(file, original, problem, sampling.complete);
@@ -684,7 +682,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
     const free = o.register === "full" ? ", or --register free" : "";
     throw new UserError(`clausegate draw: error: refusing to draw: the ${what} has at least ${n} qubits (one per ${o.register === "full" ? "variable" : "variable of the free register"}); diagrams stay readable up to ${DRAW_LIMITS.qubits} qubits and ${DRAW_LIMITS.gates} gates; hint: draw a formula with at most ${DRAW_LIMITS.qubits} ${o.register === "full" ? "variables" : "free variables"}${free}, or clausegate cost ${displayName(file)} for the numbers`);
   }
-  checkCircuitSize(cnf, file, "draw");
+  checkCircuitSize(cnf, file, "draw", o.register);
   let circuit: Circuit;
   let title: string;
   let K = 0;

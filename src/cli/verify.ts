@@ -4,7 +4,7 @@ import {
   DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, DEFAULT_SOLVER_SECONDS, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
   type Completion,
 } from "../internal.js";
-import { checkCircuitSize, displayName, loadCnf, UserError } from "./io.js";
+import { checkCheckSize, displayName, loadCnf, UserError } from "./io.js";
 import { choice, compileWithOptions, oneInput, ORACLE_ARGS, parseCommandArgs, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { checkJson, checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
@@ -100,7 +100,7 @@ export async function verifyCommand(argv: string[]): Promise<number> {
     kind = options.kind;
   }
   const cnf = await loadCnf(file);
-  checkCircuitSize(cnf, file, "verify");
+  checkCheckSize(cnf, file, "verify");
   let circuit: Circuit;
   let completion: Completion | undefined;
   if (options === undefined) {

@@ -114,13 +114,41 @@ describe("clausegate plan at any size", { timeout: 60_000 }, () => {
     expect(huge).toMatchObject({ n_assignments: null, log2_n_assignments: 5000, iterations: null, success_probability: 1, failure_probability: null });
     expect(huge.log2_iterations).toBeCloseTo(Math.log2(Math.PI / 4) + (5000 - Math.log2(3)) / 2, 9);
   });
-  it("the commands that build an oracle refuse 2^31 - 1 declared variables, saying that a free register does not lift it", () => {
-    for (const command of ["oracle", "cost", "verify"]) {
-      const r = cli([command, "-", "--register", "free"], "p cnf 2147483647 1\n1 0\n");
+  it("2^31 - 1 declared variables: a free register (3 qubits) is built, costed, drawn and forecast; a full register and the checks are refused, saying why", () => {
+    const input = "p cnf 2147483647 2\n1 -2 0\n2 3 0\n";
+    const oracle = cli(["oracle", "-", "--register", "free", "--report", join(dir, "big.json")], input);
+    expect(oracle.code).toBe(0);
+    expect(oracle.stdout).toMatch(/^qubit\[3\] vars;$/m);
+    const report = JSON.parse(readFileSync(join(dir, "big.json"), "utf8"));
+    expect(report).toMatchObject({ register: [1, 2, 3], register_mode: "free" });
+    const cost = cli(["cost", "-", "--register", "free", "--threads", "1"], input);
+    expect(cost.code).toBe(0);
+    expect(cost.stdout).toMatch(/^search register: 3 qubits, free /m);
+    expect(cli(["draw", "-", "--register", "free", "-o", join(dir, "big.svg")], input).code).toBe(0);
+    expect(cli(["forecast", "-"], input).code).toBe(0);
+    for (const command of ["oracle", "cost"]) {
+      const r = cli([command, "-", "--register", "full"], input);
       expect(r.code).toBe(2);
-      expect(r.stderr).toMatch(/^<stdin>: error: the header declares 2147483647 variables; .* \(with --register free too\); hint: declare only the variables the formula uses\n$/);
+      expect(r.stderr).toBe(`<stdin>: error: the header declares 2147483647 variables; clausegate ${command} builds search registers of at most 1000000 qubits (one per declared variable with --register full); hint: declare only the variables the formula uses, or use --register free\n`);
+    }
+    for (const [args, what, hint] of [[["verify", "-", "--register", "free"], "verify", ""], [["oracle", "-", "--register", "free", "--verify"], "oracle --verify", ", or leave out --verify"], [["oracle", "-", "--register", "free", "--prove"], "oracle --prove", ", or leave out --prove"]] as const) {
+      const r = cli([...args], input);
+      expect(r.code).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toBe(`<stdin>: error: the header declares 2147483647 variables; clausegate ${what} checks formulas of at most 1000000 declared variables, with --register free too (a counterexample is an assignment of every declared variable); hint: declare only the variables the formula uses${hint}\n`);
     }
   });
+  it("a free register of more than 1,000,000 qubits is refused by the commands that build or cost it (1,000,001 free variables)", () => {
+    const lines = ["p cnf 1000001 500001"];
+    for (let v = 1; v < 1000001; v += 2) lines.push(`${v} ${v + 1} 0`);
+    lines.push("1000001 -1 0");
+    const input = `${lines.join("\n")}\n`;
+    for (const command of ["cost", "search"]) {
+      const r = cli([command, "-", "--register", "free", "--no-structure"], input);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toBe(`<stdin>: error: the free search register has 1000001 qubits; clausegate ${command} builds search registers of at most 1000000 qubits; hint: clausegate plan gives the numbers of the search\n`);
+    }
+  }, 120_000);
   it("plans a header declaring 2^31 - 1 variables, counting only the variables that occur", () => {
     const input = "p cnf 2147483647 2\n1 2 0\n-1 5 0\n";
     const r = cli(["plan", "--register", "full", "-"], input);
