@@ -475,14 +475,15 @@ const BYTES_PER_INSTANCE = 64;
 const SWEEP_BYTES_PER_WIRE = 30;
 
 /**
- * Estimated CPU microseconds per literal of one run of each construction, measured on a
- * million-clause random 3-SAT formula on this kind of 2-core machine (sweep and block counter):
- * used only to share runs between threads, never in a figure.
+ * Estimated CPU microseconds per literal of one run of each construction and uncomputation,
+ * measured on a million-clause random 3-SAT formula on this kind of 2-core machine (sweep and
+ * block counter; the lean toffoli-basis run with measured uncomputation takes less than half the
+ * unitary one's time): used only to share runs between threads, never in a figure.
  */
-const MICROS_PER_LITERAL: Record<AnyStrategy, readonly [cliffordT: number, toffoli: number]> = {
-  wide: [1.2, 1.3],
-  lean: [1.1, 1.2],
-  textbook: [1.6, 1.0],
+const MICROS_PER_LITERAL: Record<AnyStrategy, Record<Uncompute, readonly [cliffordT: number, toffoli: number]>> = {
+  wide: { unitary: [1.45, 1.3], measured: [1.25, 1.3] },
+  lean: { unitary: [0.93, 1.3], measured: [0.87, 0.57] },
+  textbook: { unitary: [1.8, 0.93], measured: [1.8, 0.93] },
 };
 
 /** The same for the wide oracle's Toffoli tally (toffolis.ts), roughly. */
@@ -536,7 +537,7 @@ export class TableCounter {
       else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? 16 << 20 : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);
       // The wide oracle's Toffolis are tallied from its operations, no replay (toffolis.ts).
       if (strategy === "wide" && !levels && sw === undefined) return { row, basis, weight: L / 20 + 1, seconds: (TALLY_MICROS_PER_LITERAL * L) / 1e6, bytes: 4 * f.variables + 12 * m };
-      return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][levels ? 0 : 1] * literals) / 1e6, bytes };
+      return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][uncompute][levels ? 0 : 1] * literals) / 1e6, bytes };
     }));
   }
 
