@@ -34,6 +34,8 @@ export interface SplitJob {
   readonly progress: SharedArrayBuffer;
 }
 
+/** Literals from which the worker thread is started before planning (some 0.3 s of its start then overlap it). */
+const EARLY_LITERALS = 300_000;
 /** Below this many estimated CPU seconds a table is counted on one thread (a thread costs a start and a copy of the plans). */
 const SPLIT_FROM_SECONDS = 3;
 /** A run estimated to hold more than this stays on the main thread (see costTables). */
@@ -45,16 +47,27 @@ const HEAVY_BYTES = 96 << 20;
  * longest first, to whichever thread has less estimated work. `threads: 1` counts everything here;
  * `splitFrom` is the estimated CPU seconds from which to split (default 3); `heavyBytes` the
  * estimated memory above which a run stays on this thread (default 96 MB); `worker` the worker
- * module (default splitWorker.js beside this one; a thread that cannot run leaves its runs here).
+ * module (default splitWorker.js beside this one; a thread that cannot run leaves its runs here);
+ * `earlyFrom` the literals from which the thread is started before planning (default 300,000).
  */
-export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly TableSpec[], options: { readonly onProgress?: (fraction: number) => void; readonly threads?: number; readonly splitFrom?: number; readonly heavyBytes?: number; readonly worker?: URL } = {}): Promise<CostRow[][]> {
-  const counters = sharingPlans(() => tables.map((t) => new TableCounter(cnf, kind, t, t.textbook ?? true)));
+export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly TableSpec[], options: { readonly onProgress?: (fraction: number) => void; readonly threads?: number; readonly splitFrom?: number; readonly heavyBytes?: number; readonly worker?: URL; readonly earlyFrom?: number } = {}): Promise<CostRow[][]> {
+  const threads = Math.min(2, options.threads ?? availableParallelism());
+  // A formula this large is split for sure: the thread starts (loads its modules) while this one
+  // plans, and gets its job when the plans are made.
+  const url = options.worker ?? new URL("./splitWorker.js", import.meta.url);
+  let early = threads >= 2 && cnf.lits.length >= (options.earlyFrom ?? EARLY_LITERALS) ? spawnWorker(url) : null;
+  let counters: TableCounter[];
+  try {
+    counters = sharingPlans(() => tables.map((t) => new TableCounter(cnf, kind, t, t.textbook ?? true)));
+  } catch (e) {
+    void early?.thread.terminate();
+    throw e;
+  }
   const runs = counters.map((c) => c.runs());
   const all = runs.flatMap((rs, t) => rs.map((r, i) => ({ t, i, r })));
   const total = all.reduce((s, x) => s + x.r.weight, 0);
   const progress = new Progress(total, options.onProgress);
   const results: EngineResult[][] = runs.map((rs) => new Array<EngineResult>(rs.length));
-  const threads = Math.min(2, options.threads ?? availableParallelism());
   const seconds = all.reduce((s, x) => s + x.r.seconds, 0);
   const mine: typeof all = [];
   const theirs: typeof all = [];
@@ -92,7 +105,12 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
   let myDone = 0;
   let current = 0;
   const report = (): void => progress.emit((myDone + current + Math.min(theirDone[0]!, theirWeight)) / total);
-  const worker = theirs.length === 0 ? null : startWorker(options.worker ?? new URL("./splitWorker.js", import.meta.url), { plans: counters.map((c) => c.oraclePlan), kind, tables, runs: theirs.map((x) => [x.t, x.i] as const), progress: shared });
+  if (theirs.length === 0 && early !== null) {
+    void early.thread.terminate();
+    early = null;
+  }
+  const worker = theirs.length === 0 ? null : early ?? spawnWorker(url);
+  worker?.thread.postMessage({ plans: counters.map((c) => c.oraclePlan), kind, tables, runs: theirs.map((x) => [x.t, x.i] as const), progress: shared } satisfies SplitJob);
   try {
     for (const x of mine) {
       results[x.t]![x.i] = counters[x.t]!.count(x.r, options.onProgress && ((f) => {
@@ -129,8 +147,9 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
 /** The worker's message: its runs' results, or why it failed. */
 type WorkerReply = { readonly results: EngineResult[] } | { readonly error: string };
 
-function startWorker(url: URL, job: SplitJob): { thread: Worker; result: Promise<EngineResult[]> } {
-  const thread = new Worker(url, { workerData: job });
+/** Starts the worker thread; it counts when it is sent its job (a SplitJob message). */
+function spawnWorker(url: URL): { thread: Worker; result: Promise<EngineResult[]> } {
+  const thread = new Worker(url);
   const result = new Promise<EngineResult[]>((resolve, reject) => {
     thread.once("message", (m: WorkerReply) => ("error" in m ? reject(new Error(m.error)) : resolve(m.results)));
     thread.once("error", reject);

@@ -1,18 +1,20 @@
 /** The worker thread of split.ts: counts its share of the cost tables' runs and posts the results. */
-import { parentPort, workerData } from "node:worker_threads";
+import { parentPort } from "node:worker_threads";
 import { TableCounter } from "./index.js";
 import type { EngineResult } from "./engine.js";
 import type { SplitJob } from "./split.js";
 
-const job = workerData as SplitJob;
-const done = new Float64Array(job.progress);
-try {
-  work();
-} catch (e) {
-  parentPort!.postMessage({ error: e instanceof Error ? e.message : String(e) });
-}
+// The job comes by message: the thread may be started before the plans are made.
+parentPort!.once("message", (job: SplitJob) => {
+  try {
+    work(job);
+  } catch (e) {
+    parentPort!.postMessage({ error: e instanceof Error ? e.message : String(e) });
+  }
+});
 
-function work(): void {
+function work(job: SplitJob): void {
+  const done = new Float64Array(job.progress);
   const counters = new Map<number, TableCounter>();
   const results: EngineResult[] = [];
   let finished = 0;

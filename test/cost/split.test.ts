@@ -42,6 +42,15 @@ describe("costTables", () => {
     }
   });
 
+  it("a thread started before planning (earlyFrom 0) gives the same rows; when the table is not split after all, it is let go and the call returns", async () => {
+    const cnf = randomKSat(12, 50, 3, 13);
+    const expected = costTable(cnf, "phase", { structure: false });
+    expect((await costTables(cnf, "phase", [{ structure: false }], { threads: 2, splitFrom: 0, earlyFrom: 0 }))[0]).toStrictEqual(expected);
+    expect((await costTables(cnf, "phase", [{ structure: false }], { threads: 2, splitFrom: Infinity, earlyFrom: 0 }))[0]).toStrictEqual(expected);
+    const missing = new URL("./no-such-worker.js", import.meta.url);
+    expect((await costTables(cnf, "phase", [{ structure: false }], { threads: 2, splitFrom: 0, earlyFrom: 0, worker: missing }))[0]).toStrictEqual(expected);
+  });
+
   it("counts the worker's runs itself when the thread cannot run", async () => {
     const cnf = randomKSat(10, 40, 3, 11);
     const missing = new URL("./no-such-worker.js", import.meta.url);
