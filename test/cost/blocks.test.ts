@@ -9,8 +9,9 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { cnfFromClauses, compileOracle, countCircuit, type Cnf } from "../helpers/lib.js";
+import { randomKSat } from "../helpers/formulas.js";
 import { countConstruction } from "../../dist/src/cost/index.js";
-import { BlockCounter } from "../../dist/src/cost/blocks.js";
+import { BlockCounter, KEEP_SWITCHES } from "../../dist/src/cost/blocks.js";
 import { LeanBlocks } from "../../dist/src/cost/leanBlocks.js";
 import { simplify } from "../../dist/src/synth/index.js";
 import { seededRandom } from "../../dist/src/util/random.js";
@@ -161,6 +162,51 @@ describe("the block counter gives the figures of the built circuits", () => {
     );
     // Not a property that passes by skipping: nearly every formula has an oracle to count.
     expect(counted).toBeGreaterThan(250);
+  });
+
+  it("property: with work wires' tails cut after KEEP_SWITCHES changes of role, the counter gives the unlimited one's figures or stops saying the tail was short; cost's counting (again without the limit) gives the built figures", () => {
+    let through = 0;
+    let short = 0;
+    fc.assert(
+      fc.property(seams, ({ n, clauses }) => {
+        const cnf = cnfFromClauses(n, clauses);
+        const f = simplify(cnf);
+        if (!LeanBlocks.fits(f)) return;
+        for (const c of COMBOS.filter((x) => x.optimize)) {
+          const mode = { basis: c.basis, uncompute: c.uncompute, toffoliAnds: false };
+          const cut = new BlockCounter(new LeanBlocks(f, c.kind, mode), { optimize: true, levels: true, keepSwitches: KEEP_SWITCHES });
+          const r = cut.run();
+          if (r === null) {
+            expect(cut.stoppedOnTail, String(cut.stopped)).toBe(true);
+            short++;
+            const o = { kind: c.kind, strategy: "lean" as const, basis: c.basis, uncompute: c.uncompute, optimize: true, engine: "blocks" as const };
+            const counted = countConstruction(cnf, o, { structure: false }) as unknown as Record<string, unknown>;
+            const built = builtFigures(cnf, c);
+            for (const fig of Object.keys(built)) expect(counted[fig], `${fig}, ${JSON.stringify(c)}, ${JSON.stringify(clauses)}`).toBe(built[fig]);
+          } else {
+            through++;
+            const { r: unlimited } = byBlocks(cnf, c);
+            for (const fig of FIGURES) expect((r as unknown as Record<string, unknown>)[fig], `${fig}, ${JSON.stringify(c)}, ${JSON.stringify(clauses)}`).toBe(unlimited[fig]);
+          }
+        }
+      }),
+      { numRuns: 150 },
+    );
+    // Both paths are taken: most formulas go through, a few (cascades from the mark) stop.
+    expect(through).toBeGreaterThan(100);
+    expect(short).toBeGreaterThan(0);
+  });
+
+  it("a random 3-SAT formula of 20,000 clauses in the toffoli basis with unitary uncomputation: the same Toffolis with tails cut after KEEP_SWITCHES changes of role, in fewer replays", () => {
+    const f = simplify(randomKSat(5000, 20_000, 3, 31));
+    const mode = { basis: "toffoli" as const, uncompute: "unitary" as const, toffoliAnds: false };
+    const cut = new BlockCounter(new LeanBlocks(f, "phase", mode), { optimize: true, levels: false, keepSwitches: KEEP_SWITCHES });
+    const whole = new BlockCounter(new LeanBlocks(f, "phase", mode), { optimize: true, levels: false });
+    const a = cut.run();
+    const b = whole.run();
+    expect(cut.stopped).toBeNull();
+    expect(a).toStrictEqual(b);
+    expect(cut.replays).toBeLessThan(whole.replays);
   });
 
   it("one clause of each width 1..6, alone and repeated with the polarity of one literal flipped", () => {
