@@ -2,7 +2,7 @@
 import {
   completeAssignment, DEFAULT_EXHAUSTIVE_LIMIT, exhaustiveInReach, expectedOfCompletion, MAX_EXHAUSTIVE_LIMIT, proveOracle, verifyOracle, type Circuit, type Cnf, type Completion, type OracleProof, type VerifyResult,
 } from "../internal.js";
-import { displayName, progress } from "./io.js";
+import { displayName, progress, UserError } from "./io.js";
 import { intOption } from "./options.js";
 
 /** The verification options given on the command line. */
@@ -38,6 +38,9 @@ export function verifyFlags(values: Record<string, string | boolean | undefined>
   const models = intOption(str("models"), "--models", 1, 1 << 16);
   const conflictLimit = intOption(str("conflict-limit"), "--conflict-limit", 0, 2 ** 31 - 1);
   const proofSeconds = intOption(str("proof-seconds"), "--proof-seconds", 1, 86_400);
+  if (proofSeconds !== undefined && values.sample === true) {
+    throw new UserError("clausegate: error: --proof-seconds bounds a proof, and --sample runs none; hint: leave out --sample or --proof-seconds");
+  }
   return {
     exhaustiveLimit: intOption(str("exhaustive-limit"), "--exhaustive-limit", 0, MAX_EXHAUSTIVE_LIMIT) ?? DEFAULT_EXHAUSTIVE_LIMIT,
     ...(samples === undefined ? {} : { samples }),

@@ -550,10 +550,12 @@ export async function forecastCommand(argv: string[]): Promise<number> {
   for (const [i, file] of positionals.entries()) {
     const cnf = await loadCnf(file);
     checkCircuitSize(cnf, file, "forecast", reg.register);
-    const construction = constructionFor(cnf, file, oracle, chooses);
-    // The register's check and the figures plan the same formula: once (sharingPlans).
+    // The register's check (before a construction is chosen or anything costed) and the figures
+    // plan the same formula: once (sharingPlans).
+    let construction: string | undefined;
     const gathered = await sharingPlans(async () => {
       if (reg.register === "free") checkFreeRegister(searchProblem(cnf, reg).n, file, "forecast");
+      construction = constructionFor(cnf, file, oracle, chooses);
       return forecastInputOf(cnf, strategy, uncompute, reg, construction);
     });
     const measured = measureEvaluationRate(cnf, MEASURE_SECONDS);

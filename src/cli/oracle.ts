@@ -156,8 +156,11 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "oracle", options.register);
   if (values.verify || values.prove) checkCheckSize(cnf, file, values.prove ? "oracle --prove" : "oracle --verify");
-  const oracle = compileWithOptions(cnf, options, "oracle");
-  if (options.register === "free") checkFreeRegister(oracle.register.length, file, "oracle");
+  // The free register's size before anything is built; the compilation plans the same (sharingPlans).
+  const oracle = sharingPlans(() => {
+    if (options.register === "free") checkFreeRegister(registerOf(cnf, options).register.length, file, "oracle");
+    return compileWithOptions(cnf, options, "oracle");
+  });
   noteSimplification(oracle, file);
   const completionOf = options.register === "free" ? oracle.completion : undefined;
   if (values.prove) {

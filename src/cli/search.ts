@@ -519,7 +519,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const { K, solutions, plan } = await iterationsFor(problem, values.iterations, values.solutions, "search", values.report !== undefined);
   o = settleSearchOptions(original, o, "search");
   checkSearchSize(file, original, problem.n, o, K, values.report !== undefined);
-  if (sampling.shots !== undefined) checkShots(file, original, problem, o, K);
+  if (sampling.shots !== undefined) checkShots(file, original, problem, o, K, sampling.shots);
   const circuit = compileSearch(original, { ...o, iterations: K });
   checkFormat(circuit, format);
   const comments = [

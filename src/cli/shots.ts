@@ -52,15 +52,31 @@ export function shotsOptions(values: Record<string, string | boolean | undefined
 }
 
 /** Refuses completions that would list a huge header's variables. */
-function checkListable(file: string, cnf: Cnf, what: string): void {
+function checkListable(file: string, cnf: Cnf, what: string, lines: number): void {
   if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
     throw new UserError(`${displayName(file)}: error: ${what} assigns every declared variable, and the header declares ${cnf.variables}; clausegate search prints at most ${MAX_CIRCUIT_VARIABLES}; hint: declare only the variables the formula uses`);
   }
+  // All lines are one string on standard output (printed only once all is well): V8's strings
+  // stop short of 2^29 characters (200 shots of a million variables, 1.6 GB, ended in exit 70).
+  const bytes = lines * assignmentBytes(cnf.variables);
+  if (bytes > MAX_LISTING_BYTES) {
+    throw new UserError(`${displayName(file)}: error: ${what} would print ${lines} assignment${lines === 1 ? "" : "s"} of ${cnf.variables} variables, about ${Math.ceil(bytes / 2 ** 20)} MB; clausegate search prints at most ${MAX_LISTING_BYTES / 2 ** 20} MB; hint: ${what === "--shots" ? "give fewer --shots" : "complete fewer values at once"}, or declare only the variables the formula uses`);
+  }
 }
+
+/** Characters of one assignment of variables 1..n as DIMACS literals (a sign or none, digits, a space). */
+function assignmentBytes(n: number): number {
+  let bytes = 0;
+  for (let d = 1, lo = 1; lo <= n; d++, lo *= 10) bytes += (Math.min(n, lo * 10 - 1) - lo + 1) * (d + 2);
+  return bytes + 2;
+}
+
+/** Most characters --shots and --complete print (see checkListable). */
+const MAX_LISTING_BYTES = 256 * 2 ** 20;
 
 /** The completions of values given with --complete, and whether all of them are models. */
 export function completionLines(file: string, cnf: Cnf, p: SearchProblem, raw: readonly string[]): { lines: string[]; allModels: boolean } {
-  checkListable(file, cnf, "--complete");
+  checkListable(file, cnf, "--complete", raw.length);
   const values = raw.map((r) => parseRegisterValue(r, p.n, "search"));
   const lines = [`formula: ${displayName(file)}; search register: ${p.n} qubit${p.n === 1 ? "" : "s"}, ${registerText(p)}`];
   let allModels = true;
@@ -73,8 +89,8 @@ export function completionLines(file: string, cnf: Cnf, p: SearchProblem, raw: r
 }
 
 /** Refuses, before building, a simulation too large for --shots. */
-export function checkShots(file: string, cnf: Cnf, p: SearchProblem, o: OracleOptions, K: number): void {
-  checkListable(file, cnf, "--shots");
+export function checkShots(file: string, cnf: Cnf, p: SearchProblem, o: OracleOptions, K: number, shots: number): void {
+  checkListable(file, cnf, "--shots", shots);
   const free = p.mode === "full" ? "try --register free (the default), or " : "";
   if (p.n > MAX_SHOT_QUBITS) {
     throw new UserError(`clausegate search: error: --shots simulates search registers of at most ${MAX_SHOT_QUBITS} qubits and this one has ${p.n}; hint: ${free}run the circuit elsewhere and complete its measured values with --complete`);

@@ -51,7 +51,8 @@ ${registerHelp("full")}
   --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
   --conflict-limit N          conflicts the solver may spend finding them (default ${DEFAULT_CONFLICT_LIMIT})
   --proof-seconds S           seconds a proof's SAT solver may spend on the miter (default ${DEFAULT_SOLVER_SECONDS}); the
-                              proof then ends "not proven" and the check falls back to simulation
+                              proof then ends "not proven" and the check falls back to simulation (a clock:
+                              a proof near it may pass on a fast machine only; --conflict-limit is exact)
   --seed S                    seed for samples, the solver and measurement outcomes (default 1)
   --prove                     prove at any size (no exhaustive simulation); exit 0 only when proved
   --sample                    simulate only: sample above the exhaustive limit instead of proving

@@ -158,36 +158,37 @@ export class CdclSolver {
   }
 
   /**
-   * Searches for a model, spending at most `conflictBudget` more conflicts. "unknown" when the
-   * budget runs out; the solver can be called again to go on.
+   * Searches for a model, spending at most `conflictBudget` more conflicts, and stopping at the
+   * `deadline` (a performance.now() time, looked at every 256 conflicts) when one is given.
+   * "unknown" when either runs out; the solver can be called again to go on.
    */
-  solve(conflictBudget = Infinity, resume = false): SolveStatus {
+  solve(conflictBudget = Infinity, deadline = Infinity): SolveStatus {
     if (!this.ok) return "unsat";
     const stop = this.conflicts + conflictBudget;
-    // `resume`: go on with the restart and reduction schedules where the last call left them,
-    // so that a search cut into slices (to look at a clock) keeps them (a slice's end only cuts
-    // one restart short).
-    if (!resume) {
-      this.restart = 0;
-      this.nextReduce = this.conflicts + 2000;
-      this.reduceStep = 2000;
-    }
+    this.deadline = deadline;
+    this.timedOut = false;
+    this.nextClock = deadline === Infinity ? Infinity : this.conflicts + 256;
+    let restart = 0;
+    let nextReduce = this.conflicts + 2000;
+    let reduceStep = 2000;
     for (;;) {
-      const limit = 100 * luby(++this.restart);
+      const limit = 100 * luby(++restart);
       const status = this.search(limit, stop);
       if (status !== "unknown") return status;
       this.cancelUntil(0);
-      if (this.conflicts >= stop) return "unknown";
-      if (this.conflicts >= this.nextReduce) {
+      if (this.conflicts >= stop || this.timedOut) return "unknown";
+      if (this.conflicts >= nextReduce) {
         this.reduceLearnts();
-        this.reduceStep += 300;
-        this.nextReduce = this.conflicts + this.reduceStep;
+        reduceStep += 300;
+        nextReduce = this.conflicts + reduceStep;
       }
     }
   }
-  private restart = 0;
-  private nextReduce = 0;
-  private reduceStep = 2000;
+  private deadline = Infinity;
+  /** Conflicts at which the clock is next looked at. */
+  private nextClock = Infinity;
+  /** The last solve stopped at its deadline. */
+  timedOut = false;
 
   /** The model found by the last successful {@link solve}: 0/1 per variable (index v - 1). */
   model(): Uint8Array {
@@ -238,6 +239,13 @@ export class CdclSolver {
         continue;
       }
       if (conflictsHere >= restartLimit || this.conflicts >= stop) return "unknown";
+      if (this.conflicts >= this.nextClock) {
+        this.nextClock = this.conflicts + 256;
+        if (performance.now() >= this.deadline) {
+          this.timedOut = true;
+          return "unknown";
+        }
+      }
       const next = this.pickBranch();
       if (next < 0) return "sat";
       this.decisions++;

@@ -143,12 +143,27 @@ describe("clausegate plan at any size", { timeout: 60_000 }, () => {
     for (let v = 1; v < 1000001; v += 2) lines.push(`${v} ${v + 1} 0`);
     lines.push("1000001 -1 0");
     const input = `${lines.join("\n")}\n`;
-    for (const command of ["cost", "search"]) {
-      const r = cli([command, "-", "--register", "free", "--no-structure"], input);
+    // Refused before anything is built or costed (oracle and forecast --max-qubits built it all
+    // first: 2 minutes and several GB).
+    for (const args of [["cost"], ["search"], ["oracle"], ["forecast", "--max-qubits", "3000000"]]) {
+      const t0 = performance.now();
+      const r = cli([args[0]!, "-", "--register", "free", "--no-structure", ...args.slice(1)], input);
       expect(r.code).toBe(2);
-      expect(r.stderr).toBe(`<stdin>: error: the free search register has 1000001 qubits; clausegate ${command} builds search registers of at most 1000000 qubits; hint: clausegate plan gives the numbers of the search\n`);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toBe(`<stdin>: error: the free search register has 1000001 qubits; clausegate ${args[0]} builds search registers of at most 1000000 qubits; hint: clausegate plan gives the numbers of the search\n`);
+      expect((performance.now() - t0) / 1000).toBeLessThan(30);
     }
-  }, 120_000);
+  }, 180_000);
+  it("search --shots and --complete refuse, before simulating, to print more than 256 MB of assignments (a million declared variables)", () => {
+    const input = "p cnf 1000000 2\n1 -2 0\n2 3 0\n";
+    const shots = cli(["search", "-", "--shots", "200"], input);
+    expect(shots.code).toBe(2);
+    expect(shots.stdout).toBe("");
+    expect(shots.stderr).toMatch(/^<stdin>: error: --shots would print 200 assignments of 1000000 variables, about 150\d MB; clausegate search prints at most 256 MB; hint: give fewer --shots, or declare only the variables the formula uses\n$/);
+    const complete = cli(["search", "-", "--complete", Array.from({ length: 70 }, () => "101").join(",")], input);
+    expect(complete.code).toBe(2);
+    expect(complete.stderr).toMatch(/^<stdin>: error: --complete would print 70 assignments of 1000000 variables, about 5\d\d MB; .* hint: complete fewer values at once, or declare only the variables the formula uses\n$/);
+  });
   it("plans a header declaring 2^31 - 1 variables, counting only the variables that occur", () => {
     const input = "p cnf 2147483647 2\n1 2 0\n-1 5 0\n";
     const r = cli(["plan", "--register", "full", "-"], input);

@@ -143,18 +143,16 @@ describe("the solver on random formulas", () => {
     expect(s.solve()).toBe("unsat");
     expect(findModels(hard, 1, { conflictLimit: 5 })).toMatchObject({ status: "unknown", models: [], all: false });
   });
-  it("resumed in slices (solve(n, true)), it keeps its schedules: the pigeonhole proof (Haken 1985) in slices of 500 conflicts ends as in one call, within a few slices of its conflicts", () => {
+  it("stops at its deadline with 'unknown' (timedOut), and goes on when called again: the pigeonhole proof (Haken 1985)", () => {
     const hard = pigeonhole(8, 7);
-    const whole = new CdclSolver(hard.variables);
-    whole.addCnf(hard);
-    expect(whole.solve()).toBe("unsat");
-    const sliced = new CdclSolver(hard.variables);
-    sliced.addCnf(hard);
-    let status = sliced.solve(500);
-    for (let i = 0; status === "unknown" && i < 10_000; i++) status = sliced.solve(500, true);
-    expect(status).toBe("unsat");
-    // Each slice's end cuts one restart short, no more: the conflicts stay close to the whole run's.
-    expect(sliced.conflicts).toBeLessThan(whole.conflicts * 2 + 5000);
+    const s = new CdclSolver(hard.variables);
+    s.addCnf(hard);
+    expect(s.solve(Infinity, performance.now() - 1)).toBe("unknown");
+    expect(s.timedOut).toBe(true);
+    // The clock is looked at every 256 conflicts.
+    expect(s.conflicts).toBeLessThanOrEqual(256);
+    expect(s.solve(Infinity, performance.now() + 3_600_000)).toBe("unsat");
+    expect(s.timedOut).toBe(false);
   });
   it("reports no models for an empty clause, and one model of no variables for no clauses", () => {
     expect(findModels(cnfFromClauses(3, [[1], []]), 5)).toMatchObject({ status: "unsat", models: [], all: true });

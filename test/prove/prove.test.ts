@@ -233,9 +233,9 @@ describe("the solver's time budget (solverSeconds)", () => {
     const p = proveOracle(cnf, c, { solverSeconds: 1 });
     const spent = (performance.now() - t0) / 1000;
     expect(p.status).toBe("unknown");
-    expect(p.message).toMatch(/^not proven: the solver ran out of its time budget of 1 s \(\d+ conflicts\)/);
+    expect(p.message).toMatch(/^not proven: the solver ran out of its time budget, 1 s, at \d+ conflicts/);
     // The quick attempts before it took 2 s here: the budget cut a search of minutes short.
-    expect(spent).toBeLessThan(60);
+    expect(spent).toBeLessThan(30);
     // A conflict budget spent first still says so.
     expect(proveOracle(cnf, c, { solverSeconds: 3600, conflictLimit: 4000 }).message).toMatch(/its budget of 4000 conflicts/);
   }, 120_000);
