@@ -49,7 +49,8 @@ ${registerHelp("full")}
                               distinct up to 40 variables; a sample of half the assignments or more checks
                               them all instead
   --models K                  satisfying assignments the solver looks for above the limit (default 64; 16 for state vectors)
-  --conflict-limit N          conflicts the solver may spend finding them (default ${DEFAULT_CONFLICT_LIMIT})
+  --conflict-limit N          conflicts the solver may spend finding them, and on a proof's miter (default
+                              ${DEFAULT_CONFLICT_LIMIT} each)
   --proof-seconds S           seconds a proof's SAT solver may spend on the miter (default ${DEFAULT_SOLVER_SECONDS}); the
                               proof then ends "not proven" and the check falls back to simulation (a clock:
                               a proof near it may pass on a fast machine only; --conflict-limit is exact)
