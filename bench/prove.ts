@@ -7,6 +7,8 @@
  *   million  the 1,000,000-clause bench file (bench/out/random3sat-1m.cnf, the reader bench's
  *            seeded formula), default construction (phase, wide, toffoli, unitary): compiled and
  *            proved in a fresh process, timed, with peak memory (target: under 10 minutes);
+ * The prover runs without its solver's time budget here (solverSeconds: Infinity), so that what
+ * it proves does not depend on the machine's speed; the times are measured instead.
  *   mutants  `mutants SIZES CONSTRUCTIONS PICKS BASES CONFLICTS`: the mutation sweep (benchMutants;
  *            MUTANTS_VERBOSE=1 prints each mutant, MUTANTS_CHECK_SAMPLES sets the cross-check's
  *            random sample);
@@ -72,7 +74,7 @@ function benchPlanted(only: readonly string[] = []): void {
           const c = compileOracle(cnf, o).circuit;
           const compileS = (performance.now() - t0) / 1000;
           const cpu0 = process.cpuUsage();
-          const p = proveOracle(cnf, c, { kind });
+          const p = proveOracle(cnf, c, { kind, solverSeconds: Infinity });
           const cpu = process.cpuUsage(cpu0);
           const cpuS = (cpu.user + cpu.system) / 1e6;
           worst = Math.max(worst, p.seconds);
@@ -92,7 +94,7 @@ function proveMillionHere(file: string): void {
   const tRead = performance.now();
   const oracle = compileOracle(cnf!);
   const tCompile = performance.now();
-  const p = proveOracle(cnf!, oracle.circuit);
+  const p = proveOracle(cnf!, oracle.circuit, { solverSeconds: Infinity });
   const tProve = performance.now();
   console.log(JSON.stringify({
     gates: oracle.circuit.gates, status: p.status, method: p.method, miter: p.miter, graphNodes: p.graphNodes, message: p.message,
@@ -145,7 +147,7 @@ async function benchMutants(sizes: readonly number[], constructions: readonly st
                 const mutated = mutate(c, m, Math.floor(r() * 2 ** 31));
                 if (mutated === null) continue;
                 counts.mutants++;
-                const p = proveOracle(cnf, mutated, { kind, conflictLimit });
+                const p = proveOracle(cnf, mutated, { kind, conflictLimit, solverSeconds: Infinity });
                 total += p.seconds;
                 if (process.env.MUTANTS_VERBOSE) console.log(`    ${n} ${construction} ${kind} ${basis} ${uncompute} ${m}: ${p.status} by ${p.method} in ${p.seconds.toFixed(2)} s`);
                 if (p.seconds > worst) {
