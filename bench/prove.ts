@@ -7,15 +7,14 @@
  *   million  the 1,000,000-clause bench file (bench/out/random3sat-1m.cnf, the reader bench's
  *            seeded formula), default construction (phase, wide, toffoli, unitary): compiled and
  *            proved in a fresh process, timed, with peak memory (target: under 10 minutes);
- * The prover runs without its solver's time budget here (solverSeconds: Infinity), so that what
- * it proves does not depend on the machine's speed; the times are measured instead.
  *   mutants  `mutants SIZES CONSTRUCTIONS PICKS BASES CONFLICTS`: the mutation sweep (benchMutants;
  *            MUTANTS_VERBOSE=1 prints each mutant, MUTANTS_CHECK_SAMPLES sets the cross-check's
  *            random sample);
  *   explain  `explain N CONSTRUCTION "KIND BASIS UNCOMPUTE MUTATION" [RANDOM]`: one mutant of the
  *            sweep, its changed gate and whether that gate acts on the states reached there
  *            (explainMutant).
- * Prints figures; asserts nothing.
+ * Prints figures; asserts nothing. The prover runs without its solver's time budget here
+ * (solverSeconds: Infinity), so that what it proves does not depend on the machine's speed.
  */
 import { execFileSync } from "node:child_process";
 import { existsSync, mkdirSync, readFileSync } from "node:fs";
