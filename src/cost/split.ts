@@ -110,8 +110,9 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
     early = null;
   }
   const worker = theirs.length === 0 ? null : early ?? spawnWorker(url);
-  worker?.thread.postMessage({ plans: counters.map((c) => c.oraclePlan), kind, tables, runs: theirs.map((x) => [x.t, x.i] as const), progress: shared } satisfies SplitJob);
   try {
+    // Within the try: a thread left waiting for its job would keep the process alive.
+    worker?.thread.postMessage({ plans: counters.map((c) => c.oraclePlan), kind, tables, runs: theirs.map((x) => [x.t, x.i] as const), progress: shared } satisfies SplitJob);
     for (const x of mine) {
       results[x.t]![x.i] = counters[x.t]!.count(x.r, options.onProgress && ((f) => {
         current = Math.min(1, Math.max(0, f)) * x.r.weight;
