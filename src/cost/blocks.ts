@@ -236,8 +236,9 @@ const KEEP_STOPS = 3;
  * gates (a walk passes only gates of its own role: see commuteOn). In the toffoli basis with
  * unitary uncomputation no gate stops every walk, and 17 live gates of a counter wire reached
  * back over many blocks: a million random clauses made 803 states (125 with 3 changes) and took
- * 4.0 s instead of 3. Where cancellations cascade from the mark outwards (small formulas), a
- * walk needs more: the caller counts again without the limit (see stoppedOnTail).
+ * 5.3-6.3 s instead of 3.3-3.7 s (a loaded machine). Where cancellations cascade from the mark
+ * outwards (small formulas), a walk needs more: the caller counts again without the limit (see
+ * stoppedOnTail).
  */
 export const KEEP_SWITCHES = 3;
 

@@ -174,7 +174,6 @@ const QUICK_CONFLICTS = 3_000;
 /** See ProveOptions.solverSeconds (common practice: a budget a user waits for at a terminal). */
 export const DEFAULT_SOLVER_SECONDS = 20;
 
-
 /**
  * Proves that `circuit` is the phase or flag oracle of `cnf` for every assignment: the right
  * phase or target flip, the search register unchanged, every work qubit back at 0, for every
