@@ -343,7 +343,14 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // A wide oracle keeps each clause's AND record (3 numbers per 2-input AND, 2 more per record)
   // until the mark.
   const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
-  const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount, records, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+  // farReach: the lean oracle's Clifford+T run with unitary uncomputation cancels across a work
+  // wire's idle stretch (its last use's closing H and Tdg against the next use's opening H and T),
+  // which can span the circuit when clauses of mixed widths leave a wire deep in reuse's stack: a
+  // run that falls short keeps everything at once (100,000 clauses of widths 2-8: 18 s with a
+  // middle attempt 16 times longer that fell short too and 1.05 GB, 11.9 s and 0.8 GB without it,
+  // the same figures).
+  const farReach = s.strategy === "lean" && s.basis === "clifford+t" && s.uncompute === "unitary" && s.optimize;
+  const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount, records, farReach, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
   // The wide oracle's Toffolis need no replay (toffolis.ts says why none is ever removed).
   if (s.strategy === "wide" && s.basis === "toffoli" && s.optimize && !s.levels) return wideToffolis(s.f, s.kind, s.uncompute);
   if (s.strategy === "lean" && s.engine !== "instances" && LeanBlocks.fits(s.f) && (s.engine === "blocks" || (BLOCKS_IN_AUTO && s.f.clauseStart.length - 1 >= BLOCKS_FROM))) {
