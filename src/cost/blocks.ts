@@ -33,7 +33,7 @@
  * Exactness: nothing is guessed. A replay sees everything the engine would see for that block,
  * or says what it misses and is done again with more. Where it cannot go on (a walk reaching the
  * end of a work wire's kept tail, a cancellation into a projected instance) or when blocks rarely
- * repeat (more replays than REPLAY_SHARE of the blocks), the block counting stops (`null`) and the
+ * repeat (replays costing more than the engine would: REPLAY_WORK_SHARE, STATE_SHARE), the block counting stops (`null`) and the
  * caller counts with the engine instead.
  */
 import { CountingEngine, type EngineResult } from "./engine.js";
@@ -201,9 +201,33 @@ const KEEP_LIVE = 17;
 const RECENT = 24;
 /** Age of an ancient instance. */
 const ANCIENT = -1;
-/** Replays allowed before their share of the blocks is checked against REPLAY_SHARE. */
+/** Replays allowed before the counting checks whether the engine would be faster (see run). */
 const REPLAYS_FREE = 4000;
-const REPLAY_SHARE = 0.05;
+/**
+ * The counting gives up when its replays have put more than this many template instances into
+ * the replay engine per instance of the blocks done: a replayed instance costs about what the
+ * engine spends per instance of the stream, and where replays keep up with the blocks (random
+ * 6- and 7-SAT: a replay nearly every block) the engine is faster. Measured, CPU time of the
+ * lean Clifford+T run with the highest share seen over the run: random 4-SAT of 100,000 clauses
+ * 1.1, blocks 2.0 s against the engine's 6.0 s; 5-SAT 2.5, about even (5.8 s against 6.3 s);
+ * 6-SAT and 7-SAT of 30,000 clauses 2.9-3.1, 4.4 s against 3.6 s and 8.0 s against 3.9 s.
+ */
+const REPLAY_WORK_SHARE = 2.5;
+/**
+ * Instances of the blocks that the share is taken of at least: the first blocks replay most
+ * (random 5-SAT: 2.7 instances replayed per instance at 4,000 replays, 1.05 over 100,000
+ * clauses), and this many cost the engine a few seconds.
+ */
+const WORK_FREE = 1 << 22;
+/**
+ * Or when new states keep coming (more than this share of the blocks): clauses of mixed widths
+ * leave each work wire with the tail of whichever clause used it last, so that nearly every
+ * block makes a new state (widths 3 and 4 mixed: 59,658 states in 60,000 blocks, 230 MB), while
+ * uniform random k-SAT has a few hundred states in all.
+ */
+const STATE_SHARE = 0.05;
+/** Or when the states take more than this many numbers (4 bytes each), whatever their count. */
+const STATE_INTS = 16 << 20;
 /** Numbers per qubit in BlockCounter.qc. */
 const QC = 8;
 /** Instance numbers per block in an absolute identity b * SPAN + j. */
@@ -415,6 +439,8 @@ export class BlockCounter {
   private lastProj: Projected[] = [];
   /** Replays done (memo misses), for the tests and the bench. */
   replays = 0;
+  /** Template instances the replays put into their engine, context included. */
+  replayWork = 0;
   /** Milliseconds: when run started, pass 1 (cancellations, replays included), pass 2 (tally), replays. */
   readonly timing = { start: 0, pass1: 0, pass2: 0, replay: 0 };
   private instances = 0;
@@ -467,9 +493,12 @@ export class BlockCounter {
       const sh = src.next(b, vars);
       const v = this.transition(b, sh, vars);
       if (v === null) return null;
-      // A formula whose blocks rarely repeat (replays cost what some fifty blocks of the engine
-      // do): the engine is faster.
-      if (this.replays > REPLAYS_FREE && this.replays > REPLAY_SHARE * b) return this.giveUp(b, `${this.replays} replays in ${b + 1} blocks`);
+      // A formula whose blocks rarely repeat: the engine is faster, and holds less.
+      if (this.replays > REPLAYS_FREE) {
+        if (this.replayWork > REPLAY_WORK_SHARE * Math.max(WORK_FREE, this.instances)) return this.giveUp(b, `${this.replays} replays of ${this.replayWork} instances in ${b + 1} blocks of ${this.instances}`);
+        if (this.states.size > REPLAYS_FREE + STATE_SHARE * b) return this.giveUp(b, `${this.states.size} states in ${b + 1} blocks`);
+      }
+      if (this.states.ints > STATE_INTS) return this.giveUp(b, `states of ${this.states.ints} numbers in ${b + 1} blocks`);
       this.blockShape[b] = sh;
       this.blockPhys[b] = v.phys;
       if (b > 0) {
@@ -610,6 +639,7 @@ export class BlockCounter {
         const t0 = performance.now();
         const proj = this.projections(b, S, pos);
         const r = this.replay(b, S, shape, k, slotGroup, pos, proj);
+        this.replayWork += this.engine?.instances ?? 0;
         this.timing.replay += performance.now() - t0;
         if (r === null) return null;
         if (r instanceof Int32Array) {

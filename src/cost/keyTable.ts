@@ -97,6 +97,8 @@ export class Interner {
   private readonly hashes: number[] = [];
   /** Slot -> id + 1 (0: empty). */
   private slots = new Int32Array(256);
+  /** Numbers kept in all (the sequences' total length). */
+  ints = 0;
 
   /** The id of key[0..n). */
   id(key: Int32Array, n = key.length): number {
@@ -119,6 +121,7 @@ export class Interner {
     }
     const id = this.kept.length;
     this.kept.push(key.slice(0, n));
+    this.ints += n;
     this.hashes.push(h);
     if (this.kept.length * 2 > this.slots.length) {
       this.slots = new Int32Array(this.slots.length * 2);
