@@ -29,7 +29,7 @@
  */
 import { K } from "../ir/kinds.js";
 import {
-  FIRST_TOUCH, LAST_TOUCH, G_KIND, G_NQ, G_OP, GATE_START, SLOTS,
+  FIRST_TOUCH, LAST_TOUCH, G_KIND, G_NQ, G_OP, GATE_START, SLOTS, TRAIL_GATES,
   exitingGates, gatesOf,
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
@@ -87,6 +87,16 @@ export interface EngineOptions {
    * instead of allocating its own while the last one waits for the garbage collector.
    */
   readonly wireMemory?: WireMemory;
+  /**
+   * Defer the trails of freed wires (default false): the gates a work qubit's last instance has on
+   * it after its last gate touching another qubit (TRAIL_GATES; an uncomputed AND's closing Tdg
+   * and H) are tallied only when the wire is taken again (before the new use's first instance is
+   * tallied) or at the end. Nothing else touches the wire meanwhile, so its levels and phase run
+   * come out the same; but the new use's opening gates may cancel them however long the wire sat
+   * free, which without this makes the run fall short (lagShort) and keep every instance: clauses
+   * of mixed widths leave wires deep in reuse's stack for most of the circuit.
+   */
+  readonly deferTrails?: boolean;
 }
 
 /** See EngineOptions.wireMemory (also the lowering's AND records: see RecordMemory). */
@@ -169,6 +179,8 @@ export class CountingEngine implements InstanceSink, WalkStore {
   private rSeq: Int32Array;
   /** Gates whose walk stage 2 repeats: a gate they passed went after their stage 1 (-1: all). */
   rRecheck: Int32Array;
+  /** Slots whose qubit died with the instance (see deferTrails). */
+  private rDies: Uint8Array;
   private nextId = 0;
   /** Instances below this have been through stage 2 and the tally. */
   private done = 0;
@@ -201,6 +213,10 @@ export class CountingEngine implements InstanceSink, WalkStore {
 
   private wireCap = 0;
   private readonly wireMemory: WireMemory | null;
+  /** See EngineOptions.deferTrails: per wire, the instance whose trail waits (-1: none) and the trail's gates. */
+  private readonly defer: boolean;
+  private defId = new Int32Array(0);
+  private defMask = new Int32Array(0);
 
   // Virtual ids -> wires.
   private readonly reuse: WireReuse;
@@ -240,6 +256,8 @@ export class CountingEngine implements InstanceSink, WalkStore {
     this.rMask1 = new Int32Array(0);
     this.rSeq = new Int32Array(0);
     this.rRecheck = new Int32Array(0);
+    this.rDies = new Uint8Array(0);
+    this.defer = opts.deferTrails ?? false;
     // Keeping every instance, none ever leaves the ring: no copies per wire, no per-slot sequence
     // numbers (12 bytes per instance: 138 MB of bw_large.d's 11.5 million).
     this.depth = this.maxLag === Infinity ? 1 : (opts.history ?? 1);
@@ -258,7 +276,7 @@ export class CountingEngine implements InstanceSink, WalkStore {
     const want = Number.isFinite(this.lag) ? this.lag * 2 + 64 : 0;
     while (r < Math.max(atLeast, want)) r *= 2;
     if (r === this.ringSize) return;
-    const old = { size: this.ringSize, mask: this.ringMask, rT: this.rT, rW: this.rW, rDead: this.rDead, rPrev: this.rPrev, rPrevSlot: this.rPrevSlot, rNext: this.rNext, rMask1: this.rMask1, rRecheck: this.rRecheck, rSeq: this.rSeq };
+    const old = { size: this.ringSize, mask: this.ringMask, rT: this.rT, rW: this.rW, rDead: this.rDead, rPrev: this.rPrev, rPrevSlot: this.rPrevSlot, rNext: this.rNext, rMask1: this.rMask1, rRecheck: this.rRecheck, rSeq: this.rSeq, rDies: this.rDies };
     this.ringSize = r;
     this.ringMask = r - 1;
     this.rT = new Uint8Array(r);
@@ -270,6 +288,7 @@ export class CountingEngine implements InstanceSink, WalkStore {
     this.rMask1 = new Int32Array(r);
     this.rRecheck = new Int32Array(r);
     this.rSeq = new Int32Array(this.depth > 1 ? r * 3 : 0);
+    this.rDies = new Uint8Array(this.defer ? r : 0);
     for (let id = this.ringLow; id < this.nextId; id++) {
       const a = id & old.mask;
       const b = id & this.ringMask;
@@ -277,6 +296,7 @@ export class CountingEngine implements InstanceSink, WalkStore {
       this.rDead[b] = old.rDead[a]!;
       this.rMask1[b] = old.rMask1[a]!;
       this.rRecheck[b] = old.rRecheck[a]!;
+      if (this.defer) this.rDies[b] = old.rDies[a]!;
       for (let s = 0; s < 3; s++) {
         this.rW[b * 3 + s] = old.rW[a * 3 + s]!;
         this.rPrev[b * 3 + s] = old.rPrev[a * 3 + s]!;
@@ -354,6 +374,14 @@ export class CountingEngine implements InstanceSink, WalkStore {
     this.cp = cp;
     this.lastSlot = lastSlot;
     this.pend = pend;
+    if (this.defer) {
+      const defId = new Int32Array(cap).fill(-1);
+      defId.set(this.defId);
+      const defMask = new Int32Array(cap);
+      defMask.set(this.defMask);
+      this.defId = defId;
+      this.defMask = defMask;
+    }
     this.wireCap = cap;
   }
 
@@ -419,6 +447,7 @@ export class CountingEngine implements InstanceSink, WalkStore {
     }
     if (this.optimize) this.cancel(id, x);
     this.rMask1[x] = this.rDead[x]!;
+    if (this.defer) this.rDies[x] = dies;
     if (dies !== 0) {
       // Freed in the order of their last gate, as reuseWork frees them.
       const order = LAST_TOUCH[t]!;
@@ -435,6 +464,7 @@ export class CountingEngine implements InstanceSink, WalkStore {
   finish(): EngineResult {
     while (this.done < this.nextId) this.settle(this.done);
     const wires = this.base + this.reuse.workWires;
+    if (this.defer) for (let w = 0; w < wires; w++) if (this.defId[w]! >= 0) this.flushTrail(w);
     const { depth, tDepth } = this.tally.finish(wires);
     // The second cancel-inverses runs only when merge-phases made a new circuit (two or more
     // phase gates); otherwise the runner skips it.
@@ -669,7 +699,8 @@ export class CountingEngine implements InstanceSink, WalkStore {
         if (loc >= 0) this.rDead[loc] = this.rDead[loc]! | (1 << hp);
         else this.cp[3 - loc] = this.cp[3 - loc]! | (1 << hp);
         this.rDead[x] = this.rDead[x]! | (1 << p);
-        if (hid < this.done) {
+        // A deferred trail of a freed wire may be cancelled however old its instance is.
+        if (hid < this.done && !(this.defer && this.defId[hw] === hid && ((this.defMask[hw]! >>> hp) & 1) === 1)) {
           this.lagShort = true;
           this.flagHard ??= "a cancellation reached a part already counted";
         }
@@ -715,6 +746,40 @@ export class CountingEngine implements InstanceSink, WalkStore {
     const w0 = slots > 0 ? this.rW[x * 3]! : -1;
     const w1 = slots > 1 ? this.rW[x * 3 + 1]! : -1;
     const w2 = slots > 2 ? this.rW[x * 3 + 2]! : -1;
-    if (this.tally.add(t, dead, w0, w1, w2)) this.noteSecond("merge-phases removed a run of phase gates alone");
+    let later = 0;
+    if (this.defer) {
+      // A wire taken again: the trail of its last use first. Then this instance's own trails on the wires it frees.
+      if (w0 >= 0 && this.defId[w0]! >= 0) this.flushTrail(w0);
+      if (w1 >= 0 && this.defId[w1]! >= 0) this.flushTrail(w1);
+      if (w2 >= 0 && this.defId[w2]! >= 0) this.flushTrail(w2);
+      const dies = this.rDies[x]!;
+      for (let s = 0; s < slots; s++) {
+        const trail = TRAIL_GATES[t * 3 + s]!;
+        if (((dies >>> s) & 1) === 0 || trail === 0) continue;
+        const w = this.rW[x * 3 + s]!;
+        later |= trail;
+        this.defId[w] = id;
+        this.defMask[w] = trail;
+      }
+    }
+    if (this.tally.add(t, dead | later, w0, w1, w2)) this.noteSecond("merge-phases removed a run of phase gates alone");
+  }
+
+  /** Tallies the deferred trail on wire w (see EngineOptions.deferTrails), with whatever of it was cancelled since. */
+  private flushTrail(w: number): void {
+    const id = this.defId[w]!;
+    this.defId[w] = -1;
+    const loc = this.locate(id, w);
+    if (loc === -1) {
+      // Kept by construction (evict keeps a wire's last instance until the next one is final).
+      this.unavailable();
+      return;
+    }
+    const t = loc >= 0 ? this.rT[loc]! : this.cp[-1 - loc]!;
+    const dead = loc >= 0 ? this.rDead[loc]! : this.cp[3 - loc]!;
+    const slots = SLOTS[t]!;
+    const ws = (s: number): number => (s >= slots ? -1 : loc >= 0 ? this.rW[loc * 3 + s]! : this.cp[-loc + s]!);
+    const all = gatesOf(t) === 32 ? -1 : (1 << gatesOf(t)) - 1;
+    if (this.tally.add(t, dead | (all & ~this.defMask[w]!), ws(0), ws(1), ws(2))) this.noteSecond("merge-phases removed a run of phase gates alone");
   }
 }

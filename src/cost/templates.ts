@@ -152,6 +152,27 @@ function build(): void {
 }
 build();
 
+/**
+ * TRAIL_GATES[t * 3 + s]: the gates of template t on slot s after its last gate there that touches
+ * another slot, as a mask (single-qubit, unconditioned, no measurement or reset; 0 where none):
+ * when the slot's qubit dies with the instance they are the last gates its wire has until the
+ * wire is taken again, and nothing but that next use can cancel them (see engine.ts, deferred
+ * trails).
+ */
+export const TRAIL_GATES = new Int32Array(TEMPLATE_COUNT * 3);
+for (let t = 0; t < TEMPLATE_COUNT; t++) {
+  for (let s = 0; s < 3; s++) {
+    const on = SLOT_GATES[t * 3 + s]!;
+    let mask = 0;
+    for (let i = on.length - 1; i >= 0; i--) {
+      const e = GATE_START[t]! + on[i]!;
+      if (G_NQ[e] !== 1 || G_COND[e] || G_KIND[e] === K.measure || G_KIND[e] === K.reset) break;
+      mask |= 1 << on[i]!;
+    }
+    TRAIL_GATES[t * 3 + s] = mask;
+  }
+}
+
 /** Number of gates of template t. */
 export const gatesOf = (t: number): number => GATE_START[t + 1]! - GATE_START[t]!;
 
