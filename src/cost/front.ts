@@ -103,9 +103,9 @@ export function countConstructionOracle(source: SimplifiedCnf | OraclePlan, kind
   const family = c.family === "blocks" && c.plan.sizes.length === 0 && c.plan.fanout === 0 ? "wide" : c.family;
   if (plan.structured !== null && family !== "blocks") {
     const src = new StructuredSource(plan.structured, kind, family);
-    const far = family === "lean" && basis === "clifford+t" && uncompute === "unitary" && optimize && src.idleStretch().longest >= DEFAULT_LAG;
+    // Far seams (a lean oracle's work wires idle across most of the circuit): see countOracle.
     const r = run(src.base, optimize, levels, { basis, uncompute, toffoliAnds: false }, (low, ids) => src.emit(low, ids), {
-      lag: far ? Infinity : DEFAULT_LAG, history: 1, wires: src.base + (family === "lean" ? 64 : src.checkQubits + 64), ids: src.base + src.checkQubits + 1024,
+      lag: DEFAULT_LAG, history: 1, farReach: family === "lean", wires: src.base + (family === "lean" ? 64 : src.checkQubits + 64), ids: src.base + src.checkQubits + 1024,
     });
     if (r.exact || r.instances > BUILD_LIMIT) return r;
     return { ...r, ...builtCounts(synthesizePlanned(plan, kind, c), basis, uncompute, optimize), exact: true, upperBound: false, reason: null };

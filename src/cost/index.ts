@@ -313,23 +313,20 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
     const src = logicals.source(s.kind, s.strategy as Strategy);
     const base = src.base;
     // Wires: a wide oracle holds each check's work qubits until the mark; the lean one a few.
-    // farReach: in the lean oracle a check with many work qubits (a one-hot group's conflict
+    // Far seams: in the lean oracle a check with many work qubits (a one-hot group's conflict
     // bits) leaves wires deep in reuse's stack of free wires; the next such check, often in the
-    // mirror half, takes them again, and with unitary uncomputation the closing gates of the
-    // last use cancel against the opening gates of the next across nearly the whole circuit
-    // (bw_large.c: 204 cancellations, the farthest over 4.2 of 4.3 million instances). A longer
-    // window would fall short too: when the first run does, keep everything at once. Clifford+T
-    // with unitary uncomputation is where those seams cancel (an unAND closes with Tdg and H on
-    // its target, an AND opens with H and T); when a stretch that long is known from the ids
-    // alone, start by keeping everything.
-    const idle = s.strategy === "lean" && s.basis === "clifford+t" && s.uncompute === "unitary" && s.optimize ? src.idleStretch() : null;
-    const far = idle !== null && idle.longest >= DEFAULT_LAG;
+    // mirror half, takes them again, and with unitary uncomputation the closing Tdg and H of the
+    // last use cancel against the opening H and T of the next across nearly the whole circuit
+    // (bw_large.c: 204 cancellations, the farthest over 4.2 of 4.3 million instances). The
+    // engine defers those trails (EngineOptions.deferTrails), so the window holds: bw_large.c's
+    // cost 614 MB -> 222 MB against keeping every instance from the start, the same table. Should
+    // a run fall short anyway, farReach: a longer window would too, keep everything at once.
     // History: a check's walks go back along search qubits read long before (a structured
     // oracle on bw_large.d fell short with one copy per wire and not with 16); as many as the
     // rerun would keep, at once.
     const wires = base + (s.strategy === "lean" ? 64 : src.checkQubits + 64);
     const history = Math.max(1, Math.min(16, Math.floor(HISTORY_BYTES / 40 / wires)));
-    const sizing = { lag: far ? Infinity : DEFAULT_LAG, history, wires, ids: base + src.checkQubits + 1024, farReach: s.strategy === "lean", ...(far ? { ring: idle.operations } : {}), ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
+    const sizing = { lag: DEFAULT_LAG, history, wires, ids: base + src.checkQubits + 1024, farReach: s.strategy === "lean", ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
     return runSwept(s.strategy !== "lean" && s.engine !== "instances", base, s.optimize, s.levels, mode, (low, ids) => src.emit(low, ids, progress), sizing);
   }
   const base = s.f.variables + (s.kind === "flag" ? 1 : 0);
@@ -344,11 +341,11 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // until the mark.
   const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
   // farReach: the lean oracle's Clifford+T run with unitary uncomputation cancels across a work
-  // wire's idle stretch (its last use's closing H and Tdg against the next use's opening H and T),
-  // which can span the circuit when clauses of mixed widths leave a wire deep in reuse's stack: a
-  // run that falls short keeps everything at once (100,000 clauses of widths 2-8: 18 s with a
-  // middle attempt 16 times longer that fell short too and 1.05 GB, 11.9 s and 0.8 GB without it,
-  // the same figures).
+  // wire's idle stretch (its last use's closing Tdg and H against the next use's opening H and T),
+  // which can span the circuit when clauses of mixed widths leave a wire deep in reuse's stack.
+  // The engine defers those trails (EngineOptions.deferTrails) and the window holds (100,000
+  // clauses of widths 2-8: that run 13.5 s / 836 MB keeping every instance, 7.8 s / 234 MB now);
+  // a run that falls short anyway keeps everything at once.
   const farReach = s.strategy === "lean" && s.basis === "clifford+t" && s.uncompute === "unitary" && s.optimize;
   const sizing = { lag: s.strategy === "lean" ? DEFAULT_LAG : WIDE_LAG, history: s.strategy === "lean" ? 4 : 1, wires, ids: idCount, records, farReach, ...(s.wireMemory ? { wireMemory: s.wireMemory } : {}) };
   // The wide oracle's Toffolis need no replay (toffolis.ts says why none is ever removed).
@@ -704,19 +701,15 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
       const src = logicals.source("phase", strategy);
       ops = (sink, ids, p) => src.emit(sink, ids, p);
     }
-    // Sized as countOracle sizes the oracle's own run; a structured lean oracle whose work ids
-    // stay idle longer than the window (far seams, see countOracle) is kept whole from the start.
+    // Sized as countOracle sizes the oracle's own run (far seams: see countOracle).
     let sizing: OpsSizing = {};
-    let farOracle: number | null = null;
     if (logicals.structured(strategy)) {
       const src = logicals.source("phase", strategy);
       // One copy per wire: a run that falls short goes again with more (bw_large.d's wide search
       // run does not: 3.3 s and 203 MB, against 6.6 s and 368 MB with countOracle's 16).
       sizing = strategy === "wide" ? { work: src.checkQubits, history: 1 } : { ids: src.checkQubits };
-      const idle = strategy === "lean" && uncompute === "unitary" ? src.idleStretch() : null;
-      if (idle !== null && idle.longest >= DEFAULT_LAG) farOracle = idle.operations;
     } else if (strategy === "wide") sizing = { work: f.lits.length, ids: f.clauseStart.length, history: 1, records: 3 * f.lits.length + 2 * f.clauseStart.length + 1024 };
-    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress, sizing, farOracle);
+    return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress, sizing);
   });
   progress.emit(1);
   return costs;
@@ -758,7 +751,7 @@ export function constructionSearchCost(
  * totals over the expected runs.
  */
 function searchCostOf<S extends Strategy | ConstructionFamily>(
-  strategy: S, n: number, ops: OracleOps, logical: () => Circuit, oracleWeight: number, iterations: number, successProbability: number, uncompute: Uncompute, progress: Progress, sizing: OpsSizing = {}, farOracle: number | null = null,
+  strategy: S, n: number, ops: OracleOps, logical: () => Circuit, oracleWeight: number, iterations: number, successProbability: number, uncompute: Uncompute, progress: Progress, sizing: OpsSizing = {},
 ): Omit<SearchCost, "strategy"> & { readonly strategy: S } {
   const runs = successProbability > 0 ? 1 / successProbability : Infinity;
   // One wire-record buffer for the six runs, each taking the one before's (a million clauses'
@@ -777,9 +770,7 @@ function searchCostOf<S extends Strategy | ConstructionFamily>(
   };
   // The oracle's runs say when the wires free at their end were freed: the diffusion's tree takes
   // the last n of them (its n - 2 ANDs).
-  const [oct, otof] = farOracle === null
-    ? both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, { ...sizing, keepFreed: n, sweep: strategy === "wide" })
-    : both((low, ids, p) => ops(low, ids, p), oracleWeight, Infinity, { ...sizing, ring: farOracle + 64, keepFreed: n });
+  const [oct, otof] = both((low, ids, p) => ops(low, ids, p), oracleWeight, DEFAULT_LAG, { ...sizing, keepFreed: n, sweep: strategy === "wide" });
   const [dct, dtof] = both((low) => diffusionOps(n, low), 1, DEFAULT_LAG, { work: n, wireMemory: memory });
   // Work wires of one iteration are taken up again by the next: keep an iteration's worth of
   // templates, so that the cancellations at those seams stay inside the window. With one

@@ -72,19 +72,6 @@ export class StructuredSource {
     return this.strategy === "wide" ? 4 * ops : 2 * ops + 2 * c.violated.length * (6 * this.width + 2);
   }
 
-  /**
-   * The longest stretch, in logical operations, over which a work qubit's id lies given back
-   * before it is taken again (reuse takes the most recently freed wire, as VirtualIds the most
-   * recently given id, so this is also how long a wire lies idle), and the operations in all.
-   * Once lowered, every operation is one template instance or more: a stretch this long is at
-   * least as many instances.
-   */
-  idleStretch(): { longest: number; operations: number } {
-    const gaps = new IdleGaps(this.base);
-    this.emit(gaps, new VirtualIds(this.base));
-    return { longest: gaps.longest, operations: gaps.operations };
-  }
-
   /** Streams the oracle into `sink` (ids from `ids`; `progress` told the fraction done). */
   emit(sink: LogicalSink, ids: VirtualIds, progress?: Fraction): void {
     const c = this.c;
@@ -263,84 +250,3 @@ class Replay {
   }
 }
 
-/** A sink measuring how long ids lie given back (see StructuredSource.longestIdle). */
-class IdleGaps implements LogicalSink {
-  longest = 0;
-  private op = 0;
-  /** Per id: the operation that gave it back (-1: in use or never used). */
-  private freed = new Int32Array(1024).fill(-1);
-
-  constructor(private readonly base: number) {}
-
-  get operations(): number {
-    return this.op;
-  }
-
-  private use(id: number): void {
-    if (id < this.base) return;
-    const i = id - this.base;
-    if (i >= this.freed.length) {
-      const f = new Int32Array(Math.max(2 * this.freed.length, i + 1)).fill(-1);
-      f.set(this.freed);
-      this.freed = f;
-    }
-    const at = this.freed[i]!;
-    if (at >= 0) {
-      this.longest = Math.max(this.longest, this.op - at);
-      this.freed[i] = -1;
-    }
-  }
-
-  private end(id: number, dies: boolean): void {
-    if (dies && id >= this.base) this.freed[id - this.base] = this.op;
-  }
-
-  private list(ctrls: ArrayLike<number>): void {
-    for (let i = 0; i < ctrls.length; i++) this.use(ctrls[i]! >>> 1);
-  }
-
-  and(ctrls: ArrayLike<number>, t: number): void {
-    this.op++;
-    this.list(ctrls);
-    this.use(t);
-  }
-  andPair(a: number, b: number, t: number): void {
-    this.op++;
-    this.use(a >>> 1);
-    this.use(b >>> 1);
-    this.use(t);
-  }
-  unand(t: number, dies: boolean): void {
-    this.op++;
-    this.use(t);
-    this.end(t, dies);
-  }
-  mcx(ctrls: ArrayLike<number>, t: number, dies: boolean): void {
-    this.op++;
-    this.list(ctrls);
-    this.use(t);
-    this.end(t, dies);
-  }
-  mcx1(ctrl: number, t: number, dies: boolean): void {
-    this.op++;
-    this.use(ctrl >>> 1);
-    this.use(t);
-    this.end(t, dies);
-  }
-  mcz(qs: ArrayLike<number>): void {
-    this.op++;
-    this.list(qs);
-  }
-  single(_template: number, q: number, dies: boolean): void {
-    this.op++;
-    this.use(q);
-    this.end(q, dies);
-  }
-  measure(q: number): void {
-    this.op++;
-    this.use(q);
-  }
-  gphase(): void {
-    this.op++;
-  }
-}
