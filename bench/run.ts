@@ -212,6 +212,15 @@ function benchCost(): void {
   // SATLIB (Hoos & Stuetzle 2000), beside the repository when present.
   const satlib = resolve(root, "../shared/satlib/blocksworld");
   const inputs: [string, string][] = [["random 3-SAT, 1,000,000 clauses, seed 20261201", file]];
+  // Random 4-SAT: 16 X patterns per clause make the block counter replay more at first (the
+  // session-10 rule gave up on it: 170 s); mixed widths make a new block state nearly every block
+  // (the engine counts the lean rows).
+  const four = join(out, "random4sat-1m.cnf");
+  if (!existsSync(four)) writeRandomCnf(four, 101000, 1_000_000, 4, 20261203);
+  inputs.push(["random 4-SAT, 1,000,000 clauses, seed 20261203", four]);
+  const mixed = join(out, "mixed2to8-100k.cnf");
+  if (!existsSync(mixed)) writeRandomCnf(mixed, 50000, 100_000, 2, 20261203, 8);
+  inputs.push(["random clauses of widths 2-8, 100,000 clauses, seed 20261203", mixed]);
   for (const name of ["bw_large.c.cnf", "bw_large.d.cnf"]) {
     const f = join(satlib, name);
     if (existsSync(f)) inputs.push([`SATLIB blocksworld ${name}`, f]);
