@@ -33,7 +33,7 @@
  * Exactness: nothing is guessed. A replay sees everything the engine would see for that block,
  * or says what it misses and is done again with more. Where it cannot go on (a walk reaching the
  * end of a work wire's kept tail, a cancellation into a projected instance) or when blocks rarely
- * repeat (replays costing more than the engine would: REPLAY_WORK_SHARE, STATE_SHARE), the block counting stops (`null`) and the
+ * repeat (their replays cost more than the engine would: REPLAY_COST; STATE_SHARE), the block counting stops (`null`) and the
  * caller counts with the engine instead.
  */
 import { CountingEngine, type EngineResult } from "./engine.js";
@@ -204,21 +204,32 @@ const ANCIENT = -1;
 /** Replays allowed before the counting checks whether the engine would be faster (see run). */
 const REPLAYS_FREE = 4000;
 /**
- * The counting gives up when its replays have put more than this many template instances into
- * the replay engine per instance of the blocks done: a replayed instance costs about what the
- * engine spends per instance of the stream, and where replays keep up with the blocks (random
- * 6- and 7-SAT: a replay nearly every block) the engine is faster. Measured, CPU time of the
- * lean Clifford+T run with the highest share seen over the run: random 4-SAT of 100,000 clauses
- * 1.1, blocks 2.0 s against the engine's 6.0 s; 5-SAT 2.5, about even (5.8 s against 6.3 s);
- * 6-SAT and 7-SAT of 30,000 clauses 2.9-3.1, 4.4 s against 3.6 s and 8.0 s against 3.9 s.
+ * What a replay and a block cost the block counter, in template instances of the engine's
+ * replay of the same stream (measured, lean Clifford+T unitary run: a replay some 100 us, a
+ * block 1.2 us, the engine 0.5 us an instance: random 3-SAT of a million clauses, 2,600 replays
+ * in 2 million blocks, 2.5 s; 4-SAT of 100,000 clauses, 17,311 replays, 2.0 s against the
+ * engine's 6.0 s; 5-SAT of a million clauses, 199,000 replays, 20-24 s against some 70 s).
  */
-const REPLAY_WORK_SHARE = 2.5;
+const REPLAY_COST = 200;
+const BLOCK_COST = 2.4;
 /**
- * Instances of the blocks that the share is taken of at least: the first blocks replay most
- * (random 5-SAT: 2.7 instances replayed per instance at 4,000 replays, 1.05 over 100,000
- * clauses), and this many cost the engine a few seconds.
+ * The counting checks at every power of two of the blocks done from REPLAYS_FREE replays on: the
+ * replays so far, grown to the whole formula as a power law fitted to them (replays(b) over
+ * replays(b / 2)), against the engine's instances for the whole formula. Replays level off where
+ * blocks repeat (4-SAT: 12,555 replays in the 60,000 blocks of 30,000 clauses, 17,311 in 200,000,
+ * 22,013 in 600,000), so that a long formula pays them back; where nearly every block replays
+ * (random 6- and 7-SAT) the fit says so at the first check. The old rule, 5% of the blocks done,
+ * gave up on every random 4-SAT formula: a million clauses, `cost` 170 s against 21.7 s.
  */
-const WORK_FREE = 1 << 22;
+const CHECK_FROM = 4096;
+/**
+ * The fit overestimates where replays level off late (random 5-SAT of a million clauses: 853,000
+ * fitted at 32,768 blocks, 199,000 in the end): the counting gives up only when the fitted cost
+ * exceeds the engine's by this factor (6- and 7-SAT: by 3 and more).
+ */
+const FIT_MARGIN = 1.5;
+/** Replays never exceed this share of the blocks (the memo's memory: some 1.3 KB a replay). */
+const REPLAY_CAP = 0.25;
 /**
  * Or when new states keep coming (more than this share of the blocks): clauses of mixed widths
  * leave each work wire with the tail of whichever clause used it last, so that nearly every
@@ -439,8 +450,9 @@ export class BlockCounter {
   private lastProj: Projected[] = [];
   /** Replays done (memo misses), for the tests and the bench. */
   replays = 0;
-  /** Template instances the replays put into their engine, context included. */
-  replayWork = 0;
+  /** The next check of what the replays cost (see CHECK_FROM), and the replays at the last one. */
+  private nextCheck = CHECK_FROM;
+  private replaysAtHalf = 0;
   /** Milliseconds: when run started, pass 1 (cancellations, replays included), pass 2 (tally), replays. */
   readonly timing = { start: 0, pass1: 0, pass2: 0, replay: 0 };
   private instances = 0;
@@ -494,8 +506,24 @@ export class BlockCounter {
       const v = this.transition(b, sh, vars);
       if (v === null) return null;
       // A formula whose blocks rarely repeat: the engine is faster, and holds less.
+      if (b + 1 === this.nextCheck) {
+        this.nextCheck *= 2;
+        const half = this.replaysAtHalf;
+        this.replaysAtHalf = this.replays;
+        // The first checks decide nothing on a long formula: its first blocks replay the most
+        // (random 5-SAT of a million clauses fits 1.2 million replays at 8,192 blocks, against
+        // 199,000 in the end); from a 64th of the blocks on, a wrong guess costs a few percent.
+        if (this.replays > REPLAYS_FREE && half > 0 && b + 1 >= src.blocks / 64) {
+          // replays(B) = replays(b) (B / b)^alpha, alpha fitted over the last doubling (at most 1).
+          const alpha = Math.min(1, Math.log2(this.replays / half));
+          const projected = this.replays * Math.pow(src.blocks / (b + 1), alpha);
+          const blocksCost = projected * REPLAY_COST + src.blocks * BLOCK_COST;
+          const engineCost = (this.instances / b) * src.blocks;
+          if (blocksCost > FIT_MARGIN * engineCost) return this.giveUp(b, `${this.replays} replays in ${b + 1} blocks, some ${Math.round(projected)} in all ${src.blocks}`);
+        }
+      }
       if (this.replays > REPLAYS_FREE) {
-        if (this.replayWork > REPLAY_WORK_SHARE * Math.max(WORK_FREE, this.instances)) return this.giveUp(b, `${this.replays} replays of ${this.replayWork} instances in ${b + 1} blocks of ${this.instances}`);
+        if (this.replays > REPLAY_CAP * src.blocks) return this.giveUp(b, `${this.replays} replays in ${b + 1} blocks of ${src.blocks}`);
         if (this.states.size > REPLAYS_FREE + STATE_SHARE * b) return this.giveUp(b, `${this.states.size} states in ${b + 1} blocks`);
       }
       if (this.states.ints > STATE_INTS) return this.giveUp(b, `states of ${this.states.ints} numbers in ${b + 1} blocks`);
@@ -639,7 +667,6 @@ export class BlockCounter {
         const t0 = performance.now();
         const proj = this.projections(b, S, pos);
         const r = this.replay(b, S, shape, k, slotGroup, pos, proj);
-        this.replayWork += this.engine?.instances ?? 0;
         this.timing.replay += performance.now() - t0;
         if (r === null) return null;
         if (r instanceof Int32Array) {

@@ -190,7 +190,8 @@ describe("the block counter gives the figures of the built circuits", () => {
           }
         }
       }),
-      { numRuns: 150 },
+      // A fixed seed: the stops are rare (a few formulas in 150), and the count below must not depend on the draw.
+      { numRuns: 150, seed: 2 },
     );
     // Both paths are taken: most formulas go through, a few (cascades from the mark) stop.
     expect(through).toBeGreaterThan(100);
@@ -251,7 +252,7 @@ describe("the block counter gives the counting engine's figures on longer formul
     expect(replays).toBeLessThan(blocks / 4);
   });
 
-  it("goes on where the memo pays late: random 4-SAT of 30,000 clauses replays 12,000-odd blocks, mostly early (the old rule, 5% of the blocks, gave up: 170 s instead of 22 s for cost on a million clauses)", () => {
+  it("goes on where the memo pays late: random 4-SAT of 30,000 clauses replays 12,000-odd blocks, mostly early (a rule of 5% of the blocks done gave up: 170 s instead of 22 s for cost on a million clauses)", () => {
     const cnf = cnfFromClauses(6700, randomFormula(16, 6700, 30000, 4, 4));
     const f = simplify(cnf);
     const counter = new BlockCounter(new LeanBlocks(f, "phase", { basis: "toffoli", uncompute: "measured", toffoliAnds: false }), { optimize: true, levels: false });
@@ -263,8 +264,16 @@ describe("the block counter gives the counting engine's figures on longer formul
     expect(r!.toffoliCount).toBe(byEngine.toffoliCount);
   });
 
+  it("gives up at its first check where nearly every block replays (random 7-SAT), and says why", () => {
+    // 50,000 blocks: the check at 8,192 blocks comes before the cap on replays (a quarter of the blocks).
+    const cnf = cnfFromClauses(1300, randomFormula(18, 1300, 25000, 7, 7));
+    const counter = new BlockCounter(new LeanBlocks(simplify(cnf), "phase", { basis: "toffoli", uncompute: "measured", toffoliAnds: false }), { optimize: true, levels: false });
+    expect(counter.run()).toBeNull();
+    expect(counter.stopped).toMatch(/^block 8191: \d+ replays in 8192 blocks, some \d+ in all \d+$/);
+  });
+
   it("gives up early, and says why, where nearly every block makes a new state (clauses of widths 3 and 4 mixed)", () => {
-    const cnf = cnfFromClauses(2000, randomFormula(17, 2000, 6000, 3, 4));
+    const cnf = cnfFromClauses(6000, randomFormula(17, 6000, 20000, 3, 4));
     const counter = new BlockCounter(new LeanBlocks(simplify(cnf), "phase", { basis: "clifford+t", uncompute: "unitary", toffoliAnds: false }), { optimize: true, levels: true });
     expect(counter.run()).toBeNull();
     expect(counter.stopped).toMatch(/^block (\d+): \d+ states in \d+ blocks$/);
