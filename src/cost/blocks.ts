@@ -213,7 +213,8 @@ const REPLAYS_FREE = 4000;
 const REPLAY_COST = 200;
 const BLOCK_COST = 2.4;
 /**
- * The counting checks at every power of two of the blocks done from REPLAYS_FREE replays on: the
+ * The counting checks at every power of two of the blocks done from CHECK_FROM blocks and
+ * REPLAYS_FREE replays on (the replays at half of it recorded): the
  * replays so far, grown to the whole formula as a power law fitted to them (replays(b) over
  * replays(b / 2)), against the engine's instances for the whole formula. Replays level off where
  * blocks repeat (4-SAT: 12,555 replays in the 60,000 blocks of 30,000 clauses, 17,311 in 200,000,
@@ -228,8 +229,12 @@ const CHECK_FROM = 4096;
  * exceeds the engine's by this factor (6- and 7-SAT: by 3 and more).
  */
 const FIT_MARGIN = 1.5;
-/** Replays never exceed this share of the blocks (the memo's memory: some 1.3 KB a replay). */
-const REPLAY_CAP = 0.25;
+/**
+ * Replays never exceed this share of the blocks (the memo's memory: some 1.3 KB a replay); a fit
+ * beyond FIT_MARGIN times it gives up at once rather than run into it (a review measured random
+ * 5-SAT of 100,000 clauses running to a cap of a quarter, 114,000 blocks, 3-4 s a run for nothing).
+ */
+const REPLAY_CAP = 0.4;
 /**
  * Or when new states keep coming (more than this share of the blocks): clauses of mixed widths
  * leave each work wire with the tail of whichever clause used it last, so that nearly every
@@ -451,7 +456,7 @@ export class BlockCounter {
   /** Replays done (memo misses), for the tests and the bench. */
   replays = 0;
   /** The next check of what the replays cost (see CHECK_FROM), and the replays at the last one. */
-  private nextCheck = CHECK_FROM;
+  private nextCheck = CHECK_FROM / 2;
   private replaysAtHalf = 0;
   /** Milliseconds: when run started, pass 1 (cancellations, replays included), pass 2 (tally), replays. */
   readonly timing = { start: 0, pass1: 0, pass2: 0, replay: 0 };
@@ -513,13 +518,13 @@ export class BlockCounter {
         // The first checks decide nothing on a long formula: its first blocks replay the most
         // (random 5-SAT of a million clauses fits 1.2 million replays at 8,192 blocks, against
         // 199,000 in the end); from a 64th of the blocks on, a wrong guess costs a few percent.
-        if (this.replays > REPLAYS_FREE && half > 0 && b + 1 >= src.blocks / 64) {
+        if (this.replays > REPLAYS_FREE && b + 1 >= CHECK_FROM && b + 1 >= src.blocks / 64) {
           // replays(B) = replays(b) (B / b)^alpha, alpha fitted over the last doubling (at most 1).
-          const alpha = Math.min(1, Math.log2(this.replays / half));
+          const alpha = Math.min(1, Math.log2(this.replays / Math.max(1, half)));
           const projected = this.replays * Math.pow(src.blocks / (b + 1), alpha);
           const blocksCost = projected * REPLAY_COST + src.blocks * BLOCK_COST;
           const engineCost = (this.instances / b) * src.blocks;
-          if (blocksCost > FIT_MARGIN * engineCost) return this.giveUp(b, `${this.replays} replays in ${b + 1} blocks, some ${Math.round(projected)} in all ${src.blocks}`);
+          if (blocksCost > FIT_MARGIN * engineCost || projected > FIT_MARGIN * REPLAY_CAP * src.blocks) return this.giveUp(b, `${this.replays} replays in ${b + 1} blocks, some ${Math.round(projected)} in all ${src.blocks}`);
         }
       }
       if (this.replays > REPLAYS_FREE) {
