@@ -9,12 +9,11 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { cnfFromClauses, compileOracle, countCircuit, type Cnf } from "../helpers/lib.js";
-import { randomKSat } from "../helpers/formulas.js";
+import { randomClausesOfWidths, randomKSat } from "../helpers/formulas.js";
 import { countConstruction } from "../../dist/src/cost/index.js";
 import { BlockCounter, KEEP_SWITCHES } from "../../dist/src/cost/blocks.js";
 import { LeanBlocks } from "../../dist/src/cost/leanBlocks.js";
 import { simplify } from "../../dist/src/synth/index.js";
-import { seededRandom } from "../../dist/src/util/random.js";
 
 type Kind = "phase" | "flag";
 type Basis = "toffoli" | "clifford+t";
@@ -225,21 +224,7 @@ describe("the block counter gives the figures of the built circuits", () => {
 
 describe("the block counter gives the counting engine's figures on longer formulas", () => {
   /** Random clauses of widths in [lo, hi] over n variables; `repeatRun` copies a clause that many times in a row now and then. */
-  function randomFormula(seed: number, n: number, m: number, lo: number, hi: number, unitShare = 0): number[][] {
-    const r = seededRandom(seed);
-    const clauses: number[][] = [];
-    while (clauses.length < m) {
-      const k = r() < unitShare ? 1 : lo + Math.floor(r() * (hi - lo + 1));
-      const c: number[] = [];
-      while (c.length < k) {
-        const v = 1 + Math.floor(r() * n);
-        if (c.some((l) => Math.abs(l) === v)) continue;
-        c.push(r() < 0.5 ? v : -v);
-      }
-      clauses.push(c);
-    }
-    return clauses;
-  }
+  const randomFormula = randomClausesOfWidths;
 
   it("random 3-SAT, 200 clauses", () => {
     const cnf = cnfFromClauses(50, randomFormula(11, 50, 200, 3, 3));

@@ -9,21 +9,13 @@ import { CountingEngine, type EngineResult } from "../../dist/src/cost/engine.js
 import { LoweringStream, VirtualIds } from "../../dist/src/cost/lowering.js";
 import { leanOracle } from "../../dist/src/cost/sources.js";
 import { simplify } from "../../dist/src/synth/index.js";
-import { seededRandom } from "../../dist/src/util/random.js";
+import { randomClausesOfWidths } from "../helpers/formulas.js";
 
 type Basis = "toffoli" | "clifford+t";
 type Uncompute = "unitary" | "measured";
 
 function mixedWidths(seed: number, n: number, m: number, lo: number, hi: number): Cnf {
-  const r = seededRandom(seed);
-  const clauses: number[][] = [];
-  for (let i = 0; i < m; i++) {
-    const w = lo + Math.floor(r() * (hi - lo + 1));
-    const vs = new Set<number>();
-    while (vs.size < w) vs.add(1 + Math.floor(r() * n));
-    clauses.push([...vs].map((v) => (r() < 0.5 ? -v : v)));
-  }
-  return cnfFromClauses(n, clauses);
+  return cnfFromClauses(n, randomClausesOfWidths(seed, n, m, lo, hi));
 }
 
 /** The lean oracle counted by the engine alone, with the given window and deferral. */

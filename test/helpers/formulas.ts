@@ -1,5 +1,6 @@
 /** Formula families with published model counts, and plain reference evaluation. */
 import { cnfFromClauses, type Cnf } from "./lib.js";
+import { seededRandom } from "../../dist/src/util/random.js";
 
 /** n-queens, one variable per square (row-major, 1-based). */
 export function queens(n: number): Cnf {
@@ -53,4 +54,21 @@ export function bruteCount(variables: number, clauses: readonly (readonly number
     if (clauses.every((c) => c.some((l) => (Math.floor(x / 2 ** (Math.abs(l) - 1)) % 2 === 1) === l > 0))) count++;
   }
   return count;
+}
+
+/** Seeded random clauses of widths lo..hi (distinct variables per clause; a share of unit clauses). */
+export function randomClausesOfWidths(seed: number, n: number, m: number, lo: number, hi: number, unitShare = 0): number[][] {
+  const r = seededRandom(seed);
+  const clauses: number[][] = [];
+  while (clauses.length < m) {
+    const k = r() < unitShare ? 1 : lo + Math.floor(r() * (hi - lo + 1));
+    const c: number[] = [];
+    while (c.length < k) {
+      const v = 1 + Math.floor(r() * n);
+      if (c.some((l) => Math.abs(l) === v)) continue;
+      c.push(r() < 0.5 ? v : -v);
+    }
+    clauses.push(c);
+  }
+  return clauses;
 }
