@@ -334,9 +334,11 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // mark's tree); the lean oracle reuses a few, some of them seldom (a work qubit of a longer
   // clause), so keeping a few instances per wire costs little there.
   const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
-  // Ids: work qubits live at once (a wide or textbook oracle keeps one per clause until the
-  // mark), and a few for AND trees (given back when done).
-  const idCount = base + (s.strategy === "lean" ? 0 : s.f.clauseStart.length) + 1024;
+  // Ids: work qubits live at once. A wide oracle keeps every AND until the uncomputation: k - 1 per
+  // clause of k literals and the mark's m - 1, about one per literal; a textbook oracle one per
+  // clause and its V-chain's k - 2. Sized once (the tables are held from run to run, reuse.ts).
+  const clauses = s.f.clauseStart.length - 1;
+  const idCount = base + (s.strategy === "lean" ? 0 : s.strategy === "wide" ? s.f.lits.length : s.f.lits.length - clauses) + 1024;
   // A wide oracle keeps each clause's AND record (3 numbers per 2-input AND, 2 more per record)
   // until the mark.
   const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
@@ -478,6 +480,10 @@ export interface TableRun {
 const BYTES_PER_WIRE = 54;
 const BYTES_PER_INSTANCE = 64;
 const SWEEP_BYTES_PER_WIRE = 30;
+/** Bytes per id of a wide or textbook run: reuse's wire and free tables, the ids' stack, the lowering's flips and records' places. */
+const BYTES_PER_ID = 21;
+/** Bytes per literal of a block-counter run (blocks.ts, leanBlocks.ts: occurrences, blocks, clause of each place). */
+const BLOCK_BYTES_PER_LITERAL = 24;
 
 /**
  * Estimated CPU microseconds per literal of one run of each construction and uncomputation,
@@ -536,10 +542,11 @@ export class TableCounter {
       // A structured stream's weight is in instances, about 4 per literal of the clause stream.
       const literals = sw === undefined ? L : sw / 4;
       let bytes: number;
-      if (strategy !== "lean") bytes = (f.variables + literals + 64) * SWEEP_BYTES_PER_WIRE;
+      // The sweep's wires and ids (about one per literal each) and a wide oracle's AND records (3 numbers per literal, 2 per clause).
+      if (strategy !== "lean") bytes = (f.variables + literals + 64) * (SWEEP_BYTES_PER_WIRE + BYTES_PER_ID) + (strategy === "wide" ? 4 * (3 * literals + 2 * m) : 0);
       else if (sw !== undefined) bytes = levels && uncompute === "unitary" ? (sw + 64) * BYTES_PER_INSTANCE : (f.variables + 64) * BYTES_PER_WIRE;
       // Counted block by block from BLOCKS_FROM clauses (a few MB of states and keys), else a window of instances.
-      else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? 16 << 20 : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);
+      else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? (16 << 20) + BLOCK_BYTES_PER_LITERAL * L : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);
       // The wide oracle's Toffolis are tallied from its operations, no replay (toffolis.ts).
       if (strategy === "wide" && !levels && sw === undefined) return { row, basis, weight: L / 20 + 1, seconds: (TALLY_MICROS_PER_LITERAL * L) / 1e6, bytes: 4 * f.variables + 12 * m };
       return { row, basis, weight, seconds: (MICROS_PER_LITERAL[strategy][uncompute][levels ? 0 : 1] * literals) / 1e6, bytes };
@@ -756,7 +763,7 @@ function searchCostOf<S extends Strategy | ConstructionFamily>(
   const runs = successProbability > 0 ? 1 / successProbability : Infinity;
   // One wire-record buffer for the six runs, each taking the one before's (a million clauses'
   // wide oracle: some 240 MB each).
-  const memory: WireMemory = { buffer: null, records: null };
+  const memory: WireMemory = { buffer: null, records: null, tables: new Map() };
   // Sized for the whole run (the oracle's wires and the diffusion's) from the first, so that the
   // buffer is allocated once.
   sizing = { ...sizing, work: (sizing.work ?? 0) + n, wireMemory: memory };

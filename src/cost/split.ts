@@ -34,19 +34,34 @@ export interface SplitJob {
   readonly progress: SharedArrayBuffer;
 }
 
+/**
+ * Collects garbage between runs where the host exposes it (the command does, bin.ts): a run drops
+ * tens of MB of typed arrays, and V8 left them, and the allocator their pages, until much later:
+ * a million clauses on one thread peaked at 466-477 MB without, 398-420 MB with.
+ */
+export function collectBetweenRuns(): void {
+  const gc = (globalThis as { gc?: unknown }).gc;
+  if (typeof gc === "function") (gc as () => void)();
+}
+
 /** Literals from which the worker thread is started before planning (some 0.3 s of its start then overlap it). */
 const EARLY_LITERALS = 300_000;
 /** Below this many estimated CPU seconds a table is counted on one thread (a thread costs a start and a copy of the plans). */
 const SPLIT_FROM_SECONDS = 3;
-/** A run estimated to hold more than this stays on the main thread (see costTables). */
-const HEAVY_BYTES = 96 << 20;
+/**
+ * A run estimated to hold more than this stays on the main thread (see costTables), so that two
+ * such runs never overlap. Below it two runs may: a million random 3-SAT clauses' wide and
+ * textbook runs, some 210 MB each, are shared, which balances the threads (main 13.9 s and worker
+ * 7.4 s of estimated work when they stayed here).
+ */
+const HEAVY_BYTES = 256 << 20;
 
 /**
  * The cost tables of one formula (see costTable), with their runs shared between this thread and
  * one worker thread when the machine has two cores or more and the work is worth it. Runs go, the
  * longest first, to whichever thread has less estimated work. `threads: 1` counts everything here;
  * `splitFrom` is the estimated CPU seconds from which to split (default 3); `heavyBytes` the
- * estimated memory above which a run stays on this thread (default 96 MB); `worker` the worker
+ * estimated memory above which a run stays on this thread (default 256 MB); `worker` the worker
  * module (default splitWorker.js beside this one; a thread that cannot run leaves its runs here);
  * `earlyFrom` the literals from which the thread is started before planning (default 300,000).
  */
@@ -73,9 +88,9 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
   const theirs: typeof all = [];
   if (threads < 2 || seconds < (options.splitFrom ?? SPLIT_FROM_SECONDS)) mine.push(...all);
   else {
-    // The runs that hold much memory (the wide and textbook oracles' records for millions of
-    // wires, a structured lean run keeping every instance) stay on this thread, one at a time:
-    // two at once took a million clauses from 0.6 to 1 GB. The others go longest first to the
+    // The runs that hold much memory (the wide and textbook oracles of a few million clauses, a
+    // structured lean run keeping every instance) stay on this thread, one at a time: two engine
+    // runs at once took a million clauses from 0.6 to 1 GB (session 7; the sweep's runs are lighter). The others go longest first to the
     // less loaded thread (Graham's LPT rule, 1969, from memory).
     const heavy = (x: (typeof all)[number]): boolean => x.r.bytes > (options.heavyBytes ?? HEAVY_BYTES);
     let a = 0;
@@ -120,6 +135,7 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
       }));
       current = 0;
       myDone += x.r.weight;
+      collectBetweenRuns();
       report();
     }
     if (worker !== null) {

@@ -2,7 +2,7 @@
 import { parentPort } from "node:worker_threads";
 import { TableCounter } from "./index.js";
 import type { EngineResult } from "./engine.js";
-import type { SplitJob } from "./split.js";
+import { collectBetweenRuns, type SplitJob } from "./split.js";
 
 // The job comes by message: the thread may be started before the plans are made.
 parentPort!.once("message", (job: SplitJob) => {
@@ -29,6 +29,7 @@ function work(job: SplitJob): void {
     results.push(c.count(r, (f) => (done[0] = finished + Math.min(1, Math.max(0, f)) * r.weight)));
     finished += r.weight;
     done[0] = finished;
+    collectBetweenRuns();
   }
   parentPort!.postMessage({ results });
 }
