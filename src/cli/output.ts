@@ -17,7 +17,7 @@ import {
   chmodSync, chownSync, closeSync, fstatSync, lstatSync, openSync, realpathSync, renameSync, rmSync, statSync, writeSync,
   type Stats,
 } from "node:fs";
-import { dirname, join, resolve } from "node:path";
+import { basename, dirname, join, resolve } from "node:path";
 
 /** Thrown for a destination that cannot or must not be written; the CLI prints it as one line, exit 2. */
 export class OutputError extends Error {}
@@ -86,9 +86,20 @@ function destination(path: string, what: string): { dest: string; existing: Stat
     const input = inputs.get(fileId(existing));
     if (input !== undefined) throw new OutputError(`${path}: error: ${what} would replace the input ${input}; hint: write it to another file`);
   }
-  const other = claimed.get(dest);
-  if (other !== undefined) throw new OutputError(`${path}: error: ${what} and ${other} name the same file; hint: give them different paths`);
-  claimed.set(dest, what);
+  // The same file may be named through a symbolic link to a folder or a hard link: compare the
+  // real folder and name (and, for a file that exists, its device and inode).
+  let key = dest;
+  try {
+    key = join(realpathSync(dirname(dest)), basename(dest));
+  } catch {
+    // A missing folder is reported when the temporary file cannot be made.
+  }
+  const keys = existing !== undefined ? [key, fileId(existing)] : [key];
+  for (const k of keys) {
+    const other = claimed.get(k);
+    if (other !== undefined) throw new OutputError(`${path}: error: ${what} and ${other} name the same file; hint: give them different paths`);
+  }
+  for (const k of keys) claimed.set(k, what);
   return { dest, existing };
 }
 

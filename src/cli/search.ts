@@ -462,7 +462,7 @@ function checkSearchSize(file: string, cnf: Cnf, n: number, o: CliOracleOptions,
   const hint = (fits: number): string => `hint: ${fits > 0 ? `--iterations ${fits} or fewer fits` : "no number of iterations fits"}, or clausegate plan ${displayName(file)} gives the numbers only`;
   const lower = K * (2 * n + 2) + 2 * n;
   if (lower > MAX_SEARCH_GATES) {
-    throw new UserError(`clausegate search: error: ${K} iterations on ${plural(n, "search qubit")} make a circuit of more than ${lower} gates; clausegate search builds at most ${MAX_SEARCH_GATES}; ${hint(Math.floor((MAX_SEARCH_GATES - 2 * n) / (2 * n + 2)))}`);
+    throw new UserError(`clausegate search: error: ${K} iterations on ${plural(n, "search qubit")} make a circuit of more than ${lower} gates; clausegate search builds at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(estimateSearch(cnf, o, 1), MAX_SEARCH_GATES))}`);
   }
   if (K < 3) return; // at most about three oracles: as cheap to build as to estimate
   const e = estimateSearch(cnf, o, K);
@@ -634,7 +634,9 @@ function drawSuggestion(cnf: Cnf, n: number, o: CliOracleOptions, search: boolea
   const found: { flags: string[]; circuit: Circuit }[] = [];
   const fewest = (): number => Math.min(Infinity, ...found.map((f) => f.flags.length));
   const build = (opts: CliOracleOptions, k: number): Circuit => (search ? compileSearch(cnf, { ...opts, iterations: k }) : compileOracle(cnf, opts).circuit);
-  for (const c of drawCandidates(o)) {
+  // K iterations above the diffusion's lower bound fit with no option set: do not build them (K may be 2^20).
+  const tooManyIterations = search && K * (2 * n + 2) + 2 * n > DRAW_LIMITS.gates;
+  for (const c of tooManyIterations ? [] : drawCandidates(o)) {
     if (c.flags.length > fewest()) break;
     const circuit = build(c.options, K);
     if (fits(circuit)) found.push({ flags: c.flags, circuit });

@@ -2,7 +2,7 @@
 // clashing outputs, long names, file modes, standard-output failures, signals).
 import { spawn, spawnSync } from "node:child_process";
 import {
-  chmodSync, closeSync, existsSync, lstatSync, mkdtempSync, openSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync,
+  chmodSync, closeSync, existsSync, linkSync, lstatSync, mkdirSync, mkdtempSync, openSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync,
   writeFileSync,
 } from "node:fs";
 import { tmpdir } from "node:os";
@@ -74,6 +74,23 @@ describe("output destinations", () => {
     expect(s.stderr).toMatch(/name the same file/);
     expect(existsSync(same)).toBe(false);
     expect(leftovers(dir)).toEqual([]);
+  });
+  it("refuses two outputs naming one file through a linked folder or a hard link", () => {
+    const sub = join(dir, "clash");
+    mkdirSync(sub);
+    symlinkSync(".", join(sub, "self"));
+    const r = cli(["oracle", EXAMPLE, "-o", join(sub, "c.qasm"), "--report", join(sub, "self", "c.qasm")]);
+    expect(r.code).toBe(2);
+    oneLine(r.stderr);
+    expect(r.stderr).toMatch(/name the same file/);
+    expect(existsSync(join(sub, "c.qasm"))).toBe(false);
+    writeFileSync(join(sub, "a"), "x\n");
+    linkSync(join(sub, "a"), join(sub, "b"));
+    const h = cli(["oracle", EXAMPLE, "-o", join(sub, "a"), "--report", join(sub, "b")]);
+    expect(h.code).toBe(2);
+    expect(h.stderr).toMatch(/name the same file/);
+    expect(readFileSync(join(sub, "a"), "utf8")).toBe("x\n");
+    expect(leftovers(sub)).toEqual([]);
   });
   it("writes a legal 255-byte file name (short temporary names)", () => {
     const name = join(dir, "o".repeat(250) + ".qasm");

@@ -383,6 +383,22 @@ describe("clausegate draw", { timeout: 60_000 }, () => {
     expect(r.stderr).toMatch(/at least 2147483647 qubits/);
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
   });
+  it("refuses the most iterations at once, without building them, and names a count that draws", () => {
+    const t0 = Date.now();
+    const r = cli(["draw", "examples/allotment-pair.cnf", "--search", "--iterations", "1048576", "-o", join(dir, "k.svg")]);
+    expect(r.code).toBe(2);
+    expect(r.stderr.trim().split("\n")).toHaveLength(1);
+    expect(r.stderr).toMatch(/hint: --iterations \d+ draws it/);
+    expect(Date.now() - t0).toBeLessThan(20_000);
+  });
+  it("names an iteration count that search then builds, when the diffusion alone is too large", () => {
+    const r = cli(["search", "examples/launch-rota.cnf", "--iterations", "1048576"]);
+    expect(r.code).toBe(2);
+    const k = Number(r.stderr.match(/hint: --iterations (\d+) or fewer fits/)![1]);
+    const again = cli(["search", "examples/launch-rota.cnf", "--iterations", String(k + 1)]);
+    expect(again.code).toBe(2);
+    expect(again.stderr).toMatch(new RegExp(`--iterations ${k} or fewer fits`));
+  });
   it("refuses options it would ignore, and exits 3 on an unsatisfiable search", () => {
     const r = cli(["draw", "examples/allotment-pair.cnf", "--iterations", "2", "-o", join(dir, "i.svg")]);
     expect(r.code).toBe(2);
