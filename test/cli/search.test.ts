@@ -384,12 +384,11 @@ describe("clausegate draw", { timeout: 60_000 }, () => {
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
   });
   it("refuses the most iterations at once, without building them, and names a count that draws", () => {
-    const t0 = Date.now();
+    // Building 2^20 iterations first would take far longer than this test's timeout (some 70 GB).
     const r = cli(["draw", "examples/allotment-pair.cnf", "--search", "--iterations", "1048576", "-o", join(dir, "k.svg")]);
     expect(r.code).toBe(2);
     expect(r.stderr.trim().split("\n")).toHaveLength(1);
     expect(r.stderr).toMatch(/hint: --iterations \d+ draws it/);
-    expect(Date.now() - t0).toBeLessThan(20_000);
   });
   it("names an iteration count that search then builds, when the diffusion alone is too large", () => {
     const r = cli(["search", "examples/launch-rota.cnf", "--iterations", "1048576"]);
