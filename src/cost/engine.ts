@@ -34,7 +34,7 @@ import {
 } from "./templates.js";
 import type { InstanceSink } from "./lowering.js";
 import { InstanceTally } from "./tally.js";
-import { WireReuse, type HeldTables } from "./reuse.js";
+import { WireReuse } from "./reuse.js";
 import { EXIT0, findPartner, markRecheck, restageWalks, type WalkStore } from "./walks.js";
 
 /** What the engine counts. */
@@ -103,8 +103,6 @@ export interface EngineOptions {
 export interface WireMemory {
   buffer: ArrayBuffer | null;
   records: Int32Array<ArrayBuffer> | null;
-  /** The other per-id and per-wire tables of a run (reuse.ts's HeldTables). */
-  tables?: HeldTables;
 }
 
 /** Figures of one circuit. */
@@ -267,7 +265,7 @@ export class CountingEngine implements InstanceSink, WalkStore {
     this.cs = 8 * this.depth;
     this.wireMemory = opts.wireMemory ?? null;
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
-    this.reuse = new WireReuse(this.base, opts.ids ?? 0, opts.wireMemory?.tables ?? null);
+    this.reuse = new WireReuse(this.base, opts.ids ?? 0);
     this.truncated = opts.truncated ?? null;
     this.keepFreed = opts.keepFreed ?? 0;
   }

@@ -763,7 +763,7 @@ function searchCostOf<S extends Strategy | ConstructionFamily>(
   const runs = successProbability > 0 ? 1 / successProbability : Infinity;
   // One wire-record buffer for the six runs, each taking the one before's (a million clauses'
   // wide oracle: some 240 MB each).
-  const memory: WireMemory = { buffer: null, records: null, tables: new Map() };
+  const memory: WireMemory = { buffer: null, records: null };
   // Sized for the whole run (the oracle's wires and the diffusion's) from the first, so that the
   // buffer is allocated once.
   sizing = { ...sizing, work: (sizing.work ?? 0) + n, wireMemory: memory };

@@ -10,7 +10,6 @@
  * from a pool that are given back when their span ends, and the engine assigns wires to them as
  * work-qubit reuse does.
  */
-import { grownInt32, heldInt32, heldUint8, type HeldTables } from "./reuse.js";
 import {
   T_AND, T_CCX, T_CX, T_CZ, T_ERASE_HEAD, T_ERASE_TAIL, T_GPHASE, T_MEASURE, T_TOF7, T_UNAND, T_X, T_Z,
 } from "./templates.js";
@@ -51,15 +50,13 @@ export interface LogicalSink {
 /** Virtual qubit ids above the fixed registers, recycled when a span ends. */
 export class VirtualIds {
   /** Ids given back, a stack (typed: a wide oracle gives back millions). */
-  private free: Int32Array<ArrayBuffer>;
+  private free = new Int32Array(256);
   private top = 0;
   /** Ids handed out so far (the high-water mark). */
   next: number;
 
-  /** `ids`: the ids expected (sizes the stack once); `held`: tables kept between runs (reuse.ts). */
-  constructor(readonly base: number, private readonly held: HeldTables | null = null, ids = 0) {
+  constructor(readonly base: number) {
     this.next = base;
-    this.free = heldInt32(held, "ids.free", Math.max(256, ids - base));
   }
 
   take(): number {
@@ -67,7 +64,11 @@ export class VirtualIds {
   }
 
   give(id: number): void {
-    if (this.top === this.free.length) this.free = grownInt32(this.held, "ids.free", this.free, this.free.length * 2, 0);
+    if (this.top === this.free.length) {
+      const f = new Int32Array(this.free.length * 2);
+      f.set(this.free);
+      this.free = f;
+    }
     this.free[this.top++] = id;
   }
 }
@@ -78,8 +79,6 @@ export class VirtualIds {
  */
 export interface RecordMemory {
   records: Int32Array<ArrayBuffer> | null;
-  /** The per-id tables and scratch of the lowering, the ids' stack and work-wire reuse's tables (see HeldTables). */
-  tables?: HeldTables;
 }
 
 /** Which circuit the lowering produces. */
@@ -95,8 +94,8 @@ export interface LoweringMode {
 const pos = (q: number): number => q << 1;
 
 export class LoweringStream implements LogicalSink {
-  private flipped: Uint8Array<ArrayBuffer>;
-  private recordAt: Int32Array<ArrayBuffer>;
+  private flipped = new Uint8Array(1024);
+  private recordAt = new Int32Array(1024).fill(-1);
   /** Records as in lower.ts: count, copied control, then count triples (a, b, w); used as a stack. */
   private records = new Int32Array(1024);
   private top = 0;
@@ -105,9 +104,9 @@ export class LoweringStream implements LogicalSink {
   private readonly toffoliAnds: boolean;
   private readonly pair = new Int32Array(2);
   /** Scratch of one operation: its controls, then what tree() leaves of them. */
-  private tb: Int32Array<ArrayBuffer>;
+  private tb = new Int32Array(64);
   /** Scratch of one operation: its ANDs' triples (a, b, w), rn numbers. */
-  private rb: Int32Array<ArrayBuffer>;
+  private rb = new Int32Array(192);
   private rn = 0;
 
   /**
@@ -118,33 +117,24 @@ export class LoweringStream implements LogicalSink {
     this.cliffordT = mode.basis === "clifford+t";
     this.measured = mode.uncompute === "measured";
     this.toffoliAnds = mode.toffoliAnds;
+    this.room(qubits - 1);
     this.memory = memory ?? null;
-    const tables = this.held;
-    const n = Math.max(1024, qubits);
-    this.flipped = heldUint8(tables, "low.flipped", n);
-    this.flipped.fill(0);
-    this.recordAt = heldInt32(tables, "low.recordAt", n);
-    this.recordAt.fill(-1);
-    this.tb = heldInt32(tables, "low.tb", 64);
-    this.rb = heldInt32(tables, "low.rb", 192);
     const held = this.memory?.records ?? null;
     if (held !== null && held.length >= records) this.records = held;
     else if (records > this.records.length) this.records = new Int32Array(records);
     if (this.memory !== null) this.memory.records = this.records;
   }
   private readonly memory: RecordMemory | null;
-  private get held(): HeldTables | null {
-    return this.memory?.tables ?? null;
-  }
 
   private room(q: number): void {
     if (q < this.flipped.length) return;
     const n = Math.max(q + 1, Math.ceil(this.flipped.length * 1.5));
     const f = new Uint8Array(n);
     f.set(this.flipped);
-    if (this.held?.get("low.flipped") === this.flipped) this.held.set("low.flipped", f);
     this.flipped = f;
-    this.recordAt = grownInt32(this.held, "low.recordAt", this.recordAt, n, -1);
+    const r = new Int32Array(n).fill(-1);
+    r.set(this.recordAt);
+    this.recordAt = r;
   }
 
   /** Sets the pending flip of qubit q (to record one block of a stream in a given state; see blocks.ts). */
@@ -413,7 +403,7 @@ export class LoweringStream implements LogicalSink {
    */
   private loadControls(ops: ArrayLike<number>): number {
     const n = ops.length;
-    if (n > this.tb.length) this.tb = grownInt32(this.held, "low.tb", this.tb, Math.max(n, 2 * this.tb.length), 0);
+    if (n > this.tb.length) this.tb = new Int32Array(Math.max(n, 2 * this.tb.length));
     const out = this.tb;
     if (n > 16) {
       const c = normalizeControls(ops);
@@ -436,7 +426,11 @@ export class LoweringStream implements LogicalSink {
   }
 
   private pushTriple(a: number, b: number, w: number): void {
-    if (this.rn + 3 > this.rb.length) this.rb = grownInt32(this.held, "low.rb", this.rb, 2 * this.rb.length, 0);
+    if (this.rn + 3 > this.rb.length) {
+      const r = new Int32Array(2 * this.rb.length);
+      r.set(this.rb);
+      this.rb = r;
+    }
     this.rb[this.rn++] = a;
     this.rb[this.rn++] = b;
     this.rb[this.rn++] = w;

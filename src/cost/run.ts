@@ -29,7 +29,7 @@ export function run(base: number, optimize: boolean, levels: boolean, mode: { ba
   let second = levels;
   for (let attempt = 0; ; attempt++) {
     const engine = new CountingEngine({ base, optimize, levels, lag, history, wires, second, ids: sizing.ids, deferTrails: true, ...(ring > 0 ? { ring } : {}), ...(sizing.eagerLag ? { eagerLag: true } : {}), ...(sizing.keepFreed ? { keepFreed: sizing.keepFreed } : {}), ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}) });
-    const ids = new VirtualIds(base, sizing.wireMemory?.tables ?? null, sizing.ids);
+    const ids = new VirtualIds(base);
     const low = new LoweringStream(engine, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
     emit(low, ids);
     low.finish();
@@ -64,7 +64,7 @@ export function run(base: number, optimize: boolean, levels: boolean, mode: { ba
 export function runSwept(sweep: boolean, base: number, optimize: boolean, levels: boolean, mode: { basis: "toffoli" | "clifford+t"; uncompute: Uncompute; toffoliAnds: boolean }, emit: (low: LoweringStream, ids: VirtualIds) => void, sizing: { lag: number; history: number; wires: number; ids: number; wireMemory?: WireMemory; records?: number; farReach?: boolean; ring?: number; eagerLag?: boolean; keepFreed?: number }): EngineResult {
   if (sweep && optimize) {
     const r = sweepCount({ base, levels, wires: sizing.wires, ids: sizing.ids, ...(sizing.wireMemory ? { wireMemory: sizing.wireMemory } : {}), ...(sizing.keepFreed ? { keepFreed: sizing.keepFreed } : {}) }, (sink) => {
-      const ids = new VirtualIds(base, sizing.wireMemory?.tables ?? null, sizing.ids);
+      const ids = new VirtualIds(base);
       const low = new LoweringStream(sink, ids, mode, sizing.ids, sizing.records ?? 1024, sizing.wireMemory);
       emit(low, ids);
       low.finish();
