@@ -10,6 +10,7 @@ import type { Cnf } from "../cnf/cnf.js";
 import type { EngineResult } from "./engine.js";
 import { sharingPlans, type OracleKind, type OraclePlan } from "../synth/index.js";
 import { Progress, TableCounter, type CostOptions, type CostRow } from "./index.js";
+import { collectBetweenRuns } from "../util/collect.js";
 
 /** One table of {@link costTables}. */
 export interface TableSpec extends Pick<CostOptions, "register" | "structure"> {
@@ -32,16 +33,6 @@ export interface SplitJob {
   readonly runs: readonly (readonly [table: number, run: number])[];
   /** Its progress: instances-weight done so far, written by the worker as it goes. */
   readonly progress: SharedArrayBuffer;
-}
-
-/**
- * Collects garbage between runs where the host exposes it (the command does, bin.ts): a run drops
- * tens of MB of typed arrays, and V8 left them, and the allocator their pages, until much later:
- * a million clauses on one thread peaked at 466-477 MB without, 398-420 MB with.
- */
-export function collectBetweenRuns(): void {
-  const gc = (globalThis as { gc?: unknown }).gc;
-  if (typeof gc === "function") (gc as () => void)();
 }
 
 /** Literals from which the worker thread is started before planning (some 0.3 s of its start then overlap it). */

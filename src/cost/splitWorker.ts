@@ -2,7 +2,8 @@
 import { parentPort } from "node:worker_threads";
 import { TableCounter } from "./index.js";
 import type { EngineResult } from "./engine.js";
-import { collectBetweenRuns, type SplitJob } from "./split.js";
+import type { SplitJob } from "./split.js";
+import { collectBetweenRuns } from "../util/collect.js";
 
 // The job comes by message: the thread may be started before the plans are made.
 parentPort!.once("message", (job: SplitJob) => {
