@@ -51,6 +51,27 @@ describe("costTables", () => {
     expect((await costTables(cnf, "phase", [{ structure: false }], { threads: 2, splitFrom: 0, earlyFrom: 0, worker: missing }))[0]).toStrictEqual(expected);
   });
 
+  it("collects garbage after each run on this thread where the host exposes it (the command does), and only then", async () => {
+    const cnf = randomKSat(10, 40, 3, 17);
+    const g = globalThis as { gc?: unknown };
+    const before = g.gc;
+    let calls = 0;
+    g.gc = () => void calls++;
+    try {
+      const [rows] = await costTables(cnf, "phase", [{ structure: false }], { threads: 1 });
+      // Two runs a row: Clifford+T and the toffoli basis.
+      expect(calls).toBe(rows!.length * 2);
+    } finally {
+      g.gc = before;
+    }
+    g.gc = "not a function";
+    try {
+      expect((await costTables(cnf, "phase", [{ structure: false }], { threads: 1 }))[0]).toStrictEqual(costTable(cnf, "phase", { structure: false }));
+    } finally {
+      g.gc = before;
+    }
+  });
+
   it("counts the worker's runs itself when the thread cannot run", async () => {
     const cnf = randomKSat(10, 40, 3, 11);
     const missing = new URL("./no-such-worker.js", import.meta.url);
