@@ -48,10 +48,10 @@ function describe(found: Found): string {
   }
 }
 
+/** Where the token's first non-ASCII byte stands in it (-1: none). */
 function nonAscii(found: Found): number {
   if (found.kind !== "token") return -1;
-  for (const b of found.bytes) if (b >= 0x80) return b;
-  return -1;
+  return found.bytes.findIndex((b) => b >= 0x80);
 }
 
 const err = (code: string, offset: number, message: string, hint: string): Finding => ({
@@ -73,8 +73,9 @@ function binaryInput(offset: number, byte: number): Finding {
 
 /** A token (or line end, or end of input) that the grammar does not allow where it stands. */
 export function unexpected(phase: Phase, offset: number, found: Found): Finding {
-  const byte = nonAscii(found);
-  if (byte >= 0) return binaryInput(offset, byte);
+  // The byte named is the one at the place given (columns count bytes), not the token's start.
+  const at = nonAscii(found);
+  if (at >= 0) return binaryInput(offset + at, (found as { bytes: Uint8Array }).bytes[at]!);
   const what = describe(found);
   switch (phase) {
     case Phase.BeforeHeader:

@@ -40,6 +40,7 @@ const cases: [string, string, number, number, string][] = [
   ["a NUL byte", "p cnf 1 1\n1 \0 0\n", 2, 3, "nul-byte"],
   ["binary (gzip) input", "\x1f\x8b\x08\x00\x00", 1, 4, "nul-byte"],
   ["non-ASCII bytes outside comments", "p cnf 1 1\n\xc3\xa9 0\n", 2, 1, "non-ascii-input"],
+  ["a non-ASCII byte inside a token (the byte's own column)", "p cnf 3 1\n1 2x\xc3\xa9 9\n", 2, 5, "non-ascii-input"],
   ["UTF-16 with a byte-order mark", "\xff\xfep\0 \0c\0n\0f\0", 1, 1, "utf16-input"],
   ["UTF-16 without a byte-order mark", "p\0 \0c\0n\0f\0", 1, 1, "utf16-input"],
 ];
@@ -121,6 +122,14 @@ describe("rejected inputs", () => {
     expect(run.stderr).toBe(
       `${file}:5:1: warning: the lone 0 after the 2 declared clauses was read as an end marker, not as an empty clause; hint: remove the line, or raise the header's CLAUSES count if an empty clause was meant\n`,
     );
+  });
+
+  it("names the non-ASCII byte that stands at the column given, in both readers", () => {
+    for (const read of [scanDimacs, readWithGrammarSync]) {
+      const err = read(Buffer.from("p cnf 3 1\n1 2x\xc3\xa9 9\n", "latin1")).diagnostics.find((d) => d.severity === "error")!;
+      expect({ line: err.line, column: err.column }).toEqual({ line: 2, column: 5 });
+      expect(err.message).toBe("expected plain ASCII DIMACS text but found the byte 0xc3");
+    }
   });
 
   it("names standard input as <stdin>", () => {
