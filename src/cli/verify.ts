@@ -1,7 +1,6 @@
 /** `clausegate verify`: check an oracle against its formula; `oracle --verify` uses it too. */
-import { readFile } from "node:fs/promises";
 import {
-  DEFAULT_CONFLICT_LIMIT, DEFAULT_EXHAUSTIVE_LIMIT, DEFAULT_SOLVER_SECONDS, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
+  DEFAULT_CONFLICT_LIMIT, loadBytes, DEFAULT_EXHAUSTIVE_LIMIT, DEFAULT_SOLVER_SECONDS, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
   type Completion,
 } from "../internal.js";
 import { checkCheckSize, displayName, loadCnf, UserError } from "./io.js";
@@ -123,20 +122,14 @@ export async function verifyCommand(argv: string[]): Promise<number> {
 async function loadCircuit(path: string): Promise<Circuit> {
   let bytes: Uint8Array;
   try {
-    bytes = path === "-" ? await readStdin() : await readFile(path);
+    bytes = await loadBytes(path);
   } catch (e) {
     const code = (e as { code?: string }).code;
-    const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a directory" : code === "EACCES" ? "permission denied" : code ?? "unreadable";
+    const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a folder" : code === "EACCES" ? "permission denied" : code ?? "unreadable";
     throw new UserError(`clausegate verify: error: cannot read the circuit ${path} (${why}); hint: check the path given to --circuit`);
   }
   const { circuit, diagnostics } = readCircuit(bytes);
   if (circuit === undefined) throw new UserError(formatDiagnostic(diagnostics[0]!, displayName(path)));
   // Idle work qubits declared at the end cost the checkers memory per qubit and change nothing.
   return withoutIdleTail(circuit);
-}
-
-async function readStdin(): Promise<Uint8Array> {
-  const chunks: Buffer[] = [];
-  for await (const chunk of process.stdin) chunks.push(chunk as Buffer);
-  return Buffer.concat(chunks);
 }

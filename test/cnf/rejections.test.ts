@@ -1,10 +1,11 @@
 // Every rejected input: exact line and column, the diagnostic code, exit code 2 from the CLI,
 // one line on stderr with a hint, no stack trace, nothing on stdout.
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { closeSync, mkdtempSync, openSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
-import { cli } from "../helpers/cli.js";
+import { cli, ROOT } from "../helpers/cli.js";
 import { readWithGrammarSync, scanDimacs } from "../helpers/lib.js";
 
 // [what, input, line, column, code]
@@ -142,6 +143,33 @@ describe("rejected inputs", () => {
     const r = scanDimacs(Buffer.from("p cnf 2 3\n1 0\n"));
     expect(r.diagnostics[0]!.message).toContain("expected 3 clauses");
     expect(r.diagnostics[0]!.message).toContain("found 1");
+  });
+
+  it("stops reading an endless device at the first chunk holding a NUL byte, and reports that NUL", () => {
+    const started = Date.now();
+    const run = cli(["count", "/dev/zero"]);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toBe("/dev/zero:1:1: error: expected DIMACS text but found a NUL byte; hint: the input looks binary; give a plain-text DIMACS CNF file\n");
+    const random = cli(["count", "/dev/urandom"]);
+    expect(random.code).toBe(2);
+    expect(random.stderr).toMatch(/^\/dev\/urandom:\d+:\d+: error: .+; hint: .+\n$/);
+    const circuit = cli(["verify", "examples/launch-rota.cnf", "--circuit", "/dev/zero"]);
+    expect(circuit.code).toBe(2);
+    expect(Date.now() - started).toBeLessThan(60_000);
+  });
+
+  it("says a folder given as the input, or as standard input, is a folder", () => {
+    expect(cli(["count", dir]).stderr).toBe(`${dir}:1:1: error: cannot read the input (it is a folder); hint: give a DIMACS CNF file, not a folder\n`);
+    const fd = openSync(dir, "r");
+    try {
+      for (const args of [["count", "-"], ["verify", "examples/launch-rota.cnf", "--circuit", "-"]]) {
+        const r = spawnSync(process.execPath, ["dist/src/cli/bin.js", ...args], { cwd: ROOT, stdio: [fd, "pipe", "pipe"], encoding: "utf8" });
+        expect(r.status).toBe(2);
+        expect(r.stderr).toMatch(/\(it is a folder\); hint: /);
+      }
+    } finally {
+      closeSync(fd);
+    }
   });
 
   it("reports a missing file as bad input, without a stack trace", () => {
