@@ -101,7 +101,12 @@ export async function main(argv: string[]): Promise<number> {
   } catch (e) {
     discardOutputs();
     if (e instanceof UserError || e instanceof OutputError) {
-      if (e.message !== "") process.stderr.write(`${oneLine(e.message)}\n`);
+      // Shared checks (option values, output destinations) say "clausegate:": name the command,
+      // as every other error line of a command does.
+      const message = first !== undefined && Object.hasOwn(commands, first) && e.message.startsWith("clausegate: ")
+        ? `clausegate ${first}: ${e.message.slice("clausegate: ".length)}`
+        : e.message;
+      if (message !== "") process.stderr.write(`${oneLine(message)}\n`);
       return e instanceof UserError ? e.exitCode : EXIT_BAD_INPUT;
     }
     const code = (e as { code?: string }).code;

@@ -90,3 +90,22 @@ describe("error shape", () => {
     });
   }
 });
+
+describe("a command's errors name the command", () => {
+  const named: [string[], string][] = [
+    [["search", EX, "--iterations", "1048577"], "clausegate search: error: --iterations expects a whole number in 0..1048576 but got '1048577'; hint: give a value in that range\n"],
+    [["oracle", EX, "--format", "qasm4"], "clausegate oracle: error: --format expects one of qasm3, qasm2, json but got 'qasm4'; hint: pick one of those\n"],
+    [["count", EX, "--threads", "0"], "clausegate count: error: --threads expects a whole number in 1..256 but got '0'; hint: give a value in that range\n"],
+    [["oracle", EX, "--strategy", "lean", "--construction", "wide"], "clausegate oracle: error: --strategy and --construction both name the construction; hint: give one of them (--construction wide is --strategy wide)\n"],
+  ];
+  for (const [args, line] of named) {
+    it(args.slice(0, 1).concat(args.slice(2)).join(" "), () => {
+      const r = cli(args);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toBe(line);
+    });
+  }
+  it("an unknown command is still clausegate's own error", () => {
+    expect(cli(["frobnicate"]).stderr).toMatch(/^clausegate: error: unknown command 'frobnicate'/);
+  });
+});

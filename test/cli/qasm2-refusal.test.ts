@@ -9,13 +9,13 @@ describe("--format qasm2 refusals", () => {
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
     expect(r.stderr.split("\n").filter((l) => l.includes("error"))).toEqual([
-      "clausegate: error: cannot write OpenQASM 2.0: the circuit has a 3-controlled X gate (the qelib1.inc of OpenQASM 2.0, Cross et al. 2017, has none beyond ccx); hint: choose --basis toffoli or --basis clifford+t, or write --format qasm3 or json",
+      "clausegate oracle: error: cannot write OpenQASM 2.0: the circuit has a 3-controlled X gate (the qelib1.inc of OpenQASM 2.0, Cross et al. 2017, has none beyond ccx); hint: choose --basis toffoli or --basis clifford+t, or write --format qasm3 or json",
     ]);
   });
   it("a circuit with no qubits (a formula of no variables)", () => {
     const r = cli(["oracle", "-", "--format", "qasm2"], "p cnf 0 0\n");
     expect(r.code).toBe(2);
     expect(r.stdout).toBe("");
-    expect(r.stderr).toBe("clausegate: error: cannot write OpenQASM 2.0: the circuit has no qubits, and OpenQASM 2.0 cannot declare an empty register; hint: write --format qasm3 or json\n");
+    expect(r.stderr).toBe("clausegate oracle: error: cannot write OpenQASM 2.0: the circuit has no qubits, and OpenQASM 2.0 cannot declare an empty register; hint: write --format qasm3 or json\n");
   });
 });

@@ -343,7 +343,7 @@ describe("forecast's register", { timeout: 120_000 }, () => {
 describe("bad values", () => {
   it("one line, exit 2, nothing on standard output", () => {
     const cases: [string[], RegExp][] = [
-      [["plan", LOCK, "--register", "partial"], /^clausegate: error: --register expects one of full, free but got 'partial'; hint: /],
+      [["plan", LOCK, "--register", "partial"], /^clausegate plan: error: --register expects one of full, free but got 'partial'; hint: /],
       [["search", LOCK, "--reduce", "--register", "full"], /--reduce is an alias of --register free and contradicts --register full; hint: /],
       [["search", LOCK, "--complete", "101"], /--complete expects 4 bits \(0 or 1, outcome\[0\] first\) per value but got '101'; hint: /],
       [["search", LOCK, "--complete", "1010", "-o", join(dir, "x.qasm")], /--complete completes values measured elsewhere .* --output does not apply; hint: /],

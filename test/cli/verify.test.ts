@@ -199,10 +199,10 @@ describe.skipIf(!haveSatlib)("clausegate verify --sample on SATLIB (Hoos & Stuet
     expect(p.stdout).toMatch(/time budget, 1 s, at/);
     const sampled = cli(["verify", ais6, "--sample", "--proof-seconds", "5"]);
     expect(sampled.code).toBe(2);
-    expect(sampled.stderr).toBe("clausegate: error: --proof-seconds bounds a proof, and --sample runs none; hint: leave out --sample or --proof-seconds\n");
+    expect(sampled.stderr).toBe("clausegate verify: error: --proof-seconds bounds a proof, and --sample runs none; hint: leave out --sample or --proof-seconds\n");
     const bad = cli(["verify", ais6, "--proof-seconds", "0"]);
     expect(bad.code).toBe(2);
-    expect(bad.stderr).toBe("clausegate: error: --proof-seconds expects a whole number in 1..86400 but got '0'; hint: give a value in that range\n");
+    expect(bad.stderr).toBe("clausegate verify: error: --proof-seconds expects a whole number in 1..86400 but got '0'; hint: give a value in that range\n");
   }, 120_000);
   it("a solver out of budget: exit 1 and the reason, with a hint", () => {
     const r = cli(["verify", "--sample", resolve(SATLIB, "aim/aim-50-1_6-yes1-1.cnf"), "--basis", "mcx", "--conflict-limit", "0"]);
