@@ -9,7 +9,7 @@ export type { Cnf } from "./cnf/cnf.js";
 export { clauseCount, clausesOf, cnfFromClauses } from "./cnf/cnf.js";
 export type { ReadResult } from "./cnf/scanner.js";
 export type { DimacsInput } from "./cnf/source.js";
-export { loadBytes, readDimacs, readDimacsFile } from "./cnf/source.js";
+export { loadBytes, readDimacs, readDimacsFile, readDimacsSource } from "./cnf/source.js";
 export { writeDimacs } from "./cnf/writer.js";
 export { evaluate, evaluateWords } from "./cnf/evaluate.js";
 export type { CountResult } from "./count/clauses.js";

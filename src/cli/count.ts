@@ -1,6 +1,6 @@
 /** `clausegate count FILE|-`: variables, clauses and the exact model count. */
 import { clauseCount, countModels, DEFAULT_COUNT_LIMIT, MAX_COUNT_LIMIT } from "../internal.js";
-import { loadCnf, progress, UserError } from "./io.js";
+import { headerWhere, loadCnf, progress, UserError } from "./io.js";
 import { intOption, oneInput, parseCommandArgs } from "./options.js";
 
 export const countHelp = `Usage: clausegate count FILE|- [options]
@@ -54,7 +54,8 @@ export async function countCommand(argv: string[]): Promise<number> {
     onProgress: bar.update,
   });
   bar.stop();
-  if (!r.ok) throw new UserError(`clausegate count: error: ${r.reason}`);
+  // A count refused for its size is the input's doing: point at the header's VARIABLES count.
+  if (!r.ok) throw new UserError(`${r.doubling !== undefined ? headerWhere(file) : "clausegate count"}: error: ${r.reason}`);
   const clauses = clauseCount(cnf);
   if (values.json) {
     // As plan --json does: a count a double cannot hold exactly is a decimal string (JSON readers

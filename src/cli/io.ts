@@ -1,6 +1,6 @@
 /** CLI plumbing: loading inputs, printing diagnostics, atomic writes, progress bars, exit codes. */
 import { Bar, Presets } from "cli-progress";
-import { formatDiagnostic, readDimacsFile, type Cnf, type Diagnostic } from "../internal.js";
+import { formatDiagnostic, readDimacsSource, type Cnf, type Diagnostic } from "../internal.js";
 import { noteInput, writeOutput } from "./output.js";
 
 /** Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan). */
@@ -30,6 +30,18 @@ export function displayName(path: string): string {
   return path === "-" ? "<stdin>" : path;
 }
 
+/** Where the header's counts stand in each input loaded this run (by path as given). */
+const headers = new Map<string, { line: number; variables: number; clauses: number }>();
+
+/**
+ * Where a message about the header's VARIABLES (or CLAUSES) count points: FILE:LINE:COLUMN of
+ * that count, or the file alone when its header was not seen.
+ */
+export function headerWhere(file: string, count: "variables" | "clauses" = "variables"): string {
+  const h = headers.get(file);
+  return h === undefined ? displayName(file) : `${displayName(file)}:${h.line}:${h[count]}`;
+}
+
 /** Most variables a circuit-making command accepts (the search register is one qubit per variable). */
 export const MAX_CIRCUIT_VARIABLES = 1_000_000;
 
@@ -40,7 +52,7 @@ export const MAX_CIRCUIT_VARIABLES = 1_000_000;
  */
 export function checkCircuitSize(cnf: Cnf, file: string, command: string, register: "full" | "free" = "full"): void {
   if (register === "full" && cnf.variables > MAX_CIRCUIT_VARIABLES) {
-    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits (one per declared variable with --register full); hint: declare only the variables the formula uses, or use --register free`);
+    throw new UserError(`${headerWhere(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} builds search registers of at most ${MAX_CIRCUIT_VARIABLES} qubits (one per declared variable with --register full); hint: declare only the variables the formula uses, or use --register free`);
   }
 }
 
@@ -59,16 +71,17 @@ export function checkFreeRegister(qubits: number, file: string, command: string)
 export function checkCheckSize(cnf: Cnf, file: string, command: string): void {
   if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
     const leaveOut = command.startsWith("oracle ") ? `, or leave out ${command.slice(7)}` : "";
-    throw new UserError(`${displayName(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} checks formulas of at most ${MAX_CIRCUIT_VARIABLES} declared variables, with --register free too (a counterexample is an assignment of every declared variable); hint: declare only the variables the formula uses${leaveOut}`);
+    throw new UserError(`${headerWhere(file)}: error: the header declares ${cnf.variables} variables; clausegate ${command} checks formulas of at most ${MAX_CIRCUIT_VARIABLES} declared variables, with --register free too (a counterexample is an assignment of every declared variable); hint: declare only the variables the formula uses${leaveOut}`);
   }
 }
 
 /** Loads and reads a DIMACS file ("-": standard input); prints warnings; throws UserError on the first error. */
 export async function loadCnf(path: string): Promise<Cnf> {
   noteInput(path);
-  const { cnf, diagnostics } = await readDimacsFile(path);
+  const { cnf, diagnostics, header } = await readDimacsSource(path);
   printDiagnostics(diagnostics, displayName(path));
   if (cnf === undefined) throw new UserError("", EXIT_BAD_INPUT);
+  if (header !== undefined) headers.set(path, header);
   return cnf;
 }
 

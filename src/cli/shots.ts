@@ -4,7 +4,7 @@
  * measurements), so what they show is what the written circuit does.
  */
 import { basisTerm, compileSearch, runSparse, seededRandom, type Cnf, type OracleOptions } from "../internal.js";
-import { displayName, MAX_CIRCUIT_VARIABLES, UserError } from "./io.js";
+import { displayName, headerWhere, MAX_CIRCUIT_VARIABLES, UserError } from "./io.js";
 import { constructionLabel, constructionPhrase, intOption } from "./options.js";
 import { bitsText, completeValue, modelLine, parseRegisterValue, registerText, type SearchProblem } from "./register.js";
 
@@ -54,7 +54,7 @@ export function shotsOptions(values: Record<string, string | boolean | undefined
 /** Refuses completions that would list a huge header's variables. */
 function checkListable(file: string, cnf: Cnf, what: string, lines: number): void {
   if (cnf.variables > MAX_CIRCUIT_VARIABLES) {
-    throw new UserError(`${displayName(file)}: error: ${what} assigns every declared variable, and the header declares ${cnf.variables}; clausegate search prints at most ${MAX_CIRCUIT_VARIABLES}; hint: declare only the variables the formula uses`);
+    throw new UserError(`${headerWhere(file)}: error: ${what} assigns every declared variable, and the header declares ${cnf.variables}; clausegate search prints at most ${MAX_CIRCUIT_VARIABLES}; hint: declare only the variables the formula uses`);
   }
   // All lines are one string on standard output (printed only once all is well): V8's strings
   // stop short of 2^29 characters (200 shots of a million variables, 1.6 GB, ended in exit 70).

@@ -4,7 +4,7 @@
  * grammar/DimacsLexer.g4 and grammar/DimacsParser.g4; test/cnf/differential.test.ts holds it to
  * the ANTLR reader generated from them (same clauses, same diagnostics).
  */
-import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
+import { locate, place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
 import type { Cnf } from "./cnf.js";
 import {
   MAX_INDEX, Phase, checkEncoding, countTooLarge, literalTooLarge, missingTerminator, negativeZero, nulByte,
@@ -246,6 +246,36 @@ export function scanDimacs(b: Uint8Array): ReadResult {
     const nul = b.indexOf(0);
     if (nul >= 0) return { cnf: undefined, diagnostics: [place(b, nulByte(nul))] };
     return { cnf: undefined, diagnostics: [...warnings, placeError(b, e.finding, origin)] };
+  }
+}
+
+/** Where an accepted input's header counts stand (1-based line; byte columns, as diagnostics give them). */
+export interface HeaderPlace {
+  readonly line: number;
+  /** Column of the VARIABLES count. */
+  readonly variables: number;
+  /** Column of the CLAUSES count. */
+  readonly clauses: number;
+}
+
+/**
+ * Where the header's counts stand in an input the scanner accepts (undefined for one it
+ * rejects), for messages about the formula's size that point at the header.
+ */
+export function headerPlace(b: Uint8Array): HeaderPlace | undefined {
+  const enc = checkEncoding(b, false);
+  if ("error" in enc) return undefined;
+  const origin = enc.start;
+  try {
+    const p = skipToHeader(b, origin);
+    if (b[p] !== 112 /* p */) return undefined;
+    const v = skipHeaderBlanks(b, skipHeaderBlanks(b, p + 1) + 3);
+    const c = skipHeaderBlanks(b, tokenEnd(b, v));
+    const at = locate(b, v, origin);
+    return { line: at.line, variables: at.column, clauses: at.column + (c - v) };
+  } catch (e) {
+    if (e instanceof Stop) return undefined;
+    throw e;
   }
 }
 

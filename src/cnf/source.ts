@@ -1,8 +1,8 @@
 /** Reading input bytes from a file path, a string, a Buffer or standard input ("-"). */
 import { fstatSync } from "node:fs";
 import { open, type FileHandle } from "node:fs/promises";
-import type { ReadResult } from "./scanner.js";
-import { scanDimacs } from "./scanner.js";
+import type { HeaderPlace, ReadResult } from "./scanner.js";
+import { headerPlace, scanDimacs } from "./scanner.js";
 
 /** Any input a reader accepts: bytes, or text (encoded as UTF-8). */
 export type DimacsInput = Uint8Array | string;
@@ -106,6 +106,12 @@ export async function loadBytes(path: string): Promise<Buffer> {
  * ```
  */
 export async function readDimacsFile(path: string): Promise<ReadResult> {
+  const { cnf, diagnostics } = await readDimacsSource(path);
+  return { cnf, diagnostics };
+}
+
+/** readDimacsFile, and for an accepted input where its header's counts stand (for the CLI's messages). */
+export async function readDimacsSource(path: string): Promise<ReadResult & { readonly header?: HeaderPlace }> {
   let bytes: Buffer;
   try {
     bytes = await loadBytes(path);
@@ -115,5 +121,8 @@ export async function readDimacsFile(path: string): Promise<ReadResult> {
       diagnostics: [{ code: "io-error", severity: "error", message: `cannot read the input (${ioReason(e)})`, offset: 0, line: 1, column: 1, hint: (e as { code?: string }).code === "EISDIR" ? "give a DIMACS CNF file, not a folder" : "check the path and permissions" }],
     };
   }
-  return scanDimacs(bytes);
+  const read = scanDimacs(bytes);
+  if (read.cnf === undefined) return read;
+  const header = headerPlace(bytes);
+  return header === undefined ? read : { ...read, header };
 }

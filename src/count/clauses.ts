@@ -49,12 +49,28 @@ export type CountResult =
       readonly reason: string;
       /** Variables that would have been enumerated (free ones, or all occurring in clauses). */
       readonly enumerated: number;
+      /**
+       * Set when the count was refused for its size: the power of two it is a multiple of (the
+       * declared variables that constrain nothing), too large to write out.
+       */
+      readonly doubling?: number;
     };
 
 /** Default limit on enumerated variables: 2^34 assignments take about a minute on two cores. */
 export const DEFAULT_COUNT_LIMIT = 34;
 /** Variables that only double the count beyond which the count is too large to write out. */
 export const MAX_DOUBLING_VARIABLES = 1_000_000;
+/** Decimal digits of 2^e: floor(e log10 2) + 1 (2^e is never a power of ten for e > 0). */
+export function digitsOfPowerOfTwo(e: number): number {
+  return Math.floor(e * Math.log10(2)) + 1;
+}
+
+/** The reason a count that is a multiple of 2^e (e above MAX_DOUBLING_VARIABLES) is refused; `why` says where the e variables come from. */
+export function doublingTooLarge(e: number, why: string, enumerated: number): CountResult {
+  const digits = String(digitsOfPowerOfTwo(e)).replace(/\B(?=(\d{3})+(?!\d))/g, ",");
+  return { ok: false, enumerated, doubling: e, reason: `the count is a multiple of 2^${e} (${why}), which alone has ${digits} digits; hint: declare only the variables the formula uses` };
+}
+
 /** Hard ceiling for the limit. */
 export const MAX_COUNT_LIMIT = 1000;
 /** Above this many variables, split with propagation instead of enumerating everything. */
@@ -80,7 +96,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
   }
   if (plan.unsat) return { ok: true, models: 0n, enumerated: 0 };
   if (plan.free > MAX_DOUBLING_VARIABLES) {
-    return { ok: false, enumerated: plan.used, reason: `the count is a multiple of 2^${plan.free} (${plan.free} declared variables occur in no clause), a number of over 300,000 digits; hint: declare only the variables the formula uses` };
+    return doublingTooLarge(plan.free, `${plan.free} declared variables occur in no clause`, plan.used);
   }
   if (plan.used > limit) {
     const seconds = 2 ** plan.used / 2e9;

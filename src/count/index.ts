@@ -11,6 +11,7 @@ import type { Cnf } from "../cnf/cnf.js";
 import {
   countModels as countByClauses,
   DEFAULT_COUNT_LIMIT,
+  doublingTooLarge,
   humanTime,
   MAX_COUNT_LIMIT,
   MAX_DOUBLING_VARIABLES,
@@ -67,7 +68,7 @@ export async function countModels(cnf: Cnf, options: CountOptions = {}): Promise
   const F = plan.enumerated;
   if (F >= occurring || !structureWins(F, cost, occurring, cnf.lits.length, limit)) return countByClauses(cnf, options);
   if (doubling > MAX_DOUBLING_VARIABLES) {
-    return { ok: false, enumerated: F, reason: `the count is a multiple of 2^${doubling} (${doubling} variables are free and constrain nothing, ${s.unused} of them in no clause), a number of over 300,000 digits; hint: declare only the variables the formula uses` };
+    return doublingTooLarge(doubling, `${doubling} variables are free and constrain nothing, ${s.unused} of them in no clause`, F);
   }
   if (F > limit) {
     const seconds = (2 ** F / 32) * cost / (2 * OPS_PER_SECOND);

@@ -1,4 +1,7 @@
 // The count command and the CLI's common behaviour, run as a child process.
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { cli } from "../helpers/cli.js";
 
@@ -56,7 +59,18 @@ describe("formulas too large to handle", () => {
   it("count refuses a count with hundreds of thousands of digits, exit 2", () => {
     const r = cli(["count", "-"], huge);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/a number of over 300,000 digits/);
+    // 2^2147483646 has floor(2147483646 log10 2) + 1 digits; the error points at the header's count.
+    expect(r.stderr).toBe("<stdin>:1:7: error: the count is a multiple of 2^2147483646 (2147483646 declared variables occur in no clause), which alone has 646,456,993 digits; hint: declare only the variables the formula uses\n");
+    // Just over the limit: 2^1000001 has 301,031 digits, as BigInt writes it out.
+    const just = cli(["count", "-"], "c a comment\n p cnf  1000002 1\n1 0\n");
+    expect(just.stderr).toBe(`<stdin>:2:9: error: the count is a multiple of 2^1000001 (1000001 declared variables occur in no clause), which alone has ${(2n ** 1000001n).toString().length.toLocaleString("en-US")} digits; hint: declare only the variables the formula uses\n`);
+  });
+  it("names the file of a count refused for its size", () => {
+    const file = join(mkdtempSync(join(tmpdir(), "cg-count-")), "wide.cnf");
+    writeFileSync(file, "p cnf 2147483647 2\n1 0\n2 0\n");
+    const r = cli(["count", file]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(new RegExp(`^${file.replace(/[.]/g, "\\.")}:1:7: error: the count is a multiple of 2\\^2147483645 .*which alone has 646,456,993 digits; hint: `));
   });
   // plan is not here: it plans at any size (test/cli/search.test.ts, "clausegate plan at any size").
   // search (and plan) default to the free register, which holds no qubit here: --register full.
@@ -65,6 +79,11 @@ describe("formulas too large to handle", () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/2147483647 (variables|qubits)/);
     expect(r.stderr).not.toMatch(/internal error/);
+  });
+  it.each(["oracle", "verify"])("%s points a header-size refusal at the header's VARIABLES count", (command) => {
+    const r = cli([command, "-", "--register", "full"], "c x\n  p  cnf   2147483647 1\n1 0\n");
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^<stdin>:2:12: error: the header declares 2147483647 variables; /);
   });
 });
 

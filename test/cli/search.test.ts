@@ -129,13 +129,13 @@ describe("clausegate plan at any size", { timeout: 60_000 }, () => {
     for (const command of ["oracle", "cost"]) {
       const r = cli([command, "-", "--register", "full"], input);
       expect(r.code).toBe(2);
-      expect(r.stderr).toBe(`<stdin>: error: the header declares 2147483647 variables; clausegate ${command} builds search registers of at most 1000000 qubits (one per declared variable with --register full); hint: declare only the variables the formula uses, or use --register free\n`);
+      expect(r.stderr).toBe(`<stdin>:1:7: error: the header declares 2147483647 variables; clausegate ${command} builds search registers of at most 1000000 qubits (one per declared variable with --register full); hint: declare only the variables the formula uses, or use --register free\n`);
     }
     for (const [args, what, hint] of [[["verify", "-", "--register", "free"], "verify", ""], [["oracle", "-", "--register", "free", "--verify"], "oracle --verify", ", or leave out --verify"], [["oracle", "-", "--register", "free", "--prove"], "oracle --prove", ", or leave out --prove"]] as const) {
       const r = cli([...args], input);
       expect(r.code).toBe(2);
       expect(r.stdout).toBe("");
-      expect(r.stderr).toBe(`<stdin>: error: the header declares 2147483647 variables; clausegate ${what} checks formulas of at most 1000000 declared variables, with --register free too (a counterexample is an assignment of every declared variable); hint: declare only the variables the formula uses${hint}\n`);
+      expect(r.stderr).toBe(`<stdin>:1:7: error: the header declares 2147483647 variables; clausegate ${what} checks formulas of at most 1000000 declared variables, with --register free too (a counterexample is an assignment of every declared variable); hint: declare only the variables the formula uses${hint}\n`);
     }
   });
   it("a free register of more than 1,000,000 qubits is refused by the commands that build or cost it (1,000,001 free variables)", () => {
