@@ -1,6 +1,6 @@
 /** `clausegate verify`: check an oracle against its formula; `oracle --verify` uses it too. */
 import {
-  DEFAULT_CONFLICT_LIMIT, loadBytes, DEFAULT_EXHAUSTIVE_LIMIT, DEFAULT_SOLVER_SECONDS, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, registerOf, withoutIdleTail, type Circuit,
+  DEFAULT_CONFLICT_LIMIT, loadBytes, DEFAULT_EXHAUSTIVE_LIMIT, DEFAULT_SOLVER_SECONDS, formatDiagnostic, MAX_EXHAUSTIVE_LIMIT, readCircuit, readCircuitJson, registerOf, withoutIdleTail, type Circuit,
   type Completion,
 } from "../internal.js";
 import { checkCheckSize, displayName, loadCnf, UserError } from "./io.js";
@@ -128,7 +128,9 @@ async function loadCircuit(path: string): Promise<Circuit> {
     const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a folder" : code === "EACCES" ? "permission denied" : code ?? "unreadable";
     throw new UserError(`clausegate verify: error: cannot read the circuit ${path} (${why}); hint: check the path given to --circuit`);
   }
-  const { circuit, diagnostics } = readCircuit(bytes);
+  // A .json file is read as the JSON circuit whatever it holds (an empty file, `null`): its
+  // errors then speak of JSON, not of the OpenQASM 3 header that sniffing the content would expect.
+  const { circuit, diagnostics } = /\.json$/i.test(path) ? readCircuitJson(bytes) : readCircuit(bytes);
   if (circuit === undefined) throw new UserError(formatDiagnostic(diagnostics[0]!, displayName(path)));
   // Idle work qubits declared at the end cost the checkers memory per qubit and change nothing.
   return withoutIdleTail(circuit);

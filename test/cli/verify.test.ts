@@ -146,6 +146,13 @@ describe("clausegate verify --circuit refuses malformed circuits with exit 2 and
     expectRefused(run("huge.json", text), /huge\.json:1:\d+: error: expected a register size in 0\.\.67108864 but found 1000000000000000/);
     expectRefused(run("huge.qasm", "OPENQASM 3.0;\nqubit[4] vars;\nqubit[123456789012] work;\n"), /huge\.qasm:3:7: error: expected a register size in 0\.\.67108864 but found 123456789012/);
   });
+  it("an empty .json file, or one holding null, gets a JSON circuit's message, not OpenQASM's", () => {
+    for (const [name, text] of [["empty.json", ""], ["null.json", "null\n"], ["blank.JSON", "  \n"]] as const) {
+      const r = run(name, text);
+      expectRefused(r, new RegExp(`${name.replace(".", "\\.")}:\\d+:\\d+: error: .+; hint: give the JSON that clausegate oracle --format json wrote$`, "m"));
+      expect(r.stderr).not.toMatch(/OPENQASM/);
+    }
+  });
   it("a missing circuit file", () => {
     expectRefused(cli(["verify", pair, "--circuit", join(dir, "absent.json")]), /^clausegate verify: error: cannot read the circuit .*absent\.json \(no such file\); hint: /);
   });
