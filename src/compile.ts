@@ -18,6 +18,9 @@ import {
 import { chooseAmong, costConstructions, countConstructionOracle, type Prefer } from "./cost/front.js";
 
 /** How to build an oracle. Every field has a default. */
+
+/** "1 qubit", "5 qubits": a budget in a message. */
+const qubitCount = (n: number): string => `${n} qubit${n === 1 ? "" : "s"}`;
 export interface OracleOptions {
   /** `phase` (default): |x> -> (-1)^f(x) |x>. `flag`: |x>|b> -> |x>|b xor f(x)>. */
   readonly kind?: OracleKind;
@@ -174,7 +177,7 @@ function planWith(cnf: Cnf, options: OracleOptions, oraclePlan: OraclePlan): Con
   const costs = costConstructions(cnf, { kind: o.kind, uncompute: o.uncompute, optimize: o.optimize, register: o.register, structure: o.structure });
   const choice = chooseAmong(costs, Q ?? Infinity, o.prefer);
   if (!choice.ok) {
-    return { ok: false, message: `no construction fits in ${Q} qubits; the smallest (${choice.smallest.construction}) needs ${choice.smallestQubits}`, smallestQubits: choice.smallestQubits };
+    return { ok: false, message: `no construction fits in ${qubitCount(Q ?? Infinity)}; the smallest (${choice.smallest.construction}) needs ${choice.smallestQubits}`, smallestQubits: choice.smallestQubits };
   }
   return { ok: true, constructions: choice.ranked.map((c) => c.construction) };
 }
@@ -213,7 +216,7 @@ export function compileOracle(cnf: Cnf, options: OracleOptions = {}): Oracle {
   const plan = planWith(cnf, options, oraclePlan);
   if (!plan.ok) throw new RangeError(plan.message);
   const oracle = compilePlanned(cnf, options, plan, oraclePlan);
-  if (oracle === null) throw new RangeError(`no construction's ${options.basis ?? DEFAULT_ORACLE_OPTIONS.basis} circuit fits in ${options.maxQubits} qubits`);
+  if (oracle === null) throw new RangeError(`no construction's ${options.basis ?? DEFAULT_ORACLE_OPTIONS.basis} circuit fits in ${qubitCount(options.maxQubits ?? Infinity)}`);
   return oracle;
 }
 
@@ -328,7 +331,7 @@ export function searchConstruction(cnf: Cnf, options: SearchOptions): { ok: true
   if (!plan.ok) {
     if (plan.smallestQubits === undefined) return plan;
     const s = withDiffusion(plan.smallestQubits);
-    return { ok: false, message: `no search circuit fits in ${Q} qubits; the smallest needs ${s} (the oracle's and the diffusion's work qubits included)`, smallestQubits: s };
+    return { ok: false, message: `no search circuit fits in ${qubitCount(Q)}; the smallest needs ${s} (the oracle's and the diffusion's work qubits included)`, smallestQubits: s };
   }
   let smallest = Infinity;
   for (const name of plan.constructions) {
@@ -339,7 +342,7 @@ export function searchConstruction(cnf: Cnf, options: SearchOptions): { ok: true
     smallest = Math.min(smallest, circuit.qubits);
   }
   const s = withDiffusion(smallest);
-  return { ok: false, message: `no search circuit fits in ${Q} qubits; the smallest needs ${s} (the oracle's and the diffusion's work qubits included)`, smallestQubits: s };
+  return { ok: false, message: `no search circuit fits in ${qubitCount(Q)}; the smallest needs ${s} (the oracle's and the diffusion's work qubits included)`, smallestQubits: s };
 }
 
 /** Qubits of the diffusion alone over n search qubits (its multi-controlled Z's tree). */

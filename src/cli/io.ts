@@ -25,6 +25,11 @@ export function oneLine(message: string): string {
   return message.replace(/[\x00-\x1f\x7f]/g, (c) => CONTROL_NAMES[c] ?? `\\x${c.charCodeAt(0).toString(16).padStart(2, "0")}`);
 }
 
+/** "1 clause", "2 clauses". */
+export function plural(n: number | bigint, word: string, many = `${word}s`): string {
+  return `${n} ${n === 1 || n === 1n ? word : many}`;
+}
+
 /** How an input is named in messages. */
 export function displayName(path: string): string {
   return path === "-" ? "<stdin>" : path;

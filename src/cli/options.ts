@@ -1,7 +1,7 @@
 /** Shared argument checks for the commands. */
 import { parseArgs, type ParseArgsConfig } from "node:util";
 import { compilePlanned, planConstruction, searchConstruction, type Cnf, type Oracle, type OracleOptions, type RegisterMode } from "../internal.js";
-import { UserError } from "./io.js";
+import { plural, UserError } from "./io.js";
 
 /**
  * Node's parseArgs, refusing an option given twice with different values: parseArgs keeps the
@@ -172,7 +172,7 @@ export function compileWithOptions(cnf: Cnf, o: CliOracleOptions, command: strin
   if (!plan.ok) throw new UserError(`clausegate ${command}: error: ${plan.message}; hint: ${planHint(o, plan.smallestQubits, command)}`);
   const oracle = compilePlanned(cnf, o, plan);
   if (oracle === null) {
-    throw new UserError(`clausegate ${command}: error: no construction's ${o.basis} circuit fits in ${o.maxQubits} qubits; hint: raise --max-qubits, or try --basis clifford+t`);
+    throw new UserError(`clausegate ${command}: error: no construction's ${o.basis} circuit fits in ${plural(o.maxQubits ?? Infinity, "qubit")}; hint: raise --max-qubits, or try --basis clifford+t`);
   }
   return oracle;
 }

@@ -364,7 +364,7 @@ function budgetCommand(cnf: Cnf, head: string, o: RegisterChoice & { kind: "phas
     for (const uncompute of modes) {
       const choice = chooseAmong(costConstructions(cnf, { kind: o.kind, uncompute, register: o.register, structure: o.structure }), o.maxQubits, o.prefer);
       if (!choice.ok) {
-        throw new UserError(`clausegate cost: error: no construction fits in ${o.maxQubits} qubits; the smallest (${choice.smallest.construction}) needs ${choice.smallestQubits}; hint: give --max-qubits ${choice.smallestQubits} or more`);
+        throw new UserError(`clausegate cost: error: no construction fits in ${plural(o.maxQubits, "qubit")}; the smallest (${choice.smallest.construction}) needs ${choice.smallestQubits}; hint: give --max-qubits ${choice.smallestQubits} or more`);
       }
       rows.push(constructionRow(cnf, o.kind, choice.chosen, uncompute, o));
     }
@@ -381,7 +381,7 @@ function budgetCommand(cnf: Cnf, head: string, o: RegisterChoice & { kind: "phas
     ...[r.construction, r.uncompute, r.qubits, r.toffoli_count, r.t_count, r.t_depth, r.cnot_count, r.depth].map(String),
     ...(bounds ? [r.exact ? "exact" : "upper bound"] : []),
   ]);
-  process.stdout.write(`${head}\n${reg.text}\nwithin ${o.maxQubits} qubits, preferring ${o.prefer}:\n`);
+  process.stdout.write(`${head}\n${reg.text}\nwithin ${plural(o.maxQubits, "qubit")}, preferring ${o.prefer}:\n`);
   process.stdout.write(`${table(["construction", "uncompute", "qubits", "Toffolis", "T-count", "T-depth", "CNOTs", "depth", ...(bounds ? ["figures"] : [])], body, (i) => i < 2)}\n`);
   return 0;
 }

@@ -7,7 +7,7 @@ import {
   completeModel, evaluate, reduceSearch, registerOf, type Cnf, type Oracle, type RegisterMode, type RegisterPlan,
   type StructureSummary,
 } from "../internal.js";
-import { UserError } from "./io.js";
+import { plural, UserError } from "./io.js";
 
 /** Full registers are listed in JSON up to this many qubits (beyond, `register` is null: vars[v-1] is v). */
 const LIST_FULL_UP_TO = 1 << 20;
@@ -70,7 +70,7 @@ export function structureJson(s: StructureSummary | null) {
 }
 
 /** "1 clause", "2 clauses". */
-export const plural = (n: number, one: string, many = `${one}s`): string => `${n} ${n === 1 ? one : many}`;
+export { plural };
 
 /** "1 2 3", or (unless `all`) the first 48 and how many more. */
 function listText(vs: ArrayLike<number>, all: boolean): string {

@@ -5,7 +5,7 @@ import {
   successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type ScheduleRound, type SearchPlan,
   type Solutions,
 } from "../internal.js";
-import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, progress, UserError, writeAtomic } from "./io.js";
+import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, plural, progress, UserError, writeAtomic } from "./io.js";
 import { claimStdout, printLater } from "./output.js";
 import {
   basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
@@ -119,11 +119,6 @@ ${registerHelp("full")}
 Exit codes: 0, 2 bad input or a circuit too large to draw, 3 with --search when the formula is
 unsatisfiable and --iterations is not given.
 `;
-
-/** "1 clause", "2 clauses". */
-function plural(n: number | bigint, word: string, many = `${word}s`): string {
-  return `${n} ${n === 1 || n === 1n ? word : many}`;
-}
 
 /**
  * A double for people: `digits` significant digits below 10^digits, whole above it (the values

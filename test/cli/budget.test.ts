@@ -92,6 +92,17 @@ describe("budgets on the command line", { timeout: 120_000 }, () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/error: no construction fits in 21 qubits; the smallest \(\S+\) needs 22; hint: give --max-qubits 22 or more/);
   });
+  it("says 1 qubit, not 1 qubits, for a budget of one", () => {
+    for (const [args, line] of [
+      [["oracle", EX, "--max-qubits", "1"], /^clausegate oracle: error: no construction fits in 1 qubit; the smallest/m],
+      [["cost", EX, "--max-qubits", "1"], /^clausegate cost: error: no construction fits in 1 qubit; the smallest/m],
+      [["search", EX, "--max-qubits", "1", "--iterations", "1"], /^clausegate search: error: no search circuit fits in 1 qubit; the smallest/m],
+    ] as const) {
+      const r = cli([...args]);
+      expect(r.code).toBe(2);
+      expect(r.stderr).toMatch(line);
+    }
+  });
   it("--prefer t-depth trades T gates for depth", () => {
     const a = join(dir, "c.json");
     const b = join(dir, "d.json");
