@@ -15,7 +15,7 @@ import {
 import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
 import { choice, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
 import { plural, registerText, searchProblem } from "./register.js";
-import { claimStdout, printLater } from "./output.js";
+import { claimOutput, printLater } from "./output.js";
 
 /** Seconds the classical evaluator is timed on each formula. */
 const MEASURE_SECONDS = 0.2;
@@ -542,8 +542,8 @@ export async function forecastCommand(argv: string[]): Promise<number> {
     }
   }
   const full: Machine = { ...DEFAULT_MACHINE, ...machine };
-  claimStdout("the forecast", "-");
-  claimStdout("the plot", values.plot);
+  claimOutput("the forecast", "-");
+  claimOutput("the plot", values.plot);
 
   const rows: Row[] = [];
   let unsatisfiable = false;

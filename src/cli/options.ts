@@ -2,6 +2,7 @@
 import { parseArgs, type ParseArgsConfig } from "node:util";
 import { compilePlanned, planConstruction, searchConstruction, type Cnf, type Oracle, type OracleOptions, type RegisterMode } from "../internal.js";
 import { plural, UserError } from "./io.js";
+import { noteInput } from "./output.js";
 
 /**
  * Node's parseArgs, refusing an option given twice with different values: parseArgs keeps the
@@ -29,6 +30,8 @@ export function oneInput(positionals: string[], command: string): string {
       `clausegate ${command}: error: expected one input file (or - for standard input) but got ${positionals.length}; hint: see clausegate ${command} --help`,
     );
   }
+  // Noted now, so that an output's destination, checked before the input is read, may not be it.
+  noteInput(positionals[0]!);
   return positionals[0]!;
 }
 

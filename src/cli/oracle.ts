@@ -4,7 +4,7 @@ import {
   type CostRow, type Oracle, type RegisterMode,
 } from "../internal.js";
 import { checkCheckSize, checkCircuitSize, checkFreeRegister, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
-import { claimStdout } from "./output.js";
+import { claimOutput } from "./output.js";
 import { checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
 import {
@@ -151,8 +151,8 @@ export async function oracleCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "oracle");
   const format = choice(values.format, "--format", FORMATS, "qasm3");
   const options = oracleOptions(values);
-  claimStdout("the report", values.report);
-  claimStdout("the circuit", values.output ?? "-");
+  claimOutput("the report", values.report);
+  claimOutput("the circuit", values.output ?? "-");
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "oracle", options.register);
   if (values.verify || values.prove) checkCheckSize(cnf, file, values.prove ? "oracle --prove" : "oracle --verify");
@@ -228,8 +228,8 @@ export async function costCommand(argv: string[]): Promise<number> {
   const threads = intOption(values.threads, "--threads", 1, 2);
   if (threads !== undefined && (values.front || maxQubits !== undefined)) throw new UserError("clausegate cost: error: --threads shares the table's runs; --front and --max-qubits count on one thread; hint: leave out --threads");
   const prefer = choice(values.prefer, "--prefer", ["t-count", "t-depth"] as const, "t-count");
-  claimStdout("the cost front", "-");
-  claimStdout("the plot", values.plot);
+  claimOutput("the cost front", "-");
+  claimOutput("the plot", values.plot);
   const cnf = await loadCnf(file);
   checkCircuitSize(cnf, file, "cost", reg.register);
   // The register lines and both tables plan the same formula: once each (sharingPlans).

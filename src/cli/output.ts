@@ -14,7 +14,7 @@
  */
 import { randomBytes } from "node:crypto";
 import {
-  chmodSync, chownSync, closeSync, fstatSync, lstatSync, openSync, realpathSync, renameSync, rmSync, statSync, writeSync,
+  chmodSync, chownSync, closeSync, existsSync, fstatSync, lstatSync, openSync, realpathSync, renameSync, rmSync, statSync, writeSync,
   type Stats,
 } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
@@ -61,6 +61,7 @@ function kindOf(s: Stats): string {
  * destination already claimed by this run.
  */
 function destination(path: string, what: string): { dest: string; existing: Stats | undefined } {
+  if (path === "") throw new OutputError(`clausegate: error: the path given for ${what} is empty; hint: name a file, or - for standard output`);
   let dest = resolve(path);
   let existing: Stats | undefined;
   try {
@@ -78,6 +79,12 @@ function destination(path: string, what: string): { dest: string; existing: Stat
     // A name too long, a path through a regular file, a folder not readable: nothing can be
     // written there; said in one line, as for the write itself.
     if ((e as { code?: string }).code !== "ENOENT") throw new OutputError(`${path}: error: cannot write ${what} (${reason(e)}); hint: name a writable file`);
+    // No such file: its folder must exist (said now, not after the work that makes the output).
+    try {
+      if (!statSync(dirname(dest)).isDirectory()) throw Object.assign(new Error("ENOTDIR"), { code: "ENOTDIR" });
+    } catch (f) {
+      throw new OutputError(`${path}: error: cannot write ${what} (${reason(f, dest)}); hint: check that the folder exists, is writable and has space`);
+    }
   }
   if (existing !== undefined && !existing.isFile()) {
     throw new OutputError(`${path}: error: refusing to replace ${kindOf(existing)} with ${what}; hint: name a regular file${existing.isDirectory() ? " inside it" : ", or - for standard output"}`);
@@ -97,16 +104,22 @@ function destination(path: string, what: string): { dest: string; existing: Stat
   const keys = existing !== undefined ? [key, fileId(existing)] : [key];
   for (const k of keys) {
     const other = claimed.get(k);
-    if (other !== undefined) throw new OutputError(`${path}: error: ${what} and ${other} name the same file; hint: give them different paths`);
+    // The same output claimed again (checked when the arguments were read, then written) is no clash.
+    if (other !== undefined && other !== what) throw new OutputError(`${path}: error: ${what} and ${other} name the same file; hint: give them different paths`);
   }
   for (const k of keys) claimed.set(k, what);
   return { dest, existing };
 }
 
-function reason(e: unknown): string {
+/**
+ * A short human reason for a file-system error. ENOENT is "no such folder" only when the
+ * destination's folder is missing (`dest`); elsewhere (a file system that makes no files there,
+ * such as /proc) it is the errno's own meaning.
+ */
+function reason(e: unknown, dest?: string): string {
   const code = (e as { code?: string }).code;
   switch (code) {
-    case "ENOENT": return "no such folder";
+    case "ENOENT": return dest === undefined || !existsSync(dirname(dest)) ? "no such folder" : errnoMeaning(e);
     case "EISDIR": return "it is a folder";
     case "EACCES": case "EPERM": return "permission denied";
     case "ENOSPC": return "no space left on the device";
@@ -114,8 +127,16 @@ function reason(e: unknown): string {
     case "EROFS": return "read-only file system";
     case "ENAMETOOLONG": return "the name is too long";
     case "ENOTDIR": return "a part of the path is not a folder";
-    default: return code ?? String(e);
+    default: return errnoMeaning(e);
   }
+}
+
+/** The errno's meaning as Node words it ("no such file or directory"), with its code. */
+function errnoMeaning(e: unknown): string {
+  const code = (e as { code?: string }).code;
+  const m = /^[A-Z0-9_]+: ([^,]+)/.exec((e as { message?: string }).message ?? "");
+  if (code === undefined) return String(e);
+  return m === null ? code : `${m[1]} (${code})`;
 }
 
 /** Is this error a file-system failure (to be reported in one line), rather than a bug? */
@@ -153,7 +174,7 @@ export function writeOutput(path: string, what: string, produce: (write: (chunk:
   } catch (e) {
     if (fd >= 0) closeSync(fd);
     if (!isIoError(e)) throw e;
-    throw new OutputError(`${path}: error: cannot write ${what} (${reason(e)}); hint: check that the folder exists, is writable and has space`);
+    throw new OutputError(`${path}: error: cannot write ${what} (${reason(e, dest)}); hint: check that the folder exists, is writable and has space`);
   }
 }
 
@@ -179,12 +200,16 @@ function destinationStdout(what: string): void {
 }
 
 /**
- * Claims standard output for `what` when `path` is "-" (text a command prints passes "-"). A command
- * claims every output that goes there before it writes any of them: a clash found only at the
- * second output would come after the first had already reached standard output.
+ * Claims an output's destination right after the arguments are read, before any input is read or
+ * any work done: standard output for `what` when `path` is "-" (text a command prints passes "-"),
+ * else the file, checked as writing it will check it (an empty path, a missing folder, a folder,
+ * device or input in its place, another output of the run on the same file). A command claims
+ * every output before it writes any of them: a clash found only at the second output would come
+ * after the first had already reached standard output, or after minutes of compiling.
  */
-export function claimStdout(what: string, path: string | undefined): void {
+export function claimOutput(what: string, path: string | undefined): void {
   if (path === "-") destinationStdout(what);
+  else if (path !== undefined) destination(path, what);
 }
 
 /** Writes to standard output now (streamed output; synchronous for files and pipes on Linux). */

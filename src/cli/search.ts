@@ -6,7 +6,7 @@ import {
   type Solutions,
 } from "../internal.js";
 import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, plural, progress, UserError, writeAtomic } from "./io.js";
-import { claimStdout, printLater } from "./output.js";
+import { claimOutput, printLater } from "./output.js";
 import {
   basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
   parseCommandArgs, registerHelp, registerOptions, settleSearchOptions, type CliOracleOptions,
@@ -370,8 +370,8 @@ export async function planCommand(argv: string[]): Promise<number> {
   const file = oneInput(positionals, "plan");
   const seed = intOption(values.simulate, "--simulate", 0, 2 ** 31 - 1);
   const reg = registerOptions(values, "free");
-  claimStdout("the plan", "-");
-  claimStdout("the plot", values.plot);
+  claimOutput("the plan", "-");
+  claimOutput("the plot", values.plot);
   const original = await loadCnf(file);
   const problem = searchProblem(original, reg);
   const n = problem.n;
@@ -495,11 +495,11 @@ export async function searchCommand(argv: string[]): Promise<number> {
   const sampling = shotsOptions(values);
   if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
   // Every output that goes to standard output is claimed before any is written.
-  if (sampling.complete !== undefined) claimStdout("the completions", "-");
+  if (sampling.complete !== undefined) claimOutput("the completions", "-");
   else {
-    if (sampling.shots !== undefined) claimStdout("the shots", "-");
-    claimStdout("the report", values.report);
-    claimStdout("the circuit", sampling.shots !== undefined ? values.output : values.output ?? "-");
+    if (sampling.shots !== undefined) claimOutput("the shots", "-");
+    claimOutput("the report", values.report);
+    claimOutput("the circuit", sampling.shots !== undefined ? values.output : values.output ?? "-");
   }
   const original = await loadCnf(file);
   if (o.register === "full") checkCircuitSize(original, file, "search");
@@ -670,6 +670,7 @@ export async function drawCommand(argv: string[]): Promise<number> {
   if (values.iterations !== undefined && values.search !== true) throw new UserError("clausegate draw: error: --iterations sets the iterations of a search; hint: add --search, or leave out --iterations to draw the oracle");
   let o = oracleOptions(values);
   if (values.search && o.kind === "flag") throw new UserError("clausegate draw: error: a search uses the phase oracle; hint: leave out --kind flag, or leave out --search to draw the flag oracle");
+  claimOutput("the drawing", values.output);
   const cnf = await loadCnf(file);
   const what = values.search ? "search circuit" : "oracle";
   const register = searchProblem(cnf, o);

@@ -92,6 +92,43 @@ describe("output destinations", () => {
     expect(readFileSync(join(sub, "a"), "utf8")).toBe("x\n");
     expect(leftovers(sub)).toEqual([]);
   });
+  it("refuses an empty path, for every output of every command that writes files, in one line naming the command", () => {
+    const cases: [string[], string][] = [
+      [["oracle", EXAMPLE, "-o", ""], "clausegate oracle: error: the path given for the circuit is empty"],
+      [["oracle", EXAMPLE, "--report", ""], "clausegate oracle: error: the path given for the report is empty"],
+      [["search", EXAMPLE, "--iterations", "1", "-o", ""], "clausegate search: error: the path given for the circuit is empty"],
+      [["search", EXAMPLE, "--iterations", "1", "--report", ""], "clausegate search: error: the path given for the report is empty"],
+      [["draw", EXAMPLE, "-o", ""], "clausegate draw: error: the path given for the drawing is empty"],
+      [["cost", EXAMPLE, "--front", "--plot", ""], "clausegate cost: error: the path given for the plot is empty"],
+      [["plan", EXAMPLE, "--plot", ""], "clausegate plan: error: the path given for the plot is empty"],
+      [["forecast", EXAMPLE, "--plot", ""], "clausegate forecast: error: the path given for the plot is empty"],
+    ];
+    for (const [args, start] of cases) {
+      const r = cli(args);
+      expect(r.code, args.join(" ")).toBe(2);
+      expect(r.stdout).toBe("");
+      expect(r.stderr).toBe(`${start}; hint: name a file, or - for standard output\n`);
+    }
+  });
+  it("checks every destination before reading the input: a bad one is refused even when the input is malformed or missing", () => {
+    const bad = join(dir, "malformed.cnf");
+    writeFileSync(bad, "p cnf 2 1\n1 3 0\n");
+    const folder = cli(["oracle", bad, "-o", dir]);
+    expect(folder.stderr).toBe(`${dir}: error: refusing to replace a folder with the circuit; hint: name a regular file inside it\n`);
+    const missing = cli(["search", join(dir, "absent.cnf"), "--iterations", "1", "--report", join(dir, "no", "such", "r.json")]);
+    expect(missing.stderr).toBe(`${join(dir, "no", "such", "r.json")}: error: cannot write the report (no such folder); hint: check that the folder exists, is writable and has space\n`);
+    const same = cli(["oracle", bad, "-o", join(dir, "s.qasm"), "--report", join(dir, "s.qasm")]);
+    expect(same.stderr).toMatch(/^\S+s\.qasm: error: the \w+ and the \w+ name the same file; hint: /);
+    const input = cli(["draw", bad, "-o", bad]);
+    expect(input.stderr).toBe(`${bad}: error: the drawing would replace the input ${bad}; hint: write it to another file\n`);
+    for (const r of [folder, missing, same, input]) expect(r.code).toBe(2);
+  });
+  it.skipIf(!existsSync("/proc/self"))("gives the errno's own meaning when the folder exists but no file can be made there (/proc)", () => {
+    const r = cli(["oracle", EXAMPLE, "-o", "/proc/cg-x.qasm"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^\/proc\/cg-x\.qasm: error: cannot write the circuit \(no such file or directory \(ENOENT\)\); hint: /m);
+    expect(r.stderr).not.toMatch(/no such folder/);
+  });
   it("writes a legal 255-byte file name (short temporary names)", () => {
     const name = join(dir, "o".repeat(250) + ".qasm");
     const r = cli(["oracle", EXAMPLE, "-o", name]);
