@@ -7,6 +7,11 @@ import { checkCheckSize, displayName, loadCnf, UserError } from "./io.js";
 import { choice, compileWithOptions, oneInput, ORACLE_ARGS, parseCommandArgs, ORACLE_HELP, oracleOptions, REGISTER_ARGS, registerHelp, registerOptions } from "./options.js";
 import { checkJson, checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 
+/** ORACLE_HELP with verify's own --kind line: with --circuit, the kind is read from the circuit unless given. */
+const VERIFY_ORACLE_HELP = ORACLE_HELP.replace(/^ {2}--kind .*$/m, `  --kind phase|flag           phase: |x> -> (-1)^f(x)|x>; flag: |x>|b> -> |x>|b xor f(x)>. Without --circuit,
+                              phase by default; with --circuit and no --kind, read from the circuit (flag
+                              when it has a target register, else phase)`);
+
 export const verifyHelp = `Usage: clausegate verify FILE|- [--circuit CIRCUIT|- [--kind phase|flag]] [options]
 
 Checks that a circuit is an oracle for the formula: for every checked assignment x, the phase
@@ -39,7 +44,7 @@ oracle gives with the same options).
 
 Options:
   --circuit FILE|-            the circuit to check (.json or OpenQASM 3; - for standard input)
-${ORACLE_HELP}
+${VERIFY_ORACLE_HELP}
                               (--strategy, --construction, --max-qubits, --prefer, --basis, --uncompute,
                               --no-optimize and --check-passes apply only without --circuit)
 ${registerHelp("full")}

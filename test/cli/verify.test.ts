@@ -170,6 +170,17 @@ describe("clausegate verify --circuit refuses the options that only shape a comp
     expect(cli(["verify", "examples/allotment-pair.cnf", "--circuit", out, "--kind", "phase"]).code).toBe(0);
     expect(cli(["verify", "--help"]).stdout).toMatch(/only --kind of the\s+oracle options applies then/);
   });
+  it("--help says that with --circuit and no --kind the kind is read from the circuit, not phase by default", () => {
+    const help = cli(["verify", "--help"]).stdout;
+    const kind = help.slice(help.indexOf("  --kind"), help.indexOf("  --strategy"));
+    expect(kind).toMatch(/Without --circuit,\s+phase by default; with --circuit and no --kind, read from the circuit/);
+    expect(kind).not.toMatch(/\(default\)/);
+    // As it says: a flag circuit checks as flag with no --kind.
+    const flag = join(dir, "flag.json");
+    expect(cli(["oracle", "examples/allotment-pair.cnf", "--kind", "flag", "--format", "json", "-o", flag]).code).toBe(0);
+    const r = cli(["verify", "examples/allotment-pair.cnf", "--circuit", flag, "--json"]);
+    expect(r.code, r.stderr).toBe(0);
+  });
 });
 
 describe.skipIf(!haveSatlib)("clausegate verify --sample on SATLIB (Hoos & Stuetzle 2000) formulas", () => {
