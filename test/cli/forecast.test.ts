@@ -4,7 +4,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync } from "no
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { cli } from "../helpers/cli.js";
+import { cli, ROOT } from "../helpers/cli.js";
 import { checkXml, countClass } from "../helpers/xml.js";
 
 const dir = mkdtempSync(join(tmpdir(), "cg-forecast-"));
@@ -200,5 +200,16 @@ describe("a family at growing sizes", () => {
     const out = join(dir, "never.svg");
     expect(cli(["forecast", ...files, "--plot", out, "--error-rate", "5"]).code).toBe(2);
     expect(existsSync(out)).toBe(false);
+  });
+});
+
+describe("the README's command summary", () => {
+  it("lists every option that forecast --help lists", () => {
+    const readme = readFileSync(join(ROOT, "README.md"), "utf8");
+    const start = readme.indexOf("clausegate forecast FILE...");
+    const summary = readme.slice(start, readme.indexOf("```", start));
+    const options = [...cli(["forecast", "--help"]).stdout.matchAll(/^ {2}(--[\w-]+)/gm)].map((m) => m[1]!).filter((o) => o !== "--help");
+    expect(options).toContain("--logical-model");
+    for (const o of options) expect(summary, o).toContain(o);
   });
 });
