@@ -457,7 +457,7 @@ function checkSearchSize(file: string, cnf: Cnf, n: number, o: CliOracleOptions,
   const hint = (fits: number): string => `hint: ${fits > 0 ? `--iterations ${fits} or fewer fits` : "no number of iterations fits"}, or clausegate plan ${displayName(file)} gives the numbers only`;
   const lower = K * (2 * n + 2) + 2 * n;
   if (lower > MAX_SEARCH_GATES) {
-    throw new UserError(`clausegate search: error: ${K} iterations on ${plural(n, "search qubit")} make a circuit of more than ${lower} gates; clausegate search builds at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(estimateSearch(cnf, o, 1), MAX_SEARCH_GATES))}`);
+    throw new UserError(`clausegate search: error: ${plural(K, "iteration")} on ${plural(n, "search qubit")} make a circuit of more than ${lower} gates; clausegate search builds at most ${MAX_SEARCH_GATES}; ${hint(iterationsWithin(estimateSearch(cnf, o, 1), MAX_SEARCH_GATES))}`);
   }
   if (K < 3) return; // at most about three oracles: as cheap to build as to estimate
   const e = estimateSearch(cnf, o, K);

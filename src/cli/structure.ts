@@ -1,6 +1,6 @@
 /** `clausegate structure FILE|-`: the gate definitions, parities and groups recovered from a formula. */
 import { clauseCount, recoverStructure, type Definition, type DefinitionKind, type Structure } from "../internal.js";
-import { loadCnf, UserError, writeStdout } from "./io.js";
+import { loadCnf, plural, UserError, writeStdout } from "./io.js";
 import { oneInput, parseCommandArgs } from "./options.js";
 
 export const structureHelp = `Usage: clausegate structure FILE|- [options]
@@ -126,19 +126,19 @@ function textLines(s: Structure, clauses: number): string[] {
   out.push(`clauses            ${clauses}${dropped.length ? ` (dropped ${dropped.join(", ")})` : ""}`);
   out.push(`free variables     ${s.free.length}${s.free.length ? `: ${list(s.free)}` : ""}`);
   if (s.unused) out.push(`                   plus ${s.unused} declared variable${s.unused === 1 ? "" : "s"} in no clause (any value)`);
-  out.push(`definitions        ${s.definitions.length}${s.definitions.length ? ` (${r.definitionClauses} clauses)` : ""}`);
+  out.push(`definitions        ${s.definitions.length}${s.definitions.length ? ` (${plural(r.definitionClauses, "clause")})` : ""}`);
   for (const kind of KIND_ORDER) {
     const ds = s.definitions.filter((d) => d.kind === kind);
     if (ds.length === 0) continue;
     out.push(`  ${kind.padEnd(6)} ${String(ds.length).padStart(7)}   e.g. ${ds.slice(0, EXAMPLES).map(formula).join("; ")}`);
   }
-  out.push(`parity constraints ${s.parities.length}${s.parities.length ? ` (${r.parityClauses} clauses)` : ""}`);
+  out.push(`parity constraints ${s.parities.length}${s.parities.length ? ` (${plural(r.parityClauses, "clause")})` : ""}`);
   if (s.parities.length) {
     out.push(`                   e.g. ${s.parities.slice(0, EXAMPLES).map((p) => `XOR(${p.variables.join(", ")}) = ${p.parity}`).join("; ")}`);
   }
   const eo = s.groups.filter((g) => g.exactlyOne);
   const amo = s.groups.filter((g) => !g.exactlyOne);
-  out.push(`groups             ${eo.length} exactly-one, ${amo.length} at-most-one${s.groups.length ? ` (${r.groupClauses} clauses)` : ""}`);
+  out.push(`groups             ${eo.length} exactly-one, ${amo.length} at-most-one${s.groups.length ? ` (${plural(r.groupClauses, "clause")})` : ""}`);
   for (const [name, gs] of [["exactly one of", eo], ["at most one of", amo]] as const) {
     if (gs.length) out.push(`                   e.g. ${gs.slice(0, EXAMPLES).map((g) => `${name} {${g.variables.join(", ")}}`).join("; ")}`);
   }
