@@ -42,8 +42,10 @@ const SPLIT_FROM_SECONDS = 3;
 /**
  * A run estimated to hold more than this stays on the main thread (see costTables), so that two
  * such runs never overlap. Below it two runs may: a million random 3-SAT clauses' wide and
- * textbook runs, some 210 MB each, are shared, which balances the threads (main 13.9 s and worker
- * 7.4 s of estimated work when they stayed here).
+ * textbook runs (165-210 MB each with their id tables and AND records) are shared. Measured
+ * (quiet machine, same table): sharing them 14.3-14.7 s and 663-667 MB; keeping them here one
+ * after another 16.7-17.5 s and 562-600 MB. Two sweeps at once slow each other by a fifth or so
+ * (the work is memory-bound), so sharing saves less than the estimates say.
  */
 const HEAVY_BYTES = 256 << 20;
 
