@@ -265,7 +265,7 @@ export class CountingEngine implements InstanceSink, WalkStore {
     this.cs = 8 * this.depth;
     this.wireMemory = opts.wireMemory ?? null;
     this.growWires(Math.max(64, this.base + 64, opts.wires ?? 0));
-    this.reuse = new WireReuse(this.base, opts.ids ?? 0);
+    this.reuse = new WireReuse(this.base, opts.ids ?? 0, (opts.keepFreed ?? 0) > 0);
     this.truncated = opts.truncated ?? null;
     this.keepFreed = opts.keepFreed ?? 0;
   }

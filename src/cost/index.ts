@@ -481,7 +481,7 @@ const BYTES_PER_WIRE = 54;
 const BYTES_PER_INSTANCE = 64;
 const SWEEP_BYTES_PER_WIRE = 30;
 /** Bytes per id of a wide or textbook run: reuse's wire and free tables, the ids' stack, the lowering's flips and records' places. */
-const BYTES_PER_ID = 21;
+const BYTES_PER_ID = 17;
 /** Bytes per literal of a block-counter run (blocks.ts, leanBlocks.ts: occurrences, blocks, clause of each place). */
 const BLOCK_BYTES_PER_LITERAL = 24;
 

@@ -7,15 +7,20 @@ export class WireReuse {
   private wireOf: Int32Array;
   /** Wires given back, a stack (reuse takes the last one given back). */
   private free = new Int32Array(256);
-  /** The instance at which each wire of `free` was freed. */
+  /** The instance at which each wire of `free` was freed (kept only when `timed`). */
   private at = new Int32Array(256);
   private top = 0;
   /** Work wires made so far: wires base .. base + workWires - 1. */
   workWires = 0;
 
-  /** `base`: ids below it are wires themselves; `ids`: ids expected (sizes the table once). */
-  constructor(private base: number, ids: number) {
+  /**
+   * `base`: ids below it are wires themselves; `ids`: ids expected (sizes the table once);
+   * `timed`: keep when each free wire was freed, for freedAt (a wide oracle's uncomputation frees
+   * millions of wires: 4 bytes each that only searchCosts' runs read).
+   */
+  constructor(private base: number, ids: number, private readonly timed = true) {
     this.wireOf = new Int32Array(Math.max(1024, ids)).fill(-1);
+    if (!timed) this.at = new Int32Array(0);
   }
 
   /** The wire of id v (taken now if v has none). */
@@ -40,17 +45,20 @@ export class WireReuse {
       const f = new Int32Array(this.free.length * 2);
       f.set(this.free);
       this.free = f;
-      const g = new Int32Array(this.at.length * 2);
-      g.set(this.at);
-      this.at = g;
+      if (this.timed) {
+        const g = new Int32Array(this.at.length * 2);
+        g.set(this.at);
+        this.at = g;
+      }
     }
-    this.at[this.top] = id;
+    if (this.timed) this.at[this.top] = id;
     this.free[this.top++] = this.wireOf[v]!;
     this.wireOf[v] = -1;
   }
 
   /** The instances at which the last `keep` wires still free were freed, oldest first. */
   freedAt(keep: number): Int32Array {
+    if (!this.timed) throw new Error("freedAt needs a WireReuse made timed");
     return this.at.slice(Math.max(0, this.top - keep), this.top);
   }
 

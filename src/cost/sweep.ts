@@ -277,7 +277,7 @@ export class SweepCounter implements InstanceSink, WalkStore {
     this.wireMemory = opts.wireMemory ?? null;
     this.keepFreed = opts.keepFreed ?? 0;
     this.growWires(Math.max(64, opts.base + 64, opts.wires ?? 0));
-    this.reuse = new WireReuse(opts.base, opts.ids ?? 0);
+    this.reuse = new WireReuse(opts.base, opts.ids ?? 0, (opts.keepFreed ?? 0) > 0);
   }
 
   /** Bytes per wire of the tables below. */

@@ -9,6 +9,7 @@ import { describe, expect, it } from "vitest";
 import { ROOT } from "../helpers/cli.js";
 import { cnfFromClauses, scanDimacs, type Cnf } from "../helpers/lib.js";
 import { run } from "../../dist/src/cost/run.js";
+import { WireReuse } from "../../dist/src/cost/reuse.js";
 import { sweepCount } from "../../dist/src/cost/sweep.js";
 import { LoweringStream, VirtualIds } from "../../dist/src/cost/lowering.js";
 import { leanOracle, textbookOracle, wideOracle } from "../../dist/src/cost/sources.js";
@@ -100,5 +101,26 @@ describe("sweepCount", () => {
       expect(r.swept, kind).not.toBeNull();
       expect(figures(r.swept as unknown as Record<string, unknown>)).toEqual(figures(r.engine as unknown as Record<string, unknown>));
     }
+  });
+});
+
+describe("work-wire reuse (reuse.ts)", () => {
+  it("keeps when each free wire was freed only when timed (searchCosts' runs read it; the cost table's do not)", () => {
+    const timed = new WireReuse(2, 16);
+    const untimed = new WireReuse(2, 16, false);
+    for (const r of [timed, untimed]) {
+      // Ids 2..5 take wires 2..5; 3 and 5 are freed after instances 7 and 9; id 6 takes 5 again.
+      for (let v = 2; v < 6; v++) expect(r.wireFor(v)).toBe(v);
+      r.release(3, 7);
+      r.release(5, 9);
+      expect(r.wireFor(6)).toBe(5);
+    }
+    expect([...timed.freedAt(4)]).toEqual([7]);
+    expect(() => untimed.freedAt(4)).toThrow(/timed/);
+    // Past the first 256 frees (the tables grow) the times still come out in order.
+    const many = new WireReuse(0, 1024);
+    for (let v = 0; v < 600; v++) many.wireFor(v);
+    for (let v = 0; v < 600; v++) many.release(v, 1000 + v);
+    expect([...many.freedAt(3)]).toEqual([1597, 1598, 1599]);
   });
 });
