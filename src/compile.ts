@@ -17,10 +17,10 @@ import {
 } from "./synth/index.js";
 import { chooseAmong, costConstructions, countConstructionOracle, type Prefer } from "./cost/front.js";
 
-/** How to build an oracle. Every field has a default. */
-
 /** "1 qubit", "5 qubits": a budget in a message. */
 const qubitCount = (n: number): string => `${n} qubit${n === 1 ? "" : "s"}`;
+
+/** How to build an oracle. Every field has a default. */
 export interface OracleOptions {
   /** `phase` (default): |x> -> (-1)^f(x) |x>. `flag`: |x>|b> -> |x>|b xor f(x)>. */
   readonly kind?: OracleKind;
