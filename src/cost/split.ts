@@ -128,7 +128,7 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
       }));
       current = 0;
       myDone += x.r.weight;
-      collectBetweenRuns();
+      collectBetweenRuns(x.r.bytes);
       report();
     }
     if (worker !== null) {

@@ -30,7 +30,7 @@ function work(job: SplitJob): void {
     results.push(c.count(r, (f) => (done[0] = finished + Math.min(1, Math.max(0, f)) * r.weight)));
     finished += r.weight;
     done[0] = finished;
-    collectBetweenRuns();
+    collectBetweenRuns(r.bytes);
   }
   parentPort!.postMessage({ results });
 }
