@@ -51,7 +51,7 @@ describe("costTables", () => {
     expect((await costTables(cnf, "phase", [{ structure: false }], { threads: 2, splitFrom: 0, earlyFrom: 0, worker: missing }))[0]).toStrictEqual(expected);
   });
 
-  it("collects garbage after each run on this thread where the host exposes it (the command does), and only then", async () => {
+  it("collects garbage only after large runs (64 MB estimated), and only where the host exposes it", async () => {
     const cnf = randomKSat(10, 40, 3, 17);
     const g = globalThis as { gc?: unknown };
     const before = g.gc;
@@ -59,8 +59,9 @@ describe("costTables", () => {
     g.gc = () => void calls++;
     try {
       const [rows] = await costTables(cnf, "phase", [{ structure: false }], { threads: 1 });
-      // Two runs a row: Clifford+T and the toffoli basis.
-      expect(calls).toBe(rows!.length * 2);
+      // Ten variables: every run is small, none is followed by a full collection.
+      expect(rows!.length).toBeGreaterThan(0);
+      expect(calls).toBe(0);
     } finally {
       g.gc = before;
     }
