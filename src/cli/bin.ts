@@ -1,13 +1,8 @@
 #!/usr/bin/env node
 // Entry point of the clausegate command.
-import { setFlagsFromString } from "node:v8";
-import { runInNewContext } from "node:vm";
+// First, so that the flag is set before any other module runs (see exposeGc.ts).
+import "./exposeGc.js";
 import { discardOutputs } from "./output.js";
-
-// A garbage collection on call, for cost's runs (cost/split.ts collectBetweenRuns): the flag set
-// now reaches the worker threads' contexts, made later; this context gets the function from a new one.
-setFlagsFromString("--expose-gc");
-(globalThis as { gc?: unknown }).gc ??= runInNewContext("gc");
 import { main } from "./main.js";
 
 process.stdout.on("error", (e: NodeJS.ErrnoException) => {

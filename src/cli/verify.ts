@@ -124,6 +124,17 @@ export async function verifyCommand(argv: string[]): Promise<number> {
   return r.ok ? 0 : 1;
 }
 
+/** Whether the bytes begin, after a byte-order mark, white space and comments, with OPENQASM. */
+function holdsOpenQasm(bytes: Uint8Array): boolean {
+  let text = new TextDecoder().decode(bytes.subarray(0, 4096)).replace(/^\uFEFF/, "");
+  for (;;) {
+    const t = text.replace(/^\s+/, "");
+    if (t.startsWith("//")) text = t.slice(t.indexOf("\n") < 0 ? t.length : t.indexOf("\n"));
+    else if (t.startsWith("/*")) text = t.indexOf("*/") < 0 ? "" : t.slice(t.indexOf("*/") + 2);
+    else return t.startsWith("OPENQASM");
+  }
+}
+
 async function loadCircuit(path: string): Promise<Circuit> {
   let bytes: Uint8Array;
   try {
@@ -131,11 +142,12 @@ async function loadCircuit(path: string): Promise<Circuit> {
   } catch (e) {
     const code = (e as { code?: string }).code;
     const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "it is a folder" : code === "EACCES" ? "permission denied" : code ?? "unreadable";
-    throw new UserError(`clausegate verify: error: cannot read the circuit ${path} (${why}); hint: check the path given to --circuit`);
+    throw new UserError(`clausegate verify: error: cannot read the circuit ${path === "-" ? "from standard input" : path} (${why}); hint: check the path given to --circuit`);
   }
-  // A .json file is read as the JSON circuit whatever it holds (an empty file, `null`): its
-  // errors then speak of JSON, not of the OpenQASM 3 header that sniffing the content would expect.
-  const { circuit, diagnostics } = /\.json$/i.test(path) ? readCircuitJson(bytes) : readCircuit(bytes);
+  // A .json file is read as the JSON circuit (an empty file, `null`: its errors then speak of
+  // JSON, not of the OpenQASM 3 header that sniffing the content would expect), unless it holds
+  // OpenQASM (oracle -o c.json writes OpenQASM 3 by default: the name does not set the format).
+  const { circuit, diagnostics } = /\.json$/i.test(path) && !holdsOpenQasm(bytes) ? readCircuitJson(bytes) : readCircuit(bytes);
   if (circuit === undefined) throw new UserError(formatDiagnostic(diagnostics[0]!, displayName(path)));
   // Idle work qubits declared at the end cost the checkers memory per qubit and change nothing.
   return withoutIdleTail(circuit);

@@ -4,7 +4,7 @@
 const COLLECT_FROM_BYTES = 64 << 20;
 
 /**
- * Collects garbage between runs where the host exposes it (the command does, bin.ts): a run drops
+ * Collects garbage between runs where the host exposes it (the command does, cli/exposeGc.ts): a run drops
  * tens of MB of typed arrays, and V8 left them, and the allocator their pages, until much later:
  * a million clauses on one thread peaked at 466-477 MB without, 398-420 MB with.
  */

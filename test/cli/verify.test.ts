@@ -153,6 +153,13 @@ describe("clausegate verify --circuit refuses malformed circuits with exit 2 and
       expect(r.stderr).not.toMatch(/OPENQASM/);
     }
   });
+  it("a .json file holding OpenQASM (oracle -o c.json writes OpenQASM 3 by default) is read as OpenQASM", () => {
+    const path = join(dir, "written.json");
+    expect(cli(["oracle", pair, "-o", path]).code).toBe(0);
+    const r = cli(["verify", pair, "--circuit", path]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/^verified: exhaustive/);
+  });
   it("a missing circuit file", () => {
     expectRefused(cli(["verify", pair, "--circuit", join(dir, "absent.json")]), /^clausegate verify: error: cannot read the circuit .*absent\.json \(no such file\); hint: /);
   });

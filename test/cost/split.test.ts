@@ -6,6 +6,7 @@ import { describe, expect, it } from "vitest";
 import { randomKSat } from "../helpers/formulas.js";
 import { costTable } from "../helpers/lib.js";
 import { costTables } from "../../dist/src/cost/split.js";
+import { collectBetweenRuns } from "../../dist/src/util/collect.js";
 import { scanDimacs } from "../../dist/src/cnf/scanner.js";
 import { cnfFromClauses } from "../../dist/src/cnf/cnf.js";
 
@@ -62,6 +63,12 @@ describe("costTables", () => {
       // Ten variables: every run is small, none is followed by a full collection.
       expect(rows!.length).toBeGreaterThan(0);
       expect(calls).toBe(0);
+      // A run estimated at 64 MB or more is (a million clauses' wide run: some 210 MB).
+      collectBetweenRuns((64 << 20) - 1);
+      expect(calls).toBe(0);
+      collectBetweenRuns(64 << 20);
+      collectBetweenRuns(210e6);
+      expect(calls).toBe(2);
     } finally {
       g.gc = before;
     }
