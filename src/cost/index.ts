@@ -336,7 +336,8 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   const wires = base + (s.strategy === "lean" ? 64 : s.f.lits.length + 64);
   // Ids: work qubits live at once. A wide oracle keeps every AND until the uncomputation: k - 1 per
   // clause of k literals and the mark's m - 1, about one per literal; a textbook oracle one per
-  // clause and its V-chain's k - 2. Sized once (the tables are held from run to run, reuse.ts).
+  // clause and its V-chain's k - 2. Sized so (grown by half from one per clause, each per-id table
+  // was copied ten times over a million clauses' runs).
   const clauses = s.f.clauseStart.length - 1;
   const idCount = base + (s.strategy === "lean" ? 0 : s.strategy === "wide" ? s.f.lits.length : s.f.lits.length - clauses) + 1024;
   // A wide oracle keeps each clause's AND record (3 numbers per 2-input AND, 2 more per record)
