@@ -12,9 +12,9 @@ import {
   type Assumption, type Cnf, type Crossover, type Forecast, type ForecastInput, type ForecastPlotSeries, type LogLinearFit,
   type LogicalErrorModelName, type Machine, type RegimeEstimate, type RegisterMode, type Uncompute, type Strategy,
 } from "../internal.js";
-import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, UserError, writeAtomic } from "./io.js";
+import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, plural, UserError, writeAtomic } from "./io.js";
 import { choice, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp, type CliOracleOptions } from "./options.js";
-import { plural, registerText, searchProblem } from "./register.js";
+import { registerText, searchProblem } from "./register.js";
 import { claimOutput, printLater } from "./output.js";
 
 /** Seconds the classical evaluator is timed on each formula. */

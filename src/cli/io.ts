@@ -36,15 +36,15 @@ export function displayName(path: string): string {
 }
 
 /** Where the header's counts stand in each input loaded this run (by path as given). */
-const headers = new Map<string, { line: number; variables: number; clauses: number }>();
+const headers = new Map<string, { readonly line: number; readonly variables: number }>();
 
 /**
- * Where a message about the header's VARIABLES (or CLAUSES) count points: FILE:LINE:COLUMN of
- * that count, or the file alone when its header was not seen.
+ * Where a message about the header's VARIABLES count points: FILE:LINE:COLUMN of that count, or
+ * the file alone when its header was not seen.
  */
-export function headerWhere(file: string, count: "variables" | "clauses" = "variables"): string {
+export function headerWhere(file: string): string {
   const h = headers.get(file);
-  return h === undefined ? displayName(file) : `${displayName(file)}:${h.line}:${h[count]}`;
+  return h === undefined ? displayName(file) : `${displayName(file)}:${h.line}:${h.variables}`;
 }
 
 /** Most variables a circuit-making command accepts (the search register is one qubit per variable). */

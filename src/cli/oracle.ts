@@ -3,7 +3,7 @@ import {
   chooseAmong, constructionRow, costConstructions, costFront, costTables, oracleResources, plotFrontSvg, reduceSearch, registerOf, sharingPlans, type Cnf, type ConstructionCost,
   type CostRow, type Oracle, type RegisterMode,
 } from "../internal.js";
-import { checkCheckSize, checkCircuitSize, checkFreeRegister, displayName, loadCnf, progress, UserError, writeAtomic } from "./io.js";
+import { checkCheckSize, checkCircuitSize, checkFreeRegister, displayName, loadCnf, plural, progress, UserError, writeAtomic } from "./io.js";
 import { claimOutput } from "./output.js";
 import { checkLines, runCheck, VERIFY_ARGS, verifyFlags } from "./checking.js";
 import { checkFormat, FORMATS, writeCircuit, type Format } from "./circuits.js";
@@ -11,7 +11,7 @@ import {
   choice, compileWithOptions, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, parseCommandArgs, REGISTER_ARGS, registerHelp,
   registerOptions,
 } from "./options.js";
-import { plural, problemOfOracle, registerJson, registerText, searchProblem, structureJson, structureText, type SearchProblem } from "./register.js";
+import { problemOfOracle, registerJson, registerText, searchProblem, structureJson, structureText, type SearchProblem } from "./register.js";
 
 export const oracleHelp = `Usage: clausegate oracle FILE|- [options]
 

@@ -70,7 +70,6 @@ export function structureJson(s: StructureSummary | null) {
 }
 
 /** "1 clause", "2 clauses". */
-export { plural };
 
 /** "1 2 3", or (unless `all`) the first 48 and how many more. */
 function listText(vs: ArrayLike<number>, all: boolean): string {

@@ -254,8 +254,6 @@ export interface HeaderPlace {
   readonly line: number;
   /** Column of the VARIABLES count. */
   readonly variables: number;
-  /** Column of the CLAUSES count. */
-  readonly clauses: number;
 }
 
 /**
@@ -270,9 +268,8 @@ export function headerPlace(b: Uint8Array): HeaderPlace | undefined {
     const p = skipToHeader(b, origin);
     if (b[p] !== 112 /* p */) return undefined;
     const v = skipHeaderBlanks(b, skipHeaderBlanks(b, p + 1) + 3);
-    const c = skipHeaderBlanks(b, tokenEnd(b, v));
     const at = locate(b, v, origin);
-    return { line: at.line, variables: at.column, clauses: at.column + (c - v) };
+    return { line: at.line, variables: at.column };
   } catch (e) {
     if (e instanceof Stop) return undefined;
     throw e;
