@@ -105,6 +105,7 @@ export interface WireMemory {
   records: Int32Array<ArrayBuffer> | null;
 }
 
+
 /** Figures of one circuit. */
 export interface EngineResult {
   /** All qubits (search, target, work wires). */
@@ -220,7 +221,6 @@ export class CountingEngine implements InstanceSink, WalkStore {
 
   // Virtual ids -> wires.
   private readonly reuse: WireReuse;
-  /** Wires given back, a stack (reuse takes the last one given back). */
   private readonly keepFreed: number;
 
   // Figures.

@@ -52,7 +52,7 @@ export class VirtualIds {
   /** Ids given back, a stack (typed: a wide oracle gives back millions). */
   private free = new Int32Array(256);
   private top = 0;
-  /** Ids handed out so far (the high-water mark). */
+  /** The lowest id never handed out, or given back in order (see give). */
   next: number;
 
   constructor(readonly base: number) {
@@ -64,6 +64,13 @@ export class VirtualIds {
   }
 
   give(id: number): void {
+    // An id just below the unused ones, given back while none waits, is the next one handed out
+    // either way: it becomes unused again, and a wide oracle's uncomputation, which gives back its
+    // millions of ids in the reverse order of their taking, needs no stack.
+    if (this.top === 0 && id === this.next - 1) {
+      this.next--;
+      return;
+    }
     if (this.top === this.free.length) {
       const f = new Int32Array(this.free.length * 2);
       f.set(this.free);

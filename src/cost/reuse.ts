@@ -12,6 +12,14 @@ export class WireReuse {
   private top = 0;
   /** Work wires made so far: wires base .. base + workWires - 1. */
   workWires = 0;
+  /**
+   * Wires base + fresh .. base + workWires - 1 are free too, below everything in `free`, the
+   * lowest on top: a wire given back while `free` is empty and just below them joins them instead
+   * of the stack (not when timed). Reuse takes the same wires in the same order, but a wide
+   * oracle's uncomputation, which gives back its millions of wires in the reverse order of their
+   * making, needs no stack (12 MB for a million clauses, held twice while it grew).
+   */
+  private fresh = 0;
 
   /**
    * `base`: ids below it are wires themselves; `ids`: ids expected (sizes the table once);
@@ -33,7 +41,11 @@ export class WireReuse {
     }
     let w = this.wireOf[v]!;
     if (w < 0) {
-      w = this.top > 0 ? this.free[--this.top]! : this.base + this.workWires++;
+      if (this.top > 0) w = this.free[--this.top]!;
+      else {
+        w = this.base + this.fresh++;
+        if (this.fresh > this.workWires) this.workWires = this.fresh;
+      }
       this.wireOf[v] = w;
     }
     return w;
@@ -41,6 +53,12 @@ export class WireReuse {
 
   /** Frees the wire of id v after instance `id`. */
   release(v: number, id: number): void {
+    const w = this.wireOf[v]!;
+    this.wireOf[v] = -1;
+    if (this.top === 0 && !this.timed && w === this.base + this.fresh - 1) {
+      this.fresh--;
+      return;
+    }
     if (this.top === this.free.length) {
       const f = new Int32Array(this.free.length * 2);
       f.set(this.free);
@@ -52,8 +70,7 @@ export class WireReuse {
       }
     }
     if (this.timed) this.at[this.top] = id;
-    this.free[this.top++] = this.wireOf[v]!;
-    this.wireOf[v] = -1;
+    this.free[this.top++] = w;
   }
 
   /** The instances at which the last `keep` wires still free were freed, oldest first. */
@@ -67,5 +84,6 @@ export class WireReuse {
     this.base = base;
     this.top = 0;
     this.workWires = 0;
+    this.fresh = 0;
   }
 }

@@ -249,9 +249,12 @@ export class SweepCounter implements InstanceSink, WalkStore {
   private done = 0;
 
   // Wires.
-  private lvl: Float64Array = new Float64Array(0);
-  private tlvl: Float64Array = new Float64Array(0);
+  // Levels as 32-bit integers, half the engine's bytes (a million clauses' wide oracle has 3.2
+  // million wires): a level past LEVEL_LIMIT makes the sweep give up, and the engine counts.
+  private lvl: Uint32Array = new Uint32Array(0);
+  private tlvl: Uint32Array = new Uint32Array(0);
   private pend: Uint8Array = new Uint8Array(0);
+  private readonly levels: boolean;
   private lastId: Int32Array = new Int32Array(0);
   private lastSlot: Uint8Array = new Uint8Array(0);
   /** The summary of each wire, packed: mode (bits 0-1), count with DIRTY (2-9), flags (10-18), kind of the last gate (19-26). */
@@ -274,29 +277,33 @@ export class SweepCounter implements InstanceSink, WalkStore {
   constructor(opts: SweepOptions) {
     this.base = opts.base;
     this.tally = new InstanceTally(opts.levels, true);
+    this.levels = opts.levels;
     this.wireMemory = opts.wireMemory ?? null;
     this.keepFreed = opts.keepFreed ?? 0;
     this.growWires(Math.max(64, opts.base + 64, opts.wires ?? 0));
     this.reuse = new WireReuse(opts.base, opts.ids ?? 0, (opts.keepFreed ?? 0) > 0);
   }
 
-  /** Bytes per wire of the tables below. */
-  private static readonly WIRE_BYTES = 8 + 8 + 4 + 4 + 4 + 2;
+  /** Bytes per wire of the tables below (levels, T-levels and phase runs only when levels are wanted). */
+  private wireBytes(): number {
+    return (this.levels ? 4 + 4 + 1 : 0) + 4 + 4 + 4 + 1;
+  }
 
   private growWires(n: number): void {
     if (n <= this.wireCap) return;
     const cap = Math.max(n, Math.ceil(this.wireCap * 1.5));
     const held = this.wireMemory?.buffer ?? null;
     let buf: ArrayBuffer;
-    if (this.wireCap === 0 && held !== null && held.byteLength >= cap * SweepCounter.WIRE_BYTES) buf = held;
+    if (this.wireCap === 0 && held !== null && held.byteLength >= cap * this.wireBytes()) buf = held;
     else {
-      buf = new ArrayBuffer(cap * SweepCounter.WIRE_BYTES);
+      buf = new ArrayBuffer(cap * this.wireBytes());
       if (this.wireMemory !== null) this.wireMemory.buffer = buf;
     }
     let at = 0;
-    const f64 = (old: Float64Array): Float64Array => {
-      const b = new Float64Array(buf, at, cap);
-      at += 8 * cap;
+    const u32 = (old: Uint32Array): Uint32Array => {
+      if (!this.levels) return old;
+      const b = new Uint32Array(buf, at, cap);
+      at += 4 * cap;
       b.set(old);
       b.fill(0, old.length);
       return b;
@@ -315,12 +322,12 @@ export class SweepCounter implements InstanceSink, WalkStore {
       b.fill(fill, old.length);
       return b;
     };
-    this.lvl = f64(this.lvl);
-    this.tlvl = f64(this.tlvl);
+    this.lvl = u32(this.lvl);
+    this.tlvl = u32(this.tlvl);
     this.lastId = i32(this.lastId, -1);
     this.mh = i32(this.mh, 0);
     this.sum = i32(this.sum, EMPTY_SUM);
-    this.pend = u8(this.pend, 0);
+    this.pend = this.levels ? u8(this.pend, 0) : this.pend;
     this.tally.lvl = this.lvl;
     this.tally.tlvl = this.tlvl;
     this.tally.pend = this.pend;
@@ -386,6 +393,10 @@ export class SweepCounter implements InstanceSink, WalkStore {
     const wires = this.base + this.reuse.workWires;
     const { depth, tDepth } = this.tally.finish(wires);
     const tally = this.tally;
+    if (tally.overflow) {
+      this.gaveUp = "a level past 2^32 - 1";
+      return null;
+    }
     // As the engine: the second cancel-inverses runs only when merge-phases met two phase gates.
     if (tally.phaseGates >= 2 && this.flagSecond !== null) {
       this.gaveUp = this.flagSecond;

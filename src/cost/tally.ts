@@ -8,6 +8,9 @@ import { K } from "../ir/kinds.js";
 import { G_KIND, G_PHASE, GATE_START, gatesOf, SLOTS } from "./templates.js";
 import { finalRun, NONE, transferOf } from "./transfer.js";
 
+/** The largest level 32-bit level tables hold. */
+const LEVEL_LIMIT = 0xffffffff;
+
 export class InstanceTally {
   tCount = 0;
   cnotCount = 0;
@@ -17,10 +20,15 @@ export class InstanceTally {
   phaseGates = 0;
   private bitL = 0;
   private bitTL = 0;
-  /** Per wire: level, T-level, pending phase run (transfer.ts); the owner carves and grows them. */
-  lvl: Float64Array = new Float64Array(0);
-  tlvl: Float64Array = new Float64Array(0);
+  /**
+   * Per wire: level, T-level, pending phase run (transfer.ts); the owner carves and grows them
+   * (the sweep keeps levels in 32 bits and reads `overflow`).
+   */
+  lvl: Float64Array | Uint32Array = new Float64Array(0);
+  tlvl: Float64Array | Uint32Array = new Float64Array(0);
   pend: Uint8Array = new Uint8Array(0);
+  /** A level went past 2^32 - 1 (32-bit levels then hold wrong values). A T-level is never above its level. */
+  overflow = false;
 
   /** `levels`: depth, T-depth and merge-phases (false: counts alone); `optimize`: the passes were replayed. */
   constructor(private readonly levels: boolean, private readonly optimize: boolean) {}
@@ -69,19 +77,26 @@ export class InstanceTally {
     }
     const d = tr.d;
     const dt = tr.dt;
-    lv[w0] = maxPlus(d, 0, l0, l1, l2, lb);
+    const n0 = maxPlus(d, 0, l0, l1, l2, lb);
+    lv[w0] = n0;
     tv[w0] = maxPlus(dt, 0, t0, t1, t2, tb);
     pend[w0] = tr.pendOut[0]!;
+    let top = n0;
     if (w1 >= 0) {
-      lv[w1] = maxPlus(d, 4, l0, l1, l2, lb);
+      const n1 = maxPlus(d, 4, l0, l1, l2, lb);
+      lv[w1] = n1;
       tv[w1] = maxPlus(dt, 4, t0, t1, t2, tb);
       pend[w1] = tr.pendOut[1]!;
+      if (n1 > top) top = n1;
     }
     if (w2 >= 0) {
-      lv[w2] = maxPlus(d, 8, l0, l1, l2, lb);
+      const n2 = maxPlus(d, 8, l0, l1, l2, lb);
+      lv[w2] = n2;
       tv[w2] = maxPlus(dt, 8, t0, t1, t2, tb);
       pend[w2] = tr.pendOut[2]!;
+      if (n2 > top) top = n2;
     }
+    if (top > LEVEL_LIMIT) this.overflow = true;
     return tr.vanished;
   }
 
@@ -89,9 +104,11 @@ export class InstanceTally {
   finish(wires: number): { depth: number; tDepth: number } {
     let depth = 0;
     let tDepth = 0;
+    if (!this.levels) return { depth, tDepth };
     for (let w = 0; w < wires; w++) {
-      if (this.levels && this.optimize) {
+      if (this.optimize) {
         const run = finalRun(this.pend[w]!);
+        if (this.lvl[w]! + run.gates > LEVEL_LIMIT) this.overflow = true;
         this.lvl[w]! += run.gates;
         this.tlvl[w]! += run.tGates;
         this.tCount += run.tGates;
@@ -100,7 +117,7 @@ export class InstanceTally {
       depth = Math.max(depth, this.lvl[w]!);
       tDepth = Math.max(tDepth, this.tlvl[w]!);
     }
-    return { depth: this.levels ? depth : 0, tDepth: this.levels ? tDepth : 0 };
+    return { depth, tDepth };
   }
 
   /** Counts and the measured bit back to zero (the per-wire tables are the owner's). */

@@ -11,6 +11,8 @@ import { cnfFromClauses, scanDimacs, type Cnf } from "../helpers/lib.js";
 import { run } from "../../dist/src/cost/run.js";
 import { WireReuse } from "../../dist/src/cost/reuse.js";
 import { sweepCount } from "../../dist/src/cost/sweep.js";
+import { InstanceTally } from "../../dist/src/cost/tally.js";
+import { T_H } from "../../dist/src/cost/templates.js";
 import { LoweringStream, VirtualIds } from "../../dist/src/cost/lowering.js";
 import { leanOracle, textbookOracle, wideOracle } from "../../dist/src/cost/sources.js";
 import { simplify } from "../../dist/src/synth/simplify.js";
@@ -122,5 +124,85 @@ describe("work-wire reuse (reuse.ts)", () => {
     for (let v = 0; v < 600; v++) many.wireFor(v);
     for (let v = 0; v < 600; v++) many.release(v, 1000 + v);
     expect([...many.freedAt(3)]).toEqual([1597, 1598, 1599]);
+  });
+});
+
+describe("ids and wires given back in order (no stack)", () => {
+  // A plain stack of given-back ids (what VirtualIds and WireReuse were before they let ids and
+  // wires given back in order rejoin the unused ones): the same ids and wires must come out.
+  const ops = fc.array(fc.tuple(fc.boolean(), fc.nat(1000)), { minLength: 1, maxLength: 300 });
+
+  it("VirtualIds hands out the ids a plain stack would", () => {
+    fc.assert(
+      fc.property(ops, (seq) => {
+        const ids = new VirtualIds(5);
+        const stack: number[] = [];
+        let next = 5;
+        const live: number[] = [];
+        for (const [take, pick] of seq) {
+          if (take || live.length === 0) {
+            const want = stack.length > 0 ? stack.pop()! : next++;
+            expect(ids.take()).toBe(want);
+            live.push(want);
+          } else {
+            const id = live.splice(pick % live.length, 1)[0]!;
+            ids.give(id);
+            stack.push(id);
+          }
+        }
+      }),
+      { numRuns: 400, seed: 20261203 },
+    );
+  });
+
+  it("WireReuse without times gives the wires, and makes the wires, that it gives with them", () => {
+    fc.assert(
+      fc.property(ops, (seq) => {
+        const timed = new WireReuse(3, 8);
+        const untimed = new WireReuse(3, 8, false);
+        const live: number[] = [];
+        let nextId = 3;
+        seq.forEach(([take, pick], i) => {
+          if (take || live.length === 0) {
+            const v = nextId++;
+            expect(untimed.wireFor(v)).toBe(timed.wireFor(v));
+            live.push(v);
+          } else {
+            const v = live.splice(pick % live.length, 1)[0]!;
+            timed.release(v, i);
+            untimed.release(v, i);
+          }
+          expect(untimed.workWires).toBe(timed.workWires);
+        });
+      }),
+      { numRuns: 400, seed: 20261204 },
+    );
+  });
+
+  it("frees a wide oracle's wires, given back in reverse order, without a stack", () => {
+    const r = new WireReuse(0, 4096, false);
+    for (let v = 0; v < 4000; v++) expect(r.wireFor(v)).toBe(v);
+    for (let v = 3999; v >= 0; v--) r.release(v, v);
+    // Taken again lowest first (the last one given back), and no new wire made.
+    for (let v = 4000; v < 8000; v++) expect(r.wireFor(v)).toBe(v - 4000);
+    expect(r.workWires).toBe(4000);
+  });
+});
+
+describe("32-bit levels (tally.ts, the sweep's tables)", () => {
+  it("says when a level passes 2^32 - 1, where a 32-bit table would wrap", () => {
+    const tally = new InstanceTally(true, true);
+    const lvl = new Uint32Array(4);
+    tally.lvl = lvl;
+    tally.tlvl = new Uint32Array(4);
+    tally.pend = new Uint8Array(4);
+    lvl[1] = 0xffffffff - 2;
+    tally.add(T_H, 0, 1, -1, -1);
+    expect(tally.overflow).toBe(false);
+    expect(lvl[1]).toBe(0xffffffff - 1);
+    tally.add(T_H, 0, 1, -1, -1);
+    expect(tally.overflow).toBe(false);
+    tally.add(T_H, 0, 1, -1, -1);
+    expect(tally.overflow).toBe(true);
   });
 });
