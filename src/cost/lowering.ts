@@ -412,24 +412,7 @@ export class LoweringStream implements LogicalSink {
     const n = ops.length;
     if (n > this.tb.length) this.tb = new Int32Array(Math.max(n, 2 * this.tb.length));
     const out = this.tb;
-    if (n > 16) {
-      const c = normalizeControls(ops);
-      if (c === null) return -1;
-      out.set(c);
-      return c.length;
-    }
-    // Small gates (nearly all): a quadratic scan, as lower.ts does.
-    let k = 0;
-    next: for (let i = 0; i < n; i++) {
-      const op = ops[i]!;
-      for (let j = 0; j < k; j++) {
-        if (out[j]! >>> 1 !== op >>> 1) continue;
-        if (out[j] !== op) return -1;
-        continue next;
-      }
-      out[k++] = op;
-    }
-    return k;
+    return normalizeControls(ops, out);
   }
 
   private pushTriple(a: number, b: number, w: number): void {
@@ -450,6 +433,13 @@ export class LoweringStream implements LogicalSink {
    */
   private tree(n: number, r: number): number {
     const tb = this.tb;
+    // Room for its n - r triples at once (growing by doubling held the old copies too: a mark over
+    // a million clause bits takes 3 million numbers).
+    if (this.rn + 3 * n > this.rb.length) {
+      const rb = new Int32Array(this.rn + 3 * n);
+      rb.set(this.rb.subarray(0, this.rn));
+      this.rb = rb;
+    }
     if (n === r + 1) {
       const a = tb[0]!;
       const b = tb[1]!;
@@ -494,35 +484,37 @@ export class LoweringStream implements LogicalSink {
 }
 
 /**
- * lower.ts's normalizeControls: a repeated control is dropped; a qubit wanted both on |0> and
- * on |1> means the gate never fires (null). Order of first occurrence is kept.
+ * lower.ts's normalizeControls into `out` (at least as long as `ops`): a repeated control is
+ * dropped; a qubit wanted both on |0> and on |1> means the gate never fires (-1). Order of first
+ * occurrence is kept. Returns how many controls are left.
  */
-export function normalizeControls(ops: ArrayLike<number>): number[] | null {
-  const out: number[] = [];
+export function normalizeControls(ops: ArrayLike<number>, out: Int32Array = new Int32Array(ops.length)): number {
+  let k = 0;
   if (ops.length <= 16) {
     // Small gates (nearly all): a quadratic scan, as lower.ts does.
     next: for (let i = 0; i < ops.length; i++) {
       const op = ops[i]!;
-      for (let j = 0; j < out.length; j++) {
+      for (let j = 0; j < k; j++) {
         if (out[j]! >>> 1 !== op >>> 1) continue;
-        if (out[j] !== op) return null;
+        if (out[j] !== op) return -1;
         continue next;
       }
-      out.push(op);
+      out[k++] = op;
     }
-    return out;
+    return k;
   }
-  // A large gate (the wide oracle's mark): the encoded op seen per qubit, plus one (0: none).
+  // A large gate (the wide oracle's mark over a million clause bits): per qubit, the polarity
+  // seen plus one (0: none), a byte each.
   let top = 0;
   for (let i = 0; i < ops.length; i++) top = Math.max(top, ops[i]! >>> 1);
-  const seen = new Int32Array(top + 1);
+  const seen = new Uint8Array(top + 1);
   for (let i = 0; i < ops.length; i++) {
     const op = ops[i]!;
     const prev = seen[op >>> 1]!;
     if (prev === 0) {
-      seen[op >>> 1] = op + 1;
-      out.push(op);
-    } else if (prev !== op + 1) return null;
+      seen[op >>> 1] = (op & 1) + 1;
+      out[k++] = op;
+    } else if (prev !== (op & 1) + 1) return -1;
   }
-  return out;
+  return k;
 }

@@ -38,12 +38,20 @@ class ToffoliTally implements LogicalSink {
   /** CCX gates each live AND was computed with (by qubit id), for its uncompute. */
   private held = new Int32Array(1024);
   private readonly pair = new Int32Array(2);
+  /** distinct's output (its contents are never read). */
+  private scratch = new Int32Array(64);
+
+  /** Distinct qubits among encoded controls, as lowering.ts normalizes them; -1 when the gate never fires. */
+  private distinct(ops: ArrayLike<number>): number {
+    if (ops.length > this.scratch.length) this.scratch = new Int32Array(Math.max(ops.length, 2 * this.scratch.length));
+    return normalizeControls(ops, this.scratch);
+  }
 
   constructor(private readonly unitary: boolean) {}
 
   and(ctrls: ArrayLike<number>, t: number): void {
     this.operations++;
-    const n = distinct(ctrls);
+    const n = this.distinct(ctrls);
     const c = n < 0 ? 0 : Math.max(0, n - 1);
     this.count += c;
     if (t >= this.held.length) {
@@ -68,7 +76,7 @@ class ToffoliTally implements LogicalSink {
 
   mcx(ctrls: ArrayLike<number>): void {
     this.operations++;
-    const n = distinct(ctrls);
+    const n = this.distinct(ctrls);
     // The tree down to two controls, the CCX onto the target, the tree undone.
     if (n >= 2) this.count += (n - 2) * (this.unitary ? 2 : 1) + 1;
   }
@@ -79,7 +87,7 @@ class ToffoliTally implements LogicalSink {
 
   mcz(qs: ArrayLike<number>): void {
     this.operations++;
-    const n = distinct(qs);
+    const n = this.distinct(qs);
     // The tree down to two controls, a CZ (or a Z for one), the tree undone.
     if (n >= 3) this.count += (n - 2) * (this.unitary ? 2 : 1);
   }
@@ -97,10 +105,7 @@ class ToffoliTally implements LogicalSink {
   }
 }
 
-/** Distinct qubits among encoded controls, as lowering.ts normalizes them; -1 when the gate never fires. */
-function distinct(ops: ArrayLike<number>): number {
-  return normalizeControls(ops)?.length ?? -1;
-}
+
 
 /**
  * The toffoli-basis Toffoli count of the wide oracle over `f` with the optimizer on, as an

@@ -8,9 +8,9 @@ import { describe, expect, it } from "vitest";
 import { cnfFromClauses, compileOracle, type Circuit } from "../helpers/lib.js";
 import { simplify, synthesize } from "../../dist/src/synth/index.js";
 import { searchCircuit } from "../../dist/src/synth/search.js";
-import { lower } from "../../dist/src/passes/lower.js";
+import { lower, normalizeControls as lowerNormalize } from "../../dist/src/passes/lower.js";
 import { lowerAndOptimize } from "../../dist/src/cost/built.js";
-import { LoweringStream, VirtualIds, type InstanceSink, type LogicalSink } from "../../dist/src/cost/lowering.js";
+import { LoweringStream, normalizeControls, VirtualIds, type InstanceSink, type LogicalSink } from "../../dist/src/cost/lowering.js";
 import { leanOracle, LogicalRecorder, phaseOracleOps, searchOps, textbookOracle, wideOracle } from "../../dist/src/cost/sources.js";
 import { G_COND, G_KIND, G_NQ, G_OP, GATE_START, gatesOf, T_H, T_X } from "../../dist/src/cost/templates.js";
 import { GATE_KINDS } from "../../dist/src/ir/kinds.js";
@@ -246,5 +246,26 @@ describe("the streams are the pipeline's", () => {
       }),
       { numRuns: 25 },
     );
+  });
+});
+
+describe("the lowering's control normalization (cost/lowering.ts)", () => {
+  it("keeps, drops and refuses the controls lower.ts does, small gates and large ones (a byte per qubit)", () => {
+    const seen = [0, 0, 0];
+    fc.assert(
+      // Qubits with one polarity each, one op perhaps flipped (then the gate never fires).
+      fc.property(fc.array(fc.nat(40), { maxLength: 60, size: "max" }), fc.array(fc.boolean(), { minLength: 41, maxLength: 41 }), fc.option(fc.nat(59)), (qs, pol, flip) => {
+        const ops = qs.map((q, i) => 2 * q + (pol[q]! !== (i === flip) ? 1 : 0));
+        const want = lowerNormalize(ops);
+        const out = new Int32Array(ops.length);
+        const k = normalizeControls(ops, out);
+        if (want === null) expect(k).toBe(-1);
+        else expect([...out.subarray(0, k)]).toEqual(want);
+        seen[want === null ? 0 : ops.length > 16 ? 2 : 1]++;
+      }),
+      { numRuns: 2000, seed: 20261203 },
+    );
+    // Refused gates, and kept ones both small and large, were all met.
+    expect(Math.min(...seen)).toBeGreaterThan(200);
   });
 });
