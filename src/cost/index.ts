@@ -340,9 +340,9 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
   // was copied ten times over a million clauses' runs).
   const clauses = s.f.clauseStart.length - 1;
   const idCount = base + (s.strategy === "lean" ? 0 : s.strategy === "wide" ? s.f.lits.length : s.f.lits.length - clauses) + 1024;
-  // A wide oracle keeps each clause's AND record (3 numbers per 2-input AND, 2 more per record)
-  // until the mark.
-  const records = s.strategy === "wide" ? 3 * s.f.lits.length + 2 * s.f.clauseStart.length + 1024 : 1024;
+  // A wide oracle keeps each clause's AND record until the mark: 3 numbers per 2-input AND (k - 1
+  // of them for k literals) and 2 more, at most 3L - m in all.
+  const records = s.strategy === "wide" ? wideRecords(s.f) : 1024;
   // farReach: the lean oracle's Clifford+T run with unitary uncomputation cancels across a work
   // wire's idle stretch (its last use's closing Tdg and H against the next use's opening H and T),
   // which can span the circuit when clauses of mixed widths leave a wire deep in reuse's stack.
@@ -422,6 +422,11 @@ export class Progress {
   }
 }
 
+/** Numbers the wide oracle's live AND records take at most (see countOracle). */
+function wideRecords(f: SimplifiedCnf): number {
+  return 3 * f.lits.length - (f.clauseStart.length - 1) + 1024;
+}
+
 /** Relative work of counting one oracle construction (template instances, roughly). */
 function workOf(f: SimplifiedCnf, strategy: AnyStrategy, levels: boolean): number {
   const m = f.clauseStart.length - 1;
@@ -477,12 +482,21 @@ export interface TableRun {
   readonly bytes: number;
 }
 
-/** Engine bytes per wire (engine.ts: one copy per wire kept) and per instance kept; the sweep's per wire (sweep.ts). */
+/**
+ * Engine bytes per wire (engine.ts: one copy per wire kept) and per instance kept; the sweep's per
+ * wire (sweep.ts), with levels (Clifford+T) and without (toffoli basis).
+ */
 const BYTES_PER_WIRE = 54;
 const BYTES_PER_INSTANCE = 64;
-const SWEEP_BYTES_PER_WIRE = 30;
-/** Bytes per id of a wide or textbook run: reuse's wire and free tables, the ids' stack, the lowering's flips and records' places. */
-const BYTES_PER_ID = 17;
+const SWEEP_BYTES_PER_WIRE = 22;
+const SWEEP_COUNT_BYTES_PER_WIRE = 13;
+/**
+ * Bytes per id of a wide or textbook run: reuse's wire table, the lowering's flips and records'
+ * places (ids and wires given back in order need no stack). Measured, a million random 3-SAT
+ * clauses over the plan's memory: the wide Clifford+T run 101 MB (estimated 132), the textbook
+ * ones 70 and 52 MB (69 and 49).
+ */
+const BYTES_PER_ID = 9;
 /** Bytes per literal of a block-counter run (blocks.ts, leanBlocks.ts: occurrences, blocks, clause of each place). */
 const BLOCK_BYTES_PER_LITERAL = 24;
 
@@ -547,7 +561,7 @@ export class TableCounter {
       const literals = sw === undefined ? L : sw / 4;
       let bytes: number;
       // The sweep's wires and ids (about one per literal each) and a wide oracle's AND records (3 numbers per literal, 2 per clause).
-      if (strategy !== "lean") bytes = (f.variables + literals + 64) * (SWEEP_BYTES_PER_WIRE + BYTES_PER_ID) + (strategy === "wide" ? 4 * (3 * literals + 2 * m) : 0);
+      if (strategy !== "lean") bytes = (f.variables + literals + 64) * ((levels ? SWEEP_BYTES_PER_WIRE : SWEEP_COUNT_BYTES_PER_WIRE) + BYTES_PER_ID) + (strategy === "wide" ? 4 * (3 * literals - m) : 0);
       else if (sw !== undefined) bytes = levels && uncompute === "unitary" ? (sw + 64) * BYTES_PER_INSTANCE : (f.variables + 64) * BYTES_PER_WIRE;
       // Counted block by block from BLOCKS_FROM clauses (a few MB of states and keys), else a window of instances.
       else bytes = (f.variables + 64) * BYTES_PER_WIRE + (m >= BLOCKS_FROM ? (16 << 20) + BLOCK_BYTES_PER_LITERAL * L : DEFAULT_LAG * 2 * BYTES_PER_INSTANCE);
@@ -728,7 +742,7 @@ export function searchCosts(cnf: Cnf, iterations: number, successProbability: nu
       // One copy per wire: a run that falls short goes again with more (bw_large.d's wide search
       // run does not: 3.3 s and 203 MB, against 6.6 s and 368 MB with countOracle's 16).
       sizing = strategy === "wide" ? { work: src.checkQubits, history: 1 } : { ids: src.checkQubits };
-    } else if (strategy === "wide") sizing = { work: f.lits.length, ids: f.clauseStart.length, history: 1, records: 3 * f.lits.length + 2 * f.clauseStart.length + 1024 };
+    } else if (strategy === "wide") sizing = { work: f.lits.length, ids: f.clauseStart.length, history: 1, records: wideRecords(f) };
     return searchCostOf(strategy, n, ops, () => logicals.get("phase", strategy), oracleWeight(strategy), iterations, successProbability, uncompute, progress, sizing);
   });
   progress.emit(1);

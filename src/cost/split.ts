@@ -35,6 +35,8 @@ export interface SplitJob {
   readonly progress: SharedArrayBuffer;
 }
 
+/** Roughly what planning leaves to collect per literal (see costTables). */
+const PLAN_BYTES_PER_LITERAL = 16;
 /** Literals from which the worker thread is started before planning (some 0.3 s of its start then overlap it). */
 const EARLY_LITERALS = 300_000;
 /** Below this many estimated CPU seconds a table is counted on one thread (a thread costs a start and a copy of the plans). */
@@ -71,6 +73,9 @@ export async function costTables(cnf: Cnf, kind: OracleKind, tables: readonly Ta
     void early?.thread.terminate();
     throw e;
   }
+  // Planning (simplification, structure recovery) leaves its tables behind: collected before the
+  // runs start, they do not add to what the runs hold (a million clauses: some 50 MB).
+  collectBetweenRuns(PLAN_BYTES_PER_LITERAL * cnf.lits.length);
   const runs = counters.map((c) => c.runs());
   const all = runs.flatMap((rs, t) => rs.map((r, i) => ({ t, i, r })));
   const total = all.reduce((s, x) => s + x.r.weight, 0);
