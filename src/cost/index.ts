@@ -26,6 +26,7 @@ import { diffusionOps, lastUses, leanOracle, LogicalRecorder, phaseOracleOps, re
 import { StructuredSource } from "./structuredSource.js";
 import { wideToffolis } from "./toffolis.js";
 import { constructionFamily, constructionName, countConstructionOracle, parseConstruction, type ConstructionFamily } from "./front.js";
+import { collectBetweenRuns } from "../util/collect.js";
 
 /** Options of the cost functions. */
 export interface CostOptions {
@@ -581,8 +582,11 @@ export class TableCounter {
     // A lean oracle of the clauses is counted by blocks, without the per-wire tables that the wide
     // and textbook runs hand on to one another (a million clauses: 115 MB idle through each lean run).
     if (strategy === "lean" && !this.logicals.structured(strategy)) {
+      const held = (this.wireMemory.buffer?.byteLength ?? 0) + (this.wireMemory.records?.byteLength ?? 0);
       this.wireMemory.buffer = null;
       this.wireMemory.records = null;
+      // Before the lean run's own tables: a run after a small one is not preceded by a collection.
+      collectBetweenRuns(held);
     }
     const levels = r.basis === "clifford+t";
     return countOracle({ f: this.f, kind: this.kind, strategy, uncompute, optimize: true, wireMemory: this.wireMemory, basis: r.basis, levels }, this.logicals, progress);

@@ -126,6 +126,12 @@ export function simplify(cnf: Cnf): SimplifiedCnf {
 function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
   const m = start.length - 1;
   const keep = new Uint8Array(m).fill(1);
+  // Clauses all of one length (random k-SAT, most SATLIB families): a clause can lie inside another
+  // only by being equal to it, so a hash of each sorted clause finds everything (a million random
+  // 3-SAT clauses: some 0.1 s against 0.6 s for the occurrence lists below).
+  let uniform = true;
+  for (let i = 1; i < m && uniform; i++) uniform = start[i + 1]! - start[i]! === start[1]! - start[0]!;
+  if (uniform && m > 0 && start[1]! > start[0]!) return { keep, repeated: repeatsOf(lits, start, keep), subsumed: 0, complete: true };
   const index = (l: number): number => (l > 0 ? 2 * l - 2 : -2 * l - 1);
   const occCount = new Uint32Array(2 * variables);
   for (const l of lits) occCount[index(l)]!++;
@@ -192,6 +198,43 @@ function subsumption(variables: number, lits: Int32Array, start: Uint32Array) {
     }
   }
   return { keep, repeated, subsumed, complete: true };
+}
+
+/**
+ * Marks every clause equal to an earlier one (clauses sorted, all of one length) not kept; returns
+ * how many.
+ */
+function repeatsOf(lits: Int32Array, start: Uint32Array, keep: Uint8Array): number {
+  const m = start.length - 1;
+  const bits = Math.max(4, Math.ceil(Math.log2(2 * m)));
+  const mask = (1 << bits) - 1;
+  // Clause index + 1 per slot (0: empty), open addressing.
+  const table = new Int32Array(1 << bits);
+  let repeated = 0;
+  for (let i = 0; i < m; i++) {
+    const s = start[i]!;
+    const e = start[i + 1]!;
+    let h = 0x811c9dc5;
+    for (let k = s; k < e; k++) h = Math.imul(h ^ lits[k]!, 0x01000193);
+    h = (h ^ (h >>> 15)) & mask;
+    for (;;) {
+      const j = table[h]! - 1;
+      if (j < 0) {
+        table[h] = i + 1;
+        break;
+      }
+      const js = start[j]!;
+      let equal = true;
+      for (let k = 0; k < e - s && equal; k++) equal = lits[js + k] === lits[s + k];
+      if (equal) {
+        keep[i] = 0;
+        repeated++;
+        break;
+      }
+      h = (h + 1) & mask;
+    }
+  }
+  return repeated;
 }
 
 /**

@@ -106,4 +106,30 @@ describe("simplify", () => {
       { numRuns: 300 },
     );
   });
+  it("keeps the first of equal clauses when all have one length (the hashed path), in order", () => {
+    const key = (l: number): number => (l < 0 ? -2 * l + 1 : 2 * l);
+    // Few variables and clauses of 3 distinct variables: many clauses repeat, in any literal order.
+    const clause = fc.uniqueArray(fc.integer({ min: 1, max: 5 }), { minLength: 3, maxLength: 3 }).chain((vs) =>
+      fc.tuple(...vs.map((v) => fc.constantFrom(v, -v))),
+    );
+    fc.assert(
+      fc.property(fc.array(clause, { minLength: 1, maxLength: 200 }), (clauses) => {
+        const s = simplify(cnfFromClauses(5, clauses));
+        const seen = new Set<string>();
+        const want: number[][] = [];
+        for (const c of clauses) {
+          const sorted = [...c].sort((a, b) => key(a) - key(b));
+          const k = sorted.join(" ");
+          if (seen.has(k)) continue;
+          seen.add(k);
+          want.push(sorted);
+        }
+        expect(clausesOf({ variables: 5, lits: s.lits, clauseStart: s.clauseStart })).toEqual(want);
+        expect(s.report.repeated).toBe(clauses.length - want.length);
+        expect(s.report.subsumed).toBe(0);
+        expect(s.report.subsumptionComplete).toBe(true);
+      }),
+      { numRuns: 300, seed: 20261203 },
+    );
+  });
 });
