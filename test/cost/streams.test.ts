@@ -261,7 +261,7 @@ describe("the lowering's control normalization (cost/lowering.ts)", () => {
         const k = normalizeControls(ops, out);
         if (want === null) expect(k).toBe(-1);
         else expect([...out.subarray(0, k)]).toEqual(want);
-        seen[want === null ? 0 : ops.length > 16 ? 2 : 1]++;
+        seen[want === null ? 0 : ops.length > 16 ? 2 : 1]! += 1;
       }),
       { numRuns: 2000, seed: 20261203 },
     );
