@@ -359,6 +359,9 @@ function countOracle(s: Spec, logicals: Logicals, progress?: Fraction): EngineRe
     const first = new BlockCounter(new LeanBlocks(s.f, s.kind, mode), { optimize: s.optimize, levels: s.levels, keepSwitches: KEEP_SWITCHES, ...(progress ? { progress } : {}) });
     const r = first.run() ?? (first.stoppedOnTail ? new BlockCounter(new LeanBlocks(s.f, s.kind, mode), { optimize: s.optimize, levels: s.levels, ...(progress ? { progress } : {}) }).run() : null);
     if (r !== null) return r;
+    // The counter gave up (clauses of mixed widths): its tables go before the engine's come (a
+    // million clauses of widths 2-8: some 200 MB).
+    collectBetweenRuns(BLOCK_BYTES_PER_LITERAL * s.f.lits.length);
   }
   return runSwept(s.strategy !== "lean" && s.engine !== "instances", base, s.optimize, s.levels, mode, (low, ids) => {
     // The oracles are streamed as synthesis would build them (sources.ts; a test holds them equal).
