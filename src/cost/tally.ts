@@ -129,6 +129,7 @@ export class InstanceTally {
     this.phaseGates = 0;
     this.bitL = 0;
     this.bitTL = 0;
+    this.overflow = false;
   }
 }
 

@@ -132,4 +132,19 @@ describe("simplify", () => {
       { numRuns: 300, seed: 20261203 },
     );
   });
+  it("finds a repeat among clauses of one length whose signatures all collide, with no budget to run out of", () => {
+    // 8,192 distinct clauses of 16 literals, each v or v + 16 for v = 1..16 (v and v + 16 share a
+    // signature bit, so every candidate of the occurrence lists passes their filter: that path ran
+    // out of its budget here and kept the repeat), then the last one again. Clause i takes v + 16
+    // where bit v - 1 of i * 40503 mod 2^16 is set (an odd multiplier: distinct for distinct i).
+    const clauses: number[][] = [];
+    for (let i = 0; i < 8192; i++) {
+      const bits = Math.imul(i, 40503) & 0xffff;
+      clauses.push(Array.from({ length: 16 }, (_, v) => ((bits >>> v) & 1 ? v + 17 : v + 1)));
+    }
+    clauses.push([...clauses[8191]!]);
+    const s = simplify(cnfFromClauses(32, clauses));
+    expect(s.report).toEqual({ duplicateLiterals: 0, tautologies: 0, repeated: 1, subsumed: 0, subsumptionComplete: true });
+    expect(s.clauseStart.length - 1).toBe(8192);
+  });
 });
