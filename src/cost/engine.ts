@@ -105,7 +105,6 @@ export interface WireMemory {
   records: Int32Array<ArrayBuffer> | null;
 }
 
-
 /** Figures of one circuit. */
 export interface EngineResult {
   /** All qubits (search, target, work wires). */

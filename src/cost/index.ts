@@ -564,7 +564,7 @@ export class TableCounter {
       // A structured stream's weight is in instances, about 4 per literal of the clause stream.
       const literals = sw === undefined ? L : sw / 4;
       let bytes: number;
-      // The sweep's wires and ids (about one per literal each) and a wide oracle's AND records (3 numbers per literal, 2 per clause).
+      // The sweep's wires and ids (about one per literal each) and a wide oracle's AND records (3 numbers per literal, one less per clause).
       if (strategy !== "lean") bytes = (f.variables + literals + 64) * ((levels ? SWEEP_BYTES_PER_WIRE : SWEEP_COUNT_BYTES_PER_WIRE) + BYTES_PER_ID) + (strategy === "wide" ? 4 * (3 * literals - m) : 0);
       else if (sw !== undefined) bytes = levels && uncompute === "unitary" ? (sw + 64) * BYTES_PER_INSTANCE : (f.variables + 64) * BYTES_PER_WIRE;
       // Counted block by block from BLOCKS_FROM clauses (a few MB of states and keys), else a window of instances.

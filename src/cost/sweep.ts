@@ -250,7 +250,7 @@ export class SweepCounter implements InstanceSink, WalkStore {
 
   // Wires.
   // Levels as 32-bit integers, half the engine's bytes (a million clauses' wide oracle has 3.2
-  // million wires): a level past LEVEL_LIMIT makes the sweep give up, and the engine counts.
+  // million wires): a level past 2^32 - 1 makes the sweep give up, and the engine counts.
   private lvl: Uint32Array = new Uint32Array(0);
   private tlvl: Uint32Array = new Uint32Array(0);
   private pend: Uint8Array = new Uint8Array(0);

@@ -105,8 +105,6 @@ class ToffoliTally implements LogicalSink {
   }
 }
 
-
-
 /**
  * The toffoli-basis Toffoli count of the wide oracle over `f` with the optimizer on, as an
  * engine result holding that count alone (`toffoliOnly`; its other figures are 0).
