@@ -179,7 +179,7 @@ describe("ids and wires given back in order (no stack)", () => {
     );
   });
 
-  it("frees a wide oracle's wires, given back in reverse order, without a stack", () => {
+  it("takes a wide oracle's wires, given back in reverse order, again lowest first, making none", () => {
     const r = new WireReuse(0, 4096, false);
     for (let v = 0; v < 4000; v++) expect(r.wireFor(v)).toBe(v);
     for (let v = 3999; v >= 0; v--) r.release(v, v);
