@@ -2,17 +2,10 @@
 // Entry point of the clausegate command.
 // First, so that the flag is set before any other module runs (see exposeGc.ts).
 import "./exposeGc.js";
-import { discardOutputs } from "./output.js";
-import { main } from "./main.js";
+import { runCommand } from "./relaunch.js";
 
-process.stdout.on("error", (e: NodeJS.ErrnoException) => {
-  // A reader that stops early (clausegate oracle f.cnf | head) is not an error.
-  if (e.code === "EPIPE") process.exit(0);
-  discardOutputs();
-  process.stderr.write(`clausegate: error: cannot write to standard output (${e.code ?? e.message}); hint: check the disk space or the program reading the output, or write to a file with -o\n`);
-  process.exit(2);
-});
-
-main(process.argv.slice(2)).then((code) => {
-  process.exitCode = code;
+// Over a large input the command runs in a child with a fixed malloc threshold (relaunch.ts);
+// this process then loads nothing more.
+runCommand(() => {
+  void import("./start.js");
 });
