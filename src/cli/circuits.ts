@@ -27,6 +27,6 @@ export function writeCircuit(circuit: Circuit, format: Format, comments: readonl
     else if (format === "qasm2") emitQasm2(circuit, sink, comments);
     else emitJson(circuit, sink, comments);
   };
-  writeAtomic(output ?? "-", emit, "the circuit");
+  writeAtomic(output ?? "-", emit, "the circuit", true);
 }
 

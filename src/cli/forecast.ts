@@ -344,7 +344,7 @@ function singleText(r: Row): string[] {
   } else if (g !== undefined) lines.push(`  ${r.limit}`);
   if (r.log10ClassicalSeconds !== undefined) {
     lines.push(
-      `  classical brute force: ${formatLog10Count(r.log10Evaluations!)} evaluations expected (${g?.solutionsSource === "exact" ? "N/M" : "N: M unknown"}) at ${formatCount(Math.round(r.rate))} assignments/s ` +
+      `  classical brute force: ${formatLog10Count(r.log10Evaluations!)} ${r.log10Evaluations === 0 ? "evaluation" : "evaluations"} expected (${g?.solutionsSource === "exact" ? "N/M" : "N: M unknown"}) at ${formatCount(Math.round(r.rate))} assignments/s ` +
         `(clausegate's bit-parallel evaluator on this formula, measured for ${r.measuredSeconds.toPrecision(2)} s): ${formatLog10Seconds(r.log10ClassicalSeconds)}`,
     );
   }

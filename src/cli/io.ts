@@ -96,10 +96,11 @@ export function printDiagnostics(ds: readonly Diagnostic[], file: string): void 
 
 /**
  * Writes an output through the run's output transaction (see output.ts): checked destination,
- * temporary file, renamed into place only when the command succeeds. `-` is standard output.
+ * temporary file, renamed into place only when the command succeeds. `-` is standard output:
+ * `stream` text goes there at once (a circuit), other text when the command succeeds.
  */
-export function writeAtomic(path: string, produce: (write: (chunk: string) => void) => void, what = "the output"): void {
-  writeOutput(path, what, produce);
+export function writeAtomic(path: string, produce: (write: (chunk: string) => void) => void, what = "the output", stream = false): void {
+  writeOutput(path, what, produce, stream);
 }
 
 /** Writes to standard output in order (synchronous for files and pipes on Linux, so nothing piles up). */

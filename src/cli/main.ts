@@ -96,7 +96,7 @@ export async function main(argv: string[]): Promise<number> {
     // Signals that arrived during synchronous work are handled here, before anything is committed.
     await checkpoint();
     if (code === EXIT_BAD_INPUT) discardOutputs();
-    else commitOutputs();
+    else await commitOutputs();
     return code;
   } catch (e) {
     discardOutputs();

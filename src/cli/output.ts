@@ -38,8 +38,13 @@ const fileId = (s: Stats): string => `${s.dev}:${s.ino}`;
 
 /** Records a file the run reads, so that no output may replace it. */
 export function noteInput(path: string): void {
-  if (path === "-") return;
   try {
+    // Standard input redirected from a file (oracle - -o f.cnf < f.cnf) is that file.
+    if (path === "-") {
+      const s = fstatSync(0);
+      if (s.isFile()) inputs.set(fileId(s), "on standard input");
+      return;
+    }
     inputs.set(fileId(statSync(path)), path);
   } catch {
     // An input that cannot be stat'ed is reported by the reader.
@@ -62,6 +67,8 @@ function kindOf(s: Stats): string {
  */
 function destination(path: string, what: string): { dest: string; existing: Stats | undefined } {
   if (path === "") throw new OutputError(`clausegate: error: the path given for ${what} is empty; hint: name a file, or - for standard output`);
+  // resolve() would drop a trailing slash or dot: "out.qasm/" names a folder, not the file.
+  if (/\/$|(^|\/)\.{1,2}$/.test(path)) throw new OutputError(`${path}: error: ${what} needs a file name, and this path names a folder; hint: name a file, e.g. ${join(path, "out")}`);
   let dest = resolve(path);
   let existing: Stats | undefined;
   try {
@@ -69,8 +76,9 @@ function destination(path: string, what: string): { dest: string; existing: Stat
     if (l.isSymbolicLink()) {
       try {
         existing = statSync(dest);
-      } catch {
-        throw new OutputError(`${path}: error: ${what} would go through a symbolic link to nothing; hint: remove the link or name a regular file`);
+      } catch (e) {
+        const loop = (e as { code?: string }).code === "ELOOP";
+        throw new OutputError(`${path}: error: ${what} would go through ${loop ? "a loop of symbolic links" : "a symbolic link to nothing"}; hint: remove the link or name a regular file`);
       }
       if (existing.isFile()) dest = realpathSync(dest);
     } else existing = l;
@@ -149,10 +157,17 @@ export function isIoError(e: unknown): boolean {
  * to a temporary file that {@link commitOutputs} renames into place. `what` names the output
  * in messages (e.g. "the circuit", "the report").
  */
-export function writeOutput(path: string, what: string, produce: (write: (chunk: string) => void) => void): void {
-  if (path === "-") {
+export function writeOutput(path: string, what: string, produce: (write: (chunk: string) => void) => void, stream = false): void {
+  if (path === "-" || standardStream(path, what) === 1) {
     destinationStdout(what);
-    produce(writeStdout);
+    // A circuit may be hundreds of MB: streamed. Anything else waits for the run to succeed, so
+    // that a later output's failure prints nothing before its error line.
+    if (stream) produce(writeStdout);
+    else {
+      const parts: string[] = [];
+      produce((chunk) => parts.push(chunk));
+      printLater(parts.join(""));
+    }
     return;
   }
   const { dest, existing } = destination(path, what);
@@ -208,12 +223,38 @@ function destinationStdout(what: string): void {
  * after the first had already reached standard output, or after minutes of compiling.
  */
 export function claimOutput(what: string, path: string | undefined): void {
-  if (path === "-") destinationStdout(what);
+  if (path === "-" || (path !== undefined && standardStream(path, what) === 1)) destinationStdout(what);
   else if (path !== undefined) destination(path, what);
+}
+
+/**
+ * 1 when `path` is the file standard output already writes (/dev/stdout, /proc/self/fd/1, or the
+ * file it is redirected to): written through it, as `-`, never replaced (a rename over it would
+ * drop what the shell appended and what else the run prints). Standard error's file is refused.
+ */
+function standardStream(path: string, what: string): 1 | undefined {
+  if (path === "") return undefined;
+  let id: string;
+  try {
+    id = fileId(statSync(path));
+  } catch {
+    return undefined;
+  }
+  const idOf = (fd: number): string | undefined => {
+    try {
+      return fileId(fstatSync(fd));
+    } catch {
+      return undefined;
+    }
+  };
+  if (id === idOf(1)) return 1;
+  if (id === idOf(2)) throw new OutputError(`${path}: error: ${what} would go to standard error's file; hint: write it to standard output with -o - or name another file`);
+  return undefined;
 }
 
 /** Writes to standard output now (streamed output; synchronous for files and pipes on Linux). */
 export function writeStdout(chunk: string): void {
+  streamed = true;
   process.stdout.write(chunk);
 }
 
@@ -232,8 +273,34 @@ export async function checkpoint(): Promise<void> {
   await new Promise((done) => setImmediate(done));
 }
 
-/** Moves every temporary file onto its destination and prints held-back output. */
-export function commitOutputs(): void {
+/** Set while commitOutputs waits for standard output (see settleOnClosedReader). */
+let committing = false;
+/** Output streamed to standard output this run (writeStdout). */
+let streamed = false;
+
+/**
+ * Prints held-back output, waits until standard output has taken it and everything streamed
+ * before, then moves every temporary file onto its destination. A failed standard output ends
+ * the run in its error handler (start.ts) before any file is moved: no output file then.
+ */
+export async function commitOutputs(): Promise<void> {
+  const text = heldStdout.join("");
+  heldStdout = [];
+  // Nothing went to standard output: nothing to wait for.
+  if (text === "" && !streamed) {
+    movePending();
+    return;
+  }
+  committing = true;
+  const failed = await new Promise<boolean>((done) => {
+    process.stdout.write(text, (e) => done(e !== null && e !== undefined));
+  });
+  committing = false;
+  if (failed) return;
+  movePending();
+}
+
+function movePending(): void {
   try {
     for (const p of pending) renameSync(p.tmp, p.dest);
   } catch (e) {
@@ -241,8 +308,20 @@ export function commitOutputs(): void {
     throw new OutputError(`clausegate: error: cannot move the output into place (${reason(e)}); hint: check the folder's permissions`);
   }
   pending.length = 0;
-  for (const t of heldStdout) process.stdout.write(t);
-  heldStdout = [];
+}
+
+/**
+ * Standard output's reader went away (clausegate oracle f.cnf -o c.qasm --report - | head): not an
+ * error. Files of a run that had finished are moved into place; a run cut short leaves none.
+ */
+export function settleOnClosedReader(): void {
+  if (committing) {
+    try {
+      movePending();
+    } catch {
+      discardOutputs();
+    }
+  } else discardOutputs();
 }
 
 /** Removes every temporary file of the run and forgets held-back output. */
@@ -287,5 +366,6 @@ export function resetOutputs(): void {
   inputs.clear();
   claimed.clear();
   stdoutClaim = undefined;
+  streamed = false;
   removeHandlers();
 }

@@ -216,6 +216,9 @@ export interface Layout {
  */
 export const SEARCH_REGISTER = "vars";
 
+/** Name of the classical register of measurement outcomes (the only one a circuit file may declare). */
+export const OUTCOME_REGISTER = "outcome";
+
 export function registersOf(search: number, target: number, qubits: number): Register[] {
   const regs: Register[] = [{ name: SEARCH_REGISTER, role: "search", start: 0, size: search }];
   if (target > 0) regs.push({ name: "target", role: "target", start: search, size: target });

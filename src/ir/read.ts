@@ -9,7 +9,7 @@
  * byte-order mark is skipped, and line 1 starts after it).
  */
 import { place, type Diagnostic, type Finding } from "../diag/diagnostic.js";
-import { CircuitBuilder, SEARCH_REGISTER, type Circuit } from "./circuit.js";
+import { CircuitBuilder, OUTCOME_REGISTER, SEARCH_REGISTER, type Circuit } from "./circuit.js";
 import { firstInvalidUtf8, JsonScanner, JsonSyntaxError, shownByte, shownValue, type JsonNode } from "./json.js";
 import { encodeQubit, GATE_KINDS, K, type GateKind } from "./kinds.js";
 import {
@@ -478,6 +478,9 @@ class Qasm3Reader {
     if (size > max) throw qstop(sizeAt, `expected a register size in 0..${max} but found ${sizeText}`);
     if (type === "bit") {
       if (this.clbitName !== "") throw qstop(at, `expected one bit register but found a second, '${name}'`);
+      // The one name clausegate writes: any other could clash with a gate of stdgates.inc, a
+      // keyword or a qubit register (ill-formed OpenQASM 3 that a parser may still accept).
+      if (name !== OUTCOME_REGISTER) throw qstop(nameAt, `expected the bit register to be named ${OUTCOME_REGISTER} but found '${name}'`);
       this.clbitName = name;
       this.clbitCount = size;
       return;

@@ -329,7 +329,7 @@ function verdict(run: Run, inputs: SampledInputs | null, free: boolean): Omit<Ve
   if (!inputs.hasNonModels) notes.push(`${NO_NON_MODELS} (every clause holds a literal and its negation)`);
   if (run.models === 0 && s.status !== "unsat") {
     unchecked = s.status === "unknown"
-      ? `no satisfying assignment was checked: the CDCL solver spent its budget of ${s.conflictLimit} conflicts without finding one or proving that there is none`
+      ? `no satisfying assignment was checked: the CDCL solver spent its budget of ${s.conflictLimit} ${s.conflictLimit === 1 ? "conflict" : "conflicts"} without finding one or proving that there is none`
       : "no satisfying assignment was checked";
   } else if (nonModels === 0 && inputs.hasNonModels) {
     unchecked = free ? "no register value outside the formula's projection was checked" : "no assignment that falsifies the formula was checked";

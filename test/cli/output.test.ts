@@ -173,6 +173,72 @@ describe("output destinations", () => {
   });
 });
 
+describe("standard streams, folders and standard input as destinations", () => {
+  const sh = (script: string): { code: number | null; stdout: string; stderr: string } => {
+    const r = spawnSync("bash", ["-c", script], { cwd: dir, encoding: "utf8", env: { ...process.env, NO_COLOR: "1" } });
+    return { code: r.status, stdout: r.stdout, stderr: r.stderr };
+  };
+  it("writes -o /dev/stdout through standard output: a file appended to keeps its lines", () => {
+    const log = join(dir, "append.log");
+    writeFileSync(log, "earlier line\n");
+    const r = sh(`node ${BIN} oracle ${EXAMPLE} -o /dev/stdout >> ${log}`);
+    expect(r.code).toBe(0);
+    const text = readFileSync(log, "utf8");
+    expect(text.startsWith("earlier line\nOPENQASM 3.0;")).toBe(true);
+  });
+  it("refuses -o /dev/stdout beside another output on standard output, and -o /dev/stderr", () => {
+    const both = sh(`node ${BIN} search ${EXAMPLE} -o /dev/stdout --report - > ${join(dir, "both.txt")}`);
+    expect(both.code).toBe(2);
+    oneLine(both.stderr);
+    expect(readFileSync(join(dir, "both.txt"), "utf8")).toBe("");
+    const err = sh(`node ${BIN} oracle ${EXAMPLE} -o /dev/stderr 2> ${join(dir, "err.txt")}`);
+    expect(err.code).toBe(2);
+    expect(readFileSync(join(dir, "err.txt"), "utf8")).toMatch(/standard error's file/);
+  });
+  it.skipIf(!existsSync("/dev/full"))("moves no output file into place when standard output fails", () => {
+    const plot = join(dir, "never.svg");
+    const r = sh(`node ${BIN} forecast ${EXAMPLE} --plot ${plot} > /dev/full`);
+    expect(r.code).toBe(2);
+    oneLine(r.stderr);
+    expect(existsSync(plot)).toBe(false);
+    expect(leftovers(dir)).toEqual([]);
+  });
+  it.skipIf(!existsSync("/proc/self"))("prints a report for standard output only when every file output was written", () => {
+    const r = sh(`node ${BIN} oracle ${EXAMPLE} -o /proc/self/never.qasm --report -`);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+  });
+  it.skipIf(!existsSync("/dev/full"))("goes on when standard error cannot be written: the file is written, no temporary file left", () => {
+    const out = join(dir, "noerr.qasm");
+    // A note on standard error (the formula is simplified) that cannot be shown.
+    writeFileSync(join(dir, "dup.cnf"), "p cnf 2 2\n1 2 0\n1 2 0\n");
+    const r = sh(`node ${BIN} oracle ${join(dir, "dup.cnf")} -o ${out} 2>/dev/full`);
+    expect(r.code).toBe(0);
+    expect(readFileSync(out, "utf8")).toMatch(/^OPENQASM 3\.0;/);
+    expect(leftovers(dir)).toEqual([]);
+  });
+  it("refuses a path that names a folder (a trailing slash or dot) instead of replacing the file before it", () => {
+    const file = join(dir, "kept.txt");
+    writeFileSync(file, "kept\n");
+    for (const p of [`${file}/`, `${file}/.`, join(dir, "nofolder") + "/"]) {
+      const r = cli(["oracle", EXAMPLE, "-o", p]);
+      expect(r.code, p).toBe(2);
+      oneLine(r.stderr);
+      expect(r.stderr).toMatch(/names a folder/);
+    }
+    expect(readFileSync(file, "utf8")).toBe("kept\n");
+    expect(existsSync(join(dir, "nofolder"))).toBe(false);
+  });
+  it("refuses to replace the file standard input reads", () => {
+    const input = join(dir, "stdin.cnf");
+    writeFileSync(input, readFileSync(EXAMPLE));
+    const r = sh(`node ${BIN} oracle - -o ${input} < ${input}`);
+    expect(r.code).toBe(2);
+    oneLine(r.stderr);
+    expect(readFileSync(input, "utf8")).toBe(readFileSync(EXAMPLE, "utf8"));
+  });
+});
+
 describe("signals during a write", () => {
   // A formula whose OpenQASM output takes a few seconds to write, so a signal lands mid-write.
   const big = join(dir, "big.cnf");

@@ -193,6 +193,10 @@ describe("readCircuitQasm3: every fault class is refused at the offending operan
     ["a target of two qubits", `OPENQASM 3.0;\n// ${WIDE}\nqubit[§2] target;\n`, /expected the target register to hold 1 qubit but found 2/],
     ["a declaration after a gate", `${head}x vars[0];\n§qubit[2] more;\n`, /expected declarations before the first gate/],
     ["a second bit register", `${head}§bit[1] more;\n`, /expected one bit register but found a second, 'more'/],
+    // A bit register named as a stdgates.inc gate, a keyword or a qubit register is ill-formed OpenQASM 3.
+    ["a bit register named ccx", `OPENQASM 3.0;\ninclude "stdgates.inc";\nqubit[4] vars;\nbit[2] §ccx;\n`, /expected the bit register to be named outcome but found 'ccx'/],
+    ["a bit register named measure", `OPENQASM 3.0;\nqubit[4] vars;\nbit[2] §measure;\n`, /found 'measure'/],
+    ["a bit register named vars", `OPENQASM 3.0;\nqubit[4] vars;\nbit[2] §vars;\n`, /found 'vars'/],
     ["OpenQASM 2", `§OPENQASM 2.0;\ninclude "qelib1.inc";\n`, /expected OpenQASM 3 or clausegate JSON but found OpenQASM 2\.0/],
     ["no version line", `// ${WIDE}\n§qubit[4] vars;\n`, /expected 'OPENQASM 3\.0;' first/],
     // Text that is no OpenQASM: said so, not that its first line lacks a ';'.

@@ -3,12 +3,11 @@
  * generator, so a million-gate circuit is never held as a tree).
  */
 import { GATE_KINDS, K } from "../../ir/kinds.js";
-import { negated, operands, qubitOf, type Circuit } from "../../ir/circuit.js";
+import { negated, operands, OUTCOME_REGISTER, qubitOf, type Circuit } from "../../ir/circuit.js";
 import { angleText, qubitNamer } from "../names.js";
 import type { Program, QuantumGate, QuantumGateModifier, Statement } from "./ast.js";
 
-/** Classical register for measurement outcomes. */
-export const OUTCOME_REGISTER = "outcome";
+export { OUTCOME_REGISTER };
 
 export function programHead(c: Circuit, comments: readonly string[]): Program {
   return {
