@@ -70,6 +70,12 @@ export interface OracleOptions {
    * to the other, then to fewer qubits. Given without `maxQubits`, chooses among all candidates.
    */
   readonly prefer?: Prefer;
+  /**
+   * Told how far compiling has come, as a fraction rising to 1: after planning, synthesis,
+   * lowering and each optimizer pass (a million clauses in Clifford+T take a minute or more).
+   * For a progress display; nothing else depends on it.
+   */
+  readonly onProgress?: (fraction: number) => void;
 }
 
 /** A compiled oracle. */
@@ -77,7 +83,7 @@ export interface Oracle {
   /** The circuit in the chosen basis: search register `vars` (vars[v-1] is variable v), `target`, `work`. */
   readonly circuit: Circuit;
   /** The options it was compiled with, defaults filled in. */
-  readonly options: Required<OracleOptions>;
+  readonly options: Required<Omit<OracleOptions, "onProgress">>;
   /** Declared variables of the formula (the size of the search register). */
   readonly variables: number;
   /** Clauses in the input. */
@@ -102,7 +108,7 @@ export interface Oracle {
  * structure on, no budget. A compiled oracle's `options.construction` names the construction it
  * was built with.
  */
-export const DEFAULT_ORACLE_OPTIONS: Required<OracleOptions> = {
+export const DEFAULT_ORACLE_OPTIONS: Required<Omit<OracleOptions, "onProgress">> = {
   kind: "phase",
   strategy: "wide",
   basis: "toffoli",
@@ -183,19 +189,30 @@ function planWith(cnf: Cnf, options: OracleOptions, oraclePlan: OraclePlan): Con
 }
 
 /** Lowers and optimizes a logical circuit (cost/built.ts repeats these steps; a test holds them equal). */
-function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: boolean, validate: boolean): Circuit {
+function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: boolean, validate: boolean, onProgress?: (fraction: number) => void): Circuit {
   // Reuse work qubits first: a wire that one AND releases and the next takes up then shows the
   // optimizer the gate pairs at the seam (H H, T Tdg) that cancel.
+  onProgress?.(PROGRESS_SYNTHESIZED);
   const lowered = lower(logical, { basis, uncompute });
+  onProgress?.(PROGRESS_LOWERED);
   let c = reuseWork(lowered);
   if (c !== lowered) recycleCircuit(lowered);
+  onProgress?.(PROGRESS_REUSED);
   if (optimize) {
     const input = c;
-    c = runPasses(c, DEFAULT_PIPELINE, { validate, recycle: true });
+    const passes = onProgress && ((done: number, total: number): void => onProgress(PROGRESS_REUSED + ((1 - PROGRESS_REUSED) * done) / total));
+    c = runPasses(c, DEFAULT_PIPELINE, { validate, recycle: true, ...(passes ? { onProgress: passes } : {}) });
     if (c !== input) recycleCircuit(input);
   }
+  onProgress?.(1);
   return c;
 }
+
+/** Where compiling stands after planning, synthesis, lowering and work-qubit reuse (the passes take the rest; rough shares of a Clifford+T compile). */
+const PROGRESS_PLANNED = 0.1;
+const PROGRESS_SYNTHESIZED = 0.25;
+const PROGRESS_LOWERED = 0.45;
+const PROGRESS_REUSED = 0.55;
 
 /**
  * Compiles a formula into an oracle circuit: the oracle plan first (which variables the search
@@ -213,6 +230,7 @@ function finish(logical: Circuit, basis: Basis, uncompute: Uncompute, optimize: 
  */
 export function compileOracle(cnf: Cnf, options: OracleOptions = {}): Oracle {
   const oraclePlan = oraclePlanOf(cnf, options);
+  options.onProgress?.(PROGRESS_PLANNED);
   const plan = planWith(cnf, options, oraclePlan);
   if (!plan.ok) throw new RangeError(plan.message);
   const oracle = compilePlanned(cnf, options, plan, oraclePlan);
@@ -225,12 +243,13 @@ export function compileOracle(cnf: Cnf, options: OracleOptions = {}): Oracle {
  * does; the plan's figures are those of the Clifford+T circuit, which another basis may exceed).
  */
 export function compilePlanned(cnf: Cnf, options: OracleOptions, plan: ConstructionPlan & { ok: true }, oraclePlan: OraclePlan = oraclePlanOf(cnf, options)): Oracle | null {
-  const o = { ...DEFAULT_ORACLE_OPTIONS, ...options };
+  // The options the oracle records: what was built, not who watched.
+  const { onProgress: _watcher, ...o } = { ...DEFAULT_ORACLE_OPTIONS, ...options };
   const Q = options.maxQubits ?? Infinity;
   for (const name of plan.constructions) {
     const c = parseConstruction(name) as Construction;
     const logical = synthesizePlanned(oraclePlan, o.kind, c);
-    const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
+    const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses, options.onProgress);
     if (circuit.qubits > Q) continue;
     return {
       circuit, options: { ...o, construction: constructionName(c) }, variables: cnf.variables, clauses: clauseCount(cnf), simplification: summary(oraclePlan.clauses),
@@ -337,7 +356,7 @@ export function searchConstruction(cnf: Cnf, options: SearchOptions): { ok: true
   for (const name of plan.constructions) {
     const c = parseConstruction(name) as Construction;
     const logical = searchAround(synthesizePlanned(oraclePlan, "phase", c), n, options.iterations, options.measure ?? true);
-    const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses);
+    const circuit = finish(logical, o.basis, o.uncompute, o.optimize, o.validatePasses, options.onProgress);
     if (circuit.qubits <= Q) return { ok: true, construction: constructionName(c), circuit };
     smallest = Math.min(smallest, circuit.qubits);
   }

@@ -39,3 +39,24 @@ describe("public API", () => {
     expect(r.verified).toBe(true);
   });
 });
+
+describe("compile progress", () => {
+  it("tells rising fractions up to 1 through planning, synthesis, lowering and each pass, and records no watcher in the options", () => {
+    const { cnfFromClauses, compileOracle } = api;
+    const cnf = cnfFromClauses(4, [[1, 2, -3], [-1, 3, 4], [2, -4]]);
+    const seen: number[] = [];
+    const oracle = compileOracle(cnf, { basis: "clifford+t", onProgress: (f) => seen.push(f) });
+    expect(seen.length).toBeGreaterThan(5);
+    for (let i = 1; i < seen.length; i++) expect(seen[i]!).toBeGreaterThanOrEqual(seen[i - 1]!);
+    expect(seen[seen.length - 1]).toBe(1);
+    expect("onProgress" in oracle.options).toBe(false);
+    // Watching changes nothing of the circuit.
+    expect(emitQasm3String(oracle.circuit)).toBe(emitQasm3String(compileOracle(cnf, { basis: "clifford+t" }).circuit));
+  });
+});
+
+function emitQasm3String(c: api.Circuit): string {
+  let s = "";
+  api.emitQasm3(c, (chunk) => (s += chunk));
+  return s;
+}

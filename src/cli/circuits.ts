@@ -1,6 +1,6 @@
 /** Writing circuits in the output formats, shared by the commands that make circuits. */
 import { emitJson, emitQasm2, emitQasm3, qasm2Problem, type Circuit } from "../internal.js";
-import { UserError, writeAtomic } from "./io.js";
+import { UserError, withProgress, writeAtomic } from "./io.js";
 
 /** The output formats of the circuit-writing commands. */
 export const FORMATS = ["qasm3", "qasm2", "json"] as const;
@@ -27,6 +27,24 @@ export function writeCircuit(circuit: Circuit, format: Format, comments: readonl
     else if (format === "qasm2") emitQasm2(circuit, sink, comments);
     else emitJson(circuit, sink, comments);
   };
-  writeAtomic(output ?? "-", emit, "the circuit", true);
+  if (output === undefined || output === "-") {
+    writeAtomic("-", emit, "the circuit", true);
+    return;
+  }
+  // Into a file: a bar by bytes against an estimate (OpenQASM 3 some 30 bytes a gate).
+  const expected = Math.max(1, circuit.gates * (format === "json" ? 40 : 30));
+  withProgress("writing", (onProgress) => {
+    let bytes = 0;
+    let next = 0;
+    writeAtomic(output, (sink) => emit((chunk) => {
+      sink(chunk);
+      bytes += chunk.length;
+      if (bytes >= next) {
+        onProgress(Math.min(0.99, bytes / expected));
+        next = bytes + (1 << 20);
+      }
+    }), "the circuit", true);
+    onProgress(1);
+  });
 }
 

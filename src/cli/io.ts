@@ -117,6 +117,21 @@ export function etaText(seconds: number): string {
   return `${Math.floor(s / 3600)} h ${Math.floor((s % 3600) / 60)} min`;
 }
 
+/** Runs `work` with a progress bar (see progress) that never goes back, stopped however the work ends. */
+export function withProgress<T>(label: string, work: (onProgress: (fraction: number) => void) => T): T {
+  const bar = progress(label);
+  let high = 0;
+  try {
+    return work((f) => {
+      if (f < high) return;
+      high = f;
+      bar.update(f);
+    });
+  } finally {
+    bar.stop();
+  }
+}
+
 /**
  * A progress reporter that shows a bar on a TTY only, and only once the work has run for a
  * second (short runs stay quiet). The time left is our own estimate (elapsed / done x left),
@@ -133,7 +148,7 @@ export function progress(label: string): { update: (fraction: number) => void; s
       const left = fraction >= 0.02 ? etaText((elapsed / fraction) * (1 - fraction)) : "estimating";
       if (bar === undefined) {
         bar = new Bar({ format: `${label} [{bar}] {percentage}% | {left} left`, stream: process.stderr, etaBuffer: 1 }, Presets.shades_classic);
-        bar.start(1000, 0, { left });
+        bar.start(1000, Math.round(Math.min(1, Math.max(0, fraction)) * 1000), { left });
       }
       bar.update(Math.round(Math.min(1, Math.max(0, fraction)) * 1000), { left });
     },

@@ -1,7 +1,7 @@
 /** Shared argument checks for the commands. */
 import { parseArgs, type ParseArgsConfig } from "node:util";
 import { compilePlanned, planConstruction, searchConstruction, type Cnf, type Oracle, type OracleOptions, type RegisterMode } from "../internal.js";
-import { plural, UserError } from "./io.js";
+import { plural, UserError, withProgress } from "./io.js";
 import { noteInput } from "./output.js";
 
 /**
@@ -173,7 +173,7 @@ function planHint(o: OracleOptions, smallest: number | undefined, command: strin
 export function compileWithOptions(cnf: Cnf, o: CliOracleOptions, command: string): Oracle {
   const plan = planConstruction(cnf, o);
   if (!plan.ok) throw new UserError(`clausegate ${command}: error: ${plan.message}; hint: ${planHint(o, plan.smallestQubits, command)}`);
-  const oracle = compilePlanned(cnf, o, plan);
+  const oracle = withProgress("compiling", (onProgress) => compilePlanned(cnf, { ...o, onProgress }, plan));
   if (oracle === null) {
     throw new UserError(`clausegate ${command}: error: no construction's ${o.basis} circuit fits in ${plural(o.maxQubits ?? Infinity, "qubit")}; hint: raise --max-qubits, or try --basis clifford+t`);
   }

@@ -5,7 +5,7 @@ import {
   successAfterIterations, type BigCount, type Circuit, type Cnf, type OracleOptions, type ScheduleRound, type SearchPlan,
   type Solutions,
 } from "../internal.js";
-import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, plural, progress, UserError, writeAtomic } from "./io.js";
+import { checkCircuitSize, checkFreeRegister, displayName, EXIT_UNSATISFIABLE, loadCnf, plural, progress, UserError, withProgress, writeAtomic } from "./io.js";
 import { claimOutput, printLater } from "./output.js";
 import {
   basicOptions, choice, compileWithOptions, constructionLabel, constructionPhrase, intOption, oneInput, ORACLE_ARGS, ORACLE_HELP, oracleOptions, REGISTER_ARGS,
@@ -493,6 +493,10 @@ export async function searchCommand(argv: string[]): Promise<number> {
   if (values.kind !== undefined) throw new UserError("clausegate search: error: --kind is not an option of search: a search always uses the phase oracle; hint: leave out --kind");
   let o = oracleOptions(values, "free");
   const sampling = shotsOptions(values);
+  // With --shots the circuit is written only where -o says: a format for no file is a mistake.
+  if (sampling.shots !== undefined && values.output === undefined && values.format !== undefined) {
+    throw new UserError("clausegate search: error: --format sets the circuit file's format, but with --shots the circuit is written only with -o; hint: add -o FILE to write the circuit, or leave out --format");
+  }
   if (values.solutions === "unknown") throw new UserError("clausegate search: error: --solutions unknown cannot set k; hint: give --iterations K (clausegate plan --solutions unknown prints a schedule)");
   // Every output that goes to standard output is claimed before any is written.
   if (sampling.complete !== undefined) claimOutput("the completions", "-");
@@ -515,7 +519,7 @@ export async function searchCommand(argv: string[]): Promise<number> {
   o = settleSearchOptions(original, o, "search");
   checkSearchSize(file, original, problem.n, o, K, values.report !== undefined);
   if (sampling.shots !== undefined) checkShots(file, original, problem, o, K, sampling.shots);
-  const circuit = compileSearch(original, { ...o, iterations: K });
+  const circuit = withProgress("compiling", (onProgress) => compileSearch(original, { ...o, iterations: K, onProgress }));
   checkFormat(circuit, format);
   const comments = [
     `clausegate search circuit: ${plural(problem.n, "search qubit")}, ${plural(K, "iteration")}`,
@@ -599,15 +603,19 @@ function drawCandidates(o: CliOracleOptions): { options: CliOracleOptions; flags
   // A construction settled by a budget is drawn as it is (another basis only ever needs fewer qubits).
   const { maxQubits: _budget, ...base } = o;
   const current = o.strategy ?? "wide";
-  for (const strategy of fixed ? [undefined] : (["wide", "lean"] as const)) {
-    for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
-      for (const uncompute of ["unitary", "measured"] as const) {
-        const flags = [
-          ...(strategy !== undefined && strategy !== current ? [`--strategy ${strategy}`] : []),
-          ...(basis !== o.basis ? [`--basis ${basis}`] : []),
-          ...(uncompute !== o.uncompute ? [`--uncompute ${uncompute}`] : []),
-        ];
-        if (flags.length > 0) out.push({ options: { ...(o.construction !== undefined ? base : o), ...(strategy !== undefined ? { strategy } : {}), basis, uncompute }, flags });
+  // The free register leaves out variables that unit propagation fixes or the formula defines.
+  for (const register of o.register === "full" ? (["full", "free"] as const) : [o.register]) {
+    for (const strategy of fixed ? [undefined] : (["wide", "lean"] as const)) {
+      for (const basis of ["mcx", "toffoli", "clifford+t"] as const) {
+        for (const uncompute of ["unitary", "measured"] as const) {
+          const flags = [
+            ...(register !== o.register ? [`--register ${register}`] : []),
+            ...(strategy !== undefined && strategy !== current ? [`--strategy ${strategy}`] : []),
+            ...(basis !== o.basis ? [`--basis ${basis}`] : []),
+            ...(uncompute !== o.uncompute ? [`--uncompute ${uncompute}`] : []),
+          ];
+          if (flags.length > 0) out.push({ options: { ...(o.construction !== undefined ? base : o), register, ...(strategy !== undefined ? { strategy } : {}), basis, uncompute }, flags });
+        }
       }
     }
   }

@@ -13,6 +13,8 @@ export interface RunPassesOptions {
    * callers that keep none of the intermediates; ignored when `onPass` is given.
    */
   readonly recycle?: boolean;
+  /** Told after each pass how many of the passes named have run (for a progress display). */
+  readonly onProgress?: (done: number, total: number) => void;
 }
 
 /** Thrown when a pass leaves a circuit that breaks an invariant. */
@@ -33,7 +35,10 @@ export function runPasses(c: Circuit, names: readonly string[], opts: RunPassesO
   const lastOutput = new Map<string, Circuit>();
   const input = c;
   const recycle = opts.recycle === true && opts.onPass === undefined;
+  let done = 0;
   for (const name of names) {
+    done++;
+    opts.onProgress?.(done - 1, names.length);
     const pass = PASSES[name];
     if (pass === undefined) throw new Error(`unknown pass '${name}'`);
     if (lastOutput.get(name) === c) continue;
@@ -47,5 +52,6 @@ export function runPasses(c: Circuit, names: readonly string[], opts: RunPassesO
     }
     opts.onPass?.(name, c);
   }
+  opts.onProgress?.(names.length, names.length);
   return c;
 }

@@ -32,6 +32,8 @@ export interface OracleCheck {
    * on a register value (default: the formula on the assignment itself).
    */
   readonly register?: { readonly size: number; readonly value: (assignment: boolean[]) => boolean } | undefined;
+  /** Told after each assignment checked, with how many so far (a Clifford+T run takes a second or more each). */
+  readonly onChecked?: ((done: number) => void) | undefined;
 }
 
 const TOL = 1e-9;
@@ -56,7 +58,10 @@ export function checkOracleSparse(c: Circuit, cnf: Cnf, opts: OracleCheck): Mism
     for (const x of opts.assignments) yield Array.from({ length: n }, (_, v) => Math.floor(x / 2 ** v) % 2 === 1);
     if (opts.explicit) yield* opts.explicit;
   }
+  let done = 0;
   for (const assignment of all()) {
+    if (done > 0) opts.onChecked?.(done);
+    done++;
     const f = value(assignment);
     const ones = assignment.flatMap((on, v) => (on ? [v] : []));
     const bs = opts.kind === "flag" ? [0, 1] : [0];

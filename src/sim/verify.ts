@@ -530,7 +530,9 @@ function runStateVector(cnf: Cnf, circuit: Circuit, kind: "phase" | "flag", inpu
   const seeds = draws ? [seed, seed + 1] : [seed];
   const register = completion === undefined ? undefined : { size: n, value };
   for (const s of seeds) {
-    const bad = checkOracleSparse(circuit, cnf, { kind, seed: s, assignments: list, explicit: inputs === null ? undefined : assignments, register });
+    // Progress per assignment: a circuit without measurements has one seed, and its run may take minutes.
+    const onChecked = opts.onProgress && ((done: number): void => opts.onProgress!((s - seed + done / Math.max(1, total)) / seeds.length));
+    const bad = checkOracleSparse(circuit, cnf, { kind, seed: s, assignments: list, explicit: inputs === null ? undefined : assignments, register, onChecked });
     opts.onProgress?.((s - seed + 1) / seeds.length);
     if (bad !== null) {
       const { f, shown } = expectedValue(cnf, completion, bad.assignment);

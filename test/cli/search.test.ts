@@ -154,6 +154,15 @@ describe("clausegate plan at any size", { timeout: 60_000 }, () => {
       expect((performance.now() - t0) / 1000).toBeLessThan(30);
     }
   }, 180_000);
+  it("search --shots refuses --format without -o (the circuit is not written; the option would be ignored)", () => {
+    const r = cli(["search", "examples/allotment-pair.cnf", "--shots", "2", "--format", "qasm2"]);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe("");
+    expect(r.stderr).toMatch(/--format sets the circuit file's format, but with --shots the circuit is written only with -o; hint: /);
+    const ok = cli(["search", "examples/allotment-pair.cnf", "--shots", "2", "--format", "qasm2", "-o", join(dir, "shots.qasm")]);
+    expect(ok.code).toBe(0);
+    expect(readFileSync(join(dir, "shots.qasm"), "utf8")).toMatch(/^OPENQASM 2\.0;/);
+  });
   it("search --shots and --complete refuse, before simulating, to print more than 256 MB of assignments (a million declared variables)", () => {
     const input = "p cnf 1000000 2\n1 -2 0\n2 3 0\n";
     const shots = cli(["search", "-", "--shots", "200"], input);
@@ -365,7 +374,8 @@ describe("clausegate draw", { timeout: 60_000 }, () => {
     expect(countClass(svg, "meter")).toBe(4);
   });
   it("refuses a circuit too large to read, saying its size and an option that draws it (computed, and it works)", () => {
-    for (const args of [["examples/launch-rota.cnf"], ["examples/launch-rota.cnf", "--search"]]) {
+    // shed-lock draws only with the free register (no basis or strategy is enough).
+    for (const args of [["examples/launch-rota.cnf"], ["examples/launch-rota.cnf", "--search"], ["examples/shed-lock.cnf"]]) {
       const r = cli(["draw", ...args, "-o", join(dir, "big.svg")]);
       expect(r.code).toBe(2);
       expect(r.stderr.trim().split("\n")).toHaveLength(1);

@@ -364,3 +364,17 @@ describe("a sample counts distinct assignments", () => {
     expect(r.assignments).toBeLessThanOrEqual(2 ** 11);
   });
 });
+
+describe("progress of a state-vector check", () => {
+  it("is reported per assignment, not once at the end (a Clifford+T circuit without measurements has one run)", async () => {
+    const cnf = randomKSat(12, 40, 3, 5);
+    const { circuit } = compileOracle(cnf, { kind: "phase", strategy: "wide", basis: "clifford+t", uncompute: "unitary" });
+    const seen: number[] = [];
+    const r = await verifyOracle(cnf, circuit, { exhaustiveLimit: 4, samples: 20, onProgress: (f) => seen.push(f) });
+    expect(r.verified).toBe(true);
+    // Rising fractions, many of them, the last one 1.
+    expect(seen.length).toBeGreaterThan(10);
+    for (let i = 1; i < seen.length; i++) expect(seen[i]!).toBeGreaterThanOrEqual(seen[i - 1]!);
+    expect(seen[seen.length - 1]).toBe(1);
+  });
+});
