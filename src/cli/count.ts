@@ -24,6 +24,7 @@ Options:
   --no-structure         skip structure recovery: enumerate every variable occurring in a clause
   --threads N            worker threads (default: number of cores)
   -h, --help             show this help
+Exit codes: 0 (an unsatisfiable formula too: models 0), 2 bad input or usage.
 `;
 
 export async function countCommand(argv: string[]): Promise<number> {

@@ -40,6 +40,7 @@ ${registerHelp("full")}
                               if the proof succeeds; takes --conflict-limit and --proof-seconds (the
                               simulation's options and --verify are refused with it)
   -h, --help                  show this help
+Exit codes: 0 written, 1 --verify or --prove failed (nothing written), 2 bad input or usage.
 `;
 
 export const costHelp = `Usage: clausegate cost FILE|- [--kind phase|flag] [--register full|free] [--no-structure] [--threads 1|2] [--json]
@@ -86,6 +87,7 @@ ${registerHelp("full")}
                               with --front: the basis the points' arguments name (default clifford+t, whose
                               emitted circuit has exactly the figures; the figures are Clifford+T's anyway)
   -h, --help                  show this help
+Exit codes: 0, 2 bad input or usage.
 `;
 
 function describe(o: Oracle, cnf: Cnf): string[] {

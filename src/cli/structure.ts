@@ -25,6 +25,7 @@ Options:
   --prefer definitions|groups definitions (default): gate definitions first (fewest free variables);
                               groups: exactly-one and at-most-one groups first
   -h, --help                  show this help
+Exit codes: 0, 2 bad input or usage.
 `;
 
 export async function structureCommand(argv: string[]): Promise<number> {

@@ -15,3 +15,17 @@ describe("exit code 3 in the help texts", () => {
     }
   });
 });
+
+describe("every command's help says its exit codes", () => {
+  it("each help has an 'Exit codes:' line, and each code it names is one the command can give", () => {
+    for (const c of ["oracle", "cost", "count", "structure", "verify", "search", "plan", "forecast", "draw"]) {
+      const help = cli([c, "--help"]).stdout;
+      expect(help, c).toMatch(/Exit codes: /);
+      expect(help, c).toMatch(/2 bad input/);
+    }
+    // count: an unsatisfiable formula is a count of 0, not an error.
+    expect(cli(["count", "-"], UNSAT).code).toBe(0);
+    // oracle --verify on a formula: 0 (a correct oracle is written).
+    expect(cli(["oracle", "-", "--verify"], "p cnf 2 1\n1 2 0\n").code).toBe(0);
+  });
+});
