@@ -188,7 +188,9 @@ export function reportLines(r: VerifyResult, file: string): string[] {
       : s.status === "unknown"
         ? `none found by the CDCL solver within its budget of ${plural(s.conflictLimit, "conflict")}`
         : `${r.register === "free" ? `${plural(s.found, "register value")} of the models` : s.found} found by the CDCL solver in ${plural(s.conflicts, "conflict")}${s.all ? " (all there are)" : ""}`;
-    lines.push(`models: ${found}; also checked: ${plural(r.falsifying, "assignment")} falsifying one clause each, ${r.samples} random`);
+    // Free register: the near misses are model register values with one bit flipped (verify.ts).
+    const near = r.register === "free" ? `${plural(r.falsifying, "register value")} with one bit flipped` : `${plural(r.falsifying, "assignment")} falsifying one clause each`;
+    lines.push(`models: ${found}; also checked: ${near}, ${r.samples} random`);
   }
   for (const note of r.notes) lines.push(`note: ${note}`);
   return lines;

@@ -276,3 +276,14 @@ describe("clausegate verify of a circuit with the wrong register", () => {
     expect(r.stdout).toBe(`${out}: not an oracle for this formula: the search register vars has 4 qubits but the formula declares 40 variables\n`);
   });
 });
+
+describe("clausegate verify --sample with the free register", () => {
+  it("names its near misses as register values with one bit flipped (no clause is falsified by a register value)", () => {
+    const out = join(dir, "rota-free-ok.json");
+    expect(cli(["oracle", "examples/launch-rota.cnf", "--register", "free", "--format", "json", "-o", out]).code).toBe(0);
+    const r = cli(["verify", "examples/launch-rota.cnf", "--register", "free", "--circuit", out, "--exhaustive-limit", "4", "--sample", "--samples", "100"]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/also checked: \d+ register values? with one bit flipped, \d+ random/);
+    expect(r.stdout).not.toMatch(/falsifying one clause/);
+  });
+});
