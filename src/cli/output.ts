@@ -295,8 +295,9 @@ export async function commitOutputs(): Promise<void> {
   const failed = await new Promise<boolean>((done) => {
     process.stdout.write(text, (e) => done(e !== null && e !== undefined));
   });
-  committing = false;
+  // Failed: the error handler decides, whenever it runs (it still sees `committing`).
   if (failed) return;
+  committing = false;
   movePending();
 }
 
@@ -367,5 +368,6 @@ export function resetOutputs(): void {
   claimed.clear();
   stdoutClaim = undefined;
   streamed = false;
+  committing = false;
   removeHandlers();
 }
