@@ -33,7 +33,7 @@
  * Temporary ANDs (logical level): `and` must find its target at 0 and `unand` must find it
  * holding the AND; each adds that condition to the obligations.
  */
-import { GATE_KINDS, K } from "../ir/kinds.js";
+import { GATE_KINDS, K, PHASE_EIGHTHS } from "../ir/kinds.js";
 import type { Circuit } from "../ir/circuit.js";
 import { AND, FALSE, Graph, INPUT, OUTCOME, PATH, TARGET, TRUE, VAR, XOR } from "./graph.js";
 
@@ -292,7 +292,7 @@ export class SymbolicRun {
           break;
         }
         case "s": case "sdg": case "t": case "tdg": {
-          const k = name === "t" ? 1 : name === "s" ? 2 : name === "sdg" ? 6 : 7;
+          const k = PHASE_EIGHTHS[name]!;
           const q = c.ops[s]! >>> 1;
           if (!open || !this.phaseOfForm(k, this.formOf(q), cond)) this.addPhaseAnd(k, w[q]!, cond);
           break;

@@ -12,7 +12,7 @@
  * confirms a counterexample took minutes, most of it in the collector; gates on qubits that hold
  * one value in every term act on a shared mask and phase instead of on each term.
  */
-import { GATE_KINDS } from "../ir/kinds.js";
+import { GATE_KINDS, PHASE_EIGHTHS } from "../ir/kinds.js";
 import { negated, operands, qubitOf, type Circuit } from "../ir/circuit.js";
 export { seededRandom } from "../util/random.js";
 
@@ -462,11 +462,7 @@ export function runSparse(c: Circuit, initial: Term[], random: () => number, opt
         mask[q0 >>> 5]! ^= 1 << (q0 & 31);
         break;
       }
-      case "z": rotateWhere(ops, 1, 4); break;
-      case "s": rotateWhere(ops, 1, 2); break;
-      case "sdg": rotateWhere(ops, 1, 6); break;
-      case "t": rotateWhere(ops, 1, 1); break;
-      case "tdg": rotateWhere(ops, 1, 7); break;
+      case "z": case "s": case "sdg": case "t": case "tdg": rotateWhere(ops, 1, PHASE_EIGHTHS[name]!); break;
       case "gphase": st.phase += ops[0]!; break;
       case "cx": flipWhere(ops, 1, qubitOf(ops[1]!)); break;
       case "cz": rotateWhere(ops, 2, 4); break;
