@@ -1,6 +1,7 @@
 /** Writing circuits in the output formats, shared by the commands that make circuits. */
 import { emitJson, emitQasm2, emitQasm3, qasm2Problem, type Circuit } from "../internal.js";
 import { UserError, withProgress, writeAtomic } from "./io.js";
+import { isStandardOutput } from "./output.js";
 
 /** The output formats of the circuit-writing commands. */
 export const FORMATS = ["qasm3", "qasm2", "json"] as const;
@@ -27,8 +28,8 @@ export function writeCircuit(circuit: Circuit, format: Format, comments: readonl
     else if (format === "qasm2") emitQasm2(circuit, sink, comments);
     else emitJson(circuit, sink, comments);
   };
-  if (output === undefined || output === "-") {
-    writeAtomic("-", emit, "the circuit", true);
+  if (output === undefined || isStandardOutput(output)) {
+    writeAtomic(output ?? "-", emit, "the circuit", true);
     return;
   }
   // Into a file: a bar by bytes against an estimate (OpenQASM 3 some 30 bytes a gate).

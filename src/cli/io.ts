@@ -147,7 +147,10 @@ export function progress(label: string): { update: (fraction: number) => void; s
       if (bar === undefined && elapsed < 1) return;
       const left = fraction >= 0.02 ? etaText((elapsed / fraction) * (1 - fraction)) : "estimating";
       if (bar === undefined) {
-        bar = new Bar({ format: `${label} [{bar}] {percentage}% | {left} left`, stream: process.stderr, etaBuffer: 1 }, Presets.shades_classic);
+        // linewrap null: the terminal's line wrapping is left alone. An interrupt before any output
+        // file exists ends the process at once (no handler, see output.ts), so a bar that turned
+        // wrapping off could never turn it on again.
+        bar = new Bar({ format: `${label} [{bar}] {percentage}% | {left} left`, stream: process.stderr, etaBuffer: 1, linewrap: null, hideCursor: false }, Presets.shades_classic);
         bar.start(1000, Math.round(Math.min(1, Math.max(0, fraction)) * 1000), { left });
       }
       bar.update(Math.round(Math.min(1, Math.max(0, fraction)) * 1000), { left });

@@ -273,32 +273,34 @@ export async function checkpoint(): Promise<void> {
   await new Promise((done) => setImmediate(done));
 }
 
-/** Set while commitOutputs waits for standard output (see settleOnClosedReader). */
-let committing = false;
 /** Output streamed to standard output this run (writeStdout). */
 let streamed = false;
 
 /**
- * Prints held-back output, waits until standard output has taken it and everything streamed
- * before, then moves every temporary file onto its destination. A failed standard output ends
- * the run in its error handler (start.ts) before any file is moved: no output file then.
+ * Prints held-back output, lets a failure of standard output reach its error handler (start.ts:
+ * it ends the run, and no file is moved), then moves every temporary file onto its destination.
  */
 export async function commitOutputs(): Promise<void> {
   const text = heldStdout.join("");
   heldStdout = [];
-  // Nothing went to standard output: nothing to wait for.
-  if (text === "" && !streamed) {
-    movePending();
-    return;
+  if (text !== "") process.stdout.write(text);
+  // Writes to files and pipes are synchronous on Linux; their errors are emitted on the next
+  // ticks, before these turns of the event loop end (a stub that never calls back is no wait).
+  if (text !== "" || streamed) {
+    await new Promise((done) => setImmediate(done));
+    await new Promise((done) => setImmediate(done));
   }
-  committing = true;
-  const failed = await new Promise<boolean>((done) => {
-    process.stdout.write(text, (e) => done(e !== null && e !== undefined));
-  });
-  // Failed: the error handler decides, whenever it runs (it still sees `committing`).
-  if (failed) return;
-  committing = false;
   movePending();
+}
+
+/** Whether `path` names the file standard output writes (so that it is written as `-`). */
+export function isStandardOutput(path: string): boolean {
+  if (path === "-") return true;
+  try {
+    return standardStream(path, "the output") === 1;
+  } catch {
+    return false;
+  }
 }
 
 function movePending(): void {
@@ -312,17 +314,16 @@ function movePending(): void {
 }
 
 /**
- * Standard output's reader went away (clausegate oracle f.cnf -o c.qasm --report - | head): not an
- * error. Files of a run that had finished are moved into place; a run cut short leaves none.
+ * Standard output's reader went away (clausegate oracle f.cnf --report r.json | head): not an
+ * error. The files written so far are whole (each is written in one synchronous stage) and are
+ * moved into place, as a run whose output was read to the end would have.
  */
 export function settleOnClosedReader(): void {
-  if (committing) {
-    try {
-      movePending();
-    } catch {
-      discardOutputs();
-    }
-  } else discardOutputs();
+  try {
+    movePending();
+  } catch {
+    discardOutputs();
+  }
 }
 
 /** Removes every temporary file of the run and forgets held-back output. */
@@ -368,6 +369,5 @@ export function resetOutputs(): void {
   claimed.clear();
   stdoutClaim = undefined;
   streamed = false;
-  committing = false;
   removeHandlers();
 }

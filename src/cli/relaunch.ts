@@ -12,7 +12,7 @@
  * SATLIB `bw_large.d` 278 -> 217 MB. A command over small inputs is not started twice (some 60 ms).
  */
 import { spawn } from "node:child_process";
-import { statSync } from "node:fs";
+import { fstatSync, statSync } from "node:fs";
 import { constants } from "node:os";
 
 /** The variable glibc reads. */
@@ -38,14 +38,19 @@ export function shouldRelaunch(args: readonly string[], env: NodeJS.ProcessEnv =
 }
 
 function isLargeFile(arg: string): boolean {
-  if (arg === "" || arg.startsWith("-")) return false;
+  // `-` is standard input (a file redirected there counts); `--circuit=FILE` names its file after `=`.
+  const path = arg === "-" ? "-" : arg.startsWith("--") && arg.includes("=") ? arg.slice(arg.indexOf("=") + 1) : arg;
+  if (path === "" || (path.startsWith("-") && path !== "-")) return false;
   try {
-    const s = statSync(arg, { throwIfNoEntry: false });
+    const s = path === "-" ? fstatSync(0) : statSync(path, { throwIfNoEntry: false });
     return s !== undefined && s.isFile() && s.size >= RELAUNCH_FROM_BYTES;
   } catch {
     return false;
   }
 }
+
+/** Set in the child's environment (and removed there at once): it is the command relaunched. */
+export const RELAUNCHED_VARIABLE = "CLAUSEGATE_RELAUNCHED";
 
 /**
  * Runs the command in a child process with the threshold set, when shouldRelaunch says so, and
@@ -57,9 +62,11 @@ export function runCommand(runHere: () => void, argv: readonly string[] = proces
     runHere();
     return;
   }
+  // The channel tells the child when this process is gone (killed outright): it then stops
+  // and writes nothing, as this process would have (start.ts).
   const child = spawn(process.execPath, [...process.execArgv, ...argv.slice(1)], {
-    stdio: "inherit",
-    env: { ...process.env, [THRESHOLD_VARIABLE]: THRESHOLD_BYTES },
+    stdio: ["inherit", "inherit", "inherit", "ipc"],
+    env: { ...process.env, [THRESHOLD_VARIABLE]: THRESHOLD_BYTES, [RELAUNCHED_VARIABLE]: "1" },
   });
   const forward = new Map<NodeJS.Signals, () => void>();
   for (const sig of FORWARDED) {

@@ -217,6 +217,16 @@ describe("standard streams, folders and standard input as destinations", () => {
     expect(readFileSync(out, "utf8")).toMatch(/^OPENQASM 3\.0;/);
     expect(leftovers(dir)).toEqual([]);
   });
+  it("keeps the files of a run whose standard output's reader stopped early (exit 0)", () => {
+    const report = join(dir, "kept-report.json");
+    // A formula whose circuit is more than a pipe holds, so that the reader stops mid-circuit.
+    const big = join(dir, "pipe.cnf");
+    writeFileSync(big, `p cnf 400 1600\n${Array.from({ length: 1600 }, (_, i) => `${1 + (i % 400)} -${1 + ((i * 7) % 400)} ${1 + ((i * 13 + 5) % 400)} 0`).join("\n")}\n`);
+    const r = sh(`node ${BIN} oracle ${big} --basis clifford+t --report ${report} | head -c 10 > /dev/null; echo "\${PIPESTATUS[0]}"`);
+    expect(r.stdout.trim()).toBe("0");
+    expect(JSON.parse(readFileSync(report, "utf8"))).toHaveProperty("qubits");
+    expect(leftovers(dir)).toEqual([]);
+  });
   it("refuses a path that names a folder (a trailing slash or dot) instead of replacing the file before it", () => {
     const file = join(dir, "kept.txt");
     writeFileSync(file, "kept\n");

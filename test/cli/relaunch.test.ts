@@ -1,7 +1,7 @@
 // A command over a large input runs in a child process with glibc's mmap threshold fixed
 // (src/cli/relaunch.ts): when that happens, and that the child's end is the command's end.
 import { spawn } from "node:child_process";
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
@@ -87,6 +87,30 @@ describe("the child is the command", () => {
     const r = await ended;
     expect(environ.split("\0")).toContain("MALLOC_MMAP_THRESHOLD_=1048576");
     expect(r.signal === "SIGTERM" || r.code === 143).toBe(true);
+  }, 60_000);
+});
+
+describe("the child without its parent", () => {
+  it.skipIf(!glibc || process.platform !== "linux")("stops and writes nothing when the command's process is killed outright", async () => {
+    const out = mkdtempSync(join(dir, "kill-"));
+    // It waits for a circuit on standard input, then would write a report: killed before.
+    const child = spawn(process.execPath, [join(ROOT, "dist/src/cli/bin.js"), "verify", large, "--circuit", "-"], { stdio: ["pipe", "ignore", "ignore"] });
+    const ended = new Promise<void>((done) => child.on("exit", () => done()));
+    let grandchild = "";
+    const start = Date.now();
+    while (Date.now() - start < 20_000 && grandchild === "") {
+      const children = `/proc/${child.pid}/task/${child.pid}/children`;
+      grandchild = existsSync(children) ? readFileSync(children, "utf8").trim().split(/\s+/)[0] ?? "" : "";
+      if (grandchild === "") await new Promise((r) => setTimeout(r, 20));
+    }
+    expect(grandchild).not.toBe("");
+    child.kill("SIGKILL");
+    await ended;
+    // The grandchild notices at once (its channel closes) and is gone.
+    const gone = Date.now();
+    while (Date.now() - gone < 10_000 && existsSync(`/proc/${grandchild}`)) await new Promise((r) => setTimeout(r, 20));
+    expect(existsSync(`/proc/${grandchild}`)).toBe(false);
+    expect(readdirSync(out)).toEqual([]);
   }, 60_000);
 });
 
