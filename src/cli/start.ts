@@ -1,21 +1,6 @@
-// The command itself, in the process that runs it (see bin.ts and relaunch.ts).
+// The command itself (bin.ts imports this after exposeGc.ts).
 import { discardOutputs, settleOnClosedReader } from "./output.js";
 import { main } from "./main.js";
-import { RELAUNCHED_VARIABLE } from "./relaunch.js";
-
-// Relaunched (relaunch.ts): when the command's first process goes away, even killed outright,
-// this run stops without moving any output into place (status 129, as for a hangup). Not
-// inherited by what this process starts.
-if (process.env[RELAUNCHED_VARIABLE] === "1") {
-  delete process.env[RELAUNCHED_VARIABLE];
-  if (process.channel !== undefined) {
-    process.channel.unref();
-    process.once("disconnect", () => {
-      discardOutputs();
-      process.exit(129);
-    });
-  }
-}
 
 process.stdout.on("error", (e: NodeJS.ErrnoException) => {
   // A reader that stops early (clausegate oracle f.cnf | head) is not an error.
