@@ -36,3 +36,19 @@ describe("the clean-up handler for signals", () => {
     expect(process.listenerCount("SIGINT")).toBe(before);
   });
 });
+
+describe("an in-process run with standard output stubbed", () => {
+  it("settles and moves its files into place (the commit waits on no write callback)", async () => {
+    const report = join(dir, "inproc-report.json");
+    const quiet = vi.spyOn(process.stdout, "write").mockImplementation(() => true);
+    let code: number;
+    try {
+      code = await main(["oracle", EXAMPLE, "--report", report]);
+    } finally {
+      quiet.mockRestore();
+      resetOutputs();
+    }
+    expect(code).toBe(0);
+    expect(JSON.parse(readFileSync(report, "utf8"))).toHaveProperty("qubits");
+  });
+});
