@@ -1,7 +1,7 @@
 /** CLI plumbing: loading inputs, printing diagnostics, atomic writes, progress bars, exit codes. */
 import { Bar, Presets } from "cli-progress";
 import { formatDiagnostic, readDimacsSource, type Cnf, type Diagnostic } from "../internal.js";
-import { noteInput, writeOutput } from "./output.js";
+import { noteInput, writeOutput, writeStdout } from "./output.js";
 
 /** Exit codes: 0 success, 1 a check failed, 2 bad input or usage, 3 unsatisfiable (plan). */
 export const EXIT_BAD_INPUT = 2;
@@ -103,10 +103,8 @@ export function writeAtomic(path: string, produce: (write: (chunk: string) => vo
   writeOutput(path, what, produce, stream);
 }
 
-/** Writes to standard output in order (synchronous for files and pipes on Linux, so nothing piles up). */
-export function writeStdout(chunk: string): void {
-  process.stdout.write(chunk);
-}
+/** Writes to standard output in order (output.ts's: the commit then knows something was streamed). */
+export { writeStdout };
 
 /** "12 s", "3 min 5 s", "1 h 2 min": a remaining time for the progress bar. */
 export function etaText(seconds: number): string {
